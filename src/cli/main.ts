@@ -1,0 +1,73 @@
+#!/usr/bin/env node
+/**
+ * The heliochron command line: a thin layer over the library.
+ * Each command's options are declared in its light `*Spec.ts` file; the command's
+ * work is imported only when it runs, so that every command loads only what it needs.
+ */
+import { readFileSync, realpathSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
+import { Command, CommanderError } from 'commander';
+import { HeliochronError } from '../errors.js';
+import { processIo, type CliIo } from './io.js';
+import { registerSun } from './sunSpec.js';
+import { registerCalendar } from './calendarSpec.js';
+
+/** Each entry adds one command to the program. Add new commands here, one line each. */
+const COMMANDS: ReadonlyArray<(program: Command, io: CliIo) => void> = [
+  registerSun,
+  registerCalendar,
+];
+
+export const EXIT_BAD_INPUT = 2;
+
+export async function main(argv: readonly string[], io: CliIo = processIo()): Promise<number> {
+  const program = new Command();
+  program
+    .name('heliochron')
+    .description('Date a depicted outdoor scene from its sunlight.')
+    .version(VERSION)
+    .exitOverride()
+    .configureOutput({ writeOut: io.out, writeErr: io.err })
+    .showHelpAfterError('(add --help for the options)');
+  for (const register of COMMANDS) register(program, io);
+  try {
+    await program.parseAsync(argv as string[], { from: 'user' });
+    return 0;
+  } catch (error) {
+    if (error instanceof CommanderError) {
+      if (error.code === 'commander.helpDisplayed' || error.code === 'commander.version' || error.exitCode === 0) return 0;
+      return EXIT_BAD_INPUT; // commander has printed its message already
+    }
+    if (error instanceof HeliochronError && error.kind !== 'convergence') {
+      io.err(`heliochron: ${error.message}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    throw error;
+  }
+}
+
+/** The package version, read once from package.json beside dist/. */
+export const VERSION: string = (
+  JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string }
+).version;
+
+/** True when this file is the program being run (also through the npm bin link). */
+function isMain(): boolean {
+  try {
+    return process.argv[1] !== undefined && import.meta.url === pathToFileURL(realpathSync(process.argv[1])).href;
+  } catch {
+    return false;
+  }
+}
+
+if (isMain()) {
+  main(process.argv.slice(2)).then(
+    (code) => {
+      process.exitCode = code;
+    },
+    (error: unknown) => {
+      process.stderr.write(`heliochron: internal error (please report): ${error instanceof Error ? error.message : String(error)}\n`);
+      process.exitCode = 70;
+    },
+  );
+}

@@ -1,0 +1,78 @@
+/**
+ * Error classes of heliochron: one base class and a few named kinds.
+ *
+ * The CLI maps every HeliochronError of kind 'invalid-input' or 'unsupported'
+ * to exit code 2 with its message on one line; anything else is a defect.
+ */
+
+export type ErrorKind = 'invalid-input' | 'convergence' | 'unsupported' | 'output';
+
+/** Base class of every error heliochron raises on purpose. */
+export class HeliochronError extends Error {
+  readonly kind: ErrorKind;
+  constructor(kind: ErrorKind, message: string) {
+    super(message);
+    this.name = new.target.name;
+    this.kind = kind;
+  }
+}
+
+/** Quote a received value for a message: strings in quotes, others as JSON, long ones shortened. */
+export function quoteValue(value: unknown): string {
+  let text: string;
+  if (typeof value === 'string') text = JSON.stringify(value);
+  else if (typeof value === 'number') text = Number.isNaN(value) ? 'NaN' : String(value);
+  else if (value === undefined) text = 'nothing';
+  else {
+    try {
+      text = JSON.stringify(value) ?? String(value);
+    } catch {
+      text = String(value);
+    }
+  }
+  return text.length > 80 ? `${text.slice(0, 77)}...` : text;
+}
+
+/**
+ * Bad input: names the field (an option such as `--lat`, or a path in a scene
+ * file such as `walls[1].azimuthDeg`), quotes the value and says what is allowed.
+ * @example new InvalidInputError('--lat', 95, 'a latitude from -90 to 90 degrees')
+ *   // message: "--lat: 95 is not allowed; expected a latitude from -90 to 90 degrees"
+ */
+export class InvalidInputError extends HeliochronError {
+  readonly field: string;
+  readonly value: unknown;
+  readonly allowed: string;
+  constructor(field: string, value: unknown, allowed: string, detail?: string) {
+    super(
+      'invalid-input',
+      `${field}: ${quoteValue(value)} is not allowed; expected ${allowed}${detail ? `. ${detail}` : ''}`,
+    );
+    this.field = field;
+    this.value = value;
+    this.allowed = allowed;
+  }
+}
+
+/** An iteration that did not converge within its bound. */
+export class ConvergenceError extends HeliochronError {
+  readonly iterations: number;
+  constructor(what: string, iterations: number) {
+    super('convergence', `${what} did not converge after ${iterations} iterations`);
+    this.iterations = iterations;
+  }
+}
+
+/** A request outside what heliochron supports (a date range, a model). */
+export class UnsupportedError extends HeliochronError {
+  constructor(message: string) {
+    super('unsupported', message);
+  }
+}
+
+/** A refusal to write output (file exists, output equals input). */
+export class OutputError extends HeliochronError {
+  constructor(message: string) {
+    super('output', message);
+  }
+}

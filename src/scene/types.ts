@@ -1,0 +1,253 @@
+/**
+ * The scene model: what a scholar states about a depicted place and its light.
+ *
+ * These are the validated, in-memory forms produced by the scene reader
+ * (src/scene/readScene.ts) from a YAML or JSON scene file. Field names carry
+ * their unit; every measured number has its sigma beside it. Conventions
+ * (azimuth origin, wall axes, pixel axes) are in docs/conventions.md.
+ */
+
+/** A point in image pixels: x to the right, y down, origin at the top-left corner of the top-left pixel. */
+export type PixelPoint = readonly [xPx: number, yPx: number];
+
+/** A point in a wall's own plane, metres: u to the right and v up, as seen from outside facing the wall. */
+export type WallPoint = readonly [uM: number, vM: number];
+
+/** A point on level ground, metres east and north of an arbitrary site origin. */
+export type GroundPoint = readonly [eastM: number, northM: number];
+
+/** A point in site coordinates, metres east, north and up. */
+export type SitePoint = readonly [eastM: number, northM: number, upM: number];
+
+export interface Site {
+  readonly latitudeDeg: number; // north positive, [-90, 90]
+  readonly longitudeDeg: number; // east positive, [-180, 180]
+  readonly elevationM: number;
+  readonly latitudeSigmaDeg: number; // 0 = known exactly
+  readonly longitudeSigmaDeg: number;
+}
+
+/** Which civil calendar was in force: fixed, a region of data/calendar-reforms.json, or a user's own switch. */
+export type CalendarRule =
+  | { readonly kind: 'julian' }
+  | { readonly kind: 'gregorian' }
+  | { readonly kind: 'region'; readonly regionId: string }
+  | {
+      readonly kind: 'switch';
+      /** Last Julian civil day, Julian calendar. */
+      readonly lastJulian: { readonly year: number; readonly month: number; readonly day: number };
+      /** First Gregorian civil day, Gregorian calendar. */
+      readonly firstGregorian: { readonly year: number; readonly month: number; readonly day: number };
+    };
+
+/** Where the numbered year began (src/calendar/yearStart.ts). */
+export type YearStartStyle =
+  | 'jan1' // 1 January (circumcision style / modern)
+  | 'mar25-forward' // 25 March following 1 January (annunciation style, Florentine / English)
+  | 'mar25-backward' // 25 March preceding 1 January (Pisan style)
+  | 'mar1' // 1 March (Venetian style)
+  | 'dec25'; // 25 December (nativity style)
+
+/** What a clock kept (src/time/clock.ts). */
+export type ClockKind =
+  | { readonly kind: 'apparent' } // local apparent (sundial) time at the site
+  | { readonly kind: 'mean' } // local mean time at the site's longitude
+  | { readonly kind: 'meridian'; readonly longitudeDeg: number } // mean time of another meridian
+  | { readonly kind: 'zone'; readonly zone: string } // IANA zone through luxon
+  | { readonly kind: 'ut' };
+
+/** A civil date as written in the site's calendar (after year-start normalisation: year begins 1 January). */
+export interface CivilDay {
+  readonly year: number; // astronomical numbering
+  readonly month: number; // 1-12
+  readonly day: number; // 1-31
+}
+
+export interface DateWindow {
+  readonly fromYear: number; // inclusive, astronomical numbering, historical (January-start) years
+  readonly toYear: number; // inclusive
+  readonly notBefore?: CivilDay; // documentary bound, civil date in the site's calendar
+  readonly notAfter?: CivilDay;
+  /** Allowed months (1-12) in the site's civil calendar; empty or absent = all. */
+  readonly months?: readonly number[];
+  /** Allowed weekday, 0 = Sunday ... 6 = Saturday. */
+  readonly weekday?: number;
+}
+
+/** Air for refraction; absent means standard air (1010 hPa, 10 C). */
+export interface Air {
+  readonly pressureHPa: number;
+  readonly temperatureC: number;
+}
+
+/** The picture the pixel measurements were taken on. */
+export interface ImageInfo {
+  readonly widthPx: number;
+  readonly heightPx: number;
+  readonly file?: string; // JPEG or PNG beside the scene file, for the overlay only
+  readonly mirrored: boolean; // a reversed print: x is flipped before anything else
+  readonly pixelSigmaPx: number; // the user's clicking precision, default for every point
+}
+
+/** The image of a figure on a wall (or the ground) whose true shape is known. */
+export interface PlaneInImage {
+  readonly pointsPx: readonly PixelPoint[]; // at least 4
+  /** True coordinates of the same points in the plane, metres (wall: u right, v up; ground: east, north). */
+  readonly planePointsM?: readonly (readonly [number, number])[];
+  /** Or a rectangle: pointsPx are its corners in order top-left, top-right, bottom-right, bottom-left (wall) ... */
+  readonly widthM?: number;
+  readonly heightM?: number;
+  /** ... or only its aspect ratio width / height (scale then comes from the observation's own length in metres). */
+  readonly aspect?: number;
+  /** Ground rectangles only: true azimuth of the edge from the first corner to the second. */
+  readonly firstEdgeAzimuthDeg?: number;
+  readonly pointSigmaPx?: readonly number[]; // per point, else the image's pixelSigmaPx
+}
+
+export interface Wall {
+  readonly id: string;
+  /** Azimuth of the outward normal, degrees clockwise from true north, [0, 360). */
+  readonly azimuthDeg: number;
+  readonly azimuthSigmaDeg: number; // 0 = known exactly
+  /** How the azimuth was obtained, in words, for the report ("from two map points", "stated"). */
+  readonly azimuthSource: string;
+  /** The wall's plane in the picture, when observations on it are given in pixels. */
+  readonly imagePlane?: PlaneInImage;
+}
+
+/** Which way a shadow runs on a wall, as seen from outside facing the wall. */
+export type Side = 'left' | 'right';
+
+interface ObservationBase {
+  readonly id: string;
+}
+
+/** Two image points along a line, for pixel forms. */
+export interface PixelSegment {
+  readonly fromPx: PixelPoint;
+  readonly toPx: PixelPoint;
+  readonly sigmaPx?: number;
+}
+
+/** 1. Shadow of a rod standing straight out of a wall: slope of its shadow on the wall, below horizontal. */
+export interface RodShadowObservation extends ObservationBase {
+  readonly kind: 'rod-shadow';
+  readonly wallId: string;
+  readonly slopeDeg?: number; // (0, 90): angle of the shadow below the horizontal, on the frontal view
+  readonly side?: Side; // the shadow runs down to the left or to the right
+  readonly sigmaDeg?: number;
+  /** Pixel form: from the rod's root to a point further along its shadow, on the wall's imagePlane. */
+  readonly pixels?: PixelSegment;
+}
+
+/** 2. Overhang: shadow depth on the wall below the edge, over the projection depth: tan(VSA). */
+export interface OverhangShadowObservation extends ObservationBase {
+  readonly kind: 'overhang-shadow';
+  readonly wallId: string;
+  readonly depthRatio?: number; // shadow depth / projection depth, >= 0
+  readonly sigma?: number;
+  /** Pixel form: from the overhang's root line down to its shadow line, plus the projection in metres. */
+  readonly pixels?: PixelSegment & { readonly projectionM: number; readonly projectionSigmaM: number };
+}
+
+/** 3. Fin: sideways shadow width on the wall over the fin's depth: tan(|HSA|), with the side it falls to. */
+export interface FinShadowObservation extends ObservationBase {
+  readonly kind: 'fin-shadow';
+  readonly wallId: string;
+  readonly widthRatio?: number; // >= 0
+  readonly side?: Side; // the shadow falls to this side of the fin, seen from outside
+  readonly sigma?: number;
+  readonly pixels?: PixelSegment & { readonly projectionM: number; readonly projectionSigmaM: number };
+}
+
+/** 4. Vertical pole or building corner on level ground. */
+export interface PoleShadowObservation extends ObservationBase {
+  readonly kind: 'pole-shadow';
+  readonly shadowAzimuthDeg?: number; // direction from the foot to the shadow tip, clockwise from true north
+  readonly shadowAzimuthSigmaDeg?: number;
+  readonly lengthRatio?: number; // shadow length / pole height = 1 / tan(altitude)
+  readonly lengthRatioSigma?: number;
+  /** Pixel form on the ground plane: foot and shadow tip, with the pole's height in metres. */
+  readonly pixels?: PixelSegment & { readonly heightM?: number; readonly heightSigmaM?: number };
+}
+
+/** 5. Eave's shadow line on level ground: its distance out from the wall over the eave's height. */
+export interface EaveShadowObservation extends ObservationBase {
+  readonly kind: 'eave-shadow';
+  readonly wallId: string;
+  /** Distance of the shadow line from the wall foot, measured along the wall normal, over the eave's height above the ground. */
+  readonly distanceRatio: number;
+  readonly sigma: number;
+  /** How far the eave edge stands out from the wall, over its height; 0 when the edge is on the wall plane. */
+  readonly projectionRatio: number;
+}
+
+/** 6. A caster point and its shadow point, surveyed, site coordinates. */
+export interface ShadowPointsObservation extends ObservationBase {
+  readonly kind: 'shadow-points';
+  readonly caster: SitePoint;
+  readonly shadow: SitePoint;
+  readonly sigmaM: number; // per coordinate, both points
+}
+
+/** 7. A sun direction estimated by other means. */
+export interface SunDirectionObservation extends ObservationBase {
+  readonly kind: 'sun-direction';
+  readonly azimuthDeg: number;
+  readonly azimuthSigmaDeg: number;
+  readonly altitudeDeg: number;
+  readonly altitudeSigmaDeg: number;
+}
+
+/** 8. Facts without numbers. */
+export interface WallLightObservation extends ObservationBase {
+  readonly kind: 'wall-lit' | 'wall-shaded';
+  readonly wallId: string;
+}
+export interface SunUpObservation extends ObservationBase {
+  readonly kind: 'sun-up';
+}
+
+/** 9. A clock in the picture. */
+export interface ClockObservation extends ObservationBase {
+  readonly kind: 'clock';
+  readonly readingMinutes: number; // minutes after midnight as read, [0, 1440) (12-hour dials: [0, 720))
+  readonly precisionMinutes: number; // sigma of the reading
+  readonly hourHandTrusted: boolean; // false: known only modulo one hour
+  readonly dialHours: 12 | 24;
+  /** What the clock kept; 'unknown' means each kind is tried and reported. */
+  readonly kept: ClockKind | { readonly kind: 'unknown' };
+}
+
+export type Observation =
+  | RodShadowObservation
+  | OverhangShadowObservation
+  | FinShadowObservation
+  | PoleShadowObservation
+  | EaveShadowObservation
+  | ShadowPointsObservation
+  | SunDirectionObservation
+  | WallLightObservation
+  | SunUpObservation
+  | ClockObservation;
+
+export type ObservationKind = Observation['kind'];
+
+export interface Scene {
+  readonly formatVersion: 1;
+  readonly title: string;
+  readonly site: Site;
+  readonly calendar: CalendarRule;
+  readonly yearStart: YearStartStyle;
+  readonly window: DateWindow;
+  readonly air?: Air;
+  /** Added to map bearings (magnetic or grid north) to get true bearings, degrees. */
+  readonly mapNorthCorrectionDeg: number;
+  readonly image?: ImageInfo;
+  /** The level ground in the picture, when ground observations are given in pixels. */
+  readonly groundPlane?: PlaneInImage;
+  readonly walls: readonly Wall[];
+  readonly observations: readonly Observation[];
+  /** Seed for every Monte Carlo run, printed in every report. */
+  readonly seed: number;
+}
