@@ -1,0 +1,99 @@
+/**
+ * Options of `heliochron sun`: light, loaded with the program; the work is in sunCommand.ts.
+ */
+import type { Command } from 'commander';
+import type { CliIo } from './io.js';
+
+export const SUN_DEFAULTS = {
+  elevation: '0',
+  calendar: 'gregorian',
+  clock: 'mean',
+  pressure: '1010',
+  temperature: '10',
+  step: '30',
+} as const;
+
+/** The options as the command receives them (strings, validated in sunCommand.ts). */
+export interface SunOptions {
+  readonly lat?: string;
+  readonly lon?: string;
+  readonly elevation: string;
+  readonly date?: string;
+  readonly calendar: string;
+  readonly time?: string;
+  readonly clock: string;
+  readonly pressure: string;
+  readonly temperature: string;
+  readonly json: boolean;
+  readonly day: boolean;
+  readonly step: string;
+  /** Names of the options left at their defaults, to say so in the answer. */
+  readonly defaulted: readonly string[];
+}
+
+export function registerSun(program: Command, io: CliIo): void {
+  program
+    .command('sun')
+    .summary('the sun at a site and moment: azimuth, altitude, declination, hour angle, equation of time, time scales')
+    .description(
+      'The sun as seen from a site at one moment - azimuth (clockwise from true north), altitude refracted and geometric, ' +
+        'declination, hour angle, equation of time - with every time scale of that moment (UT, TT with Delta T and its ' +
+        'uncertainty, local apparent and mean time, the clock given), the civil date in both calendars, weekday and Julian Day. ' +
+        'With --day: the whole day as a table between sunrise and sunset.',
+    )
+    .option('--lat <deg>', 'latitude in degrees, north positive (-90 to 90)')
+    .option('--lon <deg>', 'longitude in degrees, east positive (-180 to 180)')
+    .option('--elevation <m>', 'height above sea level in metres', SUN_DEFAULTS.elevation)
+    .option('--date <date>', 'the civil day: 1650-03-10, -0043-03-15 (astronomical years), 44-03-15 BC, "10 March 1650"')
+    .option(
+      '--calendar <rule>',
+      "calendar the date is written in: 'gregorian' (proleptic before 1582), 'julian', a region id " +
+        "(see heliochron calendar --list-regions) or 'switch:YYYY-MM-DD/YYYY-MM-DD'",
+      SUN_DEFAULTS.calendar,
+    )
+    .option('--time <hh:mm[:ss]>', 'time of day on the clock given by --clock (not needed with --day)')
+    .option(
+      '--clock <kind>',
+      "what the time was kept in: 'apparent' (sundial), 'mean' (local mean time), 'meridian:<deg>' (mean time of that " +
+        "meridian, east positive), 'zone:<IANA name>' (e.g. zone:Europe/Zurich; from 1847 on, or local mean time where the " +
+        "zone database starts with it), 'ut'",
+      SUN_DEFAULTS.clock,
+    )
+    .option('--pressure <hPa>', 'air pressure for refraction, hPa', SUN_DEFAULTS.pressure)
+    .option('--temperature <C>', 'air temperature for refraction, degrees Celsius', SUN_DEFAULTS.temperature)
+    .option('--json', 'print one JSON object instead of text')
+    .option('--day', 'print the whole day: sunrise, transit, sunset and a table every --step minutes')
+    .option('--step <minutes>', 'table step for --day, minutes', SUN_DEFAULTS.step)
+    .addHelpText(
+      'after',
+      '\nNothing is guessed silently: without --calendar the date is read in the proleptic Gregorian calendar, without\n' +
+        '--clock the time is local mean time, without --pressure/--temperature refraction uses 1010 hPa and 10 C, and\n' +
+        'every answer lists the defaults it used. Examples (Velmar, 47.62 N 9.35 E):\n' +
+        '  heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30 --clock apparent\n' +
+        '  heliochron sun --lat 47.62 --lon 9.35 --date 1890-06-15 --time 16:00 --clock zone:Europe/Zurich --json\n' +
+        '  heliochron sun --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --day --step 60\n',
+    )
+    .action(async (options: Record<string, unknown>, command: Command) => {
+      const { run } = await import('./sunCommand.js');
+      const defaulted = ['elevation', 'calendar', 'clock', 'pressure', 'temperature', 'step'].filter(
+        (name) => command.getOptionValueSource(name) === 'default',
+      );
+      const text = (name: string): string | undefined => (options[name] === undefined ? undefined : String(options[name]));
+      const sunOptions: SunOptions = {
+        lat: text('lat'),
+        lon: text('lon'),
+        elevation: String(options.elevation),
+        date: text('date'),
+        calendar: String(options.calendar),
+        time: text('time'),
+        clock: String(options.clock),
+        pressure: String(options.pressure),
+        temperature: String(options.temperature),
+        json: options.json === true,
+        day: options.day === true,
+        step: String(options.step),
+        defaulted,
+      };
+      run([], sunOptions, io);
+    });
+}

@@ -1,0 +1,116 @@
+/**
+ * The sun's place in the sky for an instant (UT Julian Day) and a site: topocentric apparent
+ * azimuth and altitude (with and without refraction), right ascension, declination, local
+ * hour angle, and the equation of time.
+ *
+ * Model: astronomy-engine (VSOP87 for the Earth, IAU 2006 precession, IAU 2000B nutation,
+ * annual aberration, light time, topocentric parallax with the WGS-84 ellipsoid); its
+ * `Horizon(..., undefined)` gives the geometric altitude, and our refraction
+ * (src/ephemeris/refraction.ts, Reda and Andreas 2008 eq. 42) is added.
+ * Accuracy: agrees with the NREL SPA worked example (Reda and Andreas 2008, Table A5.1)
+ * to better than 0.001 deg in azimuth and zenith when the same Delta T is used
+ * (tests/ephemeris/sunPosition.test.ts). Against astronomia's Meeus/VSOP87D (10,000 random
+ * instants 1000-2100, tests/ephemeris/crossCheckAstronomia.test.ts) the largest difference is
+ * 0.008 deg, growing with distance from 2000 (0.0006 deg over 1900-2100, 0.002 deg around
+ * 1600, 0.008 deg around 1000-1200); which side errs there is not settled. astronomy-engine's own accuracy is about 1 arcminute
+ * or better for the sun over several millennia. Given the instant in UT (as every clock
+ * reading is), Delta T only moves the sun along its orbit, 0.041" per second of Delta T:
+ * even its 640 s sigma at -1000 is 0.007 deg. (Were the instant known in TT, each second of
+ * Delta T would turn the Earth by 15".)
+ * Leaves out: refraction below the horizon (see refraction.ts), the horizon dip of a raised observer.
+ */
+import { Body, EquatorFromVector, Horizon, Observer, ObserverVector, RotateVector, Rotation_EQJ_EQD, SiderealTime, Vector, GeoVector, type AstroTime } from 'astronomy-engine';
+import type { Air } from '../scene/types.js';
+import { normalizeDeg180 } from '../math/angles.js';
+import { astroTimeFromJdUT } from './engine.js';
+import { refractionDeg } from './refraction.js';
+
+/** A site on the Earth: degrees (latitude north positive, longitude east positive), metres above sea level. */
+export interface SunSite {
+  readonly latitudeDeg: number;
+  readonly longitudeDeg: number;
+  readonly elevationM: number;
+}
+
+/** The sun as seen from a site at one instant. Degrees throughout; see docs/conventions.md. */
+export interface SunPosition {
+  readonly jdUT: number;
+  readonly jdTT: number;
+  /** Clockwise from true north, [0, 360). */
+  readonly azimuthDeg: number;
+  /** Apparent altitude: refracted unless air === 'none'. */
+  readonly altitudeDeg: number;
+  /** Geometric (unrefracted) topocentric altitude of the sun's centre. */
+  readonly geometricAltitudeDeg: number;
+  /** Topocentric apparent declination, true equator and equinox of date. */
+  readonly declinationDeg: number;
+  /** Topocentric apparent right ascension, degrees [0, 360). */
+  readonly rightAscensionDeg: number;
+  /** Local hour angle, (-180, 180], negative before transit. */
+  readonly hourAngleDeg: number;
+  /** Apparent minus mean solar time, minutes (geocentric). */
+  readonly equationOfTimeMinutes: number;
+}
+
+/** Options for checks against published examples. */
+export interface SunPositionOptions {
+  /** Use this Delta T (TT - UT, seconds) instead of the Espenak-Meeus model. */
+  readonly deltaTSeconds?: number;
+  /** false: geocentric (no parallax) instead of topocentric. Default true. */
+  readonly topocentric?: boolean;
+}
+
+/** Geocentric apparent position vector of the sun, true equator and equinox of date (AU). */
+export function geocentricSunOfDate(time: AstroTime): Vector {
+  // astronomy-engine GeoVector with aberration, then precession-nutation J2000 -> of date.
+  return RotateVector(Rotation_EQJ_EQD(time), GeoVector(Body.Sun, time, true));
+}
+
+/**
+ * Equation of time in minutes from the sun's geocentric apparent right ascension:
+ * E = (Greenwich hour angle of the true sun) - (Greenwich hour angle of the mean sun),
+ * GHA_true = GAST - RA (Meeus 1998, ch. 12 and 13), GHA_mean = 15 deg x UT hours - 180 deg,
+ * because mean solar time at Greenwich is UT by definition (Explanatory Supplement to the
+ * Astronomical Almanac, 1992, sec. 2.24). Positive: the sundial is ahead of the mean clock.
+ */
+export function equationOfTimeFromRaMinutes(jdUT: number, gastHours: number, raHours: number): number {
+  const utFraction = jdUT - 0.5 - Math.floor(jdUT - 0.5);
+  const trueGhaDeg = 15 * (gastHours - raHours);
+  const meanGhaDeg = 360 * utFraction - 180;
+  return 4 * normalizeDeg180(trueGhaDeg - meanGhaDeg);
+}
+
+/**
+ * The sun at instant jdUT seen from `site`.
+ * @param air refraction air; absent = standard air (1010 hPa, 10 C); 'none' = geometric altitude.
+ * @example sunPosition(2452930.312847, { latitudeDeg: 39.742476, longitudeDeg: -105.1786, elevationM: 1830.14 },
+ *   { pressureHPa: 820, temperatureC: 11 }, { deltaTSeconds: 67 }).azimuthDeg // 194.340
+ */
+export function sunPosition(jdUT: number, site: SunSite, air?: Air | 'none', options?: SunPositionOptions): SunPosition {
+  const time = astroTimeFromJdUT(jdUT, options?.deltaTSeconds);
+  const observer = new Observer(site.latitudeDeg, site.longitudeDeg, site.elevationM);
+  const geo = geocentricSunOfDate(time);
+  let seen = geo;
+  if (options?.topocentric !== false) {
+    // Topocentric: subtract the observer's geocentric position of date (astronomy-engine ObserverVector).
+    const obs = ObserverVector(time, observer, true);
+    seen = new Vector(geo.x - obs.x, geo.y - obs.y, geo.z - obs.z, time);
+  }
+  const eq = EquatorFromVector(seen);
+  const hor = Horizon(time, observer, eq.ra, eq.dec, undefined);
+  const gastHours = SiderealTime(time);
+  const geometricAltitudeDeg = hor.altitude;
+  const altitudeDeg = geometricAltitudeDeg + refractionDeg(geometricAltitudeDeg, air);
+  const geoRaHours = seen === geo ? eq.ra : EquatorFromVector(geo).ra;
+  return {
+    jdUT,
+    jdTT: time.tt + 2451545.0,
+    azimuthDeg: hor.azimuth,
+    altitudeDeg,
+    geometricAltitudeDeg,
+    declinationDeg: eq.dec,
+    rightAscensionDeg: eq.ra * 15,
+    hourAngleDeg: normalizeDeg180(15 * gastHours + site.longitudeDeg - 15 * eq.ra),
+    equationOfTimeMinutes: equationOfTimeFromRaMinutes(jdUT, gastHours, geoRaHours),
+  };
+}

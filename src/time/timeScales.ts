@@ -1,0 +1,83 @@
+/**
+ * Conversions between Universal Time (UT, the Earth's rotation) and Terrestrial Time
+ * (TT, uniform), both as Julian Days. This is the only module that converts between them.
+ *
+ * TT = UT + Delta T, Delta T from src/time/deltaT.ts (Espenak and Meeus 2006).
+ * The decimal year fed to Delta T comes from our own calendar code, never from Date:
+ * the Julian calendar before 1582-10-15 (as in Espenak and Meeus's canon, whose dates
+ * before then are Julian), the Gregorian from then on.
+ */
+import { calendarDateToJd, jdToCalendarDate, type CalendarKind } from '../calendar/julianDay.js';
+import { ConvergenceError } from '../errors.js';
+import { deltaT, deltaTSeconds, type DeltaTValue } from './deltaT.js';
+
+/** Seconds per day (exact by definition). */
+export const SECONDS_PER_DAY = 86400;
+/** JD of 1582-10-15 0h (Gregorian), the first Gregorian day in Rome (Meeus 1998, ch. 7). */
+export const GREGORIAN_EPOCH_JD = 2299160.5;
+
+/**
+ * Continuous decimal year of a Julian Day: year + (days since 1 January 0h) / (days in that year),
+ * in the Julian calendar before 1582-10-15 and the Gregorian after. At the middle of a month this
+ * equals Espenak and Meeus's y = year + (month - 0.5) / 12 to within about two days.
+ * @example jdToDecimalYear(2451544.5) // 2000.0 (2000-01-01 0h)
+ */
+export function jdToDecimalYear(jd: number): number {
+  const calendar: CalendarKind = jd < GREGORIAN_EPOCH_JD ? 'julian' : 'gregorian';
+  const { date } = jdToCalendarDate(jd, calendar);
+  const start = calendarDateToJd({ calendar, year: date.year, month: 1, day: 1 });
+  const next = calendarDateToJd({ calendar, year: date.year + 1, month: 1, day: 1 });
+  return date.year + (jd - start) / (next - start);
+}
+
+/** Delta T (TT - UT) at an instant given as a UT Julian Day, with its sigma. */
+export function deltaTAtJdUT(jdUT: number): DeltaTValue {
+  return deltaT(jdToDecimalYear(jdUT));
+}
+
+/**
+ * Terrestrial Time of an instant given in Universal Time.
+ * @example jdUTToJdTT(2451545.0) // 2451545.0 + 63.83 s / 86400
+ */
+export function jdUTToJdTT(jdUT: number): number {
+  return jdUT + deltaTSeconds(jdToDecimalYear(jdUT)) / SECONDS_PER_DAY;
+}
+
+/** Result of the bounded TT -> UT iteration. */
+export interface JdUTSolution {
+  readonly jdUT: number;
+  readonly converged: boolean;
+  readonly iterations: number;
+  /** |TT - (UT + Delta T(UT))| left, days. */
+  readonly residualDays: number;
+}
+
+const MAX_ITERATIONS = 20;
+const TOLERANCE_DAYS = 1e-10; // about 10 microseconds
+
+/**
+ * Universal Time of an instant given in Terrestrial Time, by fixed-point iteration
+ * UT <- TT - Delta T(UT) (Delta T changes by less than 0.1 s per day at any epoch, so
+ * each step gains about six digits). Bounded: at most 20 steps; reports how it ended.
+ */
+export function jdTTToJdUTSolution(jdTT: number): JdUTSolution {
+  let jdUT = jdTT - deltaTSeconds(jdToDecimalYear(jdTT)) / SECONDS_PER_DAY;
+  let residualDays = Infinity;
+  for (let i = 1; i <= MAX_ITERATIONS; i += 1) {
+    const next = jdTT - deltaTSeconds(jdToDecimalYear(jdUT)) / SECONDS_PER_DAY;
+    residualDays = Math.abs(next - jdUT);
+    jdUT = next;
+    if (residualDays < TOLERANCE_DAYS) return { jdUT, converged: true, iterations: i, residualDays };
+  }
+  return { jdUT, converged: false, iterations: MAX_ITERATIONS, residualDays };
+}
+
+/**
+ * Universal Time of an instant given in Terrestrial Time; throws ConvergenceError if the
+ * bounded iteration does not settle (not seen in practice: Delta T is smooth).
+ */
+export function jdTTToJdUT(jdTT: number): number {
+  const s = jdTTToJdUTSolution(jdTT);
+  if (!s.converged) throw new ConvergenceError('TT to UT conversion', s.iterations);
+  return s.jdUT;
+}
