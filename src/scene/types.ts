@@ -113,6 +113,8 @@ export interface Wall {
   readonly azimuthSource: string;
   /** The wall's plane in the picture, when observations on it are given in pixels. */
   readonly imagePlane?: PlaneInImage;
+  /** The scholar's own words about this wall, carried into the report. */
+  readonly note?: string;
 }
 
 /** Which way a shadow runs on a wall, as seen from outside facing the wall. */
@@ -120,6 +122,8 @@ export type Side = 'left' | 'right';
 
 interface ObservationBase {
   readonly id: string;
+  /** The scholar's own words about this observation, carried into the report. */
+  readonly note?: string;
 }
 
 /** Two image points along a line, for pixel forms. */

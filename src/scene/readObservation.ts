@@ -1,0 +1,275 @@
+/**
+ * The observations of a scene file, one reader per kind. Each measured number
+ * must come with its sigma; each observation on a wall must name a known wall;
+ * a pixel form replaces the numeric form of the same observation (not both).
+ */
+import { InvalidInputError } from '../errors.js';
+import { parseClockKind } from '../time/clock.js';
+import { closestWord } from './didYouMean.js';
+import {
+  checkChoice, checkList, checkNumber, has, itemPath, keyPath, missing, num, openFields, optBool, optNum,
+  optStr, raw, str, type Fields, type NumberRule,
+} from './fields.js';
+import { needImage, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
+import type { ClockObservation, ImageInfo, Observation, ObservationKind, PlaneInImage, SitePoint, Wall } from './types.js';
+
+export const OBSERVATION_KINDS: readonly ObservationKind[] = [
+  'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
+  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock',
+];
+
+/** Identifiers of walls and observations: letters, digits, '-', '_', '.'. */
+export const ID_PATTERN = /^[\p{L}\p{N}][\p{L}\p{N}_.\-]{0,63}$/u;
+export const ID_WORDS = 'an id of letters, digits, "-", "_" or ".", starting with a letter or digit, at most 64 characters';
+export const NOTE_MAX = 2000;
+
+const SIDES = ['left', 'right'] as const;
+const ANGLE_SIGMA: NumberRule = { words: 'a sigma in degrees', min: 0, max: 45, minExclusive: true };
+const RATIO: NumberRule = { words: 'a ratio (no unit)', min: 0, max: 1000 };
+const RATIO_SIGMA: NumberRule = { words: 'a sigma of the ratio (no unit)', min: 0, max: 1000, minExclusive: true };
+const LENGTH_M: NumberRule = { words: 'a length in metres', min: 0, max: 10_000, minExclusive: true };
+const LENGTH_SIGMA_M: NumberRule = { words: 'a sigma in metres', min: 0, max: 10_000 };
+const AZIMUTH: NumberRule = { words: 'an azimuth in degrees clockwise from true north', min: 0, max: 360, maxExclusive: true };
+const SITE_COORD: NumberRule = { words: 'a site coordinate in metres', min: -100_000, max: 100_000 };
+
+/** What the reader knows when it reads the observations. */
+export interface ObservationContext {
+  readonly walls: ReadonlyMap<string, Wall>;
+  readonly image: ImageInfo | undefined;
+  readonly groundPlane: PlaneInImage | undefined;
+}
+
+const COMMON = ['id', 'kind', 'note'];
+const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
+  'rod-shadow': [...COMMON, 'wall', 'slopeDeg', 'side', 'sigmaDeg', 'pixels'],
+  'overhang-shadow': [...COMMON, 'wall', 'depthRatio', 'sigma', 'pixels'],
+  'fin-shadow': [...COMMON, 'wall', 'widthRatio', 'side', 'sigma', 'pixels'],
+  'pole-shadow': [...COMMON, 'shadowAzimuthDeg', 'shadowAzimuthSigmaDeg', 'lengthRatio', 'lengthRatioSigma', 'pixels'],
+  'eave-shadow': [...COMMON, 'wall', 'distanceRatio', 'sigma', 'projectionRatio'],
+  'shadow-points': [...COMMON, 'caster', 'shadow', 'sigmaM'],
+  'sun-direction': [...COMMON, 'azimuthDeg', 'azimuthSigmaDeg', 'altitudeDeg', 'altitudeSigmaDeg'],
+  'wall-lit': [...COMMON, 'wall'],
+  'wall-shaded': [...COMMON, 'wall'],
+  'sun-up': [...COMMON],
+  clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
+};
+
+/** The keys an observation of each kind may hold (for the schema test and the docs). */
+export function observationKeys(kind: ObservationKind): readonly string[] {
+  return KEYS[kind];
+}
+
+function wallRef(f: Fields, ctx: ObservationContext): Wall {
+  const known = [...ctx.walls.keys()];
+  const knownWords = known.length ? `the id of a wall of this scene: ${known.map((k) => `"${k}"`).join(', ')}` : 'the id of a wall, but the scene lists no walls';
+  if (!has(f, 'wall')) throw missing(f, 'wall', knownWords);
+  const value = raw(f, 'wall');
+  const wall = typeof value === 'string' ? ctx.walls.get(value) : undefined;
+  if (wall === undefined) {
+    const near = typeof value === 'string' ? closestWord(value, known) : undefined;
+    throw new InvalidInputError(keyPath(f.path, 'wall'), value, knownWords, near ? `Did you mean "${near}"?` : undefined);
+  }
+  return wall;
+}
+
+/** Numeric form or pixel form: exactly one. Returns true for the pixel form. */
+function pixelForm(f: Fields, numericKeys: readonly string[], numericWords: string): boolean {
+  if (!has(f, 'pixels')) return false;
+  const mixed = numericKeys.find((k) => has(f, k));
+  if (mixed !== undefined) {
+    throw new InvalidInputError(
+      keyPath(f.path, mixed),
+      raw(f, mixed),
+      `either the ${numericWords} or "pixels", not both`,
+      'The pixel form gives the measurement itself.',
+    );
+  }
+  return true;
+}
+
+function openPixels(f: Fields, ctx: ObservationContext, extraKeys: readonly string[]): Fields {
+  const path = keyPath(f.path, 'pixels');
+  needImage(ctx.image, path, raw(f, 'pixels'));
+  return openFields(raw(f, 'pixels'), path, 'a pixel form', [...SEGMENT_KEYS, ...extraKeys]);
+}
+
+function needImagePlane(wall: Wall, f: Fields): PlaneInImage {
+  if (wall.imagePlane === undefined) {
+    throw new InvalidInputError(
+      keyPath(f.path, 'pixels'),
+      raw(f, 'pixels'),
+      `pixel measurements on wall "${wall.id}" only when that wall has an "imagePlane"`,
+      'Give the wall its imagePlane (4 or more points of known shape on it), or give the measurement as numbers.',
+    );
+  }
+  return wall.imagePlane;
+}
+
+function readSitePoint(f: Fields, key: string): SitePoint {
+  const path = keyPath(f.path, key);
+  if (!has(f, key)) throw missing(f, key, 'a site point [eastM, northM, upM]');
+  const list = checkList(raw(f, key), path, 'a site point [eastM, northM, upM]', 3, 3);
+  return [0, 1, 2].map((i) => checkNumber(list[i], itemPath(path, i), SITE_COORD)) as unknown as SitePoint;
+}
+
+/** "7:40" or "19:05:30" to minutes after midnight (or after 12 on a 12-hour dial). */
+function readClockReading(f: Fields, dialHours: 12 | 24): number {
+  const words = dialHours === 12
+    ? 'a reading "H:MM" from "12:00" (or "0:00") to "11:59" (12-hour dial), in quotes'
+    : 'a reading "H:MM" from "0:00" to "23:59" (24-hour dial), in quotes';
+  if (!has(f, 'reading')) throw missing(f, 'reading', words);
+  const value = raw(f, 'reading');
+  const path = keyPath(f.path, 'reading');
+  const m = typeof value === 'string' ? /^\s*(\d{1,2}):(\d{2})(?::(\d{2}(?:\.\d+)?))?\s*$/.exec(value) : null;
+  if (!m) {
+    throw new InvalidInputError(path, value, words, typeof value === 'number' ? 'Write the time as "7:40", with quotes.' : undefined);
+  }
+  const hours = Number(m[1]);
+  const minutes = Number(m[2]);
+  const seconds = m[3] === undefined ? 0 : Number(m[3]);
+  const hourOk = dialHours === 12 ? hours <= 12 : hours <= 23;
+  if (!hourOk || minutes > 59 || seconds >= 60) throw new InvalidInputError(path, value, words);
+  const h = dialHours === 12 && hours === 12 ? 0 : hours;
+  return h * 60 + minutes + seconds / 60;
+}
+
+function readClock(f: Fields, id: string, note: string | undefined): ClockObservation {
+  const dial = has(f, 'dialHours') ? raw(f, 'dialHours') : 12;
+  if (dial !== 12 && dial !== 24) {
+    throw new InvalidInputError(keyPath(f.path, 'dialHours'), dial, '12 or 24 (hours on the dial)');
+  }
+  const dialHours = dial;
+  const readingMinutes = readClockReading(f, dialHours);
+  const precisionMinutes = num(f, 'precisionMinutes', { words: 'a sigma of the reading in minutes', min: 0, max: 180, minExclusive: true });
+  const hourHandTrusted = optBool(f, 'hourHandTrusted', true);
+  let kept: ClockObservation['kept'] = { kind: 'unknown' };
+  if (has(f, 'kept')) {
+    const text = raw(f, 'kept');
+    const path = keyPath(f.path, 'kept');
+    if (typeof text !== 'string') {
+      throw new InvalidInputError(path, text, 'what the clock kept: "unknown", "apparent", "mean", "meridian:<longitude deg>", "zone:<IANA zone>" or "ut"');
+    }
+    kept = text.trim() === 'unknown' ? { kind: 'unknown' } : parseClockKind(text, path);
+  }
+  return { id, kind: 'clock', readingMinutes, precisionMinutes, hourHandTrusted, dialHours, kept, ...(note ? { note } : {}) };
+}
+
+/** Read observation `index` at `path`. */
+export function readObservation(value: unknown, path: string, ctx: ObservationContext): Observation {
+  if (value === null || typeof value !== 'object' || Array.isArray(value)) {
+    openFields(value, path, 'an observation', ['id', 'kind', 'and the keys of its kind']);
+  }
+  const kindValue = (value as Record<string, unknown>).kind;
+  if (!Object.prototype.hasOwnProperty.call(value, 'kind')) {
+    throw new InvalidInputError(keyPath(path, 'kind'), undefined, `the kind of observation: one of ${OBSERVATION_KINDS.join(', ')}`, 'Every observation needs "kind".');
+  }
+  const kind = checkChoice(kindValue, keyPath(path, 'kind'), OBSERVATION_KINDS, 'the kind of observation');
+  const f = openFields(value, path, `a ${kind} observation`, KEYS[kind]);
+  const id = str(f, 'id', ID_WORDS, 64, ID_PATTERN);
+  const note = optStr(f, 'note', 'a note', NOTE_MAX);
+  const base = note === undefined ? { id } : { id, note };
+
+  switch (kind) {
+    case 'rod-shadow': {
+      const wall = wallRef(f, ctx);
+      if (pixelForm(f, ['slopeDeg', 'side', 'sigmaDeg'], 'numbers (slopeDeg, side, sigmaDeg)')) {
+        needImagePlane(wall, f);
+        const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
+        const p = openPixels(f, ctx, []);
+        return { ...base, kind, wallId: wall.id, pixels: readSegmentPart(p, image) };
+      }
+      const slopeDeg = num(f, 'slopeDeg', { words: 'the slope of the shadow below the horizontal, degrees', min: 0, max: 90, minExclusive: true, maxExclusive: true });
+      if (!has(f, 'side')) throw missing(f, 'side', 'the side the shadow runs down to, seen facing the wall: "left" or "right"');
+      const side = checkChoice(raw(f, 'side'), keyPath(path, 'side'), SIDES, 'the side the shadow runs down to, seen facing the wall');
+      const sigmaDeg = num(f, 'sigmaDeg', ANGLE_SIGMA);
+      return { ...base, kind, wallId: wall.id, slopeDeg, side, sigmaDeg };
+    }
+    case 'overhang-shadow':
+    case 'fin-shadow': {
+      const wall = wallRef(f, ctx);
+      const ratioKey = kind === 'overhang-shadow' ? 'depthRatio' : 'widthRatio';
+      const numeric = kind === 'overhang-shadow' ? ['depthRatio', 'sigma'] : ['widthRatio', 'side', 'sigma'];
+      if (pixelForm(f, numeric, `numbers (${numeric.join(', ')})`)) {
+        needImagePlane(wall, f);
+        const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
+        const p = openPixels(f, ctx, ['projectionM', 'projectionSigmaM']);
+        const segment = readSegmentPart(p, image);
+        const projectionM = num(p, 'projectionM', { ...LENGTH_M, words: 'how far the edge stands out from the wall, metres' });
+        const projectionSigmaM = num(p, 'projectionSigmaM', LENGTH_SIGMA_M);
+        return { ...base, kind, wallId: wall.id, pixels: { ...segment, projectionM, projectionSigmaM } } as Observation;
+      }
+      const ratio = num(f, ratioKey, { ...RATIO, words: kind === 'overhang-shadow' ? 'shadow depth / projection depth (no unit)' : 'shadow width / fin depth (no unit)' });
+      const sigma = num(f, 'sigma', RATIO_SIGMA);
+      if (kind === 'overhang-shadow') return { ...base, kind, wallId: wall.id, depthRatio: ratio, sigma };
+      if (!has(f, 'side')) throw missing(f, 'side', 'the side the shadow falls to, seen facing the wall: "left" or "right"');
+      const side = checkChoice(raw(f, 'side'), keyPath(path, 'side'), SIDES, 'the side the shadow falls to, seen facing the wall');
+      return { ...base, kind, wallId: wall.id, widthRatio: ratio, side, sigma };
+    }
+    case 'pole-shadow': {
+      if (pixelForm(f, ['shadowAzimuthDeg', 'shadowAzimuthSigmaDeg', 'lengthRatio', 'lengthRatioSigma'], 'numbers (shadowAzimuthDeg, lengthRatio and their sigmas)')) {
+        const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
+        if (ctx.groundPlane === undefined) {
+          throw new InvalidInputError(keyPath(path, 'pixels'), raw(f, 'pixels'), 'pixel measurements of a pole only when the scene has a "groundPlane"');
+        }
+        const p = openPixels(f, ctx, ['heightM', 'heightSigmaM']);
+        const segment = readSegmentPart(p, image);
+        if (has(p, 'heightM') !== has(p, 'heightSigmaM')) {
+          const k = has(p, 'heightM') ? 'heightSigmaM' : 'heightM';
+          throw missing(p, k, 'the pole height and its sigma in metres, given together');
+        }
+        const heightM = optNum(p, 'heightM', { ...LENGTH_M, words: 'the height of the pole in metres' });
+        const heightSigmaM = optNum(p, 'heightSigmaM', LENGTH_SIGMA_M);
+        return { ...base, kind, pixels: heightM === undefined ? segment : { ...segment, heightM, heightSigmaM } };
+      }
+      const pairs: [string, string][] = [['shadowAzimuthDeg', 'shadowAzimuthSigmaDeg'], ['lengthRatio', 'lengthRatioSigma']];
+      for (const [a, b] of pairs) {
+        if (has(f, a) !== has(f, b)) throw missing(f, has(f, a) ? b : a, `"${a}" and "${b}" given together`);
+      }
+      if (!has(f, 'shadowAzimuthDeg') && !has(f, 'lengthRatio')) {
+        throw missing(f, 'shadowAzimuthDeg', 'shadowAzimuthDeg (with its sigma), lengthRatio (with its sigma), both, or "pixels"');
+      }
+      const out: { -readonly [K in keyof Extract<Observation, { kind: 'pole-shadow' }>]: Extract<Observation, { kind: 'pole-shadow' }>[K] } = { ...base, kind };
+      if (has(f, 'shadowAzimuthDeg')) {
+        out.shadowAzimuthDeg = num(f, 'shadowAzimuthDeg', { ...AZIMUTH, words: 'the azimuth from the foot to the shadow tip, degrees clockwise from true north' });
+        out.shadowAzimuthSigmaDeg = num(f, 'shadowAzimuthSigmaDeg', ANGLE_SIGMA);
+      }
+      if (has(f, 'lengthRatio')) {
+        out.lengthRatio = num(f, 'lengthRatio', { ...RATIO, words: 'shadow length / pole height (no unit)', minExclusive: true });
+        out.lengthRatioSigma = num(f, 'lengthRatioSigma', RATIO_SIGMA);
+      }
+      return out;
+    }
+    case 'eave-shadow': {
+      const wall = wallRef(f, ctx);
+      const distanceRatio = num(f, 'distanceRatio', { ...RATIO, words: 'distance of the shadow line from the wall / height of the eave (no unit)' });
+      const sigma = num(f, 'sigma', RATIO_SIGMA);
+      const projectionRatio = optNum(f, 'projectionRatio', { ...RATIO, words: 'how far the eave stands out / its height (no unit)' }, 0);
+      return { ...base, kind, wallId: wall.id, distanceRatio, sigma, projectionRatio };
+    }
+    case 'shadow-points': {
+      const caster = readSitePoint(f, 'caster');
+      const shadow = readSitePoint(f, 'shadow');
+      if (!(caster[2] > shadow[2])) {
+        throw new InvalidInputError(keyPath(path, 'shadow'), shadow, `a shadow point lower than the caster (upM below ${caster[2]})`, 'With the sun above the horizon a shadow falls below the point that casts it.');
+      }
+      const sigmaM = num(f, 'sigmaM', { ...LENGTH_M, words: 'a sigma in metres' });
+      return { ...base, kind, caster, shadow, sigmaM };
+    }
+    case 'sun-direction':
+      return {
+        ...base,
+        kind,
+        azimuthDeg: num(f, 'azimuthDeg', { ...AZIMUTH, words: "the sun's azimuth in degrees clockwise from true north" }),
+        azimuthSigmaDeg: num(f, 'azimuthSigmaDeg', ANGLE_SIGMA),
+        altitudeDeg: num(f, 'altitudeDeg', { words: "the sun's apparent altitude in degrees", min: -1, max: 90 }),
+        altitudeSigmaDeg: num(f, 'altitudeSigmaDeg', ANGLE_SIGMA),
+      };
+    case 'wall-lit':
+    case 'wall-shaded':
+      return { ...base, kind, wallId: wallRef(f, ctx).id };
+    case 'sun-up':
+      return { ...base, kind };
+    case 'clock':
+      return readClock(f, id, note);
+  }
+}
