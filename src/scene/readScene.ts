@@ -8,6 +8,7 @@
  * its JSON Schema is docs/scene.schema.json.
  */
 import { readFileSync, statSync } from 'node:fs';
+import { STANDARD_AIR } from '../ephemeris/refraction.js';
 import { InvalidInputError, quoteValue } from '../errors.js';
 import { readCalendar, readCivilDate, readYearStart } from './calendarFields.js';
 import {
@@ -47,7 +48,7 @@ export const MONTHS = [
 ] as const;
 
 /** Standard air when the file's air block leaves a value out (the ephemeris default: 1010 hPa, 10 C). */
-export const STANDARD_AIR: Air = { pressureHPa: 1010, temperatureC: 10 };
+export { STANDARD_AIR } from '../ephemeris/refraction.js';
 
 const AZIMUTH: NumberRule = { words: 'an azimuth in degrees clockwise from true north', min: 0, max: 360, maxExclusive: true };
 const WALL_SIGMA: NumberRule = { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 45 };

@@ -7,15 +7,12 @@
  * the Julian calendar before 1582-10-15 (as in Espenak and Meeus's canon, whose dates
  * before then are Julian), the Gregorian from then on.
  */
-import { calendarDateToJd, jdToCalendarDate, type CalendarKind } from '../calendar/julianDay.js';
+import { calendarDateToJd, jdToCalendarDate, ROME_FIRST_GREGORIAN_JD, type CalendarKind } from '../calendar/julianDay.js';
 import { ConvergenceError } from '../errors.js';
 import { deltaT, deltaTSeconds, type DeltaTValue } from './deltaT.js';
 
 /** Seconds per day (exact by definition). */
 export const SECONDS_PER_DAY = 86400;
-/** JD of 1582-10-15 0h (Gregorian), the first Gregorian day in Rome (Meeus 1998, ch. 7). */
-export const GREGORIAN_EPOCH_JD = 2299160.5;
-
 /**
  * Continuous decimal year of a Julian Day: year + (days since 1 January 0h) / (days in that year),
  * in the Julian calendar before 1582-10-15 and the Gregorian after. At the middle of a month this
@@ -23,7 +20,7 @@ export const GREGORIAN_EPOCH_JD = 2299160.5;
  * @example jdToDecimalYear(2451544.5) // 2000.0 (2000-01-01 0h)
  */
 export function jdToDecimalYear(jd: number): number {
-  const calendar: CalendarKind = jd < GREGORIAN_EPOCH_JD ? 'julian' : 'gregorian';
+  const calendar: CalendarKind = jd < ROME_FIRST_GREGORIAN_JD ? 'julian' : 'gregorian';
   const { date } = jdToCalendarDate(jd, calendar);
   const start = calendarDateToJd({ calendar, year: date.year, month: 1, day: 1 });
   const next = calendarDateToJd({ calendar, year: date.year + 1, month: 1, day: 1 });
