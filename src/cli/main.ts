@@ -11,11 +11,21 @@ import { HeliochronError } from '../errors.js';
 import { processIo, type CliIo } from './io.js';
 import { registerSun } from './sunSpec.js';
 import { registerCalendar } from './calendarSpec.js';
+import { registerDate } from './dateSpec.js';
+import { registerCheck } from './checkSpec.js';
+import { registerChart } from './chartSpec.js';
+import { registerReport } from './reportSpec.js';
+import { registerMeasure } from './measureSpec.js';
 
 /** Each entry adds one command to the program. Add new commands here, one line each. */
 const COMMANDS: ReadonlyArray<(program: Command, io: CliIo) => void> = [
   registerSun,
   registerCalendar,
+  registerDate,
+  registerCheck,
+  registerMeasure,
+  registerChart,
+  registerReport,
 ];
 
 export const EXIT_BAD_INPUT = 2;

@@ -1,0 +1,102 @@
+#!/usr/bin/env node
+/**
+ * Speed of the date solver over a long window, against a brute-force scan.
+ *
+ * Run after `npx tsc -p tsconfig.json`:  node bench/solver-window.mjs
+ *
+ * Scene: Velmar (47.62 N, 9.35 E), two rod shadows on walls of azimuth 160 and 100 deg and
+ * one pole shadow (three observations, four numbers), forward-computed with the full
+ * ephemeris at 1650-09-12 09:00:22 local mean time (synthetic truth); window 1400-1899.
+ * 1. solveDates over the 500-year window (consistency test off: the solver's search alone;
+ *    and once with it on), median of several runs after a warm-up.
+ * 2. Brute force: every minute of one year (525,600 instants) with the same full ephemeris
+ *    (sunPosition) and the same chi-square, timed, and scaled by 500 to the window.
+ * Prints both times, their ratio, and whether the best candidates agree within a minute.
+ * Targets: window under 100 ms; at least 1000 times faster than the scaled scan.
+ */
+import { solveDates } from '../dist/solver/solveDates.js';
+import { buildEvidenceModel, evidenceResidualVector, splitChiSquare } from '../dist/solver/evidenceModel.js';
+import { sunPosition } from '../dist/ephemeris/sunPosition.js';
+import { civilDateToJd } from '../dist/calendar/regions.js';
+import { predictRodShadow } from '../dist/geometry/wallShadows.js';
+import { predictPoleShadow } from '../dist/geometry/groundShadows.js';
+
+const site = { latitudeDeg: 47.62, longitudeDeg: 9.35, elevationM: 410, latitudeSigmaDeg: 0, longitudeSigmaDeg: 0 };
+const walls = [
+  { id: 'tanners-hall', azimuthDeg: 160, azimuthSigmaDeg: 0, azimuthSource: 'synthetic' },
+  { id: 'gate-tower', azimuthDeg: 100, azimuthSigmaDeg: 0, azimuthSource: 'synthetic' },
+];
+const dayJd0 = civilDateToJd({ kind: 'gregorian' }, { year: 1650, month: 9, day: 12 });
+const truthJdUT = dayJd0 + (9 * 60 + 22 / 60 - 4 * site.longitudeDeg) / 1440; // 09:00:22 local mean time, off the scan's minute grid
+const sun = sunPosition(truthJdUT, site);
+const rodA = predictRodShadow(sun, 160);
+const rodB = predictRodShadow(sun, 100);
+const pole = predictPoleShadow(sun);
+const scene = {
+  formatVersion: 1,
+  title: 'Velmar, the Marktgasse view (bench)',
+  site,
+  calendar: { kind: 'gregorian' },
+  yearStart: 'jan1',
+  window: { fromYear: 1400, toYear: 1899 },
+  mapNorthCorrectionDeg: 0,
+  walls,
+  observations: [
+    { id: 'bracket', kind: 'rod-shadow', wallId: 'tanners-hall', slopeDeg: rodA.slopeDeg, side: rodA.side, sigmaDeg: 0.5 },
+    { id: 'sign-arm', kind: 'rod-shadow', wallId: 'gate-tower', slopeDeg: rodB.slopeDeg, side: rodB.side, sigmaDeg: 0.5 },
+    { id: 'well-post', kind: 'pole-shadow', shadowAzimuthDeg: pole.shadowAzimuthDeg, shadowAzimuthSigmaDeg: 1, lengthRatio: pole.lengthRatio, lengthRatioSigma: 0.05 },
+  ],
+  seed: 1,
+};
+
+function median(xs) {
+  const s = [...xs].sort((a, b) => a - b);
+  return s[Math.floor(s.length / 2)];
+}
+
+// 1. the solver
+for (let i = 0; i < 3; i += 1) solveDates(scene, { consistency: false });
+const times = [];
+let answer;
+for (let i = 0; i < 7; i += 1) {
+  const t0 = performance.now();
+  answer = solveDates(scene, { consistency: false });
+  times.push(performance.now() - t0);
+}
+const solverMs = median(times);
+const t1 = performance.now();
+const withConsistency = solveDates(scene);
+const solverWithConsistencyMs = performance.now() - t1;
+
+// 2. brute force over one year (1650), every minute, same ephemeris and chi-square
+const model = buildEvidenceModel(scene);
+const yearStart = civilDateToJd({ kind: 'gregorian' }, { year: 1650, month: 1, day: 1 }) - site.longitudeDeg / 360;
+const minutes = 365 * 1440;
+let bestScan = { objective: Infinity, jdUT: 0 };
+const t2 = performance.now();
+for (let i = 0; i < minutes; i += 1) {
+  const jdUT = yearStart + i / 1440;
+  const p = sunPosition(jdUT, site);
+  const r = evidenceResidualVector(model, {
+    sun: p,
+    nuisances: [],
+    apparentMinutes: 720 + 4 * p.hourAngleDeg,
+    equationOfTimeMinutes: p.equationOfTimeMinutes,
+    assumedClock: null,
+    zoneOffsetMinutes: () => 0,
+  });
+  const s = splitChiSquare(model, r);
+  if (s.chiSquare + s.penalty < bestScan.objective) bestScan = { objective: s.chiSquare + s.penalty, jdUT };
+}
+const scanYearMs = performance.now() - t2;
+const scanWindowMs = scanYearMs * 500;
+
+const best1650 = answer.candidates.find((c) => c.civilDate.year === 1650) ?? answer.candidates[0];
+const agreeMinutes = Math.abs(best1650.jdUT - bestScan.jdUT) * 1440;
+console.log(`scene: 3 observations (4 numbers), window 1400-1899 (500 years), truth 1650-09-12 ${((truthJdUT - dayJd0) * 1440 + 4 * 9.35).toFixed(1)} min LMT`);
+console.log(`solver, 500-year window (median of 7, consistency off): ${solverMs.toFixed(1)} ms; with leave-one-out: ${solverWithConsistencyMs.toFixed(1)} ms`);
+console.log(`  candidates kept: ${answer.candidates.length} shown, families: ${answer.families.length}, mapped years: ${answer.diagnostics.mappedYears}, full refinements: ${answer.diagnostics.fullRefinements}`);
+console.log(`brute force, one year at 1-minute steps: ${scanYearMs.toFixed(0)} ms (${minutes} instants); scaled to 500 years: ${(scanWindowMs / 1000).toFixed(0)} s`);
+console.log(`ratio scaled scan / solver: ${(scanWindowMs / solverMs).toFixed(0)}x (target >= 1000x); solver under 100 ms: ${solverMs < 100 ? 'yes' : 'no'}`);
+console.log(`best in 1650: solver ${best1650.civilDate.year}-${best1650.civilDate.month}-${best1650.civilDate.day} jdUT ${best1650.jdUT.toFixed(5)}, scan jdUT ${bestScan.jdUT.toFixed(5)}: differ by ${agreeMinutes.toFixed(2)} min -> ${agreeMinutes <= 1 ? 'agree' : 'DISAGREE'} (within a minute)`);
+console.log(`status ${answer.status}; top family: ${answer.families[0]?.summary}; with consistency: ${withConsistency.status}`);

@@ -1,0 +1,81 @@
+/**
+ * Contour lines of a sampled scalar field by marching squares (Lorensen and Cline, "Marching
+ * cubes", SIGGRAPH 1987, in its two-dimensional form): each grid cell whose corners lie on both
+ * sides of the level contributes one or two straight segments, their ends found by linear
+ * interpolation along the cell edges. Ambiguous (saddle) cells are decided by the mean of the
+ * four corners. Cells with a non-finite corner are skipped.
+ */
+
+/** A field sampled at xs[i], ys[j]: values[j][i]. */
+export interface SampledField {
+  readonly xs: readonly number[];
+  readonly ys: readonly number[];
+  readonly values: readonly (readonly number[])[];
+}
+
+export type Segment = readonly [readonly [number, number], readonly [number, number]];
+
+/**
+ * Segments of the level-`level` contour, in the field's own coordinates.
+ * @example isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[0, 2], [0, 2]] }, 1) // [[[0.5, 0], [0.5, 1]]]
+ */
+export function isolineSegments(field: SampledField, level: number): Segment[] {
+  const { xs, ys, values } = field;
+  const out: Segment[] = [];
+  for (let j = 0; j + 1 < ys.length; j += 1) {
+    for (let i = 0; i + 1 < xs.length; i += 1) {
+      const v0 = values[j][i]; // (x0, y0)
+      const v1 = values[j][i + 1]; // (x1, y0)
+      const v2 = values[j + 1][i + 1]; // (x1, y1)
+      const v3 = values[j + 1][i]; // (x0, y1)
+      if (!Number.isFinite(v0) || !Number.isFinite(v1) || !Number.isFinite(v2) || !Number.isFinite(v3)) continue;
+      const code = (v0 > level ? 1 : 0) | (v1 > level ? 2 : 0) | (v2 > level ? 4 : 0) | (v3 > level ? 8 : 0);
+      if (code === 0 || code === 15) continue;
+      const x0 = xs[i];
+      const x1 = xs[i + 1];
+      const y0 = ys[j];
+      const y1 = ys[j + 1];
+      const t = (a: number, b: number): number => (a === b ? 0.5 : (level - a) / (b - a));
+      // Edge points: bottom (v0-v1), right (v1-v2), top (v3-v2), left (v0-v3).
+      const bottom = (): [number, number] => [x0 + t(v0, v1) * (x1 - x0), y0];
+      const right = (): [number, number] => [x1, y0 + t(v1, v2) * (y1 - y0)];
+      const top = (): [number, number] => [x0 + t(v3, v2) * (x1 - x0), y1];
+      const left = (): [number, number] => [x0, y0 + t(v0, v3) * (y1 - y0)];
+      const centreAbove = (v0 + v1 + v2 + v3) / 4 > level;
+      switch (code) {
+        case 1: case 14: out.push([left(), bottom()]); break;
+        case 2: case 13: out.push([bottom(), right()]); break;
+        case 3: case 12: out.push([left(), right()]); break;
+        case 4: case 11: out.push([right(), top()]); break;
+        case 6: case 9: out.push([bottom(), top()]); break;
+        case 7: case 8: out.push([left(), top()]); break;
+        case 5: // v0 and v2 above
+          if (centreAbove) out.push([left(), top()], [bottom(), right()]);
+          else out.push([left(), bottom()], [right(), top()]);
+          break;
+        case 10: // v1 and v3 above
+          if (centreAbove) out.push([left(), bottom()], [right(), top()]);
+          else out.push([left(), top()], [bottom(), right()]);
+          break;
+      }
+    }
+  }
+  return out;
+}
+
+/** Horizontal runs of grid cells where `inside(j, i)` holds, one rectangle per run: [i0, i1) on row j. */
+export function cellRuns(rows: number, cols: number, inside: (j: number, i: number) => boolean): { j: number; i0: number; i1: number }[] {
+  const out: { j: number; i0: number; i1: number }[] = [];
+  for (let j = 0; j < rows; j += 1) {
+    let start = -1;
+    for (let i = 0; i <= cols; i += 1) {
+      const on = i < cols && inside(j, i);
+      if (on && start < 0) start = i;
+      if (!on && start >= 0) {
+        out.push({ j, i0: start, i1: i });
+        start = -1;
+      }
+    }
+  }
+  return out;
+}

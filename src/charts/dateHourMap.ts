@@ -1,0 +1,197 @@
+/**
+ * The date-and-hour map: the civil year on the x axis (month boundaries in the site's
+ * calendar), local apparent time on the y axis, each cell shaded by how well that day and hour
+ * fits the evidence (Delta chi-square above the best fit, in the bands of palette.ts), the
+ * candidates marked with their 68% and 95% error ellipses (or the profile-scan interval as a
+ * bar when the ellipse does not hold), and a close-up around the best candidate.
+ */
+import { formatMinutes } from '../time/clock.js';
+import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
+import { cellRuns, isolineSegments } from './contour.js';
+import type { DateHourMapData, MapMarker } from './dateHourMapData.js';
+import { CHART_STYLE, FIT_BANDS, INK, OKABE_ITO, OUTSIDE_BANDS_LABEL, fitBandIndex } from './palette.js';
+import { linearScale, niceTicks, type LinearScale } from './scale.js';
+import { el, group, num, pathData, svgDocument, text } from './svg.js';
+
+const WIDTH = 820;
+const HEIGHT = 590;
+const OVERVIEW: PlotArea = { left: 66, top: 60, width: 440, height: 360 };
+const CLOSE_UP: PlotArea = { left: 580, top: 60, width: 220, height: 360 };
+const MARK = OKABE_ITO.vermillion;
+
+/** "07:00" for minutes of the day (whole hours and minutes). */
+function hourLabel(minutes: number): string {
+  return formatMinutes(minutes).slice(0, 5);
+}
+
+interface GridPart {
+  readonly dayOffsets: readonly number[];
+  readonly minutes: readonly number[];
+  readonly deltaChiSquare: readonly (readonly number[])[];
+  readonly dayStep: number;
+  readonly minuteStep: number;
+}
+
+/** Filled cells, one rectangle per horizontal run of cells in the same band. */
+function bandCells(part: GridPart, x: LinearScale, y: LinearScale): string[] {
+  const out: string[] = [];
+  FIT_BANDS.forEach((band, b) => {
+    const runs = cellRuns(part.minutes.length, part.dayOffsets.length, (j, i) => fitBandIndex(part.deltaChiSquare[j][i]) === b);
+    const d = runs
+      .map((r) => {
+        const x0 = x(part.dayOffsets[r.i0] - part.dayStep / 2);
+        const x1 = x(part.dayOffsets[r.i1 - 1] + part.dayStep / 2);
+        const y0 = y(part.minutes[r.j] + part.minuteStep / 2);
+        const y1 = y(part.minutes[r.j] - part.minuteStep / 2);
+        return `M${num(x0)} ${num(y0)}H${num(x1)}V${num(y1)}H${num(x0)}Z`;
+      })
+      .join('');
+    if (d !== '') out.push(el('path', { d, fill: band.fill, stroke: band.fill, 'stroke-width': 0.3, class: `hc-band hc-band-${b}` }));
+  });
+  return out;
+}
+
+/** Contour lines at the 68% and 95% bounds. */
+function bandOutlines(part: GridPart, x: LinearScale, y: LinearScale): string[] {
+  const field = { xs: part.dayOffsets, ys: part.minutes, values: part.deltaChiSquare };
+  return [
+    { level: FIT_BANDS[0].maxDeltaChiSquare, dash: undefined, width: 0.9 },
+    { level: FIT_BANDS[1].maxDeltaChiSquare, dash: '3 2', width: 0.7 },
+  ].map((c) => {
+    const d = isolineSegments(field, c.level)
+      .map(([p, q]) => `M${num(x(p[0]))} ${num(y(p[1]))}L${num(x(q[0]))} ${num(y(q[1]))}`)
+      .join('');
+    return d === '' ? '' : el('path', { d, fill: 'none', stroke: INK.ink, 'stroke-width': c.width, 'stroke-dasharray': c.dash, class: 'hc-contour' });
+  });
+}
+
+function markerMarks(markers: readonly MapMarker[], x: LinearScale, y: LinearScale, labels: boolean): string[] {
+  const out: string[] = [];
+  for (const m of markers) {
+    for (const e of m.ellipses) {
+      const dash = e.probability > 0.9 ? '4 2.5' : undefined;
+      out.push(el('path', { d: pathData(e.points.map(([d, min]) => [x(d), y(min)]), true), fill: 'none', stroke: MARK, 'stroke-width': 1.4, 'stroke-dasharray': dash, class: 'hc-ellipse' }));
+    }
+    if (m.interval) {
+      const iv = m.interval;
+      if (iv.valley.length > 1) {
+        out.push(el('path', { d: pathData(iv.valley.map(([d, min]) => [x(d), y(min)])), fill: 'none', stroke: MARK, 'stroke-width': 1, 'stroke-dasharray': '1.5 2', class: 'hc-valley' }));
+      }
+      const yc = y(m.minutes);
+      const x0 = x(iv.fromDayOffset);
+      const x1 = x(iv.toDayOffset);
+      out.push(el('path', { d: `M${num(x0)} ${num(yc)}H${num(x1)}M${num(x0)} ${num(yc - 5)}V${num(yc + 5)}M${num(x1)} ${num(yc - 5)}V${num(yc + 5)}`, fill: 'none', stroke: MARK, 'stroke-width': 2.2, class: 'hc-interval' }));
+    }
+    const cx = x(m.dayOffset);
+    const cy = y(m.minutes);
+    out.push(
+      m.inMapYear
+        ? el('circle', { cx, cy, r: m.best ? 3.6 : 3, fill: MARK, stroke: INK.paper, 'stroke-width': 1, class: 'hc-candidate' })
+        : el('circle', { cx, cy, r: 3, fill: INK.paper, stroke: MARK, 'stroke-width': 1.5, class: 'hc-candidate hc-other-year' }),
+    );
+    if (labels) out.push(text(cx + 5, cy - 6, m.label, { class: 'hc-legend', 'font-weight': 'bold' }));
+  }
+  return out;
+}
+
+function hourTicks(range: readonly [number, number], approxCount: number): Tick[] {
+  const span = range[1] - range[0];
+  const step = span > 600 ? 120 : span > 240 ? 60 : span > 120 ? 30 : span > 60 ? 15 : 10;
+  return niceTicks(range[0], range[1], approxCount, step).map((v) => ({ value: v, label: hourLabel(v) }));
+}
+
+function overviewPanel(data: DateHourMapData, prefix: string): string {
+  const area = OVERVIEW;
+  const x = linearScale([0, data.dayCount], [area.left, area.left + area.width]);
+  const y = linearScale(data.minuteRange, [area.top + area.height, area.top]);
+  const clip = `${prefix}-clip-overview`;
+  const excluded = data.months
+    .filter((m) => m.excluded)
+    .map((m) => el('rect', { x: x(m.fromOffset), y: area.top, width: x(m.toOffset) - x(m.fromOffset), height: area.height, fill: `url(#${prefix}-hatch)`, class: 'hc-excluded' }));
+  const monthTicks: Tick[] = data.months.map((m) => ({ value: m.fromOffset, label: '' }));
+  monthTicks.push({ value: data.dayCount, label: '' });
+  const monthLabels = data.months.map((m) => text(x((m.fromOffset + m.toOffset) / 2), area.top + area.height + 15, m.name, { class: 'hc-tick', 'text-anchor': 'middle' }));
+  return group({ class: 'hc-panel hc-overview' }, [
+    el('defs', {}, clipPathFor(clip, area)),
+    group({ 'clip-path': `url(#${clip})` }, [...bandCells(data, x, y), ...bandOutlines(data, x, y), ...excluded, ...markerMarks(data.markers, x, y, true)]),
+    bottomAxis(area, { scale: x, ticks: monthTicks, label: `${data.yearLabel}, ${data.calendarLabel} (month boundaries)`, grid: true }),
+    ...monthLabels,
+    leftAxis(area, { scale: y, ticks: hourTicks(data.minuteRange, 9), label: 'local apparent time (hours)', grid: true }),
+    plotFrame(area),
+    text(area.left, area.top - 6, 'The whole year', { class: 'hc-legend', 'font-weight': 'bold' }),
+  ]);
+}
+
+function closeUpPanel(data: DateHourMapData, prefix: string): string {
+  const c = data.closeUp;
+  if (!c) return '';
+  const area = CLOSE_UP;
+  const x = linearScale(c.dayRange, [area.left, area.left + area.width]);
+  const y = linearScale(c.minuteRange, [area.top + area.height, area.top]);
+  const clip = `${prefix}-clip-closeup`;
+  return group({ class: 'hc-panel hc-closeup' }, [
+    el('defs', {}, clipPathFor(clip, area)),
+    group({ 'clip-path': `url(#${clip})` }, [...bandCells(c, x, y), ...bandOutlines(c, x, y), ...markerMarks(data.markers, x, y, true)]),
+    bottomAxis(area, { scale: x, ticks: c.dayLabels.map((t) => ({ value: t.offset, label: t.label })), label: 'day', grid: true }),
+    leftAxis(area, { scale: y, ticks: hourTicks(c.minuteRange, 8), label: 'local apparent time (hours)', grid: true }),
+    plotFrame(area),
+    text(area.left, area.top - 6, 'Close-up of the best candidate', { class: 'hc-legend', 'font-weight': 'bold' }),
+  ]);
+}
+
+function legend(data: DateHourMapData): string {
+  const top = 470;
+  const parts: string[] = [];
+  const entries = [...FIT_BANDS.map((b) => ({ fill: b.fill, label: b.label })), { fill: INK.paper, label: OUTSIDE_BANDS_LABEL }];
+  entries.forEach((e, k) => {
+    const lx = 66 + (k % 3) * 250;
+    const ly = top + Math.floor(k / 3) * 17;
+    parts.push(el('rect', { x: lx, y: ly - 9, width: 14, height: 10, fill: e.fill, stroke: INK.frame, 'stroke-width': 0.6 }));
+    parts.push(text(lx + 19, ly, e.label, { class: 'hc-legend' }));
+  });
+  const ly = top + 40;
+  parts.push(el('circle', { cx: 73, cy: ly - 4, r: 3.4, fill: MARK }));
+  parts.push(text(82, ly, 'best of each family of dates (F1, F2, ...)', { class: 'hc-legend' }));
+  parts.push(el('path', { d: `M316 ${ly - 4}h24`, stroke: MARK, 'stroke-width': 1.4 }));
+  parts.push(text(345, ly, '68% error ellipse', { class: 'hc-legend' }));
+  parts.push(el('path', { d: `M446 ${ly - 4}h24`, stroke: MARK, 'stroke-width': 1.4, 'stroke-dasharray': '4 2.5' }));
+  parts.push(text(475, ly, '95% error ellipse', { class: 'hc-legend' }));
+  parts.push(el('path', { d: `M576 ${ly - 4}h24M576 ${ly - 8}v8M600 ${ly - 8}v8`, stroke: MARK, 'stroke-width': 2.2, fill: 'none' }));
+  parts.push(text(605, ly, '95% day interval (profile scan)', { class: 'hc-legend' }));
+  const notes: string[] = [];
+  if (data.months.some((m) => m.excluded)) notes.push('hatched: months outside the window stated in the scene');
+  if (data.fromOtherYears > 0) notes.push(`open circles: best of a family in another year, placed on its day of the year`);
+  parts.push(text(66, ly + 18, `Clock: ${data.clockLabel}.`, { class: 'hc-note' }));
+  notes.forEach((note, k) => parts.push(text(66, ly + 32 + 14 * k, `${note[0].toUpperCase()}${note.slice(1)}.`, { class: 'hc-note' })));
+  return group({ class: 'hc-legend-block' }, parts);
+}
+
+/**
+ * The date-and-hour map as a standalone SVG document.
+ * @param idPrefix prefix of the ids inside (several charts can share one HTML page)
+ */
+export function renderDateHourMap(data: DateHourMapData, idPrefix = 'hc-map'): string {
+  const hatch = el(
+    'pattern',
+    { id: `${idPrefix}-hatch`, width: 6, height: 6, patternUnits: 'userSpaceOnUse', patternTransform: 'rotate(45)' },
+    [el('rect', { width: 6, height: 6, fill: INK.paper, 'fill-opacity': 0.35 }), el('line', { x1: 0, y1: 0, x2: 0, y2: 6, stroke: INK.frame, 'stroke-width': 1.2 })],
+  );
+  const title = `When the light fits: day and hour in ${data.yearLabel}`;
+  const caption = `Shading: how well each day and hour of ${data.yearLabel} fits the evidence; red: the best dates and hours with their error ellipses.`;
+  return svgDocument({
+    width: WIDTH,
+    height: HEIGHT,
+    title,
+    description: caption,
+    style: CHART_STYLE,
+    idPrefix,
+    body: [
+      el('rect', { width: WIDTH, height: HEIGHT, fill: INK.paper }),
+      el('defs', {}, hatch),
+      titleBlock(OVERVIEW.left, title, caption),
+      overviewPanel(data, idPrefix),
+      closeUpPanel(data, idPrefix),
+      legend(data),
+    ],
+  });
+}

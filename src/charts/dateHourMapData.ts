@@ -1,0 +1,254 @@
+/**
+ * The data of the date-and-hour map: the civil year of the best candidate (in the site's
+ * calendar), the fit of every (day, local apparent minute) cell as Delta chi-square above the
+ * best, the month boundaries, and the candidates of that year with their error ellipses or
+ * profile-scan intervals. Rendering is in dateHourMap.ts.
+ */
+import type { Scene } from '../scene/types.js';
+import type { Candidate, DateAnswer } from '../solver/types.js';
+import { MONTH_NAMES } from '../calendar/julianDay.js';
+import { civilDateToJd, jdToCivilDate, resolveCalendarRule, type ResolvedCalendar } from '../calendar/regions.js';
+import { formatYearBcAd } from '../calendar/format.js';
+import { buildEvidenceModel, type EvidenceModel } from '../solver/evidenceModel.js';
+import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
+import { ellipsePoints } from './ellipse.js';
+import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
+
+export interface MapEllipse {
+  readonly probability: number;
+  /** Closed outline, (day offset, minute) points. */
+  readonly points: readonly (readonly [number, number])[];
+}
+
+export interface MapMarker {
+  /** "F1" (best of family 1) or a candidate rank. */
+  readonly label: string;
+  readonly id: string;
+  /** True for the first marked candidate (the best). */
+  readonly best: boolean;
+  /** False when the candidate is of another year, placed on its month and day in the map's year. */
+  readonly inMapYear: boolean;
+  /** Days after 1 January of the map's year (local 0h of the candidate's day). */
+  readonly dayOffset: number;
+  readonly minutes: number;
+  /** Present when the linearised ellipse holds. */
+  readonly ellipses: readonly MapEllipse[];
+  /** Present when the ellipse is invalid: the profile-scan interval. */
+  readonly interval?: {
+    readonly fromDayOffset: number;
+    readonly toDayOffset: number;
+    readonly fromMinutes: number;
+    readonly toMinutes: number;
+    readonly open: boolean;
+    readonly valley: readonly (readonly [number, number])[];
+  };
+}
+
+export interface DateHourMapData {
+  readonly year: number;
+  readonly yearLabel: string;
+  readonly calendarLabel: string;
+  readonly clockLabel: string;
+  /** Number of days in the civil year (x domain [0, dayCount]). */
+  readonly dayCount: number;
+  readonly minuteRange: readonly [number, number];
+  /** Day offsets (x), minutes (y) and Delta chi-square values[j][i]. */
+  readonly dayOffsets: readonly number[];
+  readonly minutes: readonly number[];
+  readonly deltaChiSquare: readonly (readonly number[])[];
+  readonly dayStep: number;
+  readonly minuteStep: number;
+  readonly months: readonly { readonly fromOffset: number; readonly toOffset: number; readonly name: string; readonly excluded: boolean }[];
+  readonly markers: readonly MapMarker[];
+  /** A finer grid around the best candidate (absent without candidates). */
+  readonly closeUp?: {
+    readonly dayRange: readonly [number, number];
+    readonly minuteRange: readonly [number, number];
+    readonly dayOffsets: readonly number[];
+    readonly minutes: readonly number[];
+    readonly deltaChiSquare: readonly (readonly number[])[];
+    readonly dayStep: number;
+    readonly minuteStep: number;
+    /** Day offset -> "12 Jun" in the site's calendar. */
+    readonly dayLabels: readonly { readonly offset: number; readonly label: string }[];
+  };
+  /** Marked candidates of other years (placed on their month and day): how many. */
+  readonly fromOtherYears: number;
+  readonly evaluations: number;
+}
+
+export interface DateHourMapOptions {
+  /** Grid step in days (default 1) and minutes (default 5). */
+  readonly dayStep?: number;
+  readonly minuteStep?: number;
+  /** The evidence model of the scene as the solver used it (default: built from the scene). */
+  readonly model?: EvidenceModel;
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+/** Minutes of local apparent time from the earliest sunrise to the latest sunset of the year, whole hours, with a margin. */
+export function daylightMinuteRange(latitudeDeg: number): [number, number] {
+  // Sunrise hour angle: cos H0 = -tan(phi) tan(dec) (Meeus 1998, eq. 15.1 with h0 = 0), dec = 23.44 deg (obliquity, common practice).
+  const c = -Math.tan((latitudeDeg * Math.PI) / 180) * Math.tan((23.44 * Math.PI) / 180);
+  if (c <= -1 || c >= 1) return [0, 1440];
+  const h0Minutes = (Math.acos(c) * 180) / Math.PI * 4 + 20; // 4 min per degree of hour angle; 20 min for refraction and margin
+  return [Math.max(0, Math.floor((720 - h0Minutes) / 60) * 60), Math.min(1440, Math.ceil((720 + h0Minutes) / 60) * 60)];
+}
+
+function bestCandidate(answer: DateAnswer): Candidate | undefined {
+  return markedCandidates(answer, 1)[0]?.candidate;
+}
+
+/** Days after 1 January of the map's year of a candidate's day; another year's day goes on its month and day. */
+function dayOffsetOf(c: Candidate, year: number, jan1: number, rule: ResolvedCalendar): number {
+  if (c.civilDate.year === year) return civilDateToJd(rule, c.civilDate) - jan1;
+  const ownJan1 = civilDateToJd(rule, { year: c.civilDate.year, month: 1, day: 1 });
+  return Math.min(civilDateToJd(rule, c.civilDate) - ownJan1, 365);
+}
+
+function markerOf(mark: MarkedCandidate, index: number, year: number, jan1: number, rule: ResolvedCalendar): MapMarker {
+  const c = mark.candidate;
+  const dayOffset = dayOffsetOf(c, year, jan1, rule);
+  const m = c.times.localApparentMinutes;
+  const u = c.uncertainty;
+  const ellipses: MapEllipse[] = [];
+  let interval: MapMarker['interval'];
+  if (u.ellipseValid) {
+    for (const e of u.ellipses) {
+      const [a, b] = e.semiAxes;
+      ellipses.push({ probability: e.probability, points: ellipsePoints([dayOffset, m], [a.days, a.minutes], [b.days, b.minutes]) });
+    }
+  } else if (u.profile) {
+    const p = u.profile;
+    interval = {
+      fromDayOffset: dayOffset + p.fromDays,
+      toDayOffset: dayOffset + p.toDays,
+      fromMinutes: p.fromLocalApparentMinutes,
+      toMinutes: p.toLocalApparentMinutes,
+      open: p.open,
+      valley: p.points.map((q) => [dayOffset + q.days, q.localApparentMinutes] as const),
+    };
+  }
+  return { label: mark.label, id: c.id, best: index === 0, inMapYear: c.civilDate.year === year, dayOffset, minutes: m, ellipses, interval };
+}
+
+/**
+ * Everything the date-and-hour map draws, computed from the scene and the solver's answer.
+ * The year is that of the best candidate (the best family's best member for a multi-year window).
+ */
+export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateHourMapOptions = {}): DateHourMapData {
+  const best = bestCandidate(answer);
+  const rule = resolveCalendarRule(scene.calendar);
+  const year = best ? best.civilDate.year : scene.window.fromYear;
+  const jan1 = civilDateToJd(rule, { year, month: 1, day: 1 });
+  const nextJan1 = civilDateToJd(rule, { year: year + 1, month: 1, day: 1 });
+  const dayCount = nextJan1 - jan1;
+  const dayStep = options.dayStep ?? 1;
+  const minuteStep = options.minuteStep ?? 5;
+  const minuteRange = daylightMinuteRange(scene.site.latitudeDeg);
+  const dayOffsets: number[] = [];
+  for (let d = 0; d < dayCount; d += dayStep) dayOffsets.push(d);
+  const minutes: number[] = [];
+  for (let m = minuteRange[0]; m <= minuteRange[1] + 1e-9; m += minuteStep) minutes.push(m);
+
+  const model = options.model ?? buildEvidenceModel(scene);
+  const grid = chiSquareOnDayMinuteGrid(model, {
+    dayJd0s: dayOffsets.map((d) => jan1 + d),
+    minutes,
+    assumedClock: assumedClockOfCandidate(best),
+    nuisances: nuisancesOfCandidate(model, best),
+    onProgress: options.onProgress,
+  });
+  const closeUp = best ? closeUpGrid(model, best, rule, jan1) : undefined;
+  const reference = Math.min(grid.minimum, closeUp ? closeUp.minimum : Infinity, best ? best.chiSquare + best.softPenalty : Infinity);
+  const deltaChiSquare = grid.values.map((row) => row.map((v) => v - reference));
+
+  const allowed = scene.window.months && scene.window.months.length > 0 ? new Set(scene.window.months) : null;
+  const months = MONTH_NAMES.map((name, k) => {
+    const from = k === 0 ? 0 : safeOffset(rule, year, k + 1, jan1);
+    const to = k === 11 ? dayCount : safeOffset(rule, year, k + 2, jan1);
+    return { fromOffset: from, toOffset: to, name: name.slice(0, 3), excluded: allowed !== null && !allowed.has(k + 1) };
+  });
+
+  const markers = markedCandidates(answer).map((mark, k) => markerOf(mark, k, year, jan1, rule));
+
+  return {
+    year,
+    yearLabel: formatYearBcAd(year),
+    calendarLabel: best ? (best.civilDate.calendar === 'julian' ? 'Julian calendar' : 'Gregorian calendar') : 'calendar of the site',
+    clockLabel: best ? best.clockAssumptionLabel : 'no clock',
+    dayCount,
+    minuteRange,
+    dayOffsets,
+    minutes,
+    deltaChiSquare,
+    dayStep,
+    minuteStep,
+    months,
+    markers,
+    closeUp: closeUp ? { ...closeUp.data, deltaChiSquare: closeUp.values.map((row) => row.map((v) => v - reference)) } : undefined,
+    fromOtherYears: markers.filter((m) => !m.inMapYear).length,
+    evaluations: grid.evaluations + (closeUp ? closeUp.evaluations : 0),
+  };
+}
+
+/** Offset of the first day of a month from 1 January; a month whose 1st fell in a reform gap starts at its first existing day. */
+function safeOffset(rule: ResolvedCalendar, year: number, month: number, jan1: number): number {
+  for (let day = 1; day <= 28; day += 1) {
+    try {
+      return civilDateToJd(rule, { year, month, day }) - jan1;
+    } catch {
+      // a day skipped at a reform: try the next
+    }
+  }
+  return 0;
+}
+
+/** Columns and rows of the close-up grid. */
+const CLOSE_UP_COLUMNS = 61;
+const CLOSE_UP_ROWS = 61;
+
+/**
+ * A finer grid around the best candidate: +/- three times the 95% half-widths (at least 8 days
+ * and 30 minutes, at most 60 days and 180 minutes), or the profile-scan interval when the
+ * ellipse is invalid. Days are continuous here: between whole days the solver's dated model
+ * interpolates the sun smoothly (src/solver/fitting.ts).
+ */
+function closeUpGrid(model: EvidenceModel, best: Candidate, rule: ResolvedCalendar, jan1: number) {
+  const centreDay = civilDateToJd(rule, best.civilDate) - jan1;
+  const u = best.uncertainty;
+  const e95 = u.ellipses.find((e) => e.probability > 0.9) ?? u.ellipses[u.ellipses.length - 1];
+  let halfDays = e95 ? 3 * e95.halfWidthDays : 8;
+  let halfMinutes = e95 ? 3 * e95.halfWidthMinutes : 30;
+  if (!u.ellipseValid && u.profile) {
+    halfDays = 1.3 * Math.max(Math.abs(u.profile.fromDays), Math.abs(u.profile.toDays));
+    halfMinutes = Math.max(halfMinutes, 1.3 * Math.abs(u.profile.toLocalApparentMinutes - u.profile.fromLocalApparentMinutes));
+  }
+  halfDays = Math.min(60, Math.max(8, Number.isFinite(halfDays) ? halfDays : 8));
+  halfMinutes = Math.min(180, Math.max(30, Number.isFinite(halfMinutes) ? halfMinutes : 30));
+  const m0 = best.times.localApparentMinutes;
+  const dayRange: [number, number] = [centreDay - halfDays, centreDay + halfDays];
+  const minuteRange: [number, number] = [m0 - halfMinutes, m0 + halfMinutes];
+  const dayStep = (2 * halfDays) / (CLOSE_UP_COLUMNS - 1);
+  const minuteStep = (2 * halfMinutes) / (CLOSE_UP_ROWS - 1);
+  const dayOffsets = Array.from({ length: CLOSE_UP_COLUMNS }, (_, i) => dayRange[0] + i * dayStep);
+  const minutes = Array.from({ length: CLOSE_UP_ROWS }, (_, j) => minuteRange[0] + j * minuteStep);
+  const grid = chiSquareOnDayMinuteGrid(model, {
+    dayJd0s: dayOffsets.map((d) => jan1 + d),
+    minutes,
+    assumedClock: assumedClockOfCandidate(best),
+    nuisances: nuisancesOfCandidate(model, best),
+  });
+  const tickStep = [1, 2, 3, 5, 7, 10, 14, 21, 30].find((step) => (2 * halfDays) / step <= 5) ?? 30;
+  const dayLabels: { offset: number; label: string }[] = [];
+  for (let d = Math.ceil(dayRange[0] / tickStep) * tickStep; d <= dayRange[1]; d += tickStep) {
+    const c = jdToCivilDate(rule, jan1 + d).civil;
+    dayLabels.push({ offset: d, label: `${c.day} ${MONTH_NAMES[c.month - 1].slice(0, 3)}` });
+  }
+  return {
+    data: { dayRange, minuteRange, dayOffsets, minutes, dayStep, minuteStep, dayLabels },
+    values: grid.values,
+    minimum: grid.minimum,
+    evaluations: grid.evaluations,
+  };
+}

@@ -1,0 +1,134 @@
+/**
+ * The sky chart: azimuth (degrees clockwise from true north, compass letters below) across,
+ * apparent altitude up. Each measured observation is drawn as its band of sun directions within
+ * 1 sigma (filled lightly and outlined in its own colour and line style); the sun's daily paths
+ * on the candidates' days carry a mark at every whole hour of local apparent time; the
+ * candidates' suns are drawn with their 68% and 95% sky ellipses.
+ */
+import { normalizeDeg360 } from '../math/angles.js';
+import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
+import { cellRuns, isolineSegments } from './contour.js';
+import { CHART_STYLE, DASHES, INK, OKABE_ITO, seriesStyle } from './palette.js';
+import { linearScale, niceTicks, type LinearScale } from './scale.js';
+import type { SkyBand, SkyChartData } from './skyChartData.js';
+import { el, group, num, pathData, svgDocument, text } from './svg.js';
+
+const WIDTH = 820;
+const HEIGHT = 500;
+const AREA: PlotArea = { left: 62, top: 60, width: 540, height: 340 };
+const PATH_DASHES = [DASHES.solid, DASHES.dashed, DASHES.dotted] as const;
+const COMPASS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'] as const;
+
+function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale): string {
+  const style = seriesStyle(index);
+  const da = band.azimuths.length > 1 ? band.azimuths[1] - band.azimuths[0] : 1;
+  const dh = band.altitudes.length > 1 ? band.altitudes[1] - band.altitudes[0] : 1;
+  const runs = cellRuns(band.altitudes.length, band.azimuths.length, (j, i) => band.values[j][i] <= 1);
+  const fill = runs
+    .map((r) => {
+      const x0 = x(band.azimuths[r.i0] - da / 2);
+      const x1 = x(band.azimuths[r.i1 - 1] + da / 2);
+      const y0 = y(band.altitudes[r.j] + dh / 2);
+      const y1 = y(band.altitudes[r.j] - dh / 2);
+      return `M${num(x0)} ${num(y0)}H${num(x1)}V${num(y1)}H${num(x0)}Z`;
+    })
+    .join('');
+  const outline = isolineSegments({ xs: band.azimuths, ys: band.altitudes, values: band.values }, 1)
+    .map(([p, q]) => `M${num(x(p[0]))} ${num(y(p[1]))}L${num(x(q[0]))} ${num(y(q[1]))}`)
+    .join('');
+  return group({ class: 'hc-sky-band', 'data-observation': band.observationId }, [
+    fill === '' ? '' : el('path', { d: fill, fill: style.color, 'fill-opacity': 0.16, stroke: 'none' }),
+    outline === '' ? '' : el('path', { d: outline, fill: 'none', stroke: style.color, 'stroke-width': 1.6, 'stroke-dasharray': style.dash }),
+  ]);
+}
+
+function azimuthTicks(range: readonly [number, number]): { ticks: Tick[]; compass: Tick[] } {
+  const span = range[1] - range[0];
+  const step = span > 200 ? 30 : span > 100 ? 20 : 10;
+  const ticks = niceTicks(range[0], range[1], 10, step).map((v) => ({ value: v, label: `${num(normalizeDeg360(v), 0)}` }));
+  const compass = niceTicks(range[0], range[1], 8, 45).map((v) => ({ value: v, label: COMPASS[Math.round(normalizeDeg360(v) / 45) % 8] }));
+  return { ticks, compass };
+}
+
+function legend(data: SkyChartData): string {
+  const left = AREA.left + AREA.width + 18;
+  let y = AREA.top + 4;
+  const parts: string[] = [text(left, y, 'Within 1 sigma of', { class: 'hc-legend', 'font-weight': 'bold' })];
+  y += 16;
+  data.bands.forEach((b, i) => {
+    const s = seriesStyle(i);
+    parts.push(el('rect', { x: left, y: y - 9, width: 22, height: 10, fill: s.color, 'fill-opacity': 0.16, stroke: s.color, 'stroke-width': 1.6, 'stroke-dasharray': s.dash }));
+    parts.push(text(left + 28, y, b.observationId, { class: 'hc-legend' }));
+    y += 15;
+  });
+  y += 8;
+  parts.push(text(left, y, 'Sun path on', { class: 'hc-legend', 'font-weight': 'bold' }));
+  y += 16;
+  data.paths.forEach((p, i) => {
+    parts.push(el('path', { d: `M${left} ${y - 4}h22`, stroke: INK.ink, 'stroke-width': 1.3, 'stroke-dasharray': PATH_DASHES[i % 3], fill: 'none' }));
+    parts.push(text(left + 28, y, p.label, { class: 'hc-legend' }));
+    y += 15;
+  });
+  parts.push(el('circle', { cx: left + 11, cy: y - 4, r: 2, fill: INK.ink }));
+  parts.push(text(left + 28, y, 'whole hour, local apparent time', { class: 'hc-legend' }));
+  y += 23;
+  parts.push(el('circle', { cx: left + 11, cy: y - 4, r: 4, fill: OKABE_ITO.yellow, stroke: INK.ink, 'stroke-width': 1.2 }));
+  parts.push(text(left + 28, y, 'the sun at F1, F2, ...', { class: 'hc-legend' }));
+  y += 15;
+  parts.push(el('path', { d: `M${left} ${y - 4}h22`, stroke: INK.ink, 'stroke-width': 1.1, fill: 'none' }));
+  parts.push(text(left + 28, y, '68% sky ellipse', { class: 'hc-legend' }));
+  y += 15;
+  parts.push(el('path', { d: `M${left} ${y - 4}h22`, stroke: INK.ink, 'stroke-width': 1.1, 'stroke-dasharray': '4 2.5', fill: 'none' }));
+  parts.push(text(left + 28, y, '95% sky ellipse', { class: 'hc-legend' }));
+  return group({ class: 'hc-legend-block' }, parts);
+}
+
+/**
+ * The sky chart as a standalone SVG document.
+ * @param idPrefix prefix of the ids inside (several charts can share one HTML page)
+ */
+export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string {
+  const x = linearScale(data.azimuthRange, [AREA.left, AREA.left + AREA.width]);
+  const y = linearScale(data.altitudeRange, [AREA.top + AREA.height, AREA.top]);
+  const clip = `${idPrefix}-clip`;
+  const { ticks, compass } = azimuthTicks(data.azimuthRange);
+  const paths = data.paths.map((p, i) =>
+    group({ class: 'hc-sun-path' }, [
+      el('path', { d: pathData(p.points.map(([az, alt]) => [x(az), y(alt)])), fill: 'none', stroke: INK.ink, 'stroke-width': 1.3, 'stroke-dasharray': PATH_DASHES[i % 3] }),
+      ...p.hourMarks.map((h) => el('circle', { cx: x(h.azimuthDeg), cy: y(h.altitudeDeg), r: 2, fill: INK.ink })),
+      ...(i === 0 ? p.hourMarks.map((h) => text(x(h.azimuthDeg), y(h.altitudeDeg) - 6, h.label, { class: 'hc-note', 'text-anchor': 'middle' })) : []),
+    ]),
+  );
+  const suns = data.suns.map((s, k) =>
+    group({ class: 'hc-candidate-sun' }, [
+      ...s.ellipses.map((e) => el('path', { d: pathData(e.points.map(([az, alt]) => [x(az), y(alt)]), true), fill: 'none', stroke: INK.ink, 'stroke-width': 1.1, 'stroke-dasharray': e.probability > 0.9 ? '4 2.5' : undefined })),
+      el('circle', { cx: x(s.azimuthDeg), cy: y(s.altitudeDeg), r: k === 0 ? 4.5 : 3.5, fill: OKABE_ITO.yellow, stroke: INK.ink, 'stroke-width': 1.2 }),
+      // Labels alternate right-below and left-above, so that suns close together stay readable.
+      k % 2 === 0
+        ? text(x(s.azimuthDeg) + 7, y(s.altitudeDeg) + 13, s.label, { class: 'hc-legend', 'font-weight': 'bold' })
+        : text(x(s.azimuthDeg) - 7, y(s.altitudeDeg) - 7, s.label, { class: 'hc-legend', 'font-weight': 'bold', 'text-anchor': 'end' }),
+    ]),
+  );
+  const title = 'Where the sun must have stood';
+  const caption = 'Coloured bands: the sun directions within 1 sigma of each measured shadow; black lines: the sun\u2019s path on the best days.';
+  const notes = data.notes.length > 0 ? [text(AREA.left, HEIGHT - 12, `Not drawn: ${data.notes.join('; ')}.`, { class: 'hc-note' })] : [];
+  return svgDocument({
+    width: WIDTH,
+    height: HEIGHT,
+    title,
+    description: caption,
+    style: CHART_STYLE,
+    idPrefix,
+    body: [
+      el('rect', { width: WIDTH, height: HEIGHT, fill: INK.paper }),
+      el('defs', {}, clipPathFor(clip, AREA)),
+      titleBlock(AREA.left, title, caption),
+      group({ 'clip-path': `url(#${clip})` }, [...data.bands.map((b, i) => bandMarks(b, i, x, y)), ...paths, ...suns]),
+      bottomAxis(AREA, { scale: x, ticks, label: 'azimuth (degrees clockwise from true north)', grid: true, secondary: compass }),
+      leftAxis(AREA, { scale: y, ticks: niceTicks(data.altitudeRange[0], data.altitudeRange[1], 6).map((v) => ({ value: v, label: num(v, 0) })), label: 'altitude above the horizon (degrees)', grid: true }),
+      plotFrame(AREA),
+      legend(data),
+      ...notes,
+    ],
+  });
+}

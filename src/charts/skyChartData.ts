@@ -1,0 +1,179 @@
+/**
+ * The data of the sky chart: for each measured shadow observation, the band of sun directions
+ * within 1 sigma of it (its normalised residual evaluated on an azimuth-altitude grid, the
+ * largest component taken when it has several); the sun's daily paths on the candidates' days
+ * with marks at the whole hours of local apparent time; and the candidates' sky ellipses.
+ *
+ * The wall azimuths are those fitted at the best candidate. Clock readings and facts without
+ * numbers (wall lit, sun up) are no band on the sky and are listed in the notes instead.
+ * Rendering is in skyChart.ts.
+ */
+import type { Scene } from '../scene/types.js';
+import type { DateAnswer } from '../solver/types.js';
+import { MONTH_NAMES } from '../calendar/julianDay.js';
+import { civilDateToJd, resolveCalendarRule } from '../calendar/regions.js';
+import { formatYearBcAd } from '../calendar/format.js';
+import { normalizeDeg180 } from '../math/angles.js';
+import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
+import { evidenceResiduals } from '../geometry/observationModels.js';
+import { buildEvidenceModel, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
+import { nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
+import { ellipsePoints, semiAxisVectors } from './ellipse.js';
+import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
+
+export interface SkyBand {
+  readonly observationId: string;
+  readonly label: string;
+  /** Grid azimuths (in the chart's unwrapped azimuth), altitudes, and max |normalised residual| values[j][i]. */
+  readonly azimuths: readonly number[];
+  readonly altitudes: readonly number[];
+  readonly values: readonly (readonly number[])[];
+}
+
+export interface SkyPath {
+  readonly label: string;
+  readonly points: readonly (readonly [number, number])[];
+  readonly hourMarks: readonly { readonly azimuthDeg: number; readonly altitudeDeg: number; readonly label: string }[];
+}
+
+export interface SkySun {
+  /** "F1" (best of family 1) or a candidate rank, as in markedCandidates. */
+  readonly label: string;
+  readonly azimuthDeg: number;
+  readonly altitudeDeg: number;
+  readonly ellipses: readonly { readonly probability: number; readonly points: readonly (readonly [number, number])[] }[];
+}
+
+export interface SkyChartData {
+  /** Azimuth at the middle of the chart: 180 (sun paths around the south) or 0 (around the north). */
+  readonly centreAzimuthDeg: number;
+  /** Unwrapped azimuth range: centre +/- up to 180. */
+  readonly azimuthRange: readonly [number, number];
+  readonly altitudeRange: readonly [number, number];
+  readonly bands: readonly SkyBand[];
+  readonly paths: readonly SkyPath[];
+  readonly suns: readonly SkySun[];
+  readonly notes: readonly string[];
+  readonly evaluations: number;
+}
+
+export interface SkyChartOptions {
+  readonly model?: EvidenceModel;
+  /** Most candidate days drawn as sun paths (default 3). */
+  readonly maxPaths?: number;
+  /** Grid columns and rows of each band (default 241 x 121). */
+  readonly columns?: number;
+  readonly rows?: number;
+}
+
+/** Unwrap an azimuth around a centre azimuth: centre + (az - centre) in (-180, 180]. */
+export function unwrapAzimuth(azimuthDeg: number, centreDeg: number): number {
+  return centreDeg + normalizeDeg180(azimuthDeg - centreDeg);
+}
+
+/** Apparent-time instant of minute m on the local day with 0h at dayJd0 (one step on the equation of time; Meeus 1998 ch. 28). */
+function instantOfApparentMinute(dayJd0: number, minutes: number, site: SunSite): number {
+  const guess = dayJd0 + minutes / 1440 - site.longitudeDeg / 360;
+  const e = sunPosition(guess, site, 'none').equationOfTimeMinutes;
+  return guess - e / 1440;
+}
+
+function pathOfDay(mark: MarkedCandidate, scene: Scene, centre: number): SkyPath {
+  const c = mark.candidate;
+  const rule = resolveCalendarRule(scene.calendar);
+  const dayJd0 = civilDateToJd(rule, c.civilDate);
+  const site: SunSite = { latitudeDeg: scene.site.latitudeDeg, longitudeDeg: scene.site.longitudeDeg, elevationM: scene.site.elevationM };
+  const points: [number, number][] = [];
+  const hourMarks: { azimuthDeg: number; altitudeDeg: number; label: string }[] = [];
+  for (let m = 0; m <= 1440; m += 10) {
+    const p = sunPosition(instantOfApparentMinute(dayJd0, m, site), site, scene.air);
+    if (p.altitudeDeg < -1) continue;
+    points.push([unwrapAzimuth(p.azimuthDeg, centre), p.altitudeDeg]);
+    if (m % 60 === 0 && p.altitudeDeg > 0) hourMarks.push({ azimuthDeg: unwrapAzimuth(p.azimuthDeg, centre), altitudeDeg: p.altitudeDeg, label: `${m / 60}h` });
+  }
+  const d = c.civilDate;
+  const label = `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${mark.label})`;
+  return { label, points, hourMarks };
+}
+
+/** The marked candidates on different days of the year (month and day), at most max. */
+function distinctDays(marked: readonly MarkedCandidate[], max: number): MarkedCandidate[] {
+  const seen = new Set<string>();
+  const out: MarkedCandidate[] = [];
+  for (const c of marked) {
+    const key = `${c.candidate.civilDate.month}-${c.candidate.civilDate.day}`;
+    if (seen.has(key)) continue;
+    seen.add(key);
+    out.push(c);
+    if (out.length >= max) break;
+  }
+  return out;
+}
+
+const COMPONENT_WORDS: Record<string, string> = {
+  'rod-shadow': 'rod shadow',
+  'overhang-shadow': 'overhang shadow',
+  'fin-shadow': 'fin shadow',
+  'pole-shadow': 'pole shadow',
+  'eave-shadow': 'eave shadow',
+  'shadow-points': 'shadow points',
+  'sun-direction': 'sun direction',
+};
+
+/** Everything the sky chart draws, from the scene and the solver's answer. */
+export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChartOptions = {}): SkyChartData {
+  const model = options.model ?? buildEvidenceModel(scene);
+  const marked = markedCandidates(answer);
+  const best = marked[0]?.candidate;
+  const centre = scene.site.latitudeDeg >= 0 ? 180 : 0;
+  const paths = distinctDays(marked, options.maxPaths ?? 3).map((m) => pathOfDay(m, scene, centre));
+
+  let azMin = centre - 90;
+  let azMax = centre + 90;
+  let altMax = 30;
+  for (const p of paths) {
+    for (const [az, alt] of p.points) {
+      azMin = Math.min(azMin, az);
+      azMax = Math.max(azMax, az);
+      altMax = Math.max(altMax, alt);
+    }
+  }
+  const azimuthRange: [number, number] = [Math.max(centre - 180, Math.floor((azMin - 5) / 10) * 10), Math.min(centre + 180, Math.ceil((azMax + 5) / 10) * 10)];
+  const altitudeRange: [number, number] = [0, Math.min(90, Math.ceil((altMax + 5) / 10) * 10)];
+
+  const nuisances = nuisancesOfCandidate(model, best);
+  const columns = options.columns ?? 241;
+  const rows = options.rows ?? 121;
+  const azimuths = Array.from({ length: columns }, (_, i) => azimuthRange[0] + ((azimuthRange[1] - azimuthRange[0]) * i) / (columns - 1));
+  const altitudes = Array.from({ length: rows }, (_, j) => altitudeRange[0] + ((altitudeRange[1] - altitudeRange[0]) * j) / (rows - 1));
+  let evaluations = 0;
+  const bands: SkyBand[] = model.shadows.map((term) => {
+    const wallAz = wallAzimuthOf(model, term.wallId, nuisances);
+    const values = altitudes.map((alt) =>
+      azimuths.map((az) => {
+        evaluations += 1;
+        const r = evidenceResiduals(term.evidence, { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt }, wallAz);
+        if (!r.defined) return 99; // the shadow cannot arise there (wall in shade): far outside the band
+        return r.residuals.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
+      }),
+    );
+    const words = COMPONENT_WORDS[term.observationKind] ?? term.observationKind;
+    return { observationId: term.observationId, label: `${term.observationId} (${words}${term.wallId ? `, wall ${term.wallId}` : ''})`, azimuths, altitudes, values };
+  });
+
+  const suns: SkySun[] = marked.map(({ label, candidate: c }) => ({
+    label,
+    azimuthDeg: unwrapAzimuth(c.sun.azimuthDeg, centre),
+    altitudeDeg: c.sun.altitudeDeg,
+    ellipses: c.uncertainty.skyEllipses.map((e) => {
+      const [a, b] = semiAxisVectors(e.semiMajorDeg, e.semiMinorDeg, e.orientationDeg);
+      return { probability: e.probability, points: ellipsePoints([unwrapAzimuth(c.sun.azimuthDeg, centre), c.sun.altitudeDeg], a, b) };
+    }),
+  }));
+
+  const notes: string[] = [];
+  if (model.clocks.length > 0) notes.push(`clock reading${model.clocks.length > 1 ? 's' : ''} (${model.clocks.map((c) => c.observationId).join(', ')}) constrain the hour, not the sky direction`);
+  const explicitFacts = model.facts.filter((f) => !f.implicit);
+  if (explicitFacts.length > 0) notes.push(`facts without numbers (${explicitFacts.map((f) => f.observationId).join(', ')}) are not drawn`);
+  return { centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, evaluations };
+}

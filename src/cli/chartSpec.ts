@@ -1,0 +1,50 @@
+/**
+ * Options of `heliochron chart`: light, loaded with the program; the work is in chartCommand.ts.
+ */
+import type { Command } from 'commander';
+import type { CliIo } from './io.js';
+
+export const CHART_KINDS = ['map', 'sky', 'residuals'] as const;
+export type ChartKind = (typeof CHART_KINDS)[number];
+
+/** The options as the command receives them (the kind is validated in chartCommand.ts). */
+export interface ChartOptions {
+  readonly kind?: string;
+  readonly output?: string;
+  readonly force: boolean;
+}
+
+export function registerChart(program: Command, io: CliIo): void {
+  program
+    .command('chart')
+    .summary('draw one picture of the answer as an SVG file: the date-and-hour map, the sky chart or the residuals')
+    .description(
+      'Solve the scene as `heliochron date` does and draw one chart as a standalone SVG file: ' +
+        "'map' - the year against the hour of local apparent time, shaded by how well each day and hour fits, the candidates " +
+        "with their error ellipses; 'sky' - azimuth against altitude, each measured shadow as its band of possible sun " +
+        "directions, the sun's paths on the candidate days; 'residuals' - how far each measurement is from the best " +
+        'candidate, in units of its sigma. docs/pictures.md explains how to read them.',
+    )
+    .argument('<scene>', 'the scene file (.yaml, .yml or .json)')
+    .option('--kind <kind>', `which chart: ${CHART_KINDS.join(', ')}`)
+    .option('-o, --output <file>', 'write the SVG to this file (default: print it)')
+    .option('--force', 'replace the output file if it exists')
+    .addHelpText(
+      'after',
+      '\nExamples (the bundled example is in the fictional town of Velmar):\n' +
+        '  heliochron chart examples/marktgasse-print.yaml --kind map -o map.svg\n' +
+        '  heliochron chart examples/marktgasse-print.yaml --kind sky -o sky.svg --force\n',
+    )
+    .action(async (scene: string, options: Record<string, unknown>) => {
+      const { run } = await import('./chartCommand.js');
+      await run(
+        [scene],
+        {
+          kind: options.kind === undefined ? undefined : String(options.kind),
+          output: options.output === undefined ? undefined : String(options.output),
+          force: options.force === true,
+        },
+        io,
+      );
+    });
+}

@@ -1,0 +1,68 @@
+/**
+ * `heliochron date`: read a scene, solve for the dates and hours, render the answer as
+ * text, JSON or CSV, and print it or write it to a file. A thin layer over
+ * src/scene, src/solver and src/report; the validation of the options is here.
+ */
+import { existsSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { HeliochronError, InvalidInputError, OutputError } from '../errors.js';
+import type { Scene } from '../scene/types.js';
+import { readSceneFile } from '../scene/readScene.js';
+import { solveDates } from '../solver/solveDates.js';
+import { renderDateText } from '../report/text.js';
+import { dateAnswerJson, stableJson } from '../report/json.js';
+import { dateAnswerCsv } from '../report/csv.js';
+import { writeOutputFile, type CliIo } from './io.js';
+import type { DateOptions } from './dateSpec.js';
+
+/** Read the scene file; a message about its content is prefixed with the file's path. */
+export function readSceneForCommand(path: string, io: CliIo): { scene: Scene; fullPath: string } {
+  const fullPath = resolve(io.cwd, path);
+  try {
+    return { scene: readSceneFile(fullPath), fullPath };
+  } catch (error) {
+    if (error instanceof InvalidInputError) {
+      // Messages name the path in the file; say which file, as the user wrote its name.
+      const message = error.message.split(fullPath).join(path);
+      throw new HeliochronError('invalid-input', message.startsWith(path) ? message : `${path}: ${message}`);
+    }
+    throw error;
+  }
+}
+
+/** Refuse an output path early (before any work) when it exists without --force or is the input. */
+export function checkOutputPath(output: string | undefined, force: boolean, inputPath: string, io: CliIo): string | undefined {
+  if (output === undefined) return undefined;
+  if (output.trim() === '') throw new InvalidInputError('--output', output, 'a file name');
+  const target = resolve(io.cwd, output);
+  if (target === inputPath) throw new OutputError(`output file ${JSON.stringify(output)} is the input file; choose another name`);
+  if (existsSync(target) && !force) throw new OutputError(`output file ${JSON.stringify(output)} exists already; add --force to replace it`);
+  if (!existsSync(dirname(target))) throw new OutputError(`folder ${JSON.stringify(dirname(output))} for the output file does not exist`);
+  return target;
+}
+
+/** Print the answer, or write it to the output file (atomically) and say so on stderr. */
+export function deliver(text: string, target: string | undefined, output: string | undefined, force: boolean, inputPath: string, io: CliIo): void {
+  if (target === undefined) {
+    io.out(text);
+    return;
+  }
+  writeOutputFile(target, text, { force, inputs: [inputPath] });
+  io.err(`heliochron: wrote ${output}\n`);
+}
+
+/** Run `heliochron date`. Bad input throws (the CLI exits with 2, nothing written). */
+export async function run(args: readonly string[], options: DateOptions, io: CliIo): Promise<void> {
+  const [scenePath] = args;
+  if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
+  if (options.json && options.csv) throw new InvalidInputError('--csv', '--json --csv', 'one output form: --json or --csv, not both');
+  const { scene, fullPath } = readSceneForCommand(scenePath, io);
+  const target = checkOutputPath(options.output, options.force, fullPath, io);
+  const answer = solveDates(scene, { perYear: options.allYears });
+  const text = options.json
+    ? stableJson(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }))
+    : options.csv
+      ? dateAnswerCsv(answer, scene, { allYears: options.allYears })
+      : renderDateText(answer, scene, { allYears: options.allYears });
+  deliver(text, target, options.output, options.force, fullPath, io);
+}

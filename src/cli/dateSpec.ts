@@ -1,0 +1,53 @@
+/**
+ * Options of `heliochron date`: light, loaded with the program; the work is in dateCommand.ts.
+ */
+import type { Command } from 'commander';
+import type { CliIo } from './io.js';
+
+/** The options as the command receives them. */
+export interface DateOptions {
+  readonly json: boolean;
+  readonly csv: boolean;
+  readonly allYears: boolean;
+  readonly output?: string;
+  readonly force: boolean;
+  /** The program's version, written into the JSON answer. */
+  readonly version: string;
+}
+
+export function registerDate(program: Command, io: CliIo): void {
+  program
+    .command('date')
+    .summary('on what dates and hours could the light of a scene have fallen? ranked candidates with their uncertainty')
+    .description(
+      'Read a scene file (site, calendar, walls, shadow measurements, clocks) and answer with the dates and hours whose ' +
+        'sunlight fits the measurements: the verdict first, then the families of dates (the same light in several years), ' +
+        'the best candidates with their 95% uncertainty, the residual of each observation, a consistency test that leaves ' +
+        'each observation out in turn, and the assumptions. Dates are written in the calendar in force at the site, with ' +
+        'Old Style / New Style where both were in use.',
+    )
+    .argument('<scene>', 'the scene file (.yaml, .yml or .json); see docs/scene-file.md')
+    .option('--json', 'print one JSON object instead of text (byte-identical for the same input)')
+    .option('--csv', 'print one CSV row per candidate, with a header row')
+    .option('--all-years', 'list every year of each family (one line, or CSV row, per year)')
+    .option('-o, --output <file>', 'write the answer to this file instead of the screen')
+    .option('--force', 'replace the output file if it exists')
+    .addHelpText(
+      'after',
+      '\nExamples (the bundled examples are in the fictional town of Velmar):\n' +
+        '  heliochron date examples/marktgasse-print.yaml\n' +
+        '  heliochron date examples/marktgasse-print.yaml --json -o answer.json\n' +
+        '  heliochron date examples/upper-gate-drawing.yaml --all-years --csv\n',
+    )
+    .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
+      const { run } = await import('./dateCommand.js');
+      await run([scene], {
+        json: options.json === true,
+        csv: options.csv === true,
+        allYears: options.allYears === true,
+        output: options.output === undefined ? undefined : String(options.output),
+        force: options.force === true,
+        version: String(command.parent?.version() ?? ''),
+      }, io);
+    });
+}

@@ -1,0 +1,68 @@
+/**
+ * `heliochron report`: read a scene, solve it, draw the three charts and write the
+ * self-contained HTML report (src/report/html.ts). The scene file's bytes are hashed
+ * (SHA-256, FIPS 180-4, through node:crypto) for the reproducibility block.
+ */
+import { createHash } from 'node:crypto';
+import { readFileSync } from 'node:fs';
+import { basename } from 'node:path';
+import { InvalidInputError } from '../errors.js';
+import { solveDates } from '../solver/solveDates.js';
+import { renderHtmlReport } from '../report/html.js';
+import { drawChart } from './chartCommand.js';
+import { checkOutputPath, deliver, readSceneForCommand } from './dateCommand.js';
+import type { CliIo } from './io.js';
+import { progressLine } from './progress.js';
+import type { ReportOptions } from './reportSpec.js';
+
+/** A command-line word, quoted when it holds anything but plain path characters. */
+export function shellWord(word: string): string {
+  return /^[A-Za-z0-9_./:=+-]+$/.test(word) ? word : `'${word.replace(/'/g, `'\\''`)}'`;
+}
+
+/** The command as the user would type it again (paths as given). */
+export function reportCommandLine(scenePath: string, options: ReportOptions): string {
+  const words = ['heliochron', 'report', scenePath];
+  if (options.output !== undefined) words.push('-o', options.output);
+  if (options.force) words.push('--force');
+  return words.map(shellWord).join(' ');
+}
+
+/** SHA-256 of bytes, hexadecimal. */
+export function sha256Hex(bytes: Uint8Array): string {
+  return createHash('sha256').update(bytes).digest('hex');
+}
+
+/** Run `heliochron report`. Bad input throws (the CLI exits with 2, nothing written). */
+export async function run(args: readonly string[], options: ReportOptions, io: CliIo): Promise<void> {
+  const [scenePath] = args;
+  if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
+  const { scene, fullPath } = readSceneForCommand(scenePath, io);
+  const target = checkOutputPath(options.output, options.force, fullPath, io);
+  const bytes = readFileSync(fullPath);
+  const answer = solveDates(scene);
+  const progress = progressLine(io, 'drawing the date and hour map');
+  let charts;
+  try {
+    charts = {
+      map: drawChart('map', scene, answer, progress.onProgress, 'hc-map'),
+      sky: drawChart('sky', scene, answer, undefined, 'hc-sky'),
+      residuals: drawChart('residuals', scene, answer, undefined, 'hc-residuals'),
+    };
+  } finally {
+    progress.finish();
+  }
+  const html = renderHtmlReport({
+    scene,
+    answer,
+    charts,
+    reproducibility: {
+      version: options.version,
+      sceneSha256: sha256Hex(bytes),
+      commandLine: reportCommandLine(scenePath, options),
+      seed: scene.seed,
+      sceneFileName: basename(scenePath),
+    },
+  });
+  deliver(html, target, options.output, options.force, fullPath, io);
+}

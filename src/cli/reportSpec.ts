@@ -1,0 +1,44 @@
+/**
+ * Options of `heliochron report`: light, loaded with the program; the work is in reportCommand.ts.
+ */
+import type { Command } from 'commander';
+import type { CliIo } from './io.js';
+
+export interface ReportOptions {
+  readonly output?: string;
+  readonly force: boolean;
+  /** The program's version, written into the report's reproducibility block. */
+  readonly version: string;
+}
+
+export function registerReport(program: Command, io: CliIo): void {
+  program
+    .command('report')
+    .summary('write the whole answer as one self-contained HTML file, with its charts, assumptions and cautions')
+    .description(
+      'Solve the scene and write one HTML file that opens in any browser without a network and prints well to PDF: ' +
+        'the question, the site, the calendar and year start, the time-keeping assumed, Delta T, refraction, where each ' +
+        'wall azimuth came from, the evidence, the ranked candidates, the three charts, the consistency test, the cautions, ' +
+        'and what is needed to reproduce it (version, SHA-256 of the scene file, the command, the seed).',
+    )
+    .argument('<scene>', 'the scene file (.yaml, .yml or .json)')
+    .option('-o, --output <file>', 'write the HTML to this file (default: print it)')
+    .option('--force', 'replace the output file if it exists')
+    .addHelpText(
+      'after',
+      '\nExample (the bundled example is in the fictional town of Velmar):\n' +
+        '  heliochron report examples/marktgasse-print.yaml -o marktgasse-report.html\n',
+    )
+    .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
+      const { run } = await import('./reportCommand.js');
+      await run(
+        [scene],
+        {
+          output: options.output === undefined ? undefined : String(options.output),
+          force: options.force === true,
+          version: String(command.parent?.version() ?? ''),
+        },
+        io,
+      );
+    });
+}

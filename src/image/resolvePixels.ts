@@ -1,0 +1,139 @@
+/**
+ * A scene with every pixel-form observation turned into its numeric form, so
+ * that the solver needs to know nothing of pixels.
+ *
+ * Each wall's imagePlane and the groundPlane are rectified once and every
+ * observation given in pixels is measured (measureScene.ts); the observation
+ * is then replaced by its numeric form (slopeDeg and side with sigmaDeg,
+ * depthRatio with sigma, widthRatio and side with sigma, shadowAzimuthDeg and
+ * lengthRatio with their sigmas), its `pixels` left out. Observations already
+ * numeric, walls, planes and everything else are kept as they are, so the
+ * function is idempotent.
+ *
+ * Sigma: the first-order sigma of the clicks (src/image/propagation.ts,
+ * after Criminisi, Reid and Zisserman 1997). When the measurement bends within
+ * the clicking error (`firstOrderReliable` false), the first-order sigma may be
+ * several times too small; then the Monte Carlo spread of the same clicks,
+ * seeded from the scene's seed, is computed and the larger of the two is used
+ * (common practice: never let a linearisation make a measurement look better
+ * than its sampled spread). Which one was used is reported per value.
+ */
+import { createRandom } from '../math/random.js';
+import type { Observation, Scene } from '../scene/types.js';
+import { measureScenePixels } from './measureScene.js';
+import { monteCarloPixelObservation, type MeasuredQuantity, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
+import type { RectifiedPlane } from './planeInImage.js';
+
+/** Monte Carlo samples drawn for a measurement whose first-order sigma is not reliable. */
+export const RESOLVE_MONTE_CARLO_SAMPLES = 1000;
+
+/** One value written into the scene, with where its sigma came from. */
+export interface ResolvedValue {
+  /** Field name in the numeric form: 'slopeDeg', 'depthRatio', 'widthRatio', 'shadowAzimuthDeg', 'lengthRatio'. */
+  readonly name: string;
+  readonly value: number;
+  /** The sigma written into the scene. */
+  readonly sigma: number;
+  readonly firstOrderSigma: number;
+  /** Monte Carlo spread, present when the first-order sigma is not reliable. */
+  readonly monteCarloSigma?: number;
+  readonly sigmaSource: 'first-order' | 'monte-carlo';
+}
+
+export interface ResolvedMeasurement {
+  /** Path of the observation in the scene file, e.g. `observations[3]`. */
+  readonly field: string;
+  readonly measurement: PixelMeasurement;
+  readonly values: readonly ResolvedValue[];
+  /** Seed and samples of the Monte Carlo run, when one was made. */
+  readonly monteCarlo?: { readonly seed: number; readonly samples: number };
+}
+
+export interface ResolvedScene {
+  /** The scene with every pixel-form observation in numeric form. */
+  readonly scene: Scene;
+  /** Rectified planes by scene path (`walls[0].imagePlane`, `groundPlane`), only those used. */
+  readonly planes: ReadonlyMap<string, RectifiedPlane>;
+  /** One per pixel-form observation, in scene order. */
+  readonly measurements: readonly ResolvedMeasurement[];
+}
+
+/** The measured quantities of a measurement in the order of its numeric fields. */
+export function measuredQuantities(m: PixelMeasurement): readonly { readonly name: string; readonly quantity: MeasuredQuantity }[] {
+  switch (m.kind) {
+    case 'rod-shadow':
+      return [{ name: 'slopeDeg', quantity: m.slopeDeg }];
+    case 'overhang-shadow':
+      return [{ name: 'depthRatio', quantity: m.depthRatio }];
+    case 'fin-shadow':
+      return [{ name: 'widthRatio', quantity: m.widthRatio }];
+    case 'pole-shadow':
+      return m.lengthRatio
+        ? [{ name: 'shadowAzimuthDeg', quantity: m.shadowAzimuthDeg }, { name: 'lengthRatio', quantity: m.lengthRatio }]
+        : [{ name: 'shadowAzimuthDeg', quantity: m.shadowAzimuthDeg }];
+  }
+}
+
+/** The numeric observation with the sigmas actually used. */
+function numericObservation(m: PixelMeasurement, values: readonly ResolvedValue[]): Observation {
+  const sigma = (name: string): number => values.find((v) => v.name === name)!.sigma;
+  switch (m.kind) {
+    case 'rod-shadow':
+      return { ...m.observation, sigmaDeg: sigma('slopeDeg') };
+    case 'overhang-shadow':
+      return { ...m.observation, sigma: sigma('depthRatio') };
+    case 'fin-shadow':
+      return { ...m.observation, sigma: sigma('widthRatio') };
+    case 'pole-shadow':
+      return m.lengthRatio
+        ? { ...m.observation, shadowAzimuthSigmaDeg: sigma('shadowAzimuthDeg'), lengthRatioSigma: sigma('lengthRatio') }
+        : { ...m.observation, shadowAzimuthSigmaDeg: sigma('shadowAzimuthDeg') };
+  }
+}
+
+/**
+ * Resolve every pixel-form observation of a scene into its numeric form.
+ * Throws InvalidInputError naming the path in the scene file for degenerate clicks
+ * (three collinear corners, crossing edges, points outside the picture, a missing plane).
+ * @example resolvePixelObservations(scene).scene.observations[1] // { kind: 'rod-shadow', slopeDeg: 41.2, side: 'left', sigmaDeg: 0.9, ... }
+ */
+export function resolvePixelObservations(scene: Scene): ResolvedScene {
+  const { planes, measurements } = measureScenePixels(scene);
+  if (measurements.length === 0) return { scene, planes, measurements: [] };
+  const resolved: ResolvedMeasurement[] = measurements.map(({ field, measurement }) => {
+    const quantities = measuredQuantities(measurement);
+    const reliable = quantities.every((q) => q.quantity.firstOrderReliable);
+    if (reliable) {
+      const values = quantities.map(({ name, quantity }): ResolvedValue => ({
+        name, value: quantity.value, sigma: quantity.sigma, firstOrderSigma: quantity.sigma, sigmaSource: 'first-order',
+      }));
+      return { field, measurement, values };
+    }
+    const index = Number(/\[(\d+)\]/.exec(field)![1]);
+    const seed = (scene.seed + index) >>> 0; // one stream per observation, repeatable from the scene's seed
+    const plane = planes.get(measurement.rectification.field)!;
+    const mc = monteCarloPixelObservation(scene.observations[index] as PixelObservation, plane, field, createRandom(seed), RESOLVE_MONTE_CARLO_SAMPLES);
+    const values = quantities.map(({ name, quantity }, k): ResolvedValue => {
+      const mcSigma = mc.sigmas[k];
+      const useMc = mcSigma > quantity.sigma;
+      return {
+        name, value: quantity.value, sigma: useMc ? mcSigma : quantity.sigma, firstOrderSigma: quantity.sigma,
+        monteCarloSigma: mcSigma, sigmaSource: useMc ? 'monte-carlo' : 'first-order',
+      };
+    });
+    return { field, measurement, values, monteCarlo: { seed, samples: RESOLVE_MONTE_CARLO_SAMPLES } };
+  });
+  const byField = new Map(resolved.map((r) => [r.field, r]));
+  const observations = scene.observations.map((obs, k) => {
+    const r = byField.get(`observations[${k}]`);
+    return r ? numericObservation(r.measurement, r.values) : obs;
+  });
+  return { scene: { ...scene, observations }, planes, measurements: resolved };
+}
+
+/** True when a scene has at least one observation given in pixels. */
+export function hasPixelObservations(scene: Scene): boolean {
+  return scene.observations.some(
+    (o) => (o.kind === 'rod-shadow' || o.kind === 'overhang-shadow' || o.kind === 'fin-shadow' || o.kind === 'pole-shadow') && o.pixels !== undefined,
+  );
+}

@@ -1,0 +1,169 @@
+/**
+ * Dressing a raw candidate for the answer: civil date in the site's calendar (and the other
+ * calendar where a switch applies), weekday, times in every clock, sun position, residuals
+ * in the observations' own units, facts in words, nuisances, uncertainty.
+ */
+import type { Candidate, ClockAssumption, FactEntry, NuisanceEntry, ResidualEntry, SolverCalendarDate } from './types.js';
+import type { ClockKind } from '../scene/types.js';
+import { jdToCalendarDate, weekdayOfJd, WEEKDAY_NAMES, type CalendarDate } from '../calendar/julianDay.js';
+import { jdToCivilDate } from '../calendar/regions.js';
+import { chiSquarePValue } from '../math/chiSquare.js';
+import { deltaTAtJdUT } from '../time/timeScales.js';
+import { describeClockKind, formatClockKind, jdUTToClockMinutes } from '../time/clock.js';
+import { factNote, predictClock, predictedValuesOf, wallAzimuthOf, wrapSymmetric, type EvidenceModel } from './evidenceModel.js';
+import { zoneOffsetsAt } from './fitting.js';
+import { candidateUncertainty, type UncertaintyCache } from './candidateUncertainty.js';
+import type { RawCandidate } from './stageB.js';
+import type { DayWindow } from './window.js';
+
+export function plainDate(d: CalendarDate): SolverCalendarDate {
+  return { calendar: d.calendar, year: d.year, month: d.month, day: d.day };
+}
+
+function wrapDay(minutes: number): number {
+  const m = minutes % 1440;
+  return m < 0 ? m + 1440 : m;
+}
+
+/** The label of a clock assumption in words. */
+export function clockAssumptionLabel(a: ClockAssumption): string {
+  if (a.kind === 'none') return 'no clock';
+  const { stated, ...kind } = a;
+  const words = describeClockKind(kind as ClockKind);
+  return stated ? `clock kept ${words} (as stated)` : `clock kept ${words} (tried: the scene does not say)`;
+}
+
+/** The clock kind of an assumption, or null. */
+export function assumedKind(a: ClockAssumption): ClockKind | null {
+  if (a.kind === 'none') return null;
+  const { stated: _stated, ...kind } = a;
+  return kind as ClockKind;
+}
+
+export interface DressContext {
+  readonly model: EvidenceModel;
+  readonly win: DayWindow;
+  readonly assumptions: readonly ClockAssumption[];
+  readonly cache: UncertaintyCache;
+  readonly profileScans: boolean;
+}
+
+/** A Candidate from a raw candidate (rank and weight given by the caller). */
+export function dressCandidate(raw: RawCandidate, id: string, rank: number, relativeWeight: number, dc: DressContext): Candidate {
+  const { model, win } = dc;
+  const scene = model.scene;
+  const assumption = dc.assumptions[raw.assumptionIndex];
+  const kind = assumedKind(assumption);
+  const p = raw.point;
+  const civilAnswer = jdToCivilDate(win.calendar, raw.dayJd0 + 0.5);
+  const civil = civilAnswer.date;
+  const named: SolverCalendarDate = { calendar: civil.calendar, year: civilAnswer.civil.year, month: civilAnswer.civil.month, day: civilAnswer.civil.day };
+  const switching = scene.calendar.kind === 'region' || scene.calendar.kind === 'switch';
+  const other = switching ? plainDate(jdToCalendarDate(raw.dayJd0 + 0.5, civil.calendar === 'julian' ? 'gregorian' : 'julian').date) : undefined;
+  const e = p.state.equationOfTimeMinutes;
+  const site = { longitudeDeg: scene.site.longitudeDeg };
+  let clock: Candidate['times']['clock'];
+  const shownKind = kind ?? model.clocks.find((c) => c.kept)?.kept ?? null;
+  if (shownKind && shownKind.kind !== 'apparent') {
+    try {
+      clock = { kind: shownKind, minutes: jdUTToClockMinutes(p.jdUT, shownKind, site, undefined).minutesOfDay, label: formatClockKind(shownKind) };
+    } catch {
+      clock = undefined;
+    }
+  }
+  const measuredRows: ResidualEntry[] = [];
+  let row = 0;
+  for (const t of model.shadows) {
+    const values = predictedValuesOf(t, p.sun, wallAzimuthOf(model, t.wallId, raw.nuisances));
+    for (let k = 0; k < t.count; k += 1) {
+      const v = values[k] ?? { component: `residual-${k + 1}`, measured: NaN, predicted: NaN, unit: '', sigma: NaN };
+      measuredRows.push({ observationId: t.observationId, observationKind: t.observationKind, ...v, normalised: p.residuals[row] });
+      row += 1;
+    }
+  }
+  const zoneOffset = zoneOffsetsAt(model, kind, p.jdUT);
+  for (const c of model.clocks) {
+    const pred = predictClock(c, model, {
+      sun: p.sun,
+      nuisances: raw.nuisances,
+      apparentMinutes: raw.apparentMinutes,
+      equationOfTimeMinutes: e,
+      assumedClock: kind,
+      zoneOffsetMinutes: zoneOffset,
+    });
+    const predicted = c.readingMinutes + wrapSymmetric(pred.minutes - c.readingMinutes, c.modulusMinutes);
+    measuredRows.push({
+      observationId: c.observationId,
+      observationKind: 'clock',
+      component: 'reading',
+      measured: c.readingMinutes,
+      predicted,
+      unit: 'min',
+      sigma: c.precisionMinutes,
+      normalised: p.residuals[row],
+    });
+    row += 1;
+  }
+  row += model.nuisances.length;
+  const facts: FactEntry[] = model.facts.map((f) => {
+    const r = p.residuals[row++];
+    const satisfied = !(Math.abs(r) > 1e-9);
+    return {
+      observationId: f.observationId,
+      observationKind: f.fact,
+      satisfied,
+      penalty: r * r,
+      note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied),
+    };
+  });
+  const cov = raw.rep.covariance;
+  const nuisances: NuisanceEntry[] = model.nuisances.map((n, k) => ({
+    name: n.name,
+    priorDeg: n.priorDeg,
+    priorSigmaDeg: n.sigmaDeg,
+    fittedDeg: raw.nuisances[k],
+    posteriorSigmaDeg: cov ? Math.sqrt(cov[k + 2][k + 2]) : NaN,
+  }));
+  const dof = model.measuredCount - 2;
+  const weekday = weekdayOfJd(raw.dayJd0 + 0.5);
+  const utFraction = p.jdUT - 0.5 - Math.floor(p.jdUT - 0.5);
+  return {
+    id,
+    rank,
+    clockAssumption: assumption,
+    clockAssumptionLabel: clockAssumptionLabel(assumption),
+    jdUT: p.jdUT,
+    civilDate: named,
+    civilReckoning: civilAnswer.reckoning === 'julian' || civilAnswer.reckoning === 'gregorian' ? undefined : civilAnswer.reckoning,
+    otherCalendarDate: other,
+    weekday,
+    weekdayName: WEEKDAY_NAMES[weekday],
+    times: {
+      localApparentMinutes: wrapDay(raw.apparentMinutes),
+      localMeanMinutes: wrapDay(raw.apparentMinutes - e),
+      utMinutes: utFraction * 1440,
+      utDate: plainDate(jdToCalendarDate(p.jdUT, civil.calendar).date),
+      clock,
+      equationOfTimeMinutes: e,
+      deltaTSeconds: deltaTAtJdUT(p.jdUT).seconds,
+    },
+    sun: { azimuthDeg: raw.sun.azimuthDeg, altitudeDeg: raw.sun.altitudeDeg, declinationDeg: raw.sun.declinationDeg, hourAngleDeg: raw.sun.hourAngleDeg },
+    chiSquare: raw.chiSquare,
+    softPenalty: raw.penalty,
+    degreesOfFreedom: dof,
+    pValue: dof > 0 ? chiSquarePValue(raw.chiSquare, dof) : null,
+    relativeWeight,
+    residuals: measuredRows,
+    facts,
+    nuisances,
+    uncertainty: candidateUncertainty(raw, win, dc.cache, false, dc.profileScans),
+    fit: raw.fit,
+    mapped: raw.mapped,
+  };
+}
+
+/** hh:mm of minutes after midnight, rounded to the minute. */
+export function hhmm(minutes: number): string {
+  const m = Math.round(wrapDay(minutes)) % 1440;
+  return `${String(Math.floor(m / 60)).padStart(2, '0')}:${String(m % 60).padStart(2, '0')}`;
+}

@@ -1,0 +1,243 @@
+/**
+ * checkProposal: could the scene's light have fallen on a proposed day (with or without a
+ * time), in a range of days, or in a season (months)? The best fit inside the proposal, its
+ * chi-square, p-value and residuals, and a one-line verdict in plain words.
+ *
+ * Inside a day, the minute (and the nuisances) are fitted from several starts (every stage-A
+ * minimum and every two hours), so that a poor fit is not a poor start. A proposed time is held
+ * fixed (only the nuisances are fitted) or, with a tolerance, bounded to that interval. A range
+ * or season is searched like the window (stage A and B restricted to it); where the best fit
+ * lies outside, the proposal's edge days are fitted directly. The scene's own documentary
+ * restrictions (bounds, months, weekday) are not applied to the proposal: it is judged on the
+ * light alone. Verdict: consistent (p >= 0.05 and the facts hold), doubtful (0.001 <= p < 0.05),
+ * inconsistent (p < 0.001, or a fact fails); the rule for no degrees of freedom is that of
+ * solveDates.
+ */
+import type { Candidate, CheckAnswer, CheckVerdict, Proposal } from './types.js';
+import type { CivilDay, ClockKind, Scene } from '../scene/types.js';
+import { resolvePixelObservations } from '../image/resolvePixels.js';
+import { InvalidInputError } from '../errors.js';
+import { chiSquarePValue } from '../math/chiSquare.js';
+import { covarianceFromJacobian, levenbergMarquardt } from '../math/leastSquares.js';
+import { civilDateToJd } from '../calendar/regions.js';
+import { MONTH_NAMES } from '../calendar/julianDay.js';
+import { clockToJdUT } from '../time/clock.js';
+import { buildEvidenceModel, longitudeOf, splitChiSquare, type EvidenceModel } from './evidenceModel.js';
+import { datedPoint, newDatedContext, refineDated, refineOnDay, type DatedContext } from './fitting.js';
+import { searchCandidates, clockAssumptionsOf } from './search.js';
+import { stageA } from './stageA.js';
+import { lowPrecisionSun } from './seasons.js';
+import { exactPoint, type RawCandidate, type RepresentativeFit } from './stageB.js';
+import { assumedKind, dressCandidate, hhmm } from './candidates.js';
+import { dayWindowOf, type DayWindow } from './window.js';
+import { describeCandidate, solveDates, FACT_PENALTY_LIMIT, NOTHING_FITS_P, MARGINAL_P } from './solveDates.js';
+import { formatYearBcAd } from '../calendar/format.js';
+import type { UncertaintyCache } from './candidateUncertainty.js';
+
+function dayText(d: CivilDay): string {
+  return `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)}`;
+}
+
+function proposalText(p: Proposal): string {
+  switch (p.kind) {
+    case 'day':
+      return p.timeMinutes !== undefined ? `${dayText(p.day)} at ${hhmm(p.timeMinutes)}` : dayText(p.day);
+    case 'range':
+      return `${dayText(p.from)} to ${dayText(p.to)}`;
+    case 'season':
+      return `${p.months.map((m) => MONTH_NAMES[m - 1]).join(', ')}${p.fromYear !== undefined ? ` of ${p.fromYear}-${p.toYear ?? p.fromYear}` : ''}`;
+  }
+}
+
+/** Best fit on one civil day, under each clock assumption, from several starts; optional fixed or bounded minute. */
+function fitOnDay(model: EvidenceModel, dayJd0: number, time?: { apparentMinutes: number; tolerance: number }): RawCandidate | null {
+  const assumptions = clockAssumptionsOf(model);
+  const obliquityDeg = lowPrecisionSun(dayJd0).obliquityDeg;
+  let best: RawCandidate | null = null;
+  assumptions.forEach((a, ai) => {
+    const kind = assumedKind(a);
+    const lon = longitudeOf(model, model.nuisances.map((n) => n.priorDeg));
+    const ctx = newDatedContext(model, kind, dayJd0 + 0.5 - lon / 360);
+    const seeds = stageA(model, kind, ctx.zoneOffset, obliquityDeg).minima;
+    const nuisStarts = seeds.length ? seeds.map((s) => s.nuisances) : [model.nuisances.map((n) => n.priorDeg)];
+    const starts: number[][] = [];
+    if (time) starts.push([time.apparentMinutes, ...nuisStarts[0]]);
+    else {
+      for (const s of seeds) starts.push([720 + 4 * s.hourAngleDeg, ...s.nuisances]);
+      for (let h = 0; h < 24; h += 2) starts.push([h * 60 + 30, ...nuisStarts[0]]);
+    }
+    for (const x0 of starts) {
+      let rest: number[];
+      let iterations: number;
+      let converged: boolean;
+      if (time && time.tolerance === 0) {
+        if (model.nuisances.length === 0) {
+          rest = x0;
+          iterations = 0;
+          converged = true;
+        } else {
+          const lm = levenbergMarquardt({ residuals: (p) => datedPoint(ctx, dayJd0, x0[0], p).residuals as number[], steps: model.nuisances.map(() => 1e-4) }, x0.slice(1), { maxIterations: 40 });
+          rest = [x0[0], ...lm.x];
+          iterations = lm.iterations;
+          converged = lm.converged;
+        }
+      } else if (time) {
+        const lower = x0.map(() => -Infinity);
+        const upper = x0.map(() => Infinity);
+        lower[0] = time.apparentMinutes - time.tolerance;
+        upper[0] = time.apparentMinutes + time.tolerance;
+        const lm = levenbergMarquardt({ residuals: (p) => datedPoint(ctx, dayJd0, p[0], p.slice(1)).residuals as number[], steps: [0.01, ...model.nuisances.map(() => 1e-4)], lower, upper }, x0, { maxIterations: 40 });
+        rest = lm.x;
+        iterations = lm.iterations;
+        converged = lm.converged;
+      } else {
+        const f = refineOnDay(ctx, dayJd0, x0);
+        rest = f.x.slice(1);
+        iterations = f.iterations;
+        converged = f.converged;
+      }
+      const { point, sun } = exactPoint(model, kind, ctx.site, dayJd0, rest[0], rest.slice(1), datedPoint(ctx, dayJd0, rest[0], rest.slice(1)).state.equationOfTimeMinutes);
+      const s = splitChiSquare(model, point.residuals);
+      const objective = s.chiSquare + s.penalty;
+      if (best && best.objective <= objective) continue;
+      best = {
+        assumptionIndex: ai,
+        trackKey: `check:${ai}`,
+        branch: 'rising',
+        cycle: 0,
+        dayJd0,
+        apparentMinutes: rest[0],
+        nuisances: rest.slice(1),
+        point,
+        sun,
+        chiSquare: s.chiSquare,
+        penalty: s.penalty,
+        objective,
+        continuousDay: dayJd0,
+        continuousMinutes: rest[0],
+        rep: nearestOptimum(ctx, dayJd0, rest),
+        fit: { converged, iterations },
+        mapped: false,
+      };
+    }
+  });
+  return best;
+}
+
+/** The nearest continuous optimum (for the uncertainty shown beside a checked day). */
+function nearestOptimum(ctx: DatedContext, dayJd0: number, rest: readonly number[]): RepresentativeFit {
+  const fit = refineDated(ctx, [dayJd0, ...rest]);
+  return { cycle: 0, fit, objective: fit.lm.chiSquare, covariance: covarianceFromJacobian(fit.lm.jacobian, fit.x.length), context: ctx };
+}
+
+function verdictOf(model: EvidenceModel, raw: RawCandidate | null): { verdict: CheckVerdict; p: number | null; pj: number } {
+  if (!raw) return { verdict: 'inconsistent', p: null, pj: 0 };
+  const dof = model.measuredCount - 2;
+  const p = dof > 0 ? chiSquarePValue(raw.chiSquare, dof) : null;
+  const pj = p ?? chiSquarePValue(raw.chiSquare, 1);
+  const verdict: CheckVerdict = raw.penalty > FACT_PENALTY_LIMIT || pj < NOTHING_FITS_P ? 'inconsistent' : pj < MARGINAL_P ? 'doubtful' : 'consistent';
+  return { verdict, p, pj };
+}
+
+function civilDay(scene: Scene, day: CivilDay, field: string): number {
+  return civilDateToJd(scene.calendar, day, field);
+}
+
+/**
+ * Judge a proposed date, range or season against the scene's evidence.
+ * @example checkProposal(scene, { kind: 'day', day: { year: 1650, month: 9, day: 12 } }).verdictText
+ *   // "12 September 1650 is consistent with the evidence: best there 09:04 local apparent time ..."
+ */
+export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
+  scene = resolvePixelObservations(scene).scene; // pixel forms -> numbers (src/image/resolvePixels.ts)
+  const model = buildEvidenceModel(scene);
+  const unrestricted: Scene = { ...scene, window: { fromYear: scene.window.fromYear, toYear: scene.window.toYear } };
+  let win: DayWindow;
+  let best: RawCandidate | null = null;
+  const notes: string[] = ['The proposal is judged on the light alone: the scene\'s own documentary restrictions (bounds, months, weekday) are not applied to it.'];
+  if (proposal.kind === 'day') {
+    const dayJd0 = civilDay(scene, proposal.day, 'proposal.day');
+    win = dayWindowOf({ ...unrestricted, window: { fromYear: proposal.day.year, toYear: proposal.day.year } }, { from: proposal.day, to: proposal.day });
+    let time: { apparentMinutes: number; tolerance: number } | undefined;
+    if (proposal.timeMinutes !== undefined) {
+      if (!(proposal.timeMinutes >= 0 && proposal.timeMinutes < 1440)) throw new InvalidInputError('proposal.timeMinutes', proposal.timeMinutes, 'minutes after midnight in [0, 1440)');
+      const clock: ClockKind = proposal.timeClock ?? { kind: 'apparent' };
+      const site = { longitudeDeg: scene.site.longitudeDeg };
+      const jdUT = clockToJdUT(dayJd0, proposal.timeMinutes, clock, site);
+      // Local apparent minutes of that instant: LAT = UT + longitude + E (Meeus 1998 ch. 28).
+      const ctx = newDatedContext(model, null, jdUT);
+      const e = datedPoint(ctx, dayJd0, 720, model.nuisances.map((n) => n.priorDeg)).state.equationOfTimeMinutes;
+      const apparent = (jdUT - dayJd0) * 1440 + 4 * scene.site.longitudeDeg + e;
+      time = { apparentMinutes: apparent, tolerance: Math.max(0, proposal.timeToleranceMinutes ?? 0) };
+    }
+    best = fitOnDay(model, dayJd0, time);
+  } else {
+    let edges: number[];
+    if (proposal.kind === 'range') {
+      const from = civilDay(scene, proposal.from, 'proposal.from');
+      const to = civilDay(scene, proposal.to, 'proposal.to');
+      if (!(to >= from)) throw new InvalidInputError('proposal.to', proposal.to, 'a day on or after proposal.from');
+      win = dayWindowOf({ ...unrestricted, window: { fromYear: proposal.from.year, toYear: proposal.to.year } }, { from: proposal.from, to: proposal.to });
+      edges = [from, to];
+    } else {
+      if (!proposal.months.length || proposal.months.some((m) => !(Number.isInteger(m) && m >= 1 && m <= 12))) {
+        throw new InvalidInputError('proposal.months', proposal.months, 'one or more months 1-12');
+      }
+      const fromYear = proposal.fromYear ?? scene.window.fromYear;
+      const toYear = proposal.toYear ?? scene.window.toYear;
+      win = dayWindowOf({ ...unrestricted, window: { fromYear, toYear } }, { months: proposal.months, fromYear, toYear });
+      const midYear = Math.round((fromYear + toYear) / 2);
+      edges = [];
+      for (const m of proposal.months) {
+        edges.push(civilDay(scene, { year: midYear, month: m, day: 1 }, 'proposal.months'));
+        // Last day of the month: the day before the first of the next month.
+        const next = m === 12 ? { year: midYear + 1, month: 1, day: 1 } : { year: midYear, month: m + 1, day: 1 };
+        edges.push(civilDay(scene, next, 'proposal.months') - 1);
+      }
+    }
+    const found = searchCandidates(model, win).candidates;
+    best = found.length ? found[0] : null;
+    for (const day of edges) {
+      if (best && best.objective < 1e-6) break;
+      const f = fitOnDay(model, day);
+      if (f && (!best || f.objective < best.objective)) best = f;
+    }
+  }
+  const cache: UncertaintyCache = new Map();
+  const assumptions = clockAssumptionsOf(model);
+  const candidate: Candidate | null = best ? dressCandidate(best, 'check', 1, 1, { model, win, assumptions, cache, profileScans: true }) : null;
+  const global = solveDates(scene, { consistency: false, maxCandidates: 1, maxFamilies: 1 });
+  const globalBest = global.candidates[0] ?? null;
+  const { verdict, p } = verdictOf(model, best);
+  const what = proposalText(proposal);
+  let verdictText: string;
+  if (!candidate) verdictText = `${what}: no instant there can be judged (no fit was found).`;
+  else {
+    const where = `best there ${describeCandidate(candidate)}`;
+    const failing = candidate.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
+    const worst = [...candidate.residuals].sort((a, b) => Math.abs(b.normalised) - Math.abs(a.normalised))[0];
+    if (verdict === 'consistent') verdictText = `${what} is consistent with the evidence: ${where}.`;
+    else if (verdict === 'doubtful') verdictText = `${what} is doubtful: the evidence fits only poorly there; ${where}.`;
+    else {
+      verdictText =
+        `${what} is not consistent with the evidence: ${where}` +
+        (failing.length ? `; a fact fails: ${failing.join('; ')}` : '') +
+        (worst ? `; worst misfit: ${worst.observationId} (${worst.normalised.toFixed(1)} sigma)` : '') +
+        '.';
+    }
+    if (globalBest) verdictText += ` The best fit anywhere in the window: ${describeCandidate(globalBest)}.`;
+  }
+  return {
+    sceneTitle: scene.title,
+    proposal,
+    verdict,
+    verdictText,
+    best: candidate,
+    chiSquare: candidate ? candidate.chiSquare : null,
+    degreesOfFreedom: model.measuredCount - 2,
+    pValue: p,
+    globalBest,
+    deltaChiSquareToGlobal: candidate && globalBest ? candidate.chiSquare + candidate.softPenalty - (globalBest.chiSquare + globalBest.softPenalty) : null,
+    notes,
+  };
+}

@@ -1,0 +1,383 @@
+/**
+ * The scene's evidence as the solver uses it: a list of residual terms, each a function
+ * of the sun's direction, the wall azimuths, the site and (for clocks) the instant.
+ *
+ * - Shadow evidence (rod, overhang, fin, pole, eave, shadow points, sun direction): the
+ *   residuals of src/geometry/observationModels.ts, normalised by their sigmas.
+ * - Clocks: predicted reading minus reading, wrapped to the dial (+/-30 min when the hour
+ *   hand is not trusted, +/-360 min on a 12-hour dial, +/-720 min on a 24-hour dial), over
+ *   the reading's precision. What the clock kept decides the prediction (src/time/clock.ts
+ *   defines the kinds): apparent m; mean m - E; meridian m - E + 4 (lon0 - lon); UT m - E - 4 lon;
+ *   zone: UT + the zone's offset (luxon through src/time/clock.ts).
+ * - Nuisance parameters: every wall azimuth and the site latitude/longitude whose sigma is
+ *   above zero, with their Gaussian priors as pseudo-observations (Press et al., Numerical
+ *   Recipes 3rd ed. 2007, section 15.4 on priors as extra data points; common practice).
+ * - Facts without numbers (wall lit / shaded, sun up) and the implicit facts of every shadow
+ *   (its wall is lit, the sun is up): soft penalties of src/geometry/lightFacts.ts, zero when
+ *   they hold, not counted as measured residuals.
+ */
+import { InvalidInputError } from '../errors.js';
+import type { ClockKind, Observation, Scene } from '../scene/types.js';
+import { evidenceResiduals, predictEvidence, type ShadowEvidence } from '../geometry/observationModels.js';
+import { lightFactResidual, type LightFact } from '../geometry/lightFacts.js';
+import { horizontalShadowAngleDeg } from '../geometry/shadowAngles.js';
+import type { SolverSunDirection } from './sunModel.js';
+
+/** Tolerance of the soft penalties, degrees: a violation of this size costs 1 in chi-square. */
+export const FACT_TOLERANCE_DEG = 0.5;
+/** Extra sigma for a mean-time clock in the year-independent stage, minutes (the equation of time spans -14..+16 min). */
+export const STAGE_A_CLOCK_EXTRA_SIGMA_MINUTES = 8;
+
+export interface NuisanceSpec {
+  readonly name: string;
+  readonly kind: 'wall-azimuth' | 'latitude' | 'longitude';
+  readonly wallId?: string;
+  readonly priorDeg: number;
+  readonly sigmaDeg: number;
+}
+
+export interface ShadowTerm {
+  readonly observationId: string;
+  readonly observationKind: Observation['kind'];
+  readonly evidence: ShadowEvidence;
+  readonly wallId?: string;
+  readonly count: number;
+}
+
+export interface ClockTerm {
+  readonly observationId: string;
+  readonly readingMinutes: number;
+  readonly precisionMinutes: number;
+  /** Period of the reading: 60 (hour hand not trusted), 720 (12-hour dial) or 1440. */
+  readonly modulusMinutes: number;
+  /** null: kept was 'unknown' (the solver's assumption applies). */
+  readonly kept: ClockKind | null;
+}
+
+export interface FactTerm {
+  readonly observationId: string;
+  readonly fact: LightFact;
+  readonly wallId?: string;
+  /** True for the facts implied by a shadow (its wall lit, the sun up). */
+  readonly implicit: boolean;
+}
+
+export interface EvidenceModel {
+  readonly scene: Scene;
+  readonly nuisances: readonly NuisanceSpec[];
+  readonly shadows: readonly ShadowTerm[];
+  readonly clocks: readonly ClockTerm[];
+  readonly facts: readonly FactTerm[];
+  /** Number of measured scalar residuals (shadows and clocks). */
+  readonly measuredCount: number;
+  /** Index in `nuisances` of each wall's azimuth, the latitude, the longitude (-1: fixed). */
+  readonly wallNuisance: ReadonlyMap<string, number>;
+  readonly latitudeNuisance: number;
+  readonly longitudeNuisance: number;
+  /** Stated azimuth of each wall. */
+  readonly wallAzimuths: ReadonlyMap<string, number>;
+}
+
+/** How a residual evaluation sees the instant and the clocks. */
+export interface EvaluationContext {
+  readonly sun: SolverSunDirection;
+  /** Nuisance values, in the order of model.nuisances. */
+  readonly nuisances: readonly number[];
+  readonly apparentMinutes: number;
+  /** Equation of time, minutes; null in the year-independent stage (clock offsets are then approximate). */
+  readonly equationOfTimeMinutes: number | null;
+  /** The assumed kind of the clocks whose kept is 'unknown'. */
+  readonly assumedClock: ClockKind | null;
+  /** Offset of each zone from UT at the instant, minutes. */
+  readonly zoneOffsetMinutes: (zone: string) => number;
+}
+
+function need<T>(value: T | undefined, field: string, allowed: string): T {
+  if (value === undefined || (typeof value === 'number' && !Number.isFinite(value))) {
+    throw new InvalidInputError(field, value, allowed, 'The solver needs the number (pixel forms are converted to numbers before solving)');
+  }
+  return value;
+}
+
+function shadowEvidenceOf(o: Observation, i: number): { evidence: ShadowEvidence; wallId?: string } | null {
+  const f = `observations[${i}]`;
+  switch (o.kind) {
+    case 'rod-shadow':
+      return {
+        evidence: { kind: 'rod-shadow', slopeDeg: need(o.slopeDeg, `${f}.slopeDeg`, 'a slope in degrees (0, 90)'), side: o.side, sigmaDeg: need(o.sigmaDeg, `${f}.sigmaDeg`, 'a sigma in degrees > 0') },
+        wallId: o.wallId,
+      };
+    case 'overhang-shadow':
+      return {
+        evidence: { kind: 'overhang-shadow', depthRatio: need(o.depthRatio, `${f}.depthRatio`, 'a ratio >= 0'), sigma: need(o.sigma, `${f}.sigma`, 'a sigma > 0') },
+        wallId: o.wallId,
+      };
+    case 'fin-shadow':
+      return {
+        evidence: { kind: 'fin-shadow', widthRatio: need(o.widthRatio, `${f}.widthRatio`, 'a ratio >= 0'), side: o.side, sigma: need(o.sigma, `${f}.sigma`, 'a sigma > 0') },
+        wallId: o.wallId,
+      };
+    case 'pole-shadow': {
+      const hasAz = o.shadowAzimuthDeg !== undefined && o.shadowAzimuthSigmaDeg !== undefined;
+      const hasLen = o.lengthRatio !== undefined && o.lengthRatioSigma !== undefined;
+      if (!hasAz && !hasLen) {
+        throw new InvalidInputError(`${f}`, o.id, 'a pole shadow with shadowAzimuthDeg and its sigma, or lengthRatio and its sigma');
+      }
+      return {
+        evidence: {
+          kind: 'pole-shadow',
+          shadowAzimuthDeg: hasAz ? o.shadowAzimuthDeg : undefined,
+          shadowAzimuthSigmaDeg: hasAz ? o.shadowAzimuthSigmaDeg : undefined,
+          lengthRatio: hasLen ? o.lengthRatio : undefined,
+          lengthRatioSigma: hasLen ? o.lengthRatioSigma : undefined,
+        },
+      };
+    }
+    case 'eave-shadow':
+      return { evidence: { kind: 'eave-shadow', distanceRatio: o.distanceRatio, sigma: o.sigma, projectionRatio: o.projectionRatio }, wallId: o.wallId };
+    case 'shadow-points':
+      return { evidence: { kind: 'shadow-points', caster: o.caster, shadow: o.shadow, sigmaM: o.sigmaM } };
+    case 'sun-direction':
+      return {
+        evidence: { kind: 'sun-direction', azimuthDeg: o.azimuthDeg, azimuthSigmaDeg: o.azimuthSigmaDeg, altitudeDeg: o.altitudeDeg, altitudeSigmaDeg: o.altitudeSigmaDeg },
+      };
+    default:
+      return null;
+  }
+}
+
+const WALL_SHADOW_KINDS = new Set(['rod-shadow', 'overhang-shadow', 'fin-shadow']);
+
+/**
+ * The evidence model of a scene, leaving out the observations whose ids are in `omit`.
+ * @throws InvalidInputError for an observation without the numbers the solver needs or naming an unknown wall.
+ */
+export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new Set()): EvidenceModel {
+  const walls = new Map(scene.walls.map((w) => [w.id, w]));
+  const shadows: ShadowTerm[] = [];
+  const clocks: ClockTerm[] = [];
+  const facts: FactTerm[] = [];
+  const usedWalls = new Set<string>();
+  const implicitLit = new Set<string>();
+  let implicitSunUp = false;
+  scene.observations.forEach((o, i) => {
+    if (omit.has(o.id)) return;
+    if ('wallId' in o && !walls.has(o.wallId)) {
+      throw new InvalidInputError(`observations[${i}].wallId`, o.wallId, `one of the walls: ${scene.walls.map((w) => w.id).join(', ') || '(none given)'}`);
+    }
+    if (o.kind === 'clock') {
+      const modulus = !o.hourHandTrusted ? 60 : o.dialHours === 12 ? 720 : 1440;
+      clocks.push({
+        observationId: o.id,
+        readingMinutes: o.readingMinutes,
+        precisionMinutes: o.precisionMinutes,
+        modulusMinutes: modulus,
+        kept: o.kept.kind === 'unknown' ? null : (o.kept as ClockKind),
+      });
+      return;
+    }
+    if (o.kind === 'wall-lit' || o.kind === 'wall-shaded') {
+      facts.push({ observationId: o.id, fact: o.kind, wallId: o.wallId, implicit: false });
+      usedWalls.add(o.wallId);
+      return;
+    }
+    if (o.kind === 'sun-up') {
+      facts.push({ observationId: o.id, fact: 'sun-up', implicit: false });
+      return;
+    }
+    const s = shadowEvidenceOf(o, i);
+    if (!s) return;
+    const count = evidenceResiduals(s.evidence, { azimuthDeg: 180, altitudeDeg: 30 }, 180).residuals.length;
+    shadows.push({ observationId: o.id, observationKind: o.kind, evidence: s.evidence, wallId: s.wallId, count });
+    if (s.wallId) usedWalls.add(s.wallId);
+    if (s.wallId && WALL_SHADOW_KINDS.has(o.kind) && !implicitLit.has(s.wallId)) {
+      implicitLit.add(s.wallId);
+      facts.push({ observationId: o.id, fact: 'wall-lit', wallId: s.wallId, implicit: true });
+    }
+    if (!implicitSunUp) {
+      implicitSunUp = true;
+      facts.push({ observationId: o.id, fact: 'sun-up', implicit: true });
+    }
+  });
+  const nuisances: NuisanceSpec[] = [];
+  const wallNuisance = new Map<string, number>();
+  for (const w of scene.walls) {
+    if (!usedWalls.has(w.id) || !(w.azimuthSigmaDeg > 0)) continue;
+    wallNuisance.set(w.id, nuisances.length);
+    nuisances.push({ name: `wall:${w.id}:azimuth`, kind: 'wall-azimuth', wallId: w.id, priorDeg: w.azimuthDeg, sigmaDeg: w.azimuthSigmaDeg });
+  }
+  let latitudeNuisance = -1;
+  if (scene.site.latitudeSigmaDeg > 0) {
+    latitudeNuisance = nuisances.length;
+    nuisances.push({ name: 'site:latitude', kind: 'latitude', priorDeg: scene.site.latitudeDeg, sigmaDeg: scene.site.latitudeSigmaDeg });
+  }
+  let longitudeNuisance = -1;
+  if (scene.site.longitudeSigmaDeg > 0) {
+    longitudeNuisance = nuisances.length;
+    nuisances.push({ name: 'site:longitude', kind: 'longitude', priorDeg: scene.site.longitudeDeg, sigmaDeg: scene.site.longitudeSigmaDeg });
+  }
+  const measuredCount = shadows.reduce((n, t) => n + t.count, 0) + clocks.length;
+  const wallAzimuths = new Map(scene.walls.map((w) => [w.id, w.azimuthDeg]));
+  return { scene, nuisances, shadows, clocks, facts, measuredCount, wallNuisance, latitudeNuisance, longitudeNuisance, wallAzimuths };
+}
+
+/** Wall azimuth in use: the nuisance value when fitted, else the stated azimuth. */
+export function wallAzimuthOf(model: EvidenceModel, wallId: string | undefined, nuisances: readonly number[]): number {
+  if (wallId === undefined) return 0;
+  const k = model.wallNuisance.get(wallId);
+  if (k !== undefined) return nuisances[k];
+  return model.wallAzimuths.get(wallId) ?? 0;
+}
+
+export function latitudeOf(model: EvidenceModel, nuisances: readonly number[]): number {
+  return model.latitudeNuisance >= 0 ? nuisances[model.latitudeNuisance] : model.scene.site.latitudeDeg;
+}
+
+export function longitudeOf(model: EvidenceModel, nuisances: readonly number[]): number {
+  return model.longitudeNuisance >= 0 ? nuisances[model.longitudeNuisance] : model.scene.site.longitudeDeg;
+}
+
+/** x wrapped into [-period/2, period/2). */
+export function wrapSymmetric(x: number, period: number): number {
+  return x - period * Math.floor(x / period + 0.5);
+}
+
+/** The clock kind a clock term uses under an assumption. */
+export function clockKindOf(term: ClockTerm, assumed: ClockKind | null): ClockKind {
+  return term.kept ?? assumed ?? { kind: 'apparent' };
+}
+
+/**
+ * Predicted clock reading, minutes after midnight, and the sigma to use. With the equation of
+ * time unknown (year-independent stage) a non-apparent clock is predicted with E = 0 and its
+ * sigma widened by STAGE_A_CLOCK_EXTRA_SIGMA_MINUTES (used only to seed the search).
+ */
+export function predictClock(term: ClockTerm, model: EvidenceModel, ctx: EvaluationContext): { minutes: number; sigma: number } {
+  const kind = clockKindOf(term, ctx.assumedClock);
+  const m = ctx.apparentMinutes;
+  const lon = longitudeOf(model, ctx.nuisances);
+  if (kind.kind === 'apparent') return { minutes: m, sigma: term.precisionMinutes };
+  const e = ctx.equationOfTimeMinutes ?? 0;
+  const sigma = ctx.equationOfTimeMinutes === null ? Math.hypot(term.precisionMinutes, STAGE_A_CLOCK_EXTRA_SIGMA_MINUTES) : term.precisionMinutes;
+  const meanMinutes = m - e; // local mean time = apparent - E (Meeus 1998 ch. 28)
+  switch (kind.kind) {
+    case 'mean':
+      return { minutes: meanMinutes, sigma };
+    case 'meridian':
+      return { minutes: meanMinutes + 4 * (kind.longitudeDeg - lon), sigma }; // 4 min per degree of longitude
+    case 'ut':
+      return { minutes: meanMinutes - 4 * lon, sigma };
+    case 'zone':
+      return { minutes: meanMinutes - 4 * lon + ctx.zoneOffsetMinutes(kind.zone), sigma };
+  }
+}
+
+/** Clock residual (predicted - read, wrapped to the dial) over sigma. */
+export function clockResidual(term: ClockTerm, model: EvidenceModel, ctx: EvaluationContext): number {
+  const p = predictClock(term, model, ctx);
+  return wrapSymmetric(p.minutes - term.readingMinutes, term.modulusMinutes) / p.sigma;
+}
+
+/** Residual vector: measured (shadows, then clocks), then nuisance priors, then soft facts. */
+export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationContext): number[] {
+  const out: number[] = [];
+  for (const t of model.shadows) {
+    const r = evidenceResiduals(t.evidence, ctx.sun, wallAzimuthOf(model, t.wallId, ctx.nuisances)).residuals;
+    for (const v of r) out.push(v);
+  }
+  for (const c of model.clocks) out.push(clockResidual(c, model, ctx));
+  model.nuisances.forEach((n, k) => out.push((ctx.nuisances[k] - n.priorDeg) / n.sigmaDeg));
+  for (const f of model.facts) out.push(factResidual(model, f, ctx));
+  return out;
+}
+
+/** Soft residual of one fact (0 when it holds). */
+export function factResidual(model: EvidenceModel, f: FactTerm, ctx: EvaluationContext): number {
+  return lightFactResidual(f.fact, ctx.sun, wallAzimuthOf(model, f.wallId, ctx.nuisances), FACT_TOLERANCE_DEG).residuals[0];
+}
+
+/** Split of a residual vector into chi-square (measured + priors) and the soft penalty (facts). */
+export function splitChiSquare(model: EvidenceModel, r: readonly number[]): { chiSquare: number; penalty: number; measured: number } {
+  const nMeasured = model.measuredCount;
+  const nPrior = model.nuisances.length;
+  let chiSquare = 0;
+  let penalty = 0;
+  let measured = 0;
+  for (let i = 0; i < r.length; i += 1) {
+    const v = r[i] * r[i];
+    if (i < nMeasured) measured += v;
+    if (i < nMeasured + nPrior) chiSquare += v;
+    else penalty += v;
+  }
+  return { chiSquare, penalty, measured };
+}
+
+/** Which residual rows belong to each observation (for leave-one-out and reports). */
+export function residualRowsByObservation(model: EvidenceModel): Map<string, number[]> {
+  const rows = new Map<string, number[]>();
+  let i = 0;
+  for (const t of model.shadows) {
+    const list = rows.get(t.observationId) ?? [];
+    for (let k = 0; k < t.count; k += 1) list.push(i++);
+    rows.set(t.observationId, list);
+  }
+  for (const c of model.clocks) {
+    const list = rows.get(c.observationId) ?? [];
+    list.push(i++);
+    rows.set(c.observationId, list);
+  }
+  return rows;
+}
+
+/** Predicted values in the observation's own units, for reports. */
+export function predictedValuesOf(term: ShadowTerm, sun: SolverSunDirection, wallAzimuthDeg: number): { component: string; measured: number; predicted: number; unit: string; sigma: number }[] {
+  const e = term.evidence;
+  const p = predictEvidence(e, sun, wallAzimuthDeg);
+  switch (e.kind) {
+    case 'rod-shadow':
+      return [{ component: 'slope', measured: e.slopeDeg, predicted: p.kind === 'rod-shadow' ? p.slopeDeg : NaN, unit: 'deg', sigma: e.sigmaDeg }];
+    case 'overhang-shadow':
+      return [{ component: 'depth-ratio', measured: e.depthRatio, predicted: p.kind === 'overhang-shadow' ? p.depthRatio : NaN, unit: 'ratio', sigma: e.sigma }];
+    case 'fin-shadow':
+      return [{ component: 'width-ratio', measured: e.widthRatio, predicted: p.kind === 'fin-shadow' ? p.widthRatio : NaN, unit: 'ratio', sigma: e.sigma }];
+    case 'pole-shadow': {
+      const out = [];
+      if (e.shadowAzimuthDeg !== undefined && e.shadowAzimuthSigmaDeg !== undefined) {
+        out.push({ component: 'shadow-azimuth', measured: e.shadowAzimuthDeg, predicted: p.kind === 'pole-shadow' ? p.shadowAzimuthDeg : NaN, unit: 'deg', sigma: e.shadowAzimuthSigmaDeg });
+      }
+      if (e.lengthRatio !== undefined && e.lengthRatioSigma !== undefined) {
+        out.push({ component: 'length-ratio', measured: e.lengthRatio, predicted: p.kind === 'pole-shadow' ? p.lengthRatio : NaN, unit: 'ratio', sigma: e.lengthRatioSigma });
+      }
+      return out;
+    }
+    case 'eave-shadow':
+      return [{ component: 'distance-ratio', measured: e.distanceRatio, predicted: p.kind === 'eave-shadow' ? p.distanceRatio : NaN, unit: 'ratio', sigma: e.sigma }];
+    case 'shadow-points': {
+      const misfit = p.kind === 'shadow-points' ? p.misfitDeg : NaN;
+      const sigma = p.kind === 'shadow-points' ? p.sigmaDeg : NaN;
+      return [
+        { component: 'across-ray-horizontal', measured: 0, predicted: misfit, unit: 'deg', sigma },
+        { component: 'across-ray-vertical', measured: 0, predicted: misfit, unit: 'deg', sigma },
+      ];
+    }
+    case 'sun-direction':
+      return [
+        { component: 'azimuth', measured: e.azimuthDeg, predicted: sun.azimuthDeg, unit: 'deg', sigma: e.azimuthSigmaDeg },
+        { component: 'altitude', measured: e.altitudeDeg, predicted: sun.altitudeDeg, unit: 'deg', sigma: e.altitudeSigmaDeg },
+      ];
+    default:
+      return [];
+  }
+}
+
+/** Plain words for a fact at a sun direction. */
+export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean): string {
+  const wallName = f.wallId ?? '';
+  if (f.fact === 'sun-up') {
+    return `the sun is ${satisfied ? 'up' : 'below the horizon'} (altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? ', as a shadow needs' : ''}`;
+  }
+  const hsa = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
+  const lit = f.fact === 'wall-lit';
+  const words = satisfied === lit ? 'lit' : 'in shade';
+  return `wall ${wallName} is ${words} (sun ${Math.abs(hsa).toFixed(0)} deg from its normal, altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? ', as a shadow on it needs' : ''}`;
+}

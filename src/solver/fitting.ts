@@ -1,0 +1,217 @@
+/**
+ * The two parametrisations of the fit and their least-squares refinements.
+ *
+ * - Year-independent (stage A): x = [declination, hour angle, ...nuisances], degrees; the
+ *   sun from spherical astronomy alone (sunModel.ts). Clocks other than apparent time are
+ *   predicted with E = 0 and a widened sigma (evidenceModel.ts) - a seed, never an answer.
+ * - Dated (stage B): x = [d, m, ...nuisances], d the JD of the local day's 0h (continuous),
+ *   m minutes of local apparent time. The instant is jdUT(d, m) (sunModel.ts); declination and
+ *   equation of time come from the full ephemeris along a track; the hour angle is (m - 720) / 4.
+ *   At a whole day (d = n + 0.5) this is the true sun at that hour of that day; between days it
+ *   interpolates smoothly, which gives a well-defined 2-D Jacobian.
+ * - Fixed day: x = [m, ...nuisances] with d held at a civil day.
+ * Refinement by bounded Levenberg-Marquardt (src/math/leastSquares.ts).
+ */
+import type { ClockKind } from '../scene/types.js';
+import { levenbergMarquardt, type LeastSquaresResult } from '../math/leastSquares.js';
+import { normalizeDeg180 } from '../math/angles.js';
+import type { SunSite } from '../ephemeris/sunPosition.js';
+import { zoneOffsetMinutes } from '../time/clock.js';
+import {
+  evidenceResidualVector,
+  latitudeOf,
+  longitudeOf,
+  type EvidenceModel,
+  type EvaluationContext,
+} from './evidenceModel.js';
+import {
+  instantOfApparentTime,
+  makeSunTrack,
+  sunFromDeclinationHourAngle,
+  TRACK_REACH_DAYS,
+  type SolarState,
+  type SolverSunDirection,
+  type SunTrack,
+} from './sunModel.js';
+
+/** Finite-difference steps: degrees for angles, days for d, minutes for m. */
+const STEP_DEG = 1e-4;
+const STEP_DAYS = 1e-3;
+const STEP_MINUTES = 0.01;
+
+export function siteOf(model: EvidenceModel): SunSite {
+  const s = model.scene.site;
+  return { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, elevationM: s.elevationM };
+}
+
+/** Zone offsets held fixed over one fit (taken at one instant). */
+export function zoneOffsetsAt(model: EvidenceModel, assumed: ClockKind | null, jdUT: number): (zone: string) => number {
+  const zones = new Map<string, number>();
+  for (const c of model.clocks) {
+    const kind = c.kept ?? assumed;
+    if (kind && kind.kind === 'zone' && !zones.has(kind.zone)) zones.set(kind.zone, zoneOffsetMinutes(kind.zone, jdUT));
+  }
+  return (zone: string) => zones.get(zone) ?? 0;
+}
+
+// ------------------------------------------------------------ stage A
+
+export interface StageAContext {
+  readonly model: EvidenceModel;
+  readonly assumed: ClockKind | null;
+  /** Zone offsets at a reference instant of the window (stage A only). */
+  readonly zoneOffset: (zone: string) => number;
+}
+
+/** Residual vector at x = [declination, hour angle, ...nuisances]. */
+export function stageAResiduals(c: StageAContext, x: readonly number[]): number[] {
+  const nuis = x.slice(2);
+  const sun = sunFromDeclinationHourAngle(x[0], x[1], latitudeOf(c.model, nuis), c.model.scene.air);
+  const ctx: EvaluationContext = {
+    sun,
+    nuisances: nuis,
+    apparentMinutes: 720 + 4 * x[1],
+    equationOfTimeMinutes: null,
+    assumedClock: c.assumed,
+    zoneOffsetMinutes: c.zoneOffset,
+  };
+  return evidenceResidualVector(c.model, ctx);
+}
+
+export function stageASteps(model: EvidenceModel): number[] {
+  return [STEP_DEG, STEP_DEG, ...model.nuisances.map(() => STEP_DEG)];
+}
+
+/** Refine a stage-A point by bounded LM (declination within +/-25 deg). */
+export function refineStageA(c: StageAContext, x0: readonly number[]): LeastSquaresResult {
+  const n = x0.length;
+  const lower = new Array<number>(n).fill(-Infinity);
+  const upper = new Array<number>(n).fill(Infinity);
+  lower[0] = -25;
+  upper[0] = 25;
+  const r = levenbergMarquardt({ residuals: (x) => stageAResiduals(c, x), steps: stageASteps(c.model), lower, upper }, x0, { maxIterations: 60, tolerance: 1e-9 });
+  const x = r.x.slice();
+  x[1] = normalizeDeg180(x[1]);
+  return { ...r, x };
+}
+
+// ------------------------------------------------------------ stage B
+
+/** The state of a dated evaluation: instant, solar state, sun direction and residuals. */
+export interface DatedPoint {
+  readonly dayJd0: number;
+  readonly apparentMinutes: number;
+  readonly nuisances: readonly number[];
+  readonly jdUT: number;
+  readonly state: SolarState;
+  readonly sun: SolverSunDirection;
+  readonly residuals: readonly number[];
+}
+
+/** Everything a dated fit needs; the track is replaced as the fit moves. */
+export interface DatedContext {
+  readonly model: EvidenceModel;
+  readonly assumed: ClockKind | null;
+  readonly site: SunSite;
+  track: SunTrack;
+  zoneOffset: (zone: string) => number;
+  /** Counter of full-ephemeris calls (3 per track). */
+  ephemerisCalls: number;
+}
+
+export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null, anchorJdUT: number): DatedContext {
+  const site = siteOf(model);
+  return { model, assumed, site, track: makeSunTrack(anchorJdUT, site), zoneOffset: zoneOffsetsAt(model, assumed, anchorJdUT), ephemerisCalls: 3 };
+}
+
+/** Move the track so that it covers jdUT (a new track when jdUT is outside its reach). */
+export function ensureTrack(c: DatedContext, jdUT: number, reach = TRACK_REACH_DAYS - 0.5): void {
+  if (Math.abs(jdUT - c.track.anchorJdUT) <= reach) return;
+  c.track = makeSunTrack(jdUT, c.site);
+  c.zoneOffset = zoneOffsetsAt(c.model, c.assumed, jdUT);
+  c.ephemerisCalls += 3;
+}
+
+/** Evaluate the dated model at (d, m, nuisances) with the current track. */
+export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[]): DatedPoint {
+  const lon = longitudeOf(c.model, nuisances);
+  const { jdUT, state } = instantOfApparentTime(c.track, dayJd0, apparentMinutes, lon);
+  const sun = sunFromDeclinationHourAngle(state.declinationDeg, (apparentMinutes - 720) / 4, latitudeOf(c.model, nuisances), c.model.scene.air);
+  const ctx: EvaluationContext = {
+    sun,
+    nuisances,
+    apparentMinutes,
+    equationOfTimeMinutes: state.equationOfTimeMinutes,
+    assumedClock: c.assumed,
+    zoneOffsetMinutes: c.zoneOffset,
+  };
+  return { dayJd0, apparentMinutes, nuisances, jdUT, state, sun, residuals: evidenceResidualVector(c.model, ctx) };
+}
+
+export function datedSteps(model: EvidenceModel): number[] {
+  return [STEP_DAYS, STEP_MINUTES, ...model.nuisances.map(() => STEP_DEG)];
+}
+
+export interface DatedFit {
+  readonly x: number[]; // [d, m, ...nuisances]
+  readonly lm: LeastSquaresResult;
+  readonly point: DatedPoint;
+  readonly iterations: number;
+  readonly converged: boolean;
+}
+
+const MAX_TRACK_MOVES = 5;
+/** The continuous fit may move the day by at most this many days from its seed (half a year would reach the other branch). */
+export const MAX_DAY_MOVE = 120;
+
+/** Bring m into [0, 1440) by moving whole days into d. */
+function normaliseDayMinute(x: number[]): number[] {
+  const shift = Math.floor(x[1] / 1440);
+  if (shift !== 0) {
+    x[0] += shift;
+    x[1] -= 1440 * shift;
+  }
+  return x;
+}
+
+/**
+ * Continuous refinement in (d, m, nuisances); the track follows the fit (bounded: at most
+ * MAX_TRACK_MOVES re-anchorings, each followed by a new LM run).
+ */
+export function refineDated(c: DatedContext, x0: readonly number[], maxIterations = 60): DatedFit {
+  let x = x0.slice();
+  let iterations = 0;
+  let lm: LeastSquaresResult | null = null;
+  for (let move = 0; move <= MAX_TRACK_MOVES; move += 1) {
+    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2)).residuals as number[];
+    const lower = x.map(() => -Infinity);
+    const upper = x.map(() => Infinity);
+    lower[0] = x0[0] - MAX_DAY_MOVE;
+    upper[0] = x0[0] + MAX_DAY_MOVE;
+    lm = levenbergMarquardt({ residuals: res, steps: datedSteps(c.model), lower, upper }, x, { maxIterations, tolerance: 1e-10 });
+    iterations += lm.iterations;
+    x = normaliseDayMinute(lm.x.slice());
+    const p = datedPoint(c, x[0], x[1], x.slice(2));
+    if (Math.abs(p.jdUT - c.track.anchorJdUT) <= TRACK_REACH_DAYS - 0.5) {
+      return { x, lm, point: p, iterations, converged: lm.converged };
+    }
+    ensureTrack(c, p.jdUT, 0);
+  }
+  const p = datedPoint(c, x[0], x[1], x.slice(2));
+  return { x, lm: lm!, point: p, iterations, converged: false };
+}
+
+/** Refinement of (m, nuisances) on a fixed civil day. */
+export function refineOnDay(c: DatedContext, dayJd0: number, x0: readonly number[], maxIterations = 40): DatedFit {
+  const guess = datedPoint(c, dayJd0, x0[0], x0.slice(1));
+  ensureTrack(c, guess.jdUT);
+  const res = (p: readonly number[]): number[] => datedPoint(c, dayJd0, p[0], p.slice(1)).residuals as number[];
+  const lower = x0.map(() => -Infinity);
+  const upper = x0.map(() => Infinity);
+  lower[0] = x0[0] - 720; // the minute stays within half a day of its start
+  upper[0] = x0[0] + 720;
+  const lm = levenbergMarquardt({ residuals: res, steps: datedSteps(c.model).slice(1), lower, upper }, x0, { maxIterations, tolerance: 1e-10 });
+  const x = [dayJd0, ...lm.x];
+  const point = datedPoint(c, dayJd0, lm.x[0], lm.x.slice(1));
+  return { x, lm, point, iterations: lm.iterations, converged: lm.converged };
+}

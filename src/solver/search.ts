@@ -1,0 +1,73 @@
+/**
+ * The search over the window for one evidence model: every clock assumption, stage A
+ * (year-independent minima), stage B (dated candidates in every year). Returns raw
+ * candidates sorted by objective (chi-square + soft penalty).
+ */
+import type { ClockAssumption } from './types.js';
+import type { ClockKind } from '../scene/types.js';
+import type { EvidenceModel } from './evidenceModel.js';
+import { zoneOffsetsAt } from './fitting.js';
+import { lowPrecisionSun } from './seasons.js';
+import { stageA } from './stageA.js';
+import { stageB, type RawCandidate } from './stageB.js';
+import type { DayWindow } from './window.js';
+import { assumedKind } from './candidates.js';
+
+export interface SearchResult {
+  readonly assumptions: readonly ClockAssumption[];
+  readonly candidates: readonly RawCandidate[];
+  readonly stageAGridPoints: number;
+  readonly stageAMinima: number;
+  readonly fullRefinements: number;
+  readonly mappedYears: number;
+  readonly evaluations: number;
+}
+
+/**
+ * The clock assumptions to try: none without a clock; the stated kind when every clock says
+ * what it kept; else local apparent and local mean time, each its own candidate set
+ * (plus any meridian or zone stated by another clock of the scene).
+ */
+export function clockAssumptionsOf(model: EvidenceModel): ClockAssumption[] {
+  if (model.clocks.length === 0) return [{ kind: 'none' }];
+  const unknown = model.clocks.some((c) => c.kept === null);
+  if (!unknown) return [{ ...(model.clocks[0].kept as ClockKind), stated: true }];
+  const tried: ClockKind[] = [{ kind: 'apparent' }, { kind: 'mean' }];
+  for (const c of model.clocks) {
+    const k = c.kept;
+    if (k && (k.kind === 'meridian' || k.kind === 'zone') && !tried.some((t) => JSON.stringify(t) === JSON.stringify(k))) tried.push(k);
+  }
+  return tried.map((k) => ({ ...k, stated: false }));
+}
+
+export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchResult {
+  const assumptions = clockAssumptionsOf(model);
+  const midJd = 0.5 * (win.firstDayJd0 + win.lastDayJd0);
+  const obliquityDeg = lowPrecisionSun(midJd).obliquityDeg;
+  const all: RawCandidate[] = [];
+  let stageAGridPoints = 0;
+  let stageAMinima = 0;
+  let fullRefinements = 0;
+  let mappedYears = 0;
+  let evaluations = 0;
+  assumptions.forEach((a, i) => {
+    const kind = assumedKind(a);
+    let zoneOffset: (zone: string) => number;
+    try {
+      zoneOffset = zoneOffsetsAt(model, kind, midJd);
+    } catch {
+      zoneOffset = () => 0;
+    }
+    const sa = stageA(model, kind, zoneOffset, obliquityDeg);
+    stageAGridPoints += sa.gridPoints;
+    stageAMinima += sa.minima.length;
+    evaluations += sa.evaluations;
+    const sb = stageB(model, kind, i, sa.minima, win);
+    fullRefinements += sb.fullRefinements;
+    mappedYears += sb.mappedYears;
+    evaluations += sb.ephemerisCalls;
+    all.push(...sb.candidates);
+  });
+  all.sort((x, y) => x.objective - y.objective);
+  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations };
+}

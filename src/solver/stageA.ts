@@ -1,0 +1,98 @@
+/**
+ * Stage A: the year-independent search. The geometric evidence fixes the sun's place in the
+ * sky, and the sky place at a site depends on the date only through the declination and on
+ * the hour only through the hour angle. So chi-square is first minimised over
+ * (declination, hour angle, nuisances): a coarse grid over declination [-eps, +eps] (the
+ * epoch's obliquity, Meeus 1998 eq. 22.2) and hour angle (-180, 180], every local minimum of
+ * the grid kept (8-neighbour test, wrapping in hour angle), each refined by Levenberg-Marquardt,
+ * duplicates merged. Cheap: about 1,700 evaluations of spherical astronomy and the residuals.
+ */
+import type { ClockKind } from '../scene/types.js';
+import type { EvidenceModel } from './evidenceModel.js';
+import { refineStageA, stageAResiduals, type StageAContext } from './fitting.js';
+
+export interface StageAMinimum {
+  readonly declinationDeg: number;
+  readonly hourAngleDeg: number;
+  readonly nuisances: readonly number[];
+  /** Chi-square plus soft penalty of the year-independent model. */
+  readonly objective: number;
+  readonly converged: boolean;
+  readonly iterations: number;
+}
+
+export interface StageAResult {
+  readonly minima: readonly StageAMinimum[];
+  readonly gridPoints: number;
+  readonly evaluations: number;
+}
+
+/** Grid steps: declination 2 deg, hour angle 5 deg (20 minutes). */
+const DEC_STEP_DEG = 2;
+const HA_STEP_DEG = 5;
+/** Minima kept: at most this many, and only those within this much of the best. */
+export const MAX_STAGE_A_MINIMA = 10;
+export const STAGE_A_CUTOFF = 60;
+
+function sumSquares(r: readonly number[]): number {
+  let s = 0;
+  for (const v of r) s += v * v;
+  return s;
+}
+
+/**
+ * Every local minimum of the year-independent chi-square, refined and ranked.
+ * @param obliquityDeg the obliquity of the epoch (bounds of the declination grid)
+ */
+export function stageA(model: EvidenceModel, assumed: ClockKind | null, zoneOffset: (zone: string) => number, obliquityDeg: number): StageAResult {
+  const c: StageAContext = { model, assumed, zoneOffset };
+  const prior = model.nuisances.map((n) => n.priorDeg);
+  const nDec = Math.floor((2 * obliquityDeg) / DEC_STEP_DEG) + 1;
+  const decs = Array.from({ length: nDec }, (_, i) => -obliquityDeg + (i * 2 * obliquityDeg) / (nDec - 1));
+  const nHa = Math.round(360 / HA_STEP_DEG);
+  const has = Array.from({ length: nHa }, (_, j) => -180 + HA_STEP_DEG / 2 + j * HA_STEP_DEG);
+  const grid: number[][] = decs.map((dec) => has.map((ha) => sumSquares(stageAResiduals(c, [dec, ha, ...prior]))));
+  let evaluations = nDec * nHa;
+  const seeds: { i: number; j: number; v: number }[] = [];
+  for (let i = 0; i < nDec; i += 1) {
+    for (let j = 0; j < nHa; j += 1) {
+      const v = grid[i][j];
+      let isMin = true;
+      for (let di = -1; di <= 1 && isMin; di += 1) {
+        const ii = i + di;
+        if (ii < 0 || ii >= nDec) continue;
+        for (let dj = -1; dj <= 1; dj += 1) {
+          if (di === 0 && dj === 0) continue;
+          const jj = (j + dj + nHa) % nHa;
+          if (grid[ii][jj] < v) {
+            isMin = false;
+            break;
+          }
+        }
+      }
+      if (isMin) seeds.push({ i, j, v });
+    }
+  }
+  seeds.sort((a, b) => a.v - b.v);
+  const refined: StageAMinimum[] = [];
+  const gridBest = seeds.length ? seeds[0].v : 0;
+  for (const s of seeds.slice(0, 2 * MAX_STAGE_A_MINIMA)) {
+    if (s.v > gridBest + 4 * STAGE_A_CUTOFF) break; // far worse on the grid: not worth refining
+    const lm = refineStageA(c, [decs[s.i], has[s.j], ...prior]);
+    evaluations += lm.iterations * (2 * lm.x.length + 1);
+    const m: StageAMinimum = {
+      declinationDeg: lm.x[0],
+      hourAngleDeg: lm.x[1],
+      nuisances: lm.x.slice(2),
+      objective: lm.chiSquare,
+      converged: lm.converged,
+      iterations: lm.iterations,
+    };
+    const dup = refined.find((r) => Math.abs(r.declinationDeg - m.declinationDeg) < 0.05 && Math.abs(r.hourAngleDeg - m.hourAngleDeg) < 0.1);
+    if (!dup) refined.push(m);
+  }
+  refined.sort((a, b) => a.objective - b.objective);
+  const best = refined.length > 0 ? refined[0].objective : 0;
+  const minima = refined.filter((m) => m.objective <= best + STAGE_A_CUTOFF).slice(0, MAX_STAGE_A_MINIMA);
+  return { minima, gridPoints: nDec * nHa, evaluations };
+}

@@ -1,0 +1,335 @@
+/**
+ * Stage B: from each year-independent minimum (declination, hour angle) to dated candidates
+ * in every year of the window.
+ *
+ * Each stage-A declination is taken by the sun twice a year (once on each side of a
+ * solstice; once, at the solstice, when it is at or beyond the tropic: seasons.ts). For a few
+ * representative years (all of them in a short window, else the first, the last and one every
+ * REP_SPACING years) the full model is refined in (d, m, nuisances) by Levenberg-Marquardt
+ * with the whole evidence (clocks, which depend on the equation of time). Between them the
+ * yearly pattern repeats to within hours, so the continuous optimum of every other year is
+ * mapped: the day offset from k tropical years, the minute and the nuisances interpolated
+ * linearly between the representative years around it. Each year's optimum is then snapped
+ * to the best allowed civil day (the documentary bounds, months and weekday restrict the day;
+ * the day is chosen by the quadratic prediction (d - d_hat)^2 / C_dd of the profile
+ * chi-square), and the minute (and nuisances) on that day taken from the conditional mean of
+ * the linearised fit. Every candidate is verified by one evaluation of chi-square with the full
+ * ephemeris (src/ephemeris/sunPosition.ts) at its instant; a mapped year whose verified value
+ * exceeds its prediction by more than max(2, 20%) is refined in full like a representative year.
+ */
+import type { ClockKind } from '../scene/types.js';
+import { covarianceFromJacobian } from '../math/leastSquares.js';
+import { sunPosition, type SunPosition, type SunSite } from '../ephemeris/sunPosition.js';
+import type { EvidenceModel } from './evidenceModel.js';
+import { splitChiSquare, longitudeOf } from './evidenceModel.js';
+import {
+  datedPoint,
+  newDatedContext,
+  refineDated,
+  refineOnDay,
+  zoneOffsetsAt,
+  type DatedContext,
+  type DatedFit,
+  type DatedPoint,
+} from './fitting.js';
+import { instantOfSolarLongitude, longitudesOfDeclination, lowPrecisionSun, TROPICAL_YEAR_DAYS } from './seasons.js';
+import { solarStateOnTrack, type SunTrack } from './sunModel.js';
+import type { StageAMinimum } from './stageA.js';
+import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
+
+/** Years between representative years in a long window. */
+export const REP_SPACING = 50;
+/** Windows of up to this many cycles are refined in full in every year. */
+export const FULL_REFINEMENT_CYCLES = 6;
+/** How far (days) from the continuous optimum an allowed day is looked for. */
+const MAX_SNAP_DAYS = 60;
+/** How far an allowed day is looked for when the restrictions exclude the optimum's neighbourhood. */
+const FAR_SNAP_DAYS = 200;
+
+/** A representative year's continuous fit, kept for the uncertainty. */
+export interface RepresentativeFit {
+  readonly cycle: number;
+  readonly fit: DatedFit;
+  readonly objective: number;
+  /** Full covariance of [d, m, ...nuisances], or null when singular. */
+  readonly covariance: number[][] | null;
+  readonly context: DatedContext;
+}
+
+/** A candidate before it is dressed for the answer. */
+export interface RawCandidate {
+  readonly assumptionIndex: number;
+  /** Same key = same family track (assumption, stage-A minimum, branch). */
+  readonly trackKey: string;
+  readonly branch: 'rising' | 'falling' | 'solstice';
+  readonly cycle: number;
+  readonly dayJd0: number;
+  readonly apparentMinutes: number;
+  readonly nuisances: readonly number[];
+  readonly point: DatedPoint;
+  /** The full ephemeris at the candidate's instant, air of the scene. */
+  readonly sun: SunPosition;
+  readonly chiSquare: number;
+  readonly penalty: number;
+  readonly objective: number;
+  /** This year's continuous optimum (d, m). */
+  readonly continuousDay: number;
+  readonly continuousMinutes: number;
+  readonly rep: RepresentativeFit;
+  readonly fit: { readonly converged: boolean; readonly iterations: number };
+  readonly mapped: boolean;
+}
+
+export interface StageBResult {
+  readonly candidates: RawCandidate[];
+  readonly fullRefinements: number;
+  readonly mappedYears: number;
+  readonly ephemerisCalls: number;
+}
+
+/**
+ * One exact evaluation with the full ephemeris at (day, minute, nuisances): one sunPosition
+ * call at the instant found with a guess of the equation of time (an error of a minute in the
+ * guess moves the declination by under 3e-4 deg), then the instant recomputed with the exact value.
+ */
+export function exactPoint(
+  model: EvidenceModel,
+  assumed: ClockKind | null,
+  site: SunSite,
+  dayJd0: number,
+  minutes: number,
+  nuisances: readonly number[],
+  equationOfTimeGuessMinutes: number,
+): { point: DatedPoint; sun: SunPosition } {
+  const lon = longitudeOf(model, nuisances);
+  const approxJdUT = dayJd0 + (minutes - equationOfTimeGuessMinutes) / 1440 - lon / 360;
+  const sun = sunPosition(approxJdUT, { ...site, longitudeDeg: lon }, model.scene.air);
+  const track: SunTrack = {
+    anchorJdUT: approxJdUT,
+    declinationDeg: [sun.declinationDeg, sun.declinationDeg, sun.declinationDeg],
+    equationOfTimeMinutes: [sun.equationOfTimeMinutes, sun.equationOfTimeMinutes, sun.equationOfTimeMinutes],
+  };
+  const ctx: DatedContext = { model, assumed, site, track, zoneOffset: zoneOffsetsAt(model, assumed, approxJdUT), ephemerisCalls: 1 };
+  return { point: datedPoint(ctx, dayJd0, minutes, nuisances), sun };
+}
+
+function objectiveOf(model: EvidenceModel, r: readonly number[]): { chiSquare: number; penalty: number; objective: number } {
+  const s = splitChiSquare(model, r);
+  return { chiSquare: s.chiSquare, penalty: s.penalty, objective: s.chiSquare + s.penalty };
+}
+
+/**
+ * The allowed day with the smallest predicted chi-square near d_hat; when the restrictions
+ * (months, bounds, weekday) exclude every day near it, the nearest allowed day up to
+ * FAR_SNAP_DAYS away, marked `far` (then refined on that day, not predicted). Null when none.
+ */
+function chooseDay(win: DayWindow, dHat: number, cdd: number): { day: number; far: boolean } | null {
+  const sigma = cdd > 0 && Number.isFinite(cdd) ? Math.sqrt(cdd) : 1;
+  const reach = Math.min(MAX_SNAP_DAYS, Math.max(win.weekday !== null ? 4 : 1.5, 3 * sigma));
+  const centre = nearestDayJd0(dHat);
+  let best: number | null = null;
+  let bestCost = Infinity;
+  for (let k = 0; k <= Math.ceil(reach); k += 1) {
+    for (const day of k === 0 ? [centre] : [centre - k, centre + k]) {
+      if (!isDayAllowed(win, day)) continue;
+      const cost = cdd > 0 ? ((day - dHat) * (day - dHat)) / cdd : Math.abs(day - dHat);
+      if (cost < bestCost) {
+        bestCost = cost;
+        best = day;
+      }
+    }
+    if (best !== null && k > 1 && win.weekday === null) break;
+  }
+  if (best !== null) return { day: best, far: false };
+  for (let k = Math.ceil(reach) + 1; k <= FAR_SNAP_DAYS; k += 1) {
+    for (const day of [centre - k, centre + k]) if (isDayAllowed(win, day)) return { day, far: true };
+  }
+  return null;
+}
+
+/** Conditional mean of (m, nuisances) given d, from the linearised fit: x_rest + C_rd / C_dd (d - d_hat). */
+function conditionalRest(x: readonly number[], cov: number[][] | null, day: number): number[] {
+  const rest = x.slice(1);
+  if (!cov || !(cov[0][0] > 0)) return rest;
+  const dd = day - x[0];
+  const moved = rest.map((v, i) => v + (cov[i + 1][0] / cov[0][0]) * dd);
+  // A near-singular fit can predict absurd shifts; then keep the optimum's values.
+  if (!moved.every(Number.isFinite) || Math.abs(moved[0] - rest[0]) > 240 || moved.slice(1).some((v, i) => Math.abs(v - rest[i + 1]) > 20)) return rest;
+  return moved;
+}
+
+interface Track {
+  readonly key: string;
+  readonly branch: 'rising' | 'falling' | 'solstice';
+  readonly longitudeDeg: number;
+}
+
+/**
+ * Dated candidates for one clock assumption from the stage-A minima.
+ */
+export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumptionIndex: number, minima: readonly StageAMinimum[], win: DayWindow): StageBResult {
+  const out: RawCandidate[] = [];
+  let fullRefinements = 0;
+  let mappedYears = 0;
+  let ephemerisCalls = 0;
+  const midJd = 0.5 * (win.firstDayJd0 + win.lastDayJd0);
+  const obliquityDeg = lowPrecisionSun(midJd).obliquityDeg;
+
+  minima.forEach((seed, seedIndex) => {
+    const tracks: Track[] = longitudesOfDeclination(seed.declinationDeg, obliquityDeg).map((l) => ({
+      key: `${assumptionIndex}:${seedIndex}:${l.branch}`,
+      branch: l.branch,
+      longitudeDeg: l.longitudeDeg,
+    }));
+    for (const track of tracks) {
+      // Crossing instants: the first within half a year of the window start, then every tropical year.
+      let t0 = instantOfSolarLongitude(track.longitudeDeg, win.firstDayJd0 + TROPICAL_YEAR_DAYS / 2);
+      while (t0 - TROPICAL_YEAR_DAYS > win.firstDayJd0 - 30) t0 -= TROPICAL_YEAR_DAYS;
+      const cycles: number[] = [];
+      for (let k = 0; t0 + k * TROPICAL_YEAR_DAYS <= win.lastDayJd0 + 30; k += 1) {
+        if (t0 + k * TROPICAL_YEAR_DAYS >= win.firstDayJd0 - 30) cycles.push(k);
+      }
+      if (cycles.length === 0) continue;
+      const kMin = cycles[0];
+      const kMax = cycles[cycles.length - 1];
+      const repCycles = new Set<number>();
+      if (cycles.length <= FULL_REFINEMENT_CYCLES) cycles.forEach((k) => repCycles.add(k));
+      else {
+        const intervals = Math.max(1, Math.ceil((kMax - kMin) / REP_SPACING));
+        for (let i = 0; i <= intervals; i += 1) repCycles.add(Math.round(kMin + ((kMax - kMin) * i) / intervals));
+      }
+
+      const fitCycle = (k: number, start?: readonly number[]): RepresentativeFit => {
+        const tk = instantOfSolarLongitude(track.longitudeDeg, t0 + k * TROPICAL_YEAR_DAYS);
+        const context = newDatedContext(model, assumed, tk);
+        const m0 = 720 + 4 * seed.hourAngleDeg;
+        const e0 = solarStateOnTrack(context.track, tk).equationOfTimeMinutes;
+        const lon = longitudeOf(model, seed.nuisances);
+        const x0 = start ?? [tk - (m0 - e0) / 1440 + lon / 360, m0, ...seed.nuisances];
+        const fit = refineDated(context, x0);
+        fullRefinements += 1;
+        const covariance = covarianceFromJacobian(fit.lm.jacobian, fit.x.length);
+        return { cycle: k, fit, objective: fit.lm.chiSquare, covariance, context };
+      };
+
+      const reps = new Map<number, RepresentativeFit>();
+      for (const k of repCycles) reps.set(k, fitCycle(k));
+      const repList = [...reps.values()].sort((a, b) => a.cycle - b.cycle);
+
+      /** Continuous optimum of cycle k: its own fit, or mapped from the representatives around it. */
+      const continuousOf = (k: number): { x: number[]; objective: number; rep: RepresentativeFit; mapped: boolean } => {
+        const own = reps.get(k);
+        if (own) return { x: own.fit.x, objective: own.objective, rep: own, mapped: false };
+        let lo = repList[0];
+        let hi = repList[repList.length - 1];
+        for (const r of repList) {
+          if (r.cycle <= k) lo = r;
+          if (r.cycle >= k) {
+            hi = r;
+            break;
+          }
+        }
+        const w = hi.cycle === lo.cycle ? 0 : (k - lo.cycle) / (hi.cycle - lo.cycle);
+        const x = lo.fit.x.map((v, i) => {
+          const a = i === 0 ? v - lo.cycle * TROPICAL_YEAR_DAYS : v;
+          const b = i === 0 ? hi.fit.x[0] - hi.cycle * TROPICAL_YEAR_DAYS : hi.fit.x[i];
+          const mixed = a + w * (b - a);
+          return i === 0 ? mixed + k * TROPICAL_YEAR_DAYS : mixed;
+        });
+        const objective = lo.objective + w * (hi.objective - lo.objective);
+        return { x, objective, rep: w < 0.5 ? lo : hi, mapped: true };
+      };
+
+      for (const k of cycles) {
+        let c = continuousOf(k);
+        let rep = c.rep;
+        const cdd = rep.covariance ? rep.covariance[0][0] : NaN;
+        const chosen = chooseDay(win, c.x[0], cdd);
+        if (chosen === null) continue;
+        let day = chosen.day;
+        let rest = conditionalRest(c.x, rep.covariance, day);
+        let point: DatedPoint;
+        let sun: SunPosition;
+        let iterations = 0;
+        let converged = true;
+        let mapped = c.mapped;
+        if (!c.mapped || chosen.far) {
+          if (chosen.far) rest = c.x.slice(1);
+          const onDay = refineOnDay(rep.context, day, rest);
+          iterations = rep.fit.iterations + onDay.iterations;
+          converged = rep.fit.converged && onDay.converged;
+          rest = onDay.x.slice(1);
+          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes));
+          ephemerisCalls += 1;
+          // Near a solstice the quadratic prediction can pick the wrong one of two neighbouring days: try the other.
+          const other = day + (c.x[0] > day ? 1 : -1);
+          if (!chosen.far && isDayAllowed(win, other)) {
+            const alt = refineOnDay(rep.context, other, conditionalRest(c.x, rep.covariance, other));
+            const ex = exactPoint(model, assumed, rep.context.site, other, alt.x[1], alt.x.slice(2), alt.point.state.equationOfTimeMinutes);
+            ephemerisCalls += 1;
+            if (objectiveOf(model, ex.point.residuals).objective < objectiveOf(model, point.residuals).objective) {
+              day = other;
+              rest = alt.x.slice(1);
+              point = ex.point;
+              sun = ex.sun;
+              iterations += alt.iterations;
+            }
+          }
+          if (c.mapped) mappedYears += 1;
+        } else {
+          mappedYears += 1;
+          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), rep.fit.point.state.equationOfTimeMinutes));
+          ephemerisCalls += 1;
+          const predicted = c.objective + (cdd > 0 ? ((day - c.x[0]) * (day - c.x[0])) / cdd : 0);
+          const got = objectiveOf(model, point.residuals).objective;
+          if (got > predicted + Math.max(2, 0.2 * predicted)) {
+            // The mapping did not hold: refine this year in full.
+            const own = fitCycle(k, c.x);
+            reps.set(k, own);
+            c = { x: own.fit.x, objective: own.objective, rep: own, mapped: false };
+            rep = own;
+            mapped = false;
+            mappedYears -= 1;
+            const again = chooseDay(win, own.fit.x[0], own.covariance ? own.covariance[0][0] : NaN);
+            if (again === null) continue;
+            day = again.day;
+            const onDay = refineOnDay(own.context, day, again.far ? own.fit.x.slice(1) : conditionalRest(own.fit.x, own.covariance, day));
+            rest = onDay.x.slice(1);
+            iterations = own.fit.iterations + onDay.iterations;
+            converged = own.fit.converged && onDay.converged;
+            ({ point, sun } = exactPoint(model, assumed, own.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes));
+            ephemerisCalls += 1;
+          }
+        }
+        const o = objectiveOf(model, point.residuals);
+        out.push({
+          assumptionIndex,
+          trackKey: track.key,
+          branch: track.branch,
+          cycle: k,
+          dayJd0: day,
+          apparentMinutes: rest[0],
+          nuisances: rest.slice(1),
+          point,
+          sun,
+          chiSquare: o.chiSquare,
+          penalty: o.penalty,
+          objective: o.objective,
+          continuousDay: c.x[0],
+          continuousMinutes: c.x[1],
+          rep,
+          fit: { converged, iterations },
+          mapped,
+        });
+      }
+      for (const r of reps.values()) ephemerisCalls += r.context.ephemerisCalls;
+    }
+  });
+
+  // One candidate per civil day and hour (within 5 minutes) and assumption: keep the best.
+  const kept: RawCandidate[] = [];
+  for (const c of [...out].sort((a, b) => a.objective - b.objective)) {
+    if (!kept.some((k) => k.dayJd0 === c.dayJd0 && Math.abs(k.apparentMinutes - c.apparentMinutes) < 5)) kept.push(c);
+  }
+  return { candidates: kept, fullRefinements, mappedYears, ephemerisCalls };
+}

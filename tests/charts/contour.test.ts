@@ -1,0 +1,79 @@
+import { describe, expect, it } from 'vitest';
+import { cellRuns, isolineSegments } from '../../src/charts/contour.js';
+import { ellipsePoints, semiAxisVectors } from '../../src/charts/ellipse.js';
+import { expectClose } from '../helpers/expectClose.js';
+
+function grid(n: number, lo: number, hi: number): number[] {
+  return Array.from({ length: n }, (_, i) => lo + ((hi - lo) * i) / (n - 1));
+}
+
+describe('isolineSegments (marching squares)', () => {
+  it('traces the unit circle of x^2 + y^2 = 1: every end on the circle, total length 2 pi', () => {
+    const xs = grid(81, -2, 2);
+    const ys = grid(81, -2, 2);
+    const values = ys.map((y) => xs.map((x) => x * x + y * y));
+    const segments = isolineSegments({ xs, ys, values }, 1);
+    expect(segments.length).toBeGreaterThan(40);
+    let length = 0;
+    for (const [p, q] of segments) {
+      // linear interpolation of a quadratic over a 0.05 cell: radius error below 0.002 (h^2/8 with the curvature 2)
+      expectClose(Math.hypot(p[0], p[1]), 1, 0.002, 'radius of a contour point');
+      length += Math.hypot(q[0] - p[0], q[1] - p[1]);
+    }
+    expectClose(length, 2 * Math.PI, 0.01, 'contour length');
+  });
+  it('puts the crossing where linear interpolation along the edge puts it', () => {
+    expect(isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[0, 2], [0, 2]] }, 1)).toEqual([[[0.5, 0], [0.5, 1]]]);
+    expect(isolineSegments({ xs: [0, 10], ys: [0, 1], values: [[0, 4], [0, 4]] }, 1)).toEqual([[[2.5, 0], [2.5, 1]]]);
+  });
+  describe('edge cases', () => {
+    it('gives nothing for a field entirely above or below the level, and skips cells with NaN', () => {
+      expect(isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[5, 5], [5, 5]] }, 1)).toEqual([]);
+      expect(isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[0, NaN], [2, 2]] }, 1)).toEqual([]);
+    });
+    it('resolves a saddle cell into two segments', () => {
+      expect(isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[2, 0], [0, 2]] }, 1).length).toBe(2);
+    });
+  });
+});
+
+describe('cellRuns', () => {
+  it('merges neighbouring cells of a row into one run', () => {
+    const inside = [
+      [true, true, false, true],
+      [false, false, false, false],
+      [true, true, true, true],
+    ];
+    expect(cellRuns(3, 4, (j, i) => inside[j][i])).toEqual([
+      { j: 0, i0: 0, i1: 2 },
+      { j: 0, i0: 3, i1: 4 },
+      { j: 2, i0: 0, i1: 4 },
+    ]);
+  });
+});
+
+describe('ellipse points', () => {
+  it('lie on the ellipse x^T C^-1 x = 1 of the covariance C built from the semi-axes', () => {
+    const [a, b] = semiAxisVectors(3, 1, 30);
+    // C = a a^T + b b^T for orthogonal semi-axis vectors (common practice: the eigen-decomposition of C).
+    const c11 = a[0] * a[0] + b[0] * b[0];
+    const c12 = a[0] * a[1] + b[0] * b[1];
+    const c22 = a[1] * a[1] + b[1] * b[1];
+    const det = c11 * c22 - c12 * c12;
+    for (const [x, y] of ellipsePoints([10, -5], a, b, 36)) {
+      const dx = x - 10;
+      const dy = y + 5;
+      expectClose((c22 * dx * dx - 2 * c12 * dx * dy + c11 * dy * dy) / det, 1, 1e-9, 'quadratic form');
+    }
+  });
+  it('turns the major axis by the orientation angle', () => {
+    const [a, b] = semiAxisVectors(2, 1, 90);
+    expectClose(a[0], 0, 1e-12, 'a.x');
+    expectClose(a[1], 2, 1e-12, 'a.y');
+    expectClose(b[0], -1, 1e-12, 'b.x');
+    expectClose(b[1], 0, 1e-12, 'b.y');
+    const points = ellipsePoints([0, 0], a, b, 8);
+    expect(points.length).toBe(9);
+    expect(points[8]).toEqual(points[0]);
+  });
+});
