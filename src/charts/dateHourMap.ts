@@ -132,7 +132,7 @@ function closeUpPanel(data: DateHourMapData, prefix: string): string {
   return group({ class: 'hc-panel hc-closeup' }, [
     el('defs', {}, clipPathFor(clip, area)),
     group({ 'clip-path': `url(#${clip})` }, [...bandCells(c, x, y), ...bandOutlines(c, x, y), ...markerMarks(data.markers, x, y, true)]),
-    bottomAxis(area, { scale: x, ticks: c.dayLabels.map((t) => ({ value: t.offset, label: t.label })), label: 'day', grid: true }),
+    bottomAxis(area, { scale: x, ticks: c.dayLabels.map((t) => ({ value: t.offset, label: t.label })), label: `day (${data.yearLabel})`, grid: true }),
     leftAxis(area, { scale: y, ticks: hourTicks(c.minuteRange, 8), label: 'local apparent time (hours)', grid: true }),
     plotFrame(area),
     text(area.left, area.top - 6, 'Close-up of the best candidate', { class: 'hc-legend', 'font-weight': 'bold' }),

@@ -172,7 +172,10 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   }));
 
   const notes: string[] = [];
-  if (model.clocks.length > 0) notes.push(`clock reading${model.clocks.length > 1 ? 's' : ''} (${model.clocks.map((c) => c.observationId).join(', ')}) constrain the hour, not the sky direction`);
+  if (model.clocks.length > 0) {
+    const one = model.clocks.length === 1;
+    notes.push(`clock reading${one ? '' : 's'} (${model.clocks.map((c) => c.observationId).join(', ')}) ${one ? 'fixes' : 'fix'} the hour, not the direction of the sun`);
+  }
   const explicitFacts = model.facts.filter((f) => !f.implicit);
   if (explicitFacts.length > 0) notes.push(`facts without numbers (${explicitFacts.map((f) => f.observationId).join(', ')}) are not drawn`);
   return { centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, evaluations };

@@ -9,7 +9,7 @@
  */
 import { existsSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
-import { InvalidInputError } from '../errors.js';
+import { InvalidInputError, OutputError } from '../errors.js';
 import { readSceneFile } from '../scene/readScene.js';
 import type { Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
@@ -20,7 +20,7 @@ import { hhmm, roundTo } from '../report/formatTimes.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
 import { writeOutputFile, type CliIo } from './io.js';
 import type { MeasureOptions } from './measureSpec.js';
-import { measureOverlaySvg, observationIndex, planeLabel, predictMeasurements, type MeasurementPrediction } from './measureOverlay.js';
+import { measureOverlaySvg, observationIndex, planeLabel, planeShortLabel, predictMeasurements, type MeasurementPrediction } from './measureOverlay.js';
 import { readPictureFile, type PictureFile } from './pictureFile.js';
 
 /** Every plane of the scene rectified: those the measurements used, and any other wall or ground plane given. */
@@ -73,10 +73,16 @@ function planeRecord(scene: Scene, field: string, plane: RectifiedPlane): PlaneR
     : r.rmsPx > 3 * worstSigma
       ? `rms residual ${r.rmsPx.toFixed(2)} px is more than 3 times the clicking precision (${worstSigma} px): a point is misclicked or the picture does not follow one perspective on this plane`
       : null;
+  // the worst point named by its path in the scene file and by its label on the overlay (numbered from 1)
+  const worst = r.residualsPx.indexOf(Math.max(...r.residualsPx));
+  const note = r.exactlyDetermined
+    ? r.note
+    : `rms residual ${r.rmsPx.toFixed(2)} px, largest ${r.residualsPx[worst].toFixed(2)} px at ${field}.pointsPx[${worst}] ` +
+      `(${planeShortLabel(field)} ${worst + 1} on the overlay): ${warning ? 'larger than the clicking precision' : 'within the clicking precision'}`;
   return {
     field, label: planeLabel(scene, field), kind: plane.kind, definition: r.definition, metric: r.metric,
     points: plane.pixelPoints.length, residualsPx: r.residualsPx.map((v) => roundTo(v, 3)), rmsPx: roundTo(r.rmsPx, 3),
-    exactlyDetermined: r.exactlyDetermined, conditionNumber: roundTo(r.conditionNumber, 1), note: r.note, warning,
+    exactlyDetermined: r.exactlyDetermined, conditionNumber: roundTo(r.conditionNumber, 1), note, warning,
   };
 }
 
@@ -245,6 +251,17 @@ function pictureFor(scene: Scene, sceneFullPath: string, options: MeasureOptions
   return { picture: readPictureFile(path, 'image.file', file), path };
 }
 
+/** Refuse the overlay path early, with the name as given: an existing file without --force, the scene file, a missing folder. */
+function checkOverlayPath(options: MeasureOptions, sceneFullPath: string, io: CliIo): string | undefined {
+  const name = options.overlay;
+  if (name === undefined) return undefined;
+  const target = resolve(io.cwd, name);
+  if (target === sceneFullPath) throw new OutputError(`output file ${JSON.stringify(name)} is the input file; choose another name`);
+  if (existsSync(target) && !options.force) throw new OutputError(`output file ${JSON.stringify(name)} exists already; add --force to replace it`);
+  if (!existsSync(dirname(target))) throw new OutputError(`folder ${JSON.stringify(dirname(name))} for the overlay file does not exist`);
+  return target;
+}
+
 export async function run(args: readonly string[], options: MeasureOptions, io: CliIo): Promise<void> {
   const scenePath = args[0];
   const fullPath = resolve(io.cwd, scenePath);
@@ -255,6 +272,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
     throw new InvalidInputError('--image', options.image, 'a picture only together with --overlay <file.svg>, which it is embedded in');
   }
   const scene = readSceneFile(fullPath);
+  const overlayTarget = checkOverlayPath(options, fullPath, io);
   const resolved = resolvePixelObservations(scene);
   const planes = allPlanes(scene, resolved.planes);
   const notes: string[] = [];
@@ -310,7 +328,6 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
     });
   }
 
-  const overlayTarget = options.overlay === undefined ? undefined : resolve(io.cwd, options.overlay);
   const text = options.json
     ? `${JSON.stringify({
         scene: scene.title,

@@ -13,8 +13,7 @@
  */
 import type { ClockKind } from '../scene/types.js';
 import type { Candidate } from './types.js';
-import { splitChiSquare, type EvidenceModel } from './evidenceModel.js';
-import { longitudeOf } from './evidenceModel.js';
+import { longitudeOf, splitChiSquare, type EvidenceModel } from './evidenceModel.js';
 import { datedPoint, ensureTrack, newDatedContext } from './fitting.js';
 
 export interface DayMinuteGridSpec {

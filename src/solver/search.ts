@@ -7,6 +7,7 @@ import type { ClockAssumption } from './types.js';
 import type { ClockKind } from '../scene/types.js';
 import type { EvidenceModel } from './evidenceModel.js';
 import { zoneOffsetsAt } from './fitting.js';
+import { zoneReading } from '../time/clock.js';
 import { lowPrecisionSun } from './seasons.js';
 import { stageA } from './stageA.js';
 import { stageB, type RawCandidate } from './stageB.js';
@@ -40,8 +41,16 @@ export function clockAssumptionsOf(model: EvidenceModel): ClockAssumption[] {
   return tried.map((k) => ({ ...k, stated: false }));
 }
 
+/**
+ * Every local best fit in the window, under every clock assumption.
+ * @throws UnsupportedError (from src/time/clock.ts) for a zone clock in a window that starts
+ *   before zone time existed (1847), unless the zone's entry there is local mean time.
+ */
 export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchResult {
   const assumptions = clockAssumptionsOf(model);
+  model.clocks.forEach((c) => {
+    if (c.kept && c.kept.kind === 'zone') zoneReading(c.kept.zone, win.firstDayJd0 + 0.5, `clock ${c.observationId}`);
+  });
   const midJd = 0.5 * (win.firstDayJd0 + win.lastDayJd0);
   const obliquityDeg = lowPrecisionSun(midJd).obliquityDeg;
   const all: RawCandidate[] = [];

@@ -151,6 +151,35 @@ describe('sky chart data', () => {
   });
 });
 
+describe('sky chart data in the southern hemisphere', () => {
+  it('centres the chart on north, where the sun culminates, and puts noon at azimuth 0', () => {
+    // Invented demo site at 33.9 S; a sun direction to the north-east in the morning (2 deg sigmas).
+    const text = [
+      'heliochron: 1',
+      'title: southern test',
+      'site: { latitudeDeg: -33.9, longitudeDeg: 151.2, elevationM: 20 }',
+      'calendar: gregorian',
+      'yearStart: jan1',
+      'window: { fromYear: 1890, toYear: 1890 }',
+      'walls: []',
+      'observations:',
+      '  - { id: sun, kind: sun-direction, azimuthDeg: 60, azimuthSigmaDeg: 2, altitudeDeg: 35, altitudeSigmaDeg: 2 }',
+      'seed: 1',
+    ].join('\n');
+    const s = readSceneText(text, 'south.yaml');
+    const a = solveDates(s);
+    const data = skyChartData(s, a, { columns: 91, rows: 46 });
+    expect(data.centreAzimuthDeg).toBe(0);
+    expect(data.azimuthRange[0]).toBeLessThan(0);
+    expect(data.azimuthRange[1]).toBeGreaterThan(0);
+    const noon = data.paths[0].hourMarks.find((h) => h.label === '12h')!;
+    expectClose(noon.azimuthDeg, 0, 0.05, 'noon azimuth (due north)');
+    const sun = data.suns[0];
+    expectClose(sun.azimuthDeg, 60, 3, 'the candidate sun near the measured direction');
+    expect(renderSkyChart(data)).toContain('>NE<');
+  });
+});
+
 describe('residuals chart', () => {
   it('has one bar per measured number of the best candidate', () => {
     const data = residualChartData(answer);

@@ -92,6 +92,34 @@ describe('heliochron measure: what it prints', () => {
     expect(j.overlay).toBeNull();
   });
 
+  it('warns when the residuals of a plane are larger than the clicking precision allows (a misclicked corner)', async () => {
+    // the first window corner clicked 25 px right and 20 px low of where it is
+    const path = variant('misclick', (t) => t.replace('pointsPx: [[588, 558]', 'pointsPx: [[613, 578]'));
+    const r = await measure([path]);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/WARNING: rms residual [\d.]+ px is more than 3 times the clicking precision \(1 px\): a point is misclicked/);
+    const good = await measure([EXAMPLE]);
+    expect(good.out).not.toContain('WARNING');
+  });
+
+  it('a reversed print clicked as it is (x flipped, mirrored: true) gives the same values (docs/conventions.md)', async () => {
+    const flip = (line: string): string => line.replace(/\[(\d+(?:\.\d+)?), (\d+(?:\.\d+)?)\]/g, (_m, x, y) => `[${1600 - Number(x)}, ${y}]`);
+    const path = variant('mirrored', (t) =>
+      t.split('\n').map((line) => (/pointsPx:|pixels:/.test(line) ? flip(line) : line)).join('\n').replace('pixelSigmaPx: 1 }', 'pixelSigmaPx: 1, mirrored: true }'),
+    );
+    const a = JSON.parse((await measure([EXAMPLE, '--json'])).out);
+    const b = JSON.parse((await measure([path, '--json'])).out);
+    expect(b.image.mirrored).toBe(true);
+    expect(b.observations.map((o: { values: unknown }) => o.values)).toEqual(a.observations.map((o: { values: unknown }) => o.values));
+    expect(b.observations[0].side).toBe('left');
+  });
+
+  it('a scene without pixel forms says there is nothing to measure', async () => {
+    const r = await measure([join(ROOT, 'examples/marktgasse-print.yaml')]);
+    expect(r.code).toBe(0);
+    expect(r.out).toContain('none: no observation of this scene is given in pixels');
+  });
+
   it('warns when the first-order sigma is not reliable and says which sigma dating uses', async () => {
     // the rod's shadow measured far outside a tiny clicked tile (about 12 px) with 2 px clicks
     const path = variant('tiny-tile', (t) =>

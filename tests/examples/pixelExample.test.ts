@@ -135,3 +135,15 @@ describe('the Tanners\' Hall photograph through `heliochron date`, end to end', 
     expect(Math.abs(best.sun.altitudeDeg - sunAltitudeDeg)).toBeLessThan(1);
   });
 });
+
+describe('the Tanners\' Hall photograph through `heliochron check`', () => {
+  it('the true day is consistent with the clicked shadows, a day three months earlier is not', async () => {
+    const yes = await cli(['check', SCENE, '--on', '1890-09-02', '--json']);
+    expect(yes.code).toBe(0);
+    expect(JSON.parse(yes.out).verdict).toBe('consistent');
+    // 2 June: the sun's declination is about +22 deg instead of +8 deg (Meeus 1998 ch. 25), far beyond the sigmas
+    const no = await cli(['check', SCENE, '--on', '1890-06-02', '--json']);
+    expect(no.code).toBe(0);
+    expect(JSON.parse(no.out).verdict).toBe('inconsistent');
+  });
+});

@@ -197,6 +197,21 @@ describe('solveDates', () => {
       expect(best.nuisances.map((n) => n.name)).toEqual(['wall:tanners-hall:azimuth', 'wall:gate-tower:azimuth']);
       for (const n of best.nuisances) expect(Math.abs(n.fittedDeg - (n.priorDeg - 1.5))).toBeLessThan(1.2);
     });
+    it('reads a zone-time clock through the time zone database (Central European Time in 1905)', () => {
+      const truth = instant(1905, 8, 10, 560); // morning: both walls lit
+      const zone = { kind: 'zone', zone: 'Europe/Zurich' } as const;
+      const reading = jdUTToClockMinutes(truth, zone, VELMAR).minutesOfDay;
+      const clock: Observation = { id: 'station-clock', kind: 'clock', readingMinutes: reading, precisionMinutes: 1, hourHandTrusted: true, dialHours: 24, kept: zone };
+      const a = solveDates(baseScene(threeShadows(truth, [clock]), WALLS, 1904, 1906));
+      const best = a.candidates[0];
+      expectClose((best.jdUT - truth) * 1440, 0, 1, 'minutes from the truth');
+      expectClose(best.times.clock!.minutes, reading, 1, 'zone time shown');
+    });
+    it('refuses zone time before 1847 (src/time/clock.ts policy)', () => {
+      const clock: Observation = { id: 'station-clock', kind: 'clock', readingMinutes: 600, precisionMinutes: 1, hourHandTrusted: true, dialHours: 24, kept: { kind: 'zone', zone: 'Etc/GMT-1' } }; // a fixed one-hour zone: not local mean time
+      const truth = instant(1650, 9, 12, 540);
+      expect(() => solveDates(baseScene(threeShadows(truth, [clock]), WALLS, 1649, 1651))).toThrow(/1847/);
+    });
     it('refuses an observation without its number, naming the field', () => {
       const scene = baseScene([{ id: 'r', kind: 'rod-shadow', wallId: 'tanners-hall', sigmaDeg: 0.5 }], WALLS, 1650, 1650);
       expect(() => solveDates(scene)).toThrow(/observations\[0\]\.slopeDeg/);
