@@ -1,0 +1,67 @@
+/**
+ * heliochron's public API: named re-exports only.
+ * The command line (src/cli/) is a thin layer over these.
+ */
+
+// Errors
+export { HeliochronError, InvalidInputError, ConvergenceError, UnsupportedError, OutputError } from './errors.js';
+export type { ErrorKind } from './errors.js';
+
+// Angles
+export { degToRad, radToDeg, normalizeDeg360, normalizeDeg180, angleDiffDeg } from './math/angles.js';
+
+// Calendars
+export {
+  calendarDateToJd,
+  jdToCalendarDate,
+  isLeapYear,
+  daysInMonth,
+  dayOfYear,
+  weekdayOfJd,
+  ROME_FIRST_GREGORIAN_JD,
+} from './calendar/julianDay.js';
+export type { CalendarKind, CalendarDate } from './calendar/julianDay.js';
+export {
+  loadReformTable,
+  findRegion,
+  parseCalendarRule,
+  calendarInForce,
+  civilDateToJd,
+  jdToCivilDate,
+} from './calendar/regions.js';
+export type { Region } from './calendar/regions.js';
+export { historicalToJanuaryYear, januaryYearToHistorical, formatDualYear } from './calendar/yearStart.js';
+export { easterSunday } from './calendar/easter.js';
+export { parseDateText } from './calendar/parseDate.js';
+export { formatCalendarDate, formatDualStyle } from './calendar/format.js';
+
+// Time-keeping
+export { deltaT } from './time/deltaT.js';
+export { jdUTToJdTT, jdTTToJdUT } from './time/timeScales.js';
+export { clockToJdUT, jdUTToClockMinutes, parseClockKind, formatClockKind } from './time/clock.js';
+
+// Ephemeris
+export { sunPosition } from './ephemeris/sunPosition.js';
+export type { SunPosition, SunSite } from './ephemeris/sunPosition.js';
+export { equationOfTimeMinutes } from './ephemeris/equationOfTime.js';
+export { sunEvents } from './ephemeris/riseSet.js';
+export { refractionDeg, bennettRefractionDeg, STANDARD_AIR } from './ephemeris/refraction.js';
+export { fastSunPosition } from './ephemeris/fastSun.js';
+
+// Shadow geometry
+export { horizontalShadowAngleDeg, verticalShadowAngleDeg } from './geometry/shadowAngles.js';
+export { predictEvidence, evidenceResiduals, evidenceLocus } from './geometry/observationModels.js';
+
+// Measuring on the picture
+export { fitHomography, applyHomography, invertHomography } from './image/homography.js';
+export { measureScenePixels } from './image/measureScene.js';
+export { resolvePixelObservations } from './image/resolvePixels.js';
+
+// Scene files
+export { readSceneText, readSceneFile } from './scene/readScene.js';
+export type * from './scene/types.js';
+
+// Solver
+export { solveDates } from './solver/solveDates.js';
+export { checkProposal } from './solver/checkDate.js';
+export type * from './solver/types.js';
