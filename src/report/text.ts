@@ -155,6 +155,9 @@ function assumptionLines(scene: Scene, answer: { readonly clockAssumptions?: Dat
  * The answer of `heliochron date` as plain text.
  * @example renderDateText(solveDates(scene), scene) // "Marktgasse view ...\n\nVerdict: Several dates fit ..."
  */
+/** Most rows of the candidates table without --all-years (each family's best is added to them). */
+const TABLE_ROWS = 10;
+
 export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTextOptions = {}): string {
   const out: string[] = [];
   out.push(`${answer.sceneTitle}`);
@@ -172,14 +175,21 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
     }
   }
 
-  if (answer.candidates.length > 0) {
-    out.push('', `Best candidates (${answer.candidates.length}), times of day in local apparent time, local mean time and UT; sun azimuth clockwise from true north, altitude refracted, degrees:`);
-    out.push(...candidateTable(answer.candidates, scene).map((l) => `  ${l}`));
-    const clocked = answer.candidates.map(extraClock).find((x) => x !== null);
+  // The table shows the best candidates in rank order (at most TABLE_ROWS without --all-years) and,
+  // after them, the best year of every family not yet shown, so that every distinct answer (both
+  // sides of the solstice, morning and afternoon, each clock assumption) is in view.
+  const top = options.allYears ? answer.candidates : answer.candidates.slice(0, TABLE_ROWS);
+  const shownIds = new Set(top.map((c) => c.id));
+  const shown = [...top, ...answer.families.map((f) => f.best).filter((c) => !shownIds.has(c.id))].sort((a, b) => a.rank - b.rank);
+  if (shown.length > 0) {
+    const more = answer.candidates.length > top.length ? `; ${answer.candidates.length - top.length} more with --all-years` : '';
+    out.push('', `Best candidates (${shown.length}${more}), times of day in local apparent time, local mean time and UT; sun azimuth clockwise from true north, altitude refracted, degrees:`);
+    out.push(...candidateTable(shown, scene).map((l) => `  ${l}`));
+    const clocked = shown.map(extraClock).find((x) => x !== null);
     if (clocked) out.push(`  (clock column: the time the clock showed under the assumption of its row, ${clocked.label})`);
     const styles = dualStyleWords(scene);
     if (styles) out.push(`  (${styles})`);
-    const replaced = answer.candidates.filter((c) => c.uncertainty.method !== 'ellipse' || ellipse95(c.uncertainty) === null);
+    const replaced = shown.filter((c) => c.uncertainty.method !== 'ellipse' || ellipse95(c.uncertainty) === null);
     const reasons = [...new Set(replaced.map(replacedReason))];
     for (const reason of reasons) {
       const these = replaced.filter((c) => replacedReason(c) === reason);

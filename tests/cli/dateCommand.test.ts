@@ -37,6 +37,13 @@ describe('heliochron date', () => {
     for (let i = 0; i < at.length; i++) expect(at[i], order[i]).toBeGreaterThan(i === 0 ? 0 : at[i - 1]);
     expect(r.out).toContain('July (Gregorian)');
   });
+  it('shows the best year of every family in the candidates table, the May side of the solstice too', async () => {
+    // examples/README.md (a): the shadows also fit about 10-11 May; the clock only makes it less likely.
+    const r = await cli(['date', MARKTGASSE]);
+    const table = r.out.slice(r.out.indexOf('Best candidates'), r.out.indexOf('Residuals of the best candidate'));
+    expect(table).toMatch(/\n\s+\d+\s+1[01] May 17\d\d \(Gregorian\)/);
+    expect(table).toMatch(/\n\s+1\s+(29|30) July 17\d\d \(Gregorian\)/);
+  });
   it('--json is one object, byte-identical on two runs, with candidates in rank order and a numeric jd', async () => {
     const a = await cli(['date', MARKTGASSE, '--json']);
     const b = await cli(['date', MARKTGASSE, '--json']);
