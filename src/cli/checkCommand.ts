@@ -7,13 +7,14 @@ import { InvalidInputError } from '../errors.js';
 import type { Scene } from '../scene/types.js';
 import type { Proposal } from '../solver/types.js';
 import { readCivilDate } from '../scene/calendarFields.js';
+import { MAX_YEAR, MIN_YEAR } from '../scene/readScene.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { parseClockKind } from '../time/clock.js';
 import { checkProposal } from '../solver/checkDate.js';
 import { renderCheckText } from '../report/text.js';
 import { checkAnswerJson, stableJson } from '../report/json.js';
 import { parseTimeOfDay } from './sunCommand.js';
-import { checkOutputPath, deliver, readSceneForCommand } from './dateCommand.js';
+import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
 import type { CheckOptions } from './checkSpec.js';
 
@@ -79,7 +80,14 @@ export function proposalFromOptions(options: CheckOptions, scene: Scene): Propos
   if (options.on === undefined && options.time !== undefined) throw new InvalidInputError('--time', options.time, 'a time only together with --on <date>');
   if (options.time === undefined && options.clock !== undefined) throw new InvalidInputError('--clock', options.clock, 'a clock only together with --time <hh:mm>');
   if (options.time === undefined && options.within !== undefined) throw new InvalidInputError('--within', options.within, 'a tolerance only together with --time <hh:mm>');
-  const day = (text: string, field: string) => readCivilDate(text, field, scene.calendar, scene.yearStart);
+  const day = (text: string, field: string) => {
+    const read = readCivilDate(text, field, scene.calendar, scene.yearStart);
+    // The years of a scene window: the range of the Delta T model (Espenak and Meeus 2006).
+    if (read.day.year < MIN_YEAR || read.day.year > MAX_YEAR) {
+      throw new InvalidInputError(field, text, `a date in the years ${MIN_YEAR} to ${MAX_YEAR} (astronomical numbering), as for the window of a scene file`);
+    }
+    return read;
+  };
   if (options.on !== undefined) {
     const on = day(options.on, '--on');
     if (options.time === undefined) return { kind: 'day', day: on.day };
@@ -107,7 +115,7 @@ export async function run(args: readonly string[], options: CheckOptions, io: Cl
   const { scene, fullPath } = readSceneForCommand(scenePath, io);
   const proposal = proposalFromOptions(options, scene);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
-  const answer = checkProposal(scene, proposal);
+  const answer = inScene(scenePath, () => checkProposal(scene, proposal));
   const text = options.json ? stableJson(checkAnswerJson(answer, scene, options.version)) : renderCheckText(answer, scene);
   deliver(text, target, options.output, options.force, fullPath, io);
 }

@@ -30,6 +30,22 @@ export function readSceneForCommand(path: string, io: CliIo): { scene: Scene; fu
   }
 }
 
+/**
+ * Run the work on a scene; a refusal raised there that names a path in the scene file (a picture
+ * plane that cannot be rectified: walls[0].imagePlane.pointsPx) is prefixed with the file's
+ * name, as the reader's refusals are. Refusals of a proposal (proposal.*) are left as they are.
+ */
+export function inScene<T>(scenePath: string, work: () => T): T {
+  try {
+    return work();
+  } catch (error) {
+    if (error instanceof InvalidInputError && !error.field.startsWith('proposal') && !error.message.startsWith(`${scenePath}: `)) {
+      throw new HeliochronError('invalid-input', `${scenePath}: ${error.message}`);
+    }
+    throw error;
+  }
+}
+
 /** Refuse an output path early (before any work) when it exists without --force or is the input. */
 export function checkOutputPath(output: string | undefined, force: boolean, inputPath: string, io: CliIo): string | undefined {
   if (output === undefined) return undefined;
@@ -58,7 +74,7 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
   if (options.json && options.csv) throw new InvalidInputError('--csv', '--json --csv', 'one output form: --json or --csv, not both');
   const { scene, fullPath } = readSceneForCommand(scenePath, io);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
-  const answer = solveDates(scene, { perYear: options.allYears });
+  const answer = inScene(scenePath, () => solveDates(scene, { perYear: options.allYears }));
   const text = options.json
     ? stableJson(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }))
     : options.csv

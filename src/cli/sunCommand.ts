@@ -16,6 +16,10 @@ import { clockToJdUT, describeClockKind, formatClockKind, formatMinutes, jdUTToC
 import type { CliIo } from './io.js';
 import type { SunOptions } from './sunSpec.js';
 
+/** Years the sun command accepts: those of a scene window (src/scene/readScene.ts MIN_YEAR, MAX_YEAR; Delta T of Espenak and Meeus 2006). */
+const MIN_YEAR = -1999;
+const MAX_YEAR = 3000;
+
 const NUMBER = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 
 /** A number option within [min, max], or InvalidInputError naming the option. */
@@ -62,6 +66,9 @@ function readInputs(options: SunOptions): Inputs {
   const clock = parseClockKind(options.clock, '--clock');
   if (options.date === undefined) throw new InvalidInputError('--date', undefined, 'a civil date such as 1650-03-10 (this option is required)');
   const day = parseDateText(options.date, '--date');
+  if (day.year < MIN_YEAR || day.year > MAX_YEAR) {
+    throw new InvalidInputError('--date', options.date, `a date in the years ${MIN_YEAR} to ${MAX_YEAR} (astronomical numbering)`, 'That is the range of the Delta T model (Espenak and Meeus 2006), as for the window of a scene file.');
+  }
   const dayJd0 = civilDateToJd(rule, day, '--date');
   return { site, air, rule, clock, dayJd0, dateText: formatIsoDay(day) };
 }

@@ -79,15 +79,15 @@ function uncertaintyJson(c: Candidate) {
     words: uncertaintyWords(c),
     ellipseValid: u.ellipseValid,
     ...(u.invalidReason === undefined ? {} : { invalidReason: u.invalidReason }),
-    sigmaDays: roundTo(u.sigmaDays, DIGITS.days),
-    sigmaMinutes: roundTo(u.sigmaMinutes, DIGITS.minutes),
-    correlation: roundTo(u.correlation, DIGITS.ratio),
-    minutesPerDay: roundTo(u.minutesPerDay, DIGITS.minutes),
+    sigmaDays: roundOrNull(u.sigmaDays, DIGITS.days),
+    sigmaMinutes: roundOrNull(u.sigmaMinutes, DIGITS.minutes),
+    correlation: roundOrNull(u.correlation, DIGITS.ratio),
+    minutesPerDay: roundOrNull(u.minutesPerDay, DIGITS.minutes),
     ellipse95: e
       ? {
-          halfWidthDays: roundTo(e.halfWidthDays, DIGITS.days),
-          halfWidthMinutes: roundTo(e.halfWidthMinutes, DIGITS.minutes),
-          orientationDeg: roundTo(e.orientationDeg, DIGITS.angleDeg),
+          halfWidthDays: roundOrNull(e.halfWidthDays, DIGITS.days),
+          halfWidthMinutes: roundOrNull(e.halfWidthMinutes, DIGITS.minutes),
+          orientationDeg: roundOrNull(e.orientationDeg, DIGITS.angleDeg),
         }
       : null,
     profile: p
@@ -153,7 +153,7 @@ export function candidateJson(c: Candidate, scene: Scene, familyId?: string) {
       priorDeg: roundTo(n.priorDeg, DIGITS.angleDeg),
       priorSigmaDeg: roundTo(n.priorSigmaDeg, DIGITS.angleDeg),
       fittedDeg: roundTo(n.fittedDeg, DIGITS.angleDeg),
-      posteriorSigmaDeg: roundTo(n.posteriorSigmaDeg, DIGITS.angleDeg),
+      posteriorSigmaDeg: roundOrNull(n.posteriorSigmaDeg, DIGITS.angleDeg),
     })),
     fit: { converged: c.fit.converged, iterations: c.fit.iterations },
   };
@@ -194,7 +194,7 @@ function consistencyJson(c: ConsistencyReport, scene: Scene) {
       observationKind: e.observationKind,
       residualCount: e.residualCount,
       chiSquareAll: roundTo(e.chiSquareAll, DIGITS.chiSquare),
-      chiSquareWithout: roundTo(e.chiSquareWithout, DIGITS.chiSquare),
+      chiSquareWithout: roundOrNull(e.chiSquareWithout, DIGITS.chiSquare),
       improvement: roundTo(e.improvement, DIGITS.chiSquare),
       pValue: roundProbability(e.pValue, DIGITS.probabilitySignificant),
       flagged: e.flagged,

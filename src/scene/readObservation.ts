@@ -234,8 +234,17 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
         out.shadowAzimuthSigmaDeg = num(f, 'shadowAzimuthSigmaDeg', ANGLE_SIGMA);
       }
       if (has(f, 'lengthRatio')) {
-        out.lengthRatio = num(f, 'lengthRatio', { ...RATIO, words: 'shadow length / pole height (no unit)', minExclusive: true });
+        // 0 is allowed: with the sun at the zenith a pole casts no shadow (a site between the tropics).
+        out.lengthRatio = num(f, 'lengthRatio', { ...RATIO, words: 'shadow length / pole height (no unit)' });
         out.lengthRatioSigma = num(f, 'lengthRatioSigma', RATIO_SIGMA);
+        if (out.lengthRatio === 0 && out.shadowAzimuthDeg !== undefined) {
+          throw new InvalidInputError(
+            keyPath(f.path, 'shadowAzimuthDeg'),
+            raw(f, 'shadowAzimuthDeg'),
+            'no shadow direction when lengthRatio is 0',
+            'A shadow of length 0 (the sun at the zenith) has no direction; leave shadowAzimuthDeg and its sigma out.',
+          );
+        }
       }
       return out;
     }

@@ -10,7 +10,7 @@ import { jdToCivilDate } from '../calendar/regions.js';
 import { chiSquarePValue } from '../math/chiSquare.js';
 import { deltaTAtJdUT } from '../time/timeScales.js';
 import { describeClockKind, formatClockKind, jdUTToClockMinutes } from '../time/clock.js';
-import { factNote, predictClock, predictedValuesOf, wallAzimuthOf, wrapSymmetric, type EvidenceModel } from './evidenceModel.js';
+import { factNote, latitudeOf, predictClock, predictedValuesOf, wallAzimuthOf, wrapSymmetric, type EvidenceModel } from './evidenceModel.js';
 import { zoneOffsetsAt } from './fitting.js';
 import { candidateUncertainty, type UncertaintyCache } from './candidateUncertainty.js';
 import type { RawCandidate } from './stageB.js';
@@ -121,7 +121,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
     name: n.name,
     priorDeg: n.priorDeg,
     priorSigmaDeg: n.sigmaDeg,
-    fittedDeg: raw.nuisances[k],
+    fittedDeg: n.kind === 'latitude' ? latitudeOf(model, raw.nuisances) : raw.nuisances[k], // the latitude as used: held to [-90, 90]
     posteriorSigmaDeg: cov ? Math.sqrt(cov[k + 2][k + 2]) : NaN,
   }));
   const dof = model.measuredCount - 2;

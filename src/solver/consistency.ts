@@ -44,9 +44,14 @@ export function localLeaveOneOut(scene: Scene, model: EvidenceModel, best: RawCa
     const centre = nearestDayJd0(fit.x[0]);
     let bestObjective = Infinity;
     let bestChi = Infinity;
-    for (const day of [centre, centre - 1, centre + 1]) {
+    // The candidate's own day (allowed by the window) is always tried too, from the candidate's
+    // minute: the refit without an observation can drift out of the window (with the only
+    // measured observation left out nothing holds it), and chi-square without it is never above.
+    const starts: [number, number[]][] = [centre, centre - 1, centre + 1].map((day) => [day, fit.x.slice(1)]);
+    starts.push([best.dayJd0, [best.apparentMinutes, ...nuis]]);
+    for (const [day, start] of starts) {
       if (!isDayAllowed(win, day)) continue;
-      const onDay = refineOnDay(ctx, day, fit.x.slice(1));
+      const onDay = refineOnDay(ctx, day, start);
       const exact = exactPoint(reduced, assumed, ctx.site, day, onDay.x[1], onDay.x.slice(2), fit.point.state.equationOfTimeMinutes);
       const s = splitChiSquare(reduced, exact.point.residuals);
       if (s.chiSquare + s.penalty < bestObjective) {

@@ -229,8 +229,13 @@ export function wallAzimuthOf(model: EvidenceModel, wallId: string | undefined, 
   return model.wallAzimuths.get(wallId) ?? 0;
 }
 
+/**
+ * The site latitude at a point of the fit: the fitted nuisance, held to [-90, 90] (a fit near a
+ * pole with a latitude sigma can step past it, where no latitude exists), else the stated one.
+ */
 export function latitudeOf(model: EvidenceModel, nuisances: readonly number[]): number {
-  return model.latitudeNuisance >= 0 ? nuisances[model.latitudeNuisance] : model.scene.site.latitudeDeg;
+  if (model.latitudeNuisance < 0) return model.scene.site.latitudeDeg;
+  return Math.min(90, Math.max(-90, nuisances[model.latitudeNuisance]));
 }
 
 export function longitudeOf(model: EvidenceModel, nuisances: readonly number[]): number {

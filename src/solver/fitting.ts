@@ -188,6 +188,11 @@ export function refineDated(c: DatedContext, x0: readonly number[], maxIteration
     const upper = x.map(() => Infinity);
     lower[0] = x0[0] - MAX_DAY_MOVE;
     upper[0] = x0[0] + MAX_DAY_MOVE;
+    // The minute stays within a day of its start in each run: where the evidence does not depend
+    // on the hour (at a pole) its column of the Jacobian is ~0 and an unbounded step could carry
+    // m, and through normaliseDayMinute the day, out of every calendar.
+    lower[1] = x[1] - 1440;
+    upper[1] = x[1] + 1440;
     lm = levenbergMarquardt({ residuals: res, steps: datedSteps(c.model), lower, upper }, x, { maxIterations, tolerance: 1e-10 });
     iterations += lm.iterations;
     x = normaliseDayMinute(lm.x.slice());

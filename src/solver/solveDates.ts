@@ -29,7 +29,7 @@ import { assumedKind, clockAssumptionLabel, dressCandidate, hhmm, type DressCont
 import { buildFamily, type FamilyMember } from './families.js';
 import { improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
 import type { RawCandidate } from './stageB.js';
-import { dayWindowOf, type DayWindow } from './window.js';
+import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
 import { jdToCivilDate } from '../calendar/regions.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 
@@ -163,7 +163,9 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   const windowText = `${monthsText}${formatYearBcAd(win.fromYear)}-${formatYearBcAd(win.toYear)}${weekdayText}`;
   if (!best) {
     status = 'no-candidates';
-    verdict = `No date and hour in ${windowText} put the sun where the evidence needs it (no candidate survived the window and its restrictions).`;
+    verdict = windowHasAllowedDay(win)
+      ? `No date and hour in ${windowText} put the sun where the evidence needs it (no candidate survived the window and its restrictions).`
+      : `No day of ${windowText} passes all the window's restrictions together (notBefore, notAfter, months, weekday): there is nothing to search. Check the restrictions.`;
   } else {
     const bestC = dressed(s, best);
     const p = bestC.pValue;

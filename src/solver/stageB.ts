@@ -189,7 +189,15 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
       for (let k = 0; t0 + k * TROPICAL_YEAR_DAYS <= win.lastDayJd0 + 30; k += 1) {
         if (t0 + k * TROPICAL_YEAR_DAYS >= win.firstDayJd0 - 30) cycles.push(k);
       }
-      if (cycles.length === 0) continue;
+      if (cycles.length === 0) {
+        // A short window (a few days, notBefore = notAfter) that this declination never reaches:
+        // take the nearest crossing; its days are then snapped far (chooseDay) and refined on the
+        // window's own days, so that a curve of solutions (one measured number) or a poor fit
+        // there is still reported instead of no candidate at all.
+        const nearest = Math.round((midJd - t0) / TROPICAL_YEAR_DAYS);
+        if (Math.abs(t0 + nearest * TROPICAL_YEAR_DAYS - midJd) > FAR_SNAP_DAYS) continue;
+        cycles.push(nearest);
+      }
       const kMin = cycles[0];
       const kMax = cycles[cycles.length - 1];
       const repCycles = new Set<number>();

@@ -63,3 +63,13 @@ export function isDayAllowed(win: DayWindow, dayJd0: number): boolean {
 export function nearestDayJd0(d: number): number {
   return Math.round(d - 0.5) + 0.5;
 }
+
+/**
+ * True when at least one day of the window passes its restrictions (bounds, months, weekday).
+ * Only a short window can fail: any 400 consecutive days hold every month, each with every weekday.
+ */
+export function windowHasAllowedDay(win: DayWindow): boolean {
+  if (win.lastDayJd0 - win.firstDayJd0 > 400) return true;
+  for (let day = win.firstDayJd0; day <= win.lastDayJd0 + 1e-9; day += 1) if (isDayAllowed(win, day)) return true;
+  return false;
+}
