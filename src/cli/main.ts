@@ -37,8 +37,12 @@ export async function main(argv: readonly string[], io: CliIo = processIo()): Pr
     .description('Date a depicted outdoor scene from its sunlight.')
     .version(VERSION)
     .exitOverride()
-    .configureOutput({ writeOut: io.out, writeErr: io.err })
-    .showHelpAfterError('(add --help for the options)');
+    .configureOutput({
+      writeOut: io.out,
+      writeErr: io.err,
+      // The option parser's own complaints, as one line like every other refusal.
+      outputError: (text, write) => write(`heliochron: ${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}; add --help for the options\n`),
+    });
   for (const register of COMMANDS) register(program, io);
   try {
     await program.parseAsync(argv as string[], { from: 'user' });

@@ -187,3 +187,19 @@ describe('the refusals above', () => {
     expect(refusals).toBe(CLI_CASES.length + 2 * SCENE_CASES.length + 3 + 4);
   });
 });
+
+describe('refusals of the option parser', () => {
+  // Common practice: every refusal is one line with the program's name, exit code 2.
+  for (const args of [['sun', '--latt', '3'], ['frobnicate'], ['date'], ['sun', '--lat']]) {
+    it(`"${args.join(' ')}" is refused in one line with exit code 2`, async () => {
+      const { main } = await import('../../src/cli/main.js');
+      let out = '';
+      let err = '';
+      const code = await main(args, { out: (t) => { out += t; }, err: (t) => { err += t; }, errIsTerminal: false, cwd: process.cwd() });
+      expect(code).toBe(2);
+      expect(out).toBe('');
+      expect(err.trimEnd().split('\n')).toHaveLength(1);
+      expect(err).toMatch(/^heliochron: .+; add --help for the options\n$/);
+    });
+  }
+});
