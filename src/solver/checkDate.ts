@@ -118,6 +118,7 @@ function fitOnDay(model: EvidenceModel, dayJd0: number, time?: { apparentMinutes
         rep: nearestOptimum(ctx, dayJd0, rest),
         fit: { converged, iterations },
         mapped: false,
+        atWindowEdge: false, // a proposal's own days are the window here
       };
     }
   });

@@ -48,20 +48,32 @@ export interface Solved {
   readonly win: DayWindow;
   readonly search: SearchResult;
   readonly kept: readonly RawCandidate[];
+  /** Candidates left out because they were pressed against the edge of the allowed days and fit poorly. */
+  readonly edgeDropped: number;
   readonly weights: ReadonlyMap<RawCandidate, number>;
   readonly dress: DressContext;
   readonly dressed: Map<RawCandidate, Candidate>;
 }
 
+/**
+ * A candidate pressed against the edge of the allowed days (its own optimum lies outside them) is
+ * kept only within this Delta chi-square of the best: 11.83 bounds the 3-sigma (99.73%) region for
+ * 2 parameters (Press et al., Numerical Recipes, 3rd ed. (2007), section 15.6.5, Delta chi2 table).
+ * Beyond it such a candidate is the window's edge, not a fit.
+ */
+export const EDGE_CANDIDATE_DELTA_CHI2 = -2 * Math.log(1 - 0.9973);
+
 export function solveModel(model: EvidenceModel, win: DayWindow, cutoff: number, profileScans = true): Solved {
   const search = searchCandidates(model, win);
   const best = search.candidates.length ? search.candidates[0].objective : 0;
-  const kept = search.candidates.filter((c) => c.objective <= best + cutoff);
+  const withinCutoff = search.candidates.filter((c) => c.objective <= best + cutoff);
+  const kept = withinCutoff.filter((c) => c === search.candidates[0] || !c.atWindowEdge || c.objective <= best + EDGE_CANDIDATE_DELTA_CHI2);
+  const edgeDropped = withinCutoff.length - kept.length;
   let total = 0;
   for (const c of kept) total += Math.exp(-(c.objective - best) / 2);
   const weights = new Map(kept.map((c) => [c, Math.exp(-(c.objective - best) / 2) / total]));
   const cache: UncertaintyCache = new Map();
-  return { model, win, search, kept, weights, dress: { model, win, assumptions: search.assumptions, cache, profileScans }, dressed: new Map() };
+  return { model, win, search, kept, edgeDropped, weights, dress: { model, win, assumptions: search.assumptions, cache, profileScans }, dressed: new Map() };
 }
 
 export function dressed(s: Solved, raw: RawCandidate): Candidate {
@@ -147,6 +159,11 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     'Relative weights are exp(-chi2/2) normalised over the candidates shown; they do not include the size of each ellipse.',
     'Mapped years share the ellipse of the nearest representative year that was refined in full.',
   ];
+  if (s.edgeDropped > 0) {
+    notes.push(
+      `${s.edgeDropped} candidate${s.edgeDropped === 1 ? '' : 's'} whose best day lies outside the allowed days (months, bounds, weekday) and that fit poorly at the nearest allowed day (chi-square more than ${EDGE_CANDIDATE_DELTA_CHI2.toFixed(1)} above the best) ${s.edgeDropped === 1 ? 'was' : 'were'} left out: ${s.edgeDropped === 1 ? 'it is' : 'they are'} the edge of the window, not a fit.`,
+    );
+  }
   if (model.measuredCount < 2) notes.push('Fewer than two measured numbers: the evidence cannot fix both the date and the hour; candidates are points along a curve.');
 
   let consistency: ConsistencyReport = {
@@ -235,11 +252,14 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         });
         consistency = { ...consistency, entries, flaggedIds: entries.filter((e) => e.flagged).map((e) => e.observationId) };
       }
-      const famCount = new Set(s.kept.map((c) => c.trackKey)).size;
+      // Count families as they are listed (a track split at a calendar switch is two families).
+      const trackCount = new Set(s.kept.map((c) => c.trackKey)).size;
+      const famCount = Math.min(opt.maxFamilies, new Set(s.kept.map((c) => `${c.trackKey}|${jdToCivilDate(s.win.calendar, c.dayJd0 + 0.5).date.calendar}`)).size);
+      const renamed = famCount > trackCount ? ` (${famCount - trackCount} of them the same light as another, named in the other calendar)` : '';
       verdict =
         (status === 'fits' ? 'The evidence fits.' : `The best fit is marginal (p = ${pj.toPrecision(2)}): treat every candidate with caution.`) +
         ` Best: ${describeCandidate(bestC)}.` +
-        ` ${famCount} famil${famCount === 1 ? 'y' : 'ies'} of candidates in ${windowText}.` +
+        ` ${famCount} famil${famCount === 1 ? 'y' : 'ies'} of candidates${renamed} in ${windowText}.` +
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
     }
   }

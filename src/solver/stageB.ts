@@ -78,6 +78,11 @@ export interface RawCandidate {
   readonly rep: RepresentativeFit;
   readonly fit: { readonly converged: boolean; readonly iterations: number };
   readonly mapped: boolean;
+  /**
+   * True when the continuous optimum lies outside the allowed days (months, bounds, weekday) and the
+   * candidate was moved to the nearest allowed day: it is pressed against the edge of the window.
+   */
+  readonly atWindowEdge: boolean;
 }
 
 export interface StageBResult {
@@ -261,6 +266,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
         let iterations = 0;
         let converged = true;
         let mapped = c.mapped;
+        let atWindowEdge = chosen.far;
         if (!c.mapped || chosen.far) {
           if (chosen.far) rest = c.x.slice(1);
           const onDay = refineOnDay(rep.context, day, rest);
@@ -301,6 +307,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
             const again = chooseDay(win, own.fit.x[0], own.covariance ? own.covariance[0][0] : NaN);
             if (again === null) continue;
             day = again.day;
+            atWindowEdge = again.far;
             const onDay = refineOnDay(own.context, day, again.far ? own.fit.x.slice(1) : conditionalRest(own.fit.x, own.covariance, day));
             rest = onDay.x.slice(1);
             iterations = own.fit.iterations + onDay.iterations;
@@ -328,6 +335,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           rep,
           fit: { converged, iterations },
           mapped,
+          atWindowEdge,
         });
       }
       for (const r of reps.values()) ephemerisCalls += r.context.ephemerisCalls;

@@ -114,6 +114,13 @@ describe('upper-gate-drawing.yaml: the window spans Velmar\'s switch of 1700', (
     expect(Math.abs(julianBestInGregorian.day - g.best.civilDate.day)).toBeLessThanOrEqual(2);
     expectClose(answer.candidates[0].times.localApparentMinutes, UPPER_GATE.truth.apparentMinutes, 3, 'local apparent time, minutes');
   });
+  it('leaves out the candidates pressed against the last allowed day (31 May) that fit poorly, and says so', () => {
+    // examples/README.md (c): the other side of the solstice (August) lies outside March-May; moved to 31 May
+    // it fits with chi-square 26 and 39, beyond the 3-sigma Delta chi2 of 11.8 (Numerical Recipes 15.6).
+    expect(answer.families).toHaveLength(2);
+    expect(answer.families.every((f) => f.bestChiSquare < 1)).toBe(true);
+    expect(answer.notes.some((n) => /edge of the window, not a fit/.test(n))).toBe(true);
+  });
   it('writes every date Old Style/New Style, naming the style in force', () => {
     const text = renderDateText(answer, scene);
     expect(text).toMatch(/\d+ April\/\d+ May 1699 \(Old Style\)/);
