@@ -3,6 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 export const CHART_KINDS = ['map', 'sky', 'residuals'] as const;
 export type ChartKind = (typeof CHART_KINDS)[number];
@@ -12,6 +13,8 @@ export interface ChartOptions {
   readonly kind?: string;
   readonly output?: string;
   readonly force: boolean;
+  /** Overrides the scene file's seed. */
+  readonly seed?: number;
 }
 
 export function registerChart(program: Command, io: CliIo): void {
@@ -29,6 +32,7 @@ export function registerChart(program: Command, io: CliIo): void {
     .option('--kind <kind>', `which chart: ${CHART_KINDS.join(', ')}`)
     .option('-o, --output <file>', 'write the SVG to this file (default: print it)')
     .option('--force', 'replace the output file if it exists')
+    .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
       'after',
       '\nExamples (the bundled example is in the fictional town of Velmar):\n' +
@@ -43,6 +47,7 @@ export function registerChart(program: Command, io: CliIo): void {
           kind: options.kind === undefined ? undefined : String(options.kind),
           output: options.output === undefined ? undefined : String(options.output),
           force: options.force === true,
+          seed: parseSeedOption(options.seed),
         },
         io,
       );

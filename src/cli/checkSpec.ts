@@ -3,6 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 /** The options as the command receives them (strings, validated in checkCommand.ts). */
 export interface CheckOptions {
@@ -15,6 +16,8 @@ export interface CheckOptions {
   readonly json: boolean;
   readonly output?: string;
   readonly force: boolean;
+  /** Overrides the scene file's seed. */
+  readonly seed?: number;
   readonly version: string;
 }
 
@@ -38,6 +41,7 @@ export function registerCheck(program: Command, io: CliIo): void {
     .option('--json', 'print one JSON object instead of text')
     .option('-o, --output <file>', 'write the answer to this file instead of the screen')
     .option('--force', 'replace the output file if it exists')
+    .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
       'after',
       '\nExamples:\n' +
@@ -58,6 +62,7 @@ export function registerCheck(program: Command, io: CliIo): void {
         json: options.json === true,
         output: text('output'),
         force: options.force === true,
+        seed: parseSeedOption(options.seed),
         version: String(command.parent?.version() ?? ''),
       }, io);
     });

@@ -16,10 +16,11 @@ import { writeOutputFile, type CliIo } from './io.js';
 import type { DateOptions } from './dateSpec.js';
 
 /** Read the scene file; a message about its content is prefixed with the file's path. */
-export function readSceneForCommand(path: string, io: CliIo): { scene: Scene; fullPath: string } {
+export function readSceneForCommand(path: string, io: CliIo, seed?: number): { scene: Scene; fullPath: string } {
   const fullPath = resolve(io.cwd, path);
   try {
-    return { scene: readSceneFile(fullPath), fullPath };
+    const scene = readSceneFile(fullPath);
+    return { scene: seed === undefined ? scene : { ...scene, seed }, fullPath };
   } catch (error) {
     if (error instanceof InvalidInputError) {
       // Messages name the path in the file; say which file, as the user wrote its name.
@@ -72,7 +73,7 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
   if (options.json && options.csv) throw new InvalidInputError('--csv', '--json --csv', 'one output form: --json or --csv, not both');
-  const { scene, fullPath } = readSceneForCommand(scenePath, io);
+  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const answer = inScene(scenePath, () => solveDates(scene, { perYear: options.allYears }));
   const text = options.json

@@ -3,6 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 /** The options as the command receives them. */
 export interface DateOptions {
@@ -11,6 +12,8 @@ export interface DateOptions {
   readonly allYears: boolean;
   readonly output?: string;
   readonly force: boolean;
+  /** Overrides the scene file's seed. */
+  readonly seed?: number;
   /** The program's version, written into the JSON answer. */
   readonly version: string;
 }
@@ -32,6 +35,7 @@ export function registerDate(program: Command, io: CliIo): void {
     .option('--all-years', 'list every year of each family (one line, or CSV row, per year)')
     .option('-o, --output <file>', 'write the answer to this file instead of the screen')
     .option('--force', 'replace the output file if it exists')
+    .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
       'after',
       '\nExamples (the bundled examples are in the fictional town of Velmar):\n' +
@@ -47,6 +51,7 @@ export function registerDate(program: Command, io: CliIo): void {
         allYears: options.allYears === true,
         output: options.output === undefined ? undefined : String(options.output),
         force: options.force === true,
+        seed: parseSeedOption(options.seed),
         version: String(command.parent?.version() ?? ''),
       }, io);
     });

@@ -176,7 +176,7 @@ function renderText(
   const image = scene.image;
   out.push(`Measured on the picture: ${scene.title}`);
   if (image) {
-    out.push(`Picture ${image.widthPx} x ${image.heightPx} px${image.mirrored ? ', a reversed print (x flipped before measuring)' : ''}; clicking precision ${image.pixelSigmaPx} px (image.pixelSigmaPx) unless a point gives its own`);
+    out.push(`Picture ${image.widthPx} x ${image.heightPx} px${image.mirrored ? ', a reversed print (x flipped before measuring)' : ''}; clicking precision ${image.pixelSigmaPx} px (image.pixelSigmaPx) unless a point gives its own; seed ${scene.seed} for any Monte Carlo run`);
   }
   out.push('');
   out.push('Planes straightened (rectification; residuals in pixels, clicked point to where the fit puts it)');
@@ -271,7 +271,8 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
   if (options.image !== undefined && options.overlay === undefined) {
     throw new InvalidInputError('--image', options.image, 'a picture only together with --overlay <file.svg>, which it is embedded in');
   }
-  const scene = readSceneFile(fullPath);
+  const read = readSceneFile(fullPath);
+  const scene = options.seed === undefined ? read : { ...read, seed: options.seed };
   const overlayTarget = checkOverlayPath(options, fullPath, io);
   const resolved = resolvePixelObservations(scene);
   const planes = allPlanes(scene, resolved.planes);

@@ -3,6 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 /** The options as the command receives them (validated in measureCommand.ts). */
 export interface MeasureOptions {
@@ -14,6 +15,8 @@ export interface MeasureOptions {
   /** Run the date solver and draw the shadows its best candidate predicts. */
   readonly withBest: boolean;
   readonly force: boolean;
+  /** Overrides the scene file's seed. */
+  readonly seed?: number;
 }
 
 export function registerMeasure(program: Command, io: CliIo): void {
@@ -35,6 +38,7 @@ export function registerMeasure(program: Command, io: CliIo): void {
     .option('--image <picture>', "embed this JPEG or PNG picture under the overlay (default: the scene's image.file, if given)")
     .option('--with-best', 'also date the scene and draw, dashed, the shadows the best candidate predicts')
     .option('--force', 'replace the overlay file if it exists')
+    .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
       'after',
       '\nExamples (the bundled example is a picture of the fictional town of Velmar):\n' +
@@ -50,6 +54,7 @@ export function registerMeasure(program: Command, io: CliIo): void {
         image: options.image === undefined ? undefined : String(options.image),
         withBest: options.withBest === true,
         force: options.force === true,
+        seed: parseSeedOption(options.seed),
       }, io);
     });
 }

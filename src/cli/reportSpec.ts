@@ -3,10 +3,13 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 export interface ReportOptions {
   readonly output?: string;
   readonly force: boolean;
+  /** Overrides the scene file's seed. */
+  readonly seed?: number;
   /** The program's version, written into the report's reproducibility block. */
   readonly version: string;
 }
@@ -24,6 +27,7 @@ export function registerReport(program: Command, io: CliIo): void {
     .argument('<scene>', 'the scene file (.yaml, .yml or .json)')
     .option('-o, --output <file>', 'write the HTML to this file (default: print it)')
     .option('--force', 'replace the output file if it exists')
+    .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
       'after',
       '\nExample (the bundled example is in the fictional town of Velmar):\n' +
@@ -36,6 +40,7 @@ export function registerReport(program: Command, io: CliIo): void {
         {
           output: options.output === undefined ? undefined : String(options.output),
           force: options.force === true,
+          seed: parseSeedOption(options.seed),
           version: String(command.parent?.version() ?? ''),
         },
         io,

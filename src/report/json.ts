@@ -295,6 +295,7 @@ export function checkAnswerJson(answer: CheckAnswer, scene: Scene, version: stri
     globalBest: answer.globalBest ? candidateJson(answer.globalBest, scene) : null,
     deltaChiSquareToGlobal: roundOrNull(answer.deltaChiSquareToGlobal, DIGITS.chiSquare),
     assumptions: assumptionsJson(scene, [], answer.best ?? answer.globalBest),
+    seed: scene.seed,
     notes: [...answer.notes],
     caution: CAUTION,
     units: UNITS,

@@ -288,6 +288,7 @@ export function renderCheckText(answer: CheckAnswer, scene: Scene): string {
   out.push('', 'Assumptions:');
   const checked = answer.best ?? answer.globalBest;
   out.push(...assumptionLines(scene, { clockAssumptions: checked && checked.clockAssumption.kind !== 'none' ? [checked.clockAssumption] : [] }, checked));
+  out.push(`  seed ${scene.seed} (of any Monte Carlo run; the scene's seed: or --seed)`);
   for (const n of answer.notes) out.push(`  ${n}`);
   out.push('', `Caution: ${CAUTION}`);
   return `${out.join('\n')}\n`;

@@ -297,3 +297,16 @@ describe('heliochron measure through the compiled program', () => {
     },
   );
 });
+
+describe('heliochron measure --seed', () => {
+  it('prints the seed it uses, the scene file\'s or the one given', async () => {
+    // Common practice: a seeded run states its seed so it can be repeated.
+    const { main } = await import('../../src/cli/main.js');
+    let out = '';
+    const code = await main(['measure', 'examples/tanners-hall-photo/tanners-hall-photo.yaml', '--seed', '11'], {
+      out: (t) => { out += t; }, err: () => {}, errIsTerminal: false, cwd: process.cwd(),
+    });
+    expect(code).toBe(0);
+    expect(out).toMatch(/seed 11 for any Monte Carlo run/);
+  });
+});

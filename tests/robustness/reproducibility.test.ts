@@ -80,14 +80,18 @@ describe('the seed', () => {
     expect(seen).toEqual([4294967295, 0, 1]);
   });
 
-  it('has no command-line option (the scene file is the one place it is set)', async () => {
+  it('--seed overrides the scene file\'s seed and is printed in text and JSON; a bad seed is refused', async () => {
     const help = await run(['date', '--help']);
-    expect(help.code).toBe(0);
-    expect(help.out).not.toMatch(/--seed/);
-    const r = await run(['date', MARKTGASSE, '--seed', '3']);
-    expect(r.code).toBe(2);
-    expect(r.err).toMatch(/unknown option '--seed'/);
-    expect(r.out).toBe('');
+    expect(help.out).toMatch(/--seed <n>/);
+    const t = await run(['date', MARKTGASSE, '--seed', '3']);
+    expect(t.code).toBe(0);
+    expect(t.out).toMatch(/\bseed 3\b/);
+    const j = await run(['date', MARKTGASSE, '--seed', '3', '--json']);
+    expect((JSON.parse(j.out) as { seed: number }).seed).toBe(3);
+    const bad = await run(['date', MARKTGASSE, '--seed', '-3']);
+    expect(bad.code).toBe(2);
+    expect(bad.err).toMatch(/^heliochron: .*--seed.*whole number/);
+    expect(bad.out).toBe('');
   });
 });
 
