@@ -14,6 +14,7 @@ import { readSceneFile } from '../scene/readScene.js';
 import type { Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservations.js';
+import { rectifySceneGround } from '../image/measureScene.js';
 import { measuredQuantities, resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
 import { formatCalendarDate } from '../calendar/format.js';
 import { hhmm, roundTo } from '../report/formatTimes.js';
@@ -31,7 +32,7 @@ function allPlanes(scene: Scene, used: ReadonlyMap<string, RectifiedPlane>): Map
     const field = `walls[${i}].imagePlane`;
     if (wall.imagePlane && !planes.has(field)) planes.set(field, rectifyPlane(wall.imagePlane, scene.image!, 'wall', field));
   });
-  if (scene.groundPlane && !planes.has('groundPlane')) planes.set('groundPlane', rectifyPlane(scene.groundPlane, scene.image, 'ground', 'groundPlane'));
+  if (scene.groundPlane && !planes.has('groundPlane')) rectifySceneGround(scene, scene.image, planes);
   return planes;
 }
 
@@ -63,6 +64,8 @@ interface PlaneRecord {
   readonly conditionNumber: number;
   readonly note: string;
   readonly warning: string | null;
+  /** Ground from two walls: their ids. */
+  readonly fromWalls?: readonly string[];
 }
 
 function planeRecord(scene: Scene, field: string, plane: RectifiedPlane): PlaneRecord {
@@ -83,6 +86,7 @@ function planeRecord(scene: Scene, field: string, plane: RectifiedPlane): PlaneR
     field, label: planeLabel(scene, field), kind: plane.kind, definition: r.definition, metric: r.metric,
     points: plane.pixelPoints.length, residualsPx: r.residualsPx.map((v) => roundTo(v, 3)), rmsPx: roundTo(r.rmsPx, 3),
     exactlyDetermined: r.exactlyDetermined, conditionNumber: roundTo(r.conditionNumber, 1), note, warning,
+    ...(plane.fromWalls ? { fromWalls: plane.fromWalls.walls.map((w) => w.id) } : {}),
   };
 }
 
@@ -182,7 +186,7 @@ function renderText(
   out.push('Planes straightened (rectification; residuals in pixels, clicked point to where the fit puts it)');
   if (planes.length === 0) out.push('  none');
   for (const p of planes) {
-    out.push(`  ${p.field} (${p.kind === 'wall' ? `wall ${p.label}` : 'the ground'}): ${p.definition === 'points' ? `${p.points} points of known position` : p.definition === 'rectangle' ? 'a rectangle of known size' : 'a rectangle of known proportion only'}`);
+    out.push(`  ${p.field} (${p.kind === 'wall' ? `wall ${p.label}` : 'the ground'}): ${p.definition === 'walls' ? `from the foot lines of walls ${p.fromWalls?.join(' and ')} meeting at the corner` : p.definition === 'points' ? `${p.points} points of known position` : p.definition === 'rectangle' ? 'a rectangle of known size' : 'a rectangle of known proportion only'}`);
     out.push(`    residuals ${p.residualsPx.map((r) => r.toFixed(2)).join(', ')} px; rms ${p.rmsPx.toFixed(2)} px; condition number ${p.conditionNumber.toPrecision(3)}`);
     out.push(`    ${p.note}`);
     if (p.warning) out.push(`    WARNING: ${p.warning}`);

@@ -209,7 +209,9 @@ export function measureOverlaySvg(input: MeasureOverlayInput): string {
   // key, top left, scaled to the picture
   const size = Math.max(12, Math.round(input.image.widthPx / 100));
   const keyLines: { text: string; colour?: string; dash?: string }[] = [...input.planes].map(([field, plane]) => ({
-    text: `${planeShortLabel(field)} 1-${plane.pixelPoints.length}: points clicked on ${field === 'groundPlane' ? 'the ground (groundPlane)' : `wall ${planeLabel(input.scene, field)} (${field})`}; grey: its straightened grid`,
+    text: plane.fromWalls
+      ? `${planeShortLabel(field)} corner: where walls ${plane.fromWalls.walls[0].id} and ${plane.fromWalls.walls[1].id} meet the ground (groundPlane.fromWalls.cornerPx); grey: the ground straightened from their foot lines`
+      : `${planeShortLabel(field)} 1-${plane.pixelPoints.length}: points clicked on ${field === 'groundPlane' ? 'the ground (groundPlane)' : `wall ${planeLabel(input.scene, field)} (${field})`}; grey: its straightened grid`,
   }));
   keyLines.push({ text: 'solid: measured shadow, from its clicked root', colour: OVERLAY_COLOURS.measured, dash: '' });
   if (input.best) {

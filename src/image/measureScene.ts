@@ -1,14 +1,45 @@
 /**
  * Every pixel-form observation of a scene measured on its plane: each wall's
- * imagePlane and the scene's groundPlane rectified once, each observation's
+ * imagePlane and the scene's groundPlane rectified once (the ground from its
+ * clicked points, or from the foot lines of two walls: groundFromWalls.ts), each observation's
  * pixels turned into its numeric values (pixelObservations.ts). Errors name
  * the path in the scene file (`walls[1].imagePlane.pointsPx[2]`,
  * `observations[3].wallId`).
  */
 import { InvalidInputError } from '../errors.js';
-import type { Scene } from '../scene/types.js';
+import type { ImageInfo, Scene } from '../scene/types.js';
 import { measurePixelObservation, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
 import { rectifyPlane, type RectifiedPlane } from './planeInImage.js';
+import { rectifyGroundFromWalls } from './groundFromWalls.js';
+
+/** A wall's imagePlane rectified, from the cache `planes` when it is there (and put there). */
+function wallPlaneOf(scene: Scene, index: number, image: ImageInfo, planes: Map<string, RectifiedPlane>): RectifiedPlane {
+  const field = `walls[${index}].imagePlane`;
+  const cached = planes.get(field);
+  if (cached) return cached;
+  const wallPlane = scene.walls[index].imagePlane;
+  if (!wallPlane) throw new InvalidInputError(field, undefined, 'the wall clicked in the picture (a rectangle or points on the wall)');
+  const plane = rectifyPlane(wallPlane, image, 'wall', field);
+  planes.set(field, plane);
+  return plane;
+}
+
+/**
+ * The scene's groundPlane rectified: from its clicked points, or from the foot lines of two walls
+ * (groundFromWalls.ts), whose planes are then rectified too and put into `planes`.
+ * @example rectifySceneGround(scene, scene.image!, new Map()).definition // 'rectangle' or 'walls'
+ */
+export function rectifySceneGround(scene: Scene, image: ImageInfo, planes: Map<string, RectifiedPlane>): RectifiedPlane {
+  const ground = scene.groundPlane;
+  if (!ground) throw new InvalidInputError('groundPlane', undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground, or fromWalls)');
+  const cached = planes.get('groundPlane');
+  if (cached) return cached;
+  const plane = ground.fromWalls
+    ? rectifyGroundFromWalls(ground.fromWalls, scene.walls, image, (index) => wallPlaneOf(scene, index, image, planes), 'groundPlane')
+    : rectifyPlane(ground, image, 'ground', 'groundPlane');
+  planes.set('groundPlane', plane);
+  return plane;
+}
 
 export interface SceneMeasurements {
   /** Rectified planes by scene path (`walls[0].imagePlane`, `groundPlane`), only those used. */
@@ -43,7 +74,7 @@ export function measureScenePixels(scene: Scene): SceneMeasurements {
     if (obs.kind === 'pole-shadow') {
       planeField = 'groundPlane';
       if (!scene.groundPlane) throw new InvalidInputError(planeField, undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground)', `${field} is a pole shadow in pixels`);
-      plane = planes.get(planeField) ?? rectifyPlane(scene.groundPlane, image, 'ground', planeField);
+      plane = rectifySceneGround(scene, image, planes);
     } else {
       const index = scene.walls.findIndex((w) => w.id === obs.wallId);
       if (index < 0) {
@@ -52,7 +83,7 @@ export function measureScenePixels(scene: Scene): SceneMeasurements {
       planeField = `walls[${index}].imagePlane`;
       const wallPlane = scene.walls[index].imagePlane;
       if (!wallPlane) throw new InvalidInputError(planeField, undefined, 'the wall clicked in the picture (a rectangle or points on the wall)', `${field} is given in pixels on this wall`);
-      plane = planes.get(planeField) ?? rectifyPlane(wallPlane, image, 'wall', planeField);
+      plane = wallPlaneOf(scene, index, image, planes);
     }
     planes.set(planeField, plane);
     measurements.push({ field, measurement: measurePixelObservation(obs, plane, field) });

@@ -143,7 +143,10 @@ export function renderOverlaySvg(input: OverlayInput): string {
     parts.push(`<g class="plane" data-label="${escapeXml(label)}">`);
     parts.push(`<g class="grid">${gridLines(plane).join('')}</g>`);
     parts.push(`<g class="measured">${(shadows ?? []).flatMap((s) => shadowMarks(plane, s)).join('')}</g>`);
-    const corners = plane.pixelPoints.map((p, i) => pointMark(toPictureFrame(p, plane.image), `${label} ${i + 1}`));
+    // a ground from two walls has one click of its own, the corner; its other points are derived, not clicked
+    const corners = plane.fromWalls
+      ? [pointMark(toPictureFrame(plane.fromWalls.cornerPx, plane.image), `${label} corner`)]
+      : plane.pixelPoints.map((p, i) => pointMark(toPictureFrame(p, plane.image), `${label} ${i + 1}`));
     parts.push(`<g class="points">${corners.join('')}</g>`);
     parts.push('</g>');
   }

@@ -18,8 +18,10 @@
  * Sigma: first-order propagation (src/image/propagation.ts, after Criminisi,
  * Reid and Zisserman 1997) of the clicking sigma of every corner and of both
  * measured points through the refitted homography, plus the metre sigma of
- * projectionM / heightM. A Monte Carlo run of the same clicks is given for
- * checking.
+ * projectionM / heightM. For a ground fixed by two walls (groundFromWalls.ts)
+ * the plane's inputs are every click of both walls, the corner and the two
+ * wall azimuths, the whole chain refitted inside the measurement function.
+ * A Monte Carlo run of the same clicks is given for checking.
  */
 import { InvalidInputError } from '../errors.js';
 import { atan2Deg, normalizeDeg360 } from '../math/angles.js';
@@ -31,8 +33,9 @@ import type {
   RodShadowObservation,
   Side,
 } from '../scene/types.js';
-import { applyHomography, fitHomographyDlt, homogeneousW, invertHomography, type Point2 } from './homography.js';
+import { applyHomography, fitHomographyDlt, homogeneousW, invertHomography, type Homography, type Point2 } from './homography.js';
 import { checkPixelPoint, toWorkingFrame, type RectifiedPlane, MIN_POINT_SEPARATION_PX } from './planeInImage.js';
+import { groundFromWallsParameterCount, groundFromWallsParameters, groundHomographyOf } from './groundFromWalls.js';
 import { monteCarloSpread, propagateFirstOrder, type MeasurementFunction } from './propagation.js';
 
 /** The pixel-form observations this module measures. */
@@ -104,7 +107,11 @@ export type PixelMeasurement =
 export function rectificationReport(plane: RectifiedPlane): RectificationReport {
   const fit = plane.fit;
   const worst = Math.max(...fit.residuals);
-  const note = fit.exactlyDetermined
+  const walls = plane.fromWalls?.walls;
+  const note = walls
+    ? `from the foot lines of walls ${walls[0].id} and ${walls[1].id} meeting at the corner (${walls[0].field}, ${walls[1].field} and groundPlane.fromWalls.cornerPx): ` +
+      'two lines through one point fix the ground exactly, so its residual is zero and tells nothing; the residuals of the two walls are the check'
+    : fit.exactlyDetermined
     ? 'exactly 4 points: the rectification passes through every click, so its residual is zero and tells nothing about the clicks or the perspective'
     : `rms residual ${fit.rms.toFixed(2)} px, largest ${worst.toFixed(2)} px at point ${fit.residuals.indexOf(worst)}` +
       (fit.rms > 3 * Math.max(1e-9, ...plane.pointSigmasPx)
@@ -132,15 +139,42 @@ interface Setup {
   readonly names: readonly string[];
 }
 
-/** Plane point of a working-frame pixel point under the inverse of the homography fitted to params. */
+/**
+ * The inputs that fix a plane, as the first entries of a parameter vector, with their sigmas and groups:
+ * its clicked points (x, y each), or for a ground from two walls every click of both walls, the corner
+ * and the two wall azimuths (groundFromWalls.ts), so that the Jacobian covers the whole chain.
+ */
+function planeParameters(plane: RectifiedPlane): { p0: number[]; sigmas: number[] } {
+  if (plane.fromWalls) return groundFromWallsParameters(plane.fromWalls);
+  const p0: number[] = [];
+  const sigmas: number[] = [];
+  plane.pixelPoints.forEach((p, i) => {
+    p0.push(p[0], p[1]);
+    sigmas.push(plane.pointSigmasPx[i], plane.pointSigmasPx[i]);
+  });
+  return { p0, sigmas };
+}
+
+/** Number of entries planeParameters gives. */
+function planeParameterCount(plane: RectifiedPlane): number {
+  return plane.fromWalls ? groundFromWallsParameterCount(plane.fromWalls) : 2 * plane.pixelPoints.length;
+}
+
+/** Plane point of a working-frame pixel point under the inverse of the homography refitted to params. */
 function mapSegment(plane: RectifiedPlane, params: readonly number[]): { from: Point2; to: Point2 } {
-  const n = plane.planePoints.length;
-  const px: Point2[] = [];
-  for (let i = 0; i < n; i++) px.push([params[2 * i], params[2 * i + 1]]);
-  const g = invertHomography(fitHomographyDlt(plane.planePoints, px).matrix);
+  const k = planeParameterCount(plane);
+  let h: Homography;
+  if (plane.fromWalls) {
+    h = groundHomographyOf(plane.fromWalls, params);
+  } else {
+    const px: Point2[] = [];
+    for (let i = 0; i < k / 2; i++) px.push([params[2 * i], params[2 * i + 1]]);
+    h = fitHomographyDlt(plane.planePoints, px).matrix;
+  }
+  const g = invertHomography(h);
   return {
-    from: applyHomography(g, [params[2 * n], params[2 * n + 1]]),
-    to: applyHomography(g, [params[2 * n + 2], params[2 * n + 3]]),
+    from: applyHomography(g, [params[k], params[k + 1]]),
+    to: applyHomography(g, [params[k + 2], params[k + 3]]),
   };
 }
 
@@ -204,11 +238,10 @@ function setupFor(obs: PixelObservation, plane: RectifiedPlane, field: string): 
   const p0: number[] = [];
   const sigmas: number[] = [];
   const groups: string[] = [];
-  plane.pixelPoints.forEach((p, i) => {
-    p0.push(p[0], p[1]);
-    sigmas.push(plane.pointSigmasPx[i], plane.pointSigmasPx[i]);
-    groups.push('plane', 'plane');
-  });
+  const planeInputs = planeParameters(plane);
+  p0.push(...planeInputs.p0);
+  sigmas.push(...planeInputs.sigmas);
+  groups.push(...planeInputs.p0.map(() => 'plane'));
   p0.push(from[0], from[1], to[0], to[1]);
   sigmas.push(pointSigma, pointSigma, pointSigma, pointSigma);
   groups.push('points', 'points', 'points', 'points');
@@ -284,8 +317,9 @@ export function measurePixelObservation(obs: PixelObservation, plane: RectifiedP
   const { from, to } = mapSegment(plane, setup.p0);
   const rectification = rectificationReport(plane);
   const unit = plane.metric ? 'm' : 'rectangle heights';
-  const how =
-    `clicked on ${plane.field} (${plane.definition === 'points' ? `${plane.planePoints.length} plane points` : plane.definition === 'rectangle' ? 'rectangle of known size' : 'rectangle of known aspect'}` +
+  const how = plane.fromWalls
+    ? `clicked on ${plane.field} (from the foot lines of walls ${plane.fromWalls.walls[0].id} and ${plane.fromWalls.walls[1].id} meeting at the corner)`
+    : `clicked on ${plane.field} (${plane.definition === 'points' ? `${plane.planePoints.length} plane points` : plane.definition === 'rectangle' ? 'rectangle of known size' : 'rectangle of known aspect'}` +
     `${plane.fit.exactlyDetermined ? ', exact 4-point fit' : `, rms ${fmt(plane.fit.rms, 2)} px`})`;
   const sigmaText = (m: MeasuredQuantity, d: number): string =>
     `sigma ${fmt(m.sigma, d)} by first-order propagation (corners ${fmt(m.sigmaFromPlane, d)}, points ${fmt(m.sigmaFromPoints, d)}` +

@@ -23,6 +23,7 @@
 import { InvalidInputError } from '../errors.js';
 import type { ImageInfo, PixelPoint, PlaneInImage } from '../scene/types.js';
 import { cosDeg, sinDeg } from '../math/angles.js';
+import type { GroundFromWallsSource } from './groundFromWalls.js';
 import {
   fitHomography,
   invertHomography,
@@ -39,7 +40,8 @@ export interface RectifiedPlane {
   readonly kind: PlaneKind;
   /** Path of the PlaneInImage in the scene file, e.g. `walls[0].imagePlane`. */
   readonly field: string;
-  readonly definition: 'points' | 'rectangle' | 'aspect';
+  /** How the plane is fixed: plane points, a rectangle of known size or aspect, or (ground only) the foot lines of two walls (groundFromWalls.ts). */
+  readonly definition: 'points' | 'rectangle' | 'aspect' | 'walls';
   /** False for an aspect-only rectangle: plane unit = the rectangle's height, not metres. */
   readonly metric: boolean;
   /** Clicked points in the working frame (after the mirror flip). */
@@ -53,6 +55,11 @@ export interface RectifiedPlane {
   /** Working pixel frame -> plane. */
   readonly imageToPlane: Homography;
   readonly image: ImageInfo;
+  /**
+   * Ground from two walls only: the walls, corner and azimuths the map is built from. pixelPoints and
+   * planePoints then hold the derived foot-line correspondences, not clicks.
+   */
+  readonly fromWalls?: GroundFromWallsSource;
 }
 
 /** Smallest distance, px, between two clicked points (common practice: a click is good to about a pixel). */
@@ -285,6 +292,13 @@ export function checkImageInfo(image: ImageInfo, field = 'image'): void {
  */
 export function rectifyPlane(plane: PlaneInImage, image: ImageInfo, kind: PlaneKind, field: string): RectifiedPlane {
   checkImageInfo(image);
+  if (plane.fromWalls !== undefined) {
+    throw new InvalidInputError(
+      `${field}.fromWalls`,
+      plane.fromWalls.walls,
+      kind === 'ground' ? 'a ground plane rectified together with its walls (rectifySceneGround in measureScene.ts)' : 'nothing on a wall (fromWalls is for the ground plane)',
+    );
+  }
   const clicked = plane.pointsPx;
   if (!Array.isArray(clicked) || clicked.length < 4) {
     throw new InvalidInputError(`${field}.pointsPx`, clicked, 'at least 4 clicked points');

@@ -1,15 +1,16 @@
 /**
  * The pixel parts of a scene file: the `image` block, the planes in the image
- * (`imagePlane` of a wall, `groundPlane`), pixel points and segments.
+ * (`imagePlane` of a wall, `groundPlane`, or the ground from two walls:
+ * `groundPlane.fromWalls`), pixel points and segments.
  * Shapes and ranges only (points inside the image, 4 or more points, positive
  * sizes); whether a quadrilateral is degenerate is for src/image to judge.
  */
 import { InvalidInputError } from '../errors.js';
 import {
-  checkList, checkNumber, checkPair, exactlyOne, has, itemPath, keyPath, missing, num, openFields,
+  checkList, checkNumber, checkPair, checkString, exactlyOne, has, itemPath, keyPath, missing, num, openFields,
   optBool, optNum, optStr, raw, refuseKeys, type NumberRule,
 } from './fields.js';
-import type { ImageInfo, PixelPoint, PixelSegment, PlaneInImage } from './types.js';
+import type { GroundFromWalls, ImageInfo, PixelPoint, PixelSegment, PlaneInImage, Wall } from './types.js';
 
 /** Largest image side accepted, pixels. */
 export const MAX_IMAGE_SIDE_PX = 100_000;
@@ -56,10 +57,13 @@ export function needImage(image: ImageInfo | undefined, path: string, value: unk
  * @param ground true for the ground plane (east, north) which may give firstEdgeAzimuthDeg
  */
 export function readPlane(value: unknown, path: string, image: ImageInfo, ground: boolean): PlaneInImage {
-  const keys = ['pointsPx', 'planePointsM', 'widthM', 'heightM', 'aspect', 'pointSigmaPx', ...(ground ? ['firstEdgeAzimuthDeg'] : [])];
+  const keys = ['pointsPx', 'planePointsM', 'widthM', 'heightM', 'aspect', 'pointSigmaPx', ...(ground ? ['firstEdgeAzimuthDeg', 'fromWalls'] : [])];
   const what = ground ? 'the ground plane' : "a wall's image plane";
   const f = openFields(value, path, what, keys);
-  if (!has(f, 'pointsPx')) throw missing(f, 'pointsPx', 'a list of 4 or more image points [xPx, yPx]');
+  if (ground && has(f, 'fromWalls')) return { pointsPx: [], fromWalls: readFromWalls(f, path, image) };
+  if (!has(f, 'pointsPx')) {
+    throw missing(f, 'pointsPx', ground ? 'a list of 4 or more image points [xPx, yPx], or fromWalls instead' : 'a list of 4 or more image points [xPx, yPx]');
+  }
   const pointsPath = keyPath(path, 'pointsPx');
   const rawPoints = checkList(raw(f, 'pointsPx'), pointsPath, 'image points [xPx, yPx]', 4, MAX_PLANE_POINTS);
   const pointsPx = rawPoints.map((p, i) => readPixelPoint(p, itemPath(pointsPath, i), image));
@@ -98,6 +102,66 @@ export function readPlane(value: unknown, path: string, image: ImageInfo, ground
     result.pointSigmaPx = list.map((s, i) => checkNumber(s, itemPath(sp, i), PIXEL_SIGMA));
   }
   return result;
+}
+
+const FROM_WALLS_KEYS = ['walls', 'cornerPx', 'cornerSigmaPx'] as const;
+
+/** `groundPlane.fromWalls`: the ground from the foot lines of two walls meeting at a corner (src/image/groundFromWalls.ts). */
+function readFromWalls(plane: ReturnType<typeof openFields>, path: string, image: ImageInfo): GroundFromWalls {
+  const fp = keyPath(path, 'fromWalls');
+  for (const key of Object.keys(plane.data)) {
+    if (key === 'fromWalls') continue;
+    throw new InvalidInputError(
+      fp,
+      raw(plane, 'fromWalls'),
+      `either fromWalls or ${key} with the other clicked-figure keys in ${path}, not both`,
+      `The ground is fixed either by a figure clicked on it (pointsPx and its shape) or by two walls meeting at a corner; "${key}" is given too.`,
+    );
+  }
+  const f = openFields(raw(plane, 'fromWalls'), fp, 'the ground from two walls', FROM_WALLS_KEYS);
+  if (!has(f, 'walls')) throw missing(f, 'walls', 'the ids of the two walls that meet at the corner, [wallId, wallId]');
+  if (!has(f, 'cornerPx')) throw missing(f, 'cornerPx', 'the image point [xPx, yPx] where both walls meet the ground');
+  const wp = keyPath(fp, 'walls');
+  const list = checkList(raw(f, 'walls'), wp, 'the ids of the two walls that meet at the corner', 2, 2);
+  const ids = list.map((id, i) => checkString(id, itemPath(wp, i), 'the id of a wall of this scene', 64));
+  if (ids[0] === ids[1]) throw new InvalidInputError(itemPath(wp, 1), ids[1], `a wall other than ${JSON.stringify(ids[0])}: two different walls meeting at the corner`);
+  const cornerPx = readPixelPoint(raw(f, 'cornerPx'), keyPath(fp, 'cornerPx'), image);
+  const cornerSigmaPx = optNum(f, 'cornerSigmaPx', PIXEL_SIGMA);
+  const walls: readonly [string, string] = [ids[0], ids[1]];
+  return cornerSigmaPx === undefined ? { walls, cornerPx } : { walls, cornerPx, cornerSigmaPx };
+}
+
+/**
+ * Check the walls `groundPlane.fromWalls` names against the scene's walls: each must exist and have an
+ * imagePlane in metres (whether their azimuths and clicks fix the ground is for src/image to judge).
+ */
+export function checkGroundWalls(plane: PlaneInImage | undefined, walls: readonly Wall[], path = 'groundPlane'): void {
+  const def = plane?.fromWalls;
+  if (def === undefined) return;
+  def.walls.forEach((id, k) => {
+    const index = walls.findIndex((w) => w.id === id);
+    const field = `${path}.fromWalls.walls[${k}]`;
+    if (index < 0) {
+      throw new InvalidInputError(field, id, `the id of a wall of this scene (${walls.map((w) => JSON.stringify(w.id)).join(', ') || 'none given'})`);
+    }
+    const wallPlane = walls[index].imagePlane;
+    if (wallPlane === undefined) {
+      throw new InvalidInputError(
+        `walls[${index}].imagePlane`,
+        undefined,
+        'the wall clicked in the picture (a figure of known size in metres: widthM with heightM, or planePointsM)',
+        `${field} names this wall, whose foot line fixes the ground.`,
+      );
+    }
+    if (wallPlane.aspect !== undefined) {
+      throw new InvalidInputError(
+        `walls[${index}].imagePlane.aspect`,
+        wallPlane.aspect,
+        'a wall figure known in metres (widthM with heightM, or planePointsM)',
+        `${field} names this wall; lengths along its foot line must be known in metres, and an aspect gives them only up to scale.`,
+      );
+    }
+  });
 }
 
 /** The key names of a pixel segment; pixel forms add their own (projectionM, heightM). */

@@ -16,7 +16,7 @@ import {
   optNum, optStr, raw, str, type NumberRule,
 } from './fields.js';
 import { MAX_SCENE_BYTES, parseSceneTextWithLines } from './parseSceneText.js';
-import { needImage, readImage, readPlane } from './readImage.js';
+import { checkGroundWalls, needImage, readImage, readPlane } from './readImage.js';
 import { ID_PATTERN, ID_WORDS, NOTE_MAX, readObservation } from './readObservation.js';
 import { wallAzimuthFromMap } from './wallFromMap.js';
 import type { Air, CalendarRule, CivilDay, DateWindow, ImageInfo, Observation, PlaneInImage, Scene, Site, Wall, YearStartStyle } from './types.js';
@@ -203,6 +203,7 @@ export function sceneFromData(data: unknown): Scene {
   const wallList = has(f, 'walls') ? checkList(raw(f, 'walls'), 'walls', 'the walls', 0, MAX_WALLS) : [];
   const walls = wallList.map((w, i) => readWall(w, itemPath('walls', i), mapNorthCorrectionDeg, image));
   refuseDuplicateIds(walls, 'walls');
+  checkGroundWalls(groundPlane, walls);
 
   if (!has(f, 'observations')) throw missing(f, 'observations', 'a list of 1 or more observations');
   const obsList = checkList(raw(f, 'observations'), 'observations', 'the observations', 1, MAX_OBSERVATIONS);

@@ -89,9 +89,24 @@ export interface ImageInfo {
   readonly pixelSigmaPx: number; // the user's clicking precision, default for every point
 }
 
+/**
+ * The ground fixed by the foot lines of two walls of known azimuth that meet at a corner, each wall
+ * rectified from its own imagePlane in metres (src/image/groundFromWalls.ts).
+ */
+export interface GroundFromWalls {
+  /** Ids of the two walls. */
+  readonly walls: readonly [string, string];
+  /** The image point where both walls meet the ground. */
+  readonly cornerPx: PixelPoint;
+  /** Its clicking sigma, else the image's pixelSigmaPx. */
+  readonly cornerSigmaPx?: number;
+}
+
 /** The image of a figure on a wall (or the ground) whose true shape is known. */
 export interface PlaneInImage {
-  readonly pointsPx: readonly PixelPoint[]; // at least 4
+  readonly pointsPx: readonly PixelPoint[]; // at least 4; empty when fromWalls is given
+  /** Ground only, instead of clicked points: the ground from two walls meeting at a corner. */
+  readonly fromWalls?: GroundFromWalls;
   /** True coordinates of the same points in the plane, metres (wall: u right, v up; ground: east, north). */
   readonly planePointsM?: readonly (readonly [number, number])[];
   /** Or a rectangle: pointsPx are its corners in order top-left, top-right, bottom-right, bottom-left (wall) ... */

@@ -82,7 +82,19 @@ export const GOOD_SCENES: readonly { readonly name: string; readonly data: Data 
       'observations.0': { id: 'o', kind: 'pole-shadow', pixels: { fromPx: [500, 1200], toPx: [700, 1300] } },
     }),
   },
+  { name: 'pixel pole on the ground from two walls', data: fromWallsScene({ walls: ['tanners-hall-front', 'tanners-hall-side'], cornerPx: [1000, 1100], cornerSigmaPx: 2 }) },
 ];
+
+/** Two walls meeting at a corner, each with a window of known size, and the ground fixed by their foot lines. */
+function fromWallsScene(fromWalls: unknown, sidePlane: unknown = { pointsPx: [[1100, 300], [1800, 200], [1780, 900], [1120, 880]], widthM: 6, heightM: 5 }): Data {
+  return variant({
+    image: IMAGE,
+    'walls.0.imagePlane': WALL_PLANE,
+    'walls.1': { id: 'tanners-hall-side', azimuthDeg: 172, azimuthSigmaDeg: 1, imagePlane: sidePlane },
+    groundPlane: { fromWalls },
+    'observations.0': { id: 'o', kind: 'pole-shadow', pixels: { fromPx: [500, 1200], toPx: [700, 1300] } },
+  });
+}
 
 /** Invalid scenes: the path the reader must name, a fragment of its message, and whether the schema alone sees it. */
 export interface BadScene {
@@ -145,6 +157,11 @@ export const BAD_SCENES: readonly BadScene[] = [
   { name: 'rectangle with 5 points', data: variant({ image: IMAGE, 'walls.0.imagePlane': { pointsPx: [[1, 1], [5, 1], [5, 5], [1, 5], [3, 3]], widthM: 1, heightM: 1 } }), field: 'walls[0].imagePlane.pointsPx', says: /exactly 4 corners/, schemaSees: true },
   { name: 'zero rectangle width', data: variant({ image: IMAGE, 'walls.0.imagePlane': { ...WALL_PLANE, widthM: 0 } }), field: 'walls[0].imagePlane.widthM', says: /greater than 0|0 excluded/, schemaSees: true },
   { name: 'ground rectangle without azimuth', data: variant({ image: IMAGE, groundPlane: { pointsPx: WALL_PLANE.pointsPx, widthM: 3, heightM: 2 } }), field: 'groundPlane.firstEdgeAzimuthDeg', says: /first corner to the second/, schemaSees: true },
+  { name: 'ground from walls and points', data: variant({ image: IMAGE, groundPlane: { pointsPx: WALL_PLANE.pointsPx, widthM: 3, heightM: 2, firstEdgeAzimuthDeg: 90, fromWalls: { walls: ['a', 'b'], cornerPx: [1, 1] } } }), field: 'groundPlane.fromWalls', says: /not both/, schemaSees: true },
+  { name: 'ground from one wall', data: fromWallsScene({ walls: ['tanners-hall-front'], cornerPx: [1000, 1100] }), field: 'groundPlane.fromWalls.walls', says: /exactly 2 items/, schemaSees: true },
+  { name: 'ground from an unknown wall', data: fromWallsScene({ walls: ['tanners-hall-front', 'tanners-hall-back'], cornerPx: [1000, 1100] }), field: 'groundPlane.fromWalls.walls[1]', says: /"tanners-hall-front", "tanners-hall-side"/, schemaSees: false },
+  { name: 'ground from a wall of known aspect only', data: fromWallsScene({ walls: ['tanners-hall-front', 'tanners-hall-side'], cornerPx: [1000, 1100] }, { pointsPx: [[1100, 300], [1800, 200], [1780, 900], [1120, 880]], aspect: 1.2 }), field: 'walls[1].imagePlane.aspect', says: /in metres/, schemaSees: false },
+  { name: 'ground corner outside the picture', data: fromWallsScene({ walls: ['tanners-hall-front', 'tanners-hall-side'], cornerPx: [1000, 1600] }), field: 'groundPlane.fromWalls.cornerPx[1]', says: /inside the image/, schemaSees: false },
   { name: 'image size zero', data: variant({ image: { widthPx: 0, heightPx: 10 } }), field: 'image.widthPx', says: /from 1 to 100000/, schemaSees: true },
   { name: 'image file not a picture', data: variant({ image: { ...IMAGE, file: 'print.tiff' } }), field: 'image.file', says: /JPEG or PNG/, schemaSees: true },
   { name: 'clock reading as number', data: obs({ id: 'c', kind: 'clock', reading: 7.4, precisionMinutes: 5 }), field: `${o0}.reading`, says: /with quotes/, schemaSees: true },
