@@ -92,6 +92,10 @@ export function regularizedGammaP(a: number, x: number): number {
  */
 export function regularizedGammaQ(a: number, x: number): number {
   if (x <= 0) return 1;
+  // Q(a, x) < exp(-x) x^(a-1) / Gamma(a) (1 + (a-1)/x + ...) underflows to 0 in double precision
+  // long before x reaches a + 1e4 for the a of chi-square tests (Numerical Recipes 3rd ed. 6.2);
+  // an infinite x (a sigma so small that chi-square overflows) has Q = 0.
+  if (!Number.isFinite(x) || x - (a - 1) * Math.log(Math.max(x, 1)) > 800) return 0;
   return x < a + 1 ? 1 - gammaSeries(a, x) : gammaContinuedFraction(a, x);
 }
 

@@ -101,7 +101,16 @@ export interface NumberRule {
   readonly minExclusive?: boolean;
   readonly maxExclusive?: boolean;
   readonly integer?: boolean;
+  /** The value must be 0 or at least this (a sigma where 0 means "known exactly"). */
+  readonly zeroOrAtLeast?: number;
 }
+
+/**
+ * The smallest sigma accepted, in the unit of its field (degrees, ratio, minutes, metres, pixels):
+ * a millionth of the unit is far below any measurement made on a picture, and a smaller one makes
+ * chi-square overflow (common practice).
+ */
+export const SIGMA_FLOOR = 0.000001;
 
 /** The rule in words: "an angle in degrees from 0 to 360 (360 excluded)". */
 export function describeNumber(rule: NumberRule): string {
@@ -117,6 +126,7 @@ export function describeNumber(rule: NumberRule): string {
   } else if (max !== undefined) {
     parts.push(rule.maxExclusive ? `less than ${max}` : `of at most ${max}`);
   }
+  if (rule.zeroOrAtLeast !== undefined) parts.push(`either 0 or at least ${rule.zeroOrAtLeast}`);
   return parts.join(rule.integer ? ' ' : ', ');
 }
 
@@ -131,7 +141,8 @@ export function checkNumber(value: unknown, path: string, rule: NumberRule): num
   const { min, max } = rule;
   const tooLow = min !== undefined && (rule.minExclusive ? value <= min : value < min);
   const tooHigh = max !== undefined && (rule.maxExclusive ? value >= max : value > max);
-  if (tooLow || tooHigh || (rule.integer && !Number.isInteger(value))) {
+  const inGap = rule.zeroOrAtLeast !== undefined && value !== 0 && Math.abs(value) < rule.zeroOrAtLeast;
+  if (tooLow || tooHigh || inGap || (rule.integer && !Number.isInteger(value))) {
     throw new InvalidInputError(path, value, describeNumber(rule));
   }
   return value;

@@ -9,6 +9,7 @@ import { InvalidInputError } from '../errors.js';
 import {
   checkList, checkNumber, checkPair, checkString, exactlyOne, has, itemPath, keyPath, missing, num, openFields,
   optBool, optNum, optStr, raw, refuseKeys, type NumberRule,
+  SIGMA_FLOOR,
 } from './fields.js';
 import type { GroundFromWalls, ImageInfo, PixelPoint, PixelSegment, PlaneInImage, Wall } from './types.js';
 
@@ -18,7 +19,7 @@ export const MAX_IMAGE_SIDE_PX = 100_000;
 export const MAX_PLANE_POINTS = 100;
 
 const IMAGE_KEYS = ['widthPx', 'heightPx', 'file', 'mirrored', 'pixelSigmaPx'] as const;
-export const PIXEL_SIGMA: NumberRule = { words: 'a pixel sigma in pixels', min: 0, max: 100, minExclusive: true };
+export const PIXEL_SIGMA: NumberRule = { words: 'a pixel sigma in pixels', min: SIGMA_FLOOR, max: 100 };
 const SIDE_PX: NumberRule = { words: 'an image size in pixels', min: 1, max: MAX_IMAGE_SIDE_PX, integer: true };
 const PLANE_LENGTH: NumberRule = { words: 'a length in metres', min: 0, max: 100_000, minExclusive: true };
 const PLANE_COORD: NumberRule = { words: 'a coordinate in metres', min: -100_000, max: 100_000 };

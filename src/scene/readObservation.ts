@@ -9,6 +9,7 @@ import { closestWord } from './didYouMean.js';
 import {
   checkChoice, checkList, checkNumber, has, itemPath, keyPath, missing, num, openFields, optBool, optNum,
   optStr, raw, str, type Fields, type NumberRule,
+  SIGMA_FLOOR,
 } from './fields.js';
 import { needImage, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
 import type { ClockObservation, ImageInfo, Observation, ObservationKind, PlaneInImage, SitePoint, Wall } from './types.js';
@@ -24,11 +25,11 @@ export const ID_WORDS = 'an id of letters, digits, "-", "_" or ".", starting wit
 export const NOTE_MAX = 2000;
 
 const SIDES = ['left', 'right'] as const;
-const ANGLE_SIGMA: NumberRule = { words: 'a sigma in degrees', min: 0, max: 45, minExclusive: true };
+const ANGLE_SIGMA: NumberRule = { words: 'a sigma in degrees', min: SIGMA_FLOOR, max: 45 };
 const RATIO: NumberRule = { words: 'a ratio (no unit)', min: 0, max: 1000 };
-const RATIO_SIGMA: NumberRule = { words: 'a sigma of the ratio (no unit)', min: 0, max: 1000, minExclusive: true };
+const RATIO_SIGMA: NumberRule = { words: 'a sigma of the ratio (no unit)', min: SIGMA_FLOOR, max: 1000 };
 const LENGTH_M: NumberRule = { words: 'a length in metres', min: 0, max: 10_000, minExclusive: true };
-const LENGTH_SIGMA_M: NumberRule = { words: 'a sigma in metres', min: 0, max: 10_000 };
+const LENGTH_SIGMA_M: NumberRule = { words: 'a sigma in metres', min: 0, max: 10_000, zeroOrAtLeast: SIGMA_FLOOR };
 const AZIMUTH: NumberRule = { words: 'an azimuth in degrees clockwise from true north', min: 0, max: 360, maxExclusive: true };
 const SITE_COORD: NumberRule = { words: 'a site coordinate in metres', min: -100_000, max: 100_000 };
 
@@ -140,7 +141,7 @@ function readClock(f: Fields, id: string, note: string | undefined): ClockObserv
   }
   const dialHours = dial;
   const readingMinutes = readClockReading(f, dialHours);
-  const precisionMinutes = num(f, 'precisionMinutes', { words: 'a sigma of the reading in minutes', min: 0, max: 180, minExclusive: true });
+  const precisionMinutes = num(f, 'precisionMinutes', { words: 'a sigma of the reading in minutes', min: SIGMA_FLOOR, max: 180 });
   const hourHandTrusted = optBool(f, 'hourHandTrusted', true);
   let kept: ClockObservation['kept'] = { kind: 'unknown' };
   if (has(f, 'kept')) {
@@ -261,7 +262,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       if (!(caster[2] > shadow[2])) {
         throw new InvalidInputError(keyPath(path, 'shadow'), shadow, `a shadow point lower than the caster (upM below ${caster[2]})`, 'With the sun above the horizon a shadow falls below the point that casts it.');
       }
-      const sigmaM = num(f, 'sigmaM', { ...LENGTH_M, words: 'a sigma in metres' });
+      const sigmaM = num(f, 'sigmaM', { ...LENGTH_M, words: 'a sigma in metres', min: SIGMA_FLOOR, minExclusive: false });
       return { ...base, kind, caster, shadow, sigmaM };
     }
     case 'sun-direction':

@@ -14,6 +14,7 @@ import { readCalendar, readCivilDate, readYearStart } from './calendarFields.js'
 import {
   checkChoice, checkList, checkNumber, checkPair, exactlyOne, has, itemPath, keyPath, missing, num, openFields,
   optNum, optStr, raw, str, type NumberRule,
+  SIGMA_FLOOR,
 } from './fields.js';
 import { MAX_SCENE_BYTES, parseSceneTextWithLines } from './parseSceneText.js';
 import { checkGroundWalls, needImage, readImage, readPlane } from './readImage.js';
@@ -51,7 +52,7 @@ export const MONTHS = [
 export { STANDARD_AIR } from '../ephemeris/refraction.js';
 
 const AZIMUTH: NumberRule = { words: 'an azimuth in degrees clockwise from true north', min: 0, max: 360, maxExclusive: true };
-const WALL_SIGMA: NumberRule = { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 45 };
+const WALL_SIGMA: NumberRule = { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 45, zeroOrAtLeast: SIGMA_FLOOR };
 const MAP_COORD: NumberRule = { words: 'a map coordinate in metres', min: -1e7, max: 1e7 };
 
 function readSite(value: unknown): Site {
@@ -60,8 +61,8 @@ function readSite(value: unknown): Site {
     latitudeDeg: num(f, 'latitudeDeg', { words: 'a latitude in degrees, north positive', min: -90, max: 90 }),
     longitudeDeg: num(f, 'longitudeDeg', { words: 'a longitude in degrees, east positive', min: -180, max: 180 }),
     elevationM: optNum(f, 'elevationM', { words: 'a height above sea level in metres', min: -500, max: 9000 }, 0),
-    latitudeSigmaDeg: optNum(f, 'latitudeSigmaDeg', { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 5 }, 0),
-    longitudeSigmaDeg: optNum(f, 'longitudeSigmaDeg', { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 5 }, 0),
+    latitudeSigmaDeg: optNum(f, 'latitudeSigmaDeg', { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 5, zeroOrAtLeast: SIGMA_FLOOR }, 0),
+    longitudeSigmaDeg: optNum(f, 'longitudeSigmaDeg', { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 5, zeroOrAtLeast: SIGMA_FLOOR }, 0),
   };
 }
 

@@ -81,3 +81,15 @@ describe('chi-square p-values (regularised incomplete gamma, Numerical Recipes 3
     });
   });
 });
+
+describe('chi-square p-values far in the tail', () => {
+  it('are 0 for an enormous or infinite chi-square, not a convergence error', async () => {
+    const { chiSquarePValue } = await import('../../src/math/chiSquare.js');
+    // 2 dof closed form: Q = exp(-x/2) (NIST/SEMATECH e-Handbook, chi-square distribution); exp(-1e6) underflows to 0.
+    expect(chiSquarePValue(2e6, 2)).toBe(0);
+    expect(chiSquarePValue(Infinity, 4)).toBe(0);
+    expect(chiSquarePValue(1e300, 1)).toBe(0);
+    // Still exact below the cut: 2 dof, chi2 = 1000 gives exp(-500).
+    expect(chiSquarePValue(1000, 2) / Math.exp(-500)).toBeCloseTo(1, 9);
+  });
+});

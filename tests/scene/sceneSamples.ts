@@ -144,7 +144,10 @@ export const BAD_SCENES: readonly BadScene[] = [
   { name: 'unknown wall', data: variant({ 'observations.0.wall': 'tanners-hal-front' }), field: `${o0}.wall`, says: /the id of a wall of this scene: "tanners-hall-front".*Did you mean "tanners-hall-front"/, schemaSees: false },
   { name: 'slope without unit', data: variant({ 'observations.0': { id: 'b', kind: 'rod-shadow', wall: 'tanners-hall-front', slope: 38, side: 'left', sigmaDeg: 2 } }), field: `${o0}.slope`, says: /Did you mean "slopeDeg"\? Angles are in degrees/, schemaSees: true },
   { name: 'slope 90', data: variant({ 'observations.0.slopeDeg': 90 }), field: `${o0}.slopeDeg`, says: /0 and 90 excluded/, schemaSees: true },
-  { name: 'negative sigma', data: variant({ 'observations.0.sigmaDeg': -2 }), field: `${o0}.sigmaDeg`, says: /a sigma in degrees, from 0 to 45 \(0 excluded\)/, schemaSees: true },
+  { name: 'negative sigma', data: variant({ 'observations.0.sigmaDeg': -2 }), field: `${o0}.sigmaDeg`, says: /a sigma in degrees, from 0.000001 to 45/, schemaSees: true },
+  // A sigma far below any measurement on a picture would make chi-square overflow (src/scene/fields.ts SIGMA_FLOOR).
+  { name: 'vanishing sigma', data: variant({ 'observations.0.sigmaDeg': 4.2e-221 }), field: `${o0}.sigmaDeg`, says: /from 0.000001 to 45/, schemaSees: true },
+  { name: 'vanishing wall sigma', data: variant({ 'walls.0.azimuthSigmaDeg': 1e-12 }), field: 'walls[0].azimuthSigmaDeg', says: /either 0 or at least 0.000001/, schemaSees: true },
   { name: 'missing sigma', data: variant({ 'observations.0.sigmaDeg': undefined }), field: `${o0}.sigmaDeg`, says: /needs "sigmaDeg"/, schemaSees: true },
   { name: 'sigma mistyped', data: variant({ 'observations.0.sigmDeg': 2, 'observations.0.sigmaDeg': undefined }), field: `${o0}.sigmDeg`, says: /Did you mean "sigmaDeg"\?/, schemaSees: true },
   { name: 'side typo', data: variant({ 'observations.0.side': 'lft' }), field: `${o0}.side`, says: /Did you mean "left"\?/, schemaSees: true },
