@@ -4,17 +4,12 @@ import { fastSunPosition } from '../../src/ephemeris/fastSun.js';
 import { sunPosition } from '../../src/ephemeris/sunPosition.js';
 import { deltaTAtJdUT } from '../../src/time/timeScales.js';
 import { angleDiffDeg, cosDeg } from '../../src/math/angles.js';
+import { createRandom } from '../../src/math/random.js';
 
+/** Seeded uniform numbers from the project's one generator (src/math/random.ts), so that a failure can be repeated. */
 function mulberry32(seed: number): () => number {
-  // Seeded generator (mulberry32, common practice).
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
+  const rng = createRandom(seed);
+  return () => rng.uniform();
 }
 
 describe('fastSunPosition reproduces Meeus (1998) Example 25.a', () => {
