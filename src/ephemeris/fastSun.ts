@@ -16,18 +16,10 @@
 import type { Air } from '../scene/types.js';
 import { DEG_PER_RAD, RAD_PER_DEG, normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import { refractionDeg } from './refraction.js';
-import type { SunSite } from './sunPosition.js';
+import type { SunPosition, SunSite } from './sunPosition.js';
 
-/** The fast sun: the fields of SunPosition that a scan needs (degrees, minutes). */
-export interface FastSunPosition {
-  readonly azimuthDeg: number;
-  readonly altitudeDeg: number;
-  readonly geometricAltitudeDeg: number;
-  readonly declinationDeg: number;
-  readonly rightAscensionDeg: number;
-  readonly hourAngleDeg: number;
-  readonly equationOfTimeMinutes: number;
-}
+/** The fast sun: the fields of SunPosition that a scan needs (degrees, minutes), with the same meanings. */
+export type FastSunPosition = Omit<SunPosition, 'jdUT' | 'jdTT'>;
 
 /**
  * The sun at instant jdUT by the low-precision model; `deltaTSeconds` is TT - UT

@@ -8,7 +8,7 @@
 import { angleDiffDeg } from '../../src/math/angles.js';
 import type { RandomSource } from '../../src/math/random.js';
 import type { GroundFromWalls, ImageInfo, PixelPoint, PoleShadowObservation, Wall } from '../../src/scene/types.js';
-import { add, dot, horizontal, project, randomCamera, scale, sub, sunVector, type Vec3 } from './syntheticCamera.js';
+import { add, clicker, dot, horizontal, randomCamera, scale, sub, sunVector, type Vec3 } from './syntheticCamera.js';
 
 export const WIDTH = 1600;
 export const HEIGHT = 1200;
@@ -66,11 +66,7 @@ export function cornerCase(rng: RandomSource, index: number, noisePx: number, az
   const cam = randomCamera(rng, centre, target, [...winA.site, ...winB.site, corner, foot, tip], WIDTH, HEIGHT);
   if (!cam) return null;
   const mirrored = index % 5 === 0;
-  const click = (p: Vec3): PixelPoint => {
-    const q = project(cam, p)!;
-    const x = q[0] + noisePx * rng.normal();
-    return [mirrored ? WIDTH - x : x, q[1] + noisePx * rng.normal()];
-  };
+  const click: (p: Vec3) => PixelPoint = clicker(cam, rng, noisePx, mirrored, WIDTH);
   const image: ImageInfo = { widthPx: WIDTH, heightPx: HEIGHT, mirrored, pixelSigmaPx: 1 };
   // even cases: rectangles of known size; odd cases: the same four corners as plane points in an origin of their own
   const planeOf = (win: typeof winA) =>

@@ -51,6 +51,18 @@ export function project(cam: Camera, p: Vec3): [number, number] | null {
   return [cam.principal[0] + (cam.focalPx * dot(d, cam.right)) / z, cam.principal[1] + (cam.focalPx * dot(d, cam.down)) / z];
 }
 
+/**
+ * A user's click on a projected point: the projection plus Gaussian noise (x drawn first, then y),
+ * mirrored (x' = widthPx - x) for a reversed print, as docs/conventions.md defines it.
+ */
+export function clicker(cam: Camera, rng: RandomSource, noisePx: number, mirrored: boolean, widthPx: number): (p: Vec3) => [number, number] {
+  return (p) => {
+    const q = project(cam, p)!;
+    const x = q[0] + noisePx * rng.normal();
+    return [mirrored ? widthPx - x : x, q[1] + noisePx * rng.normal()];
+  };
+}
+
 const uniform = (rng: RandomSource, a: number, b: number): number => a + (b - a) * rng.uniform();
 
 /**

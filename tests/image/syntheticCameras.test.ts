@@ -21,7 +21,7 @@ import type {
 } from '../../src/scene/types.js';
 import { rectifyPlane } from '../../src/image/planeInImage.js';
 import { measurePixelObservation, monteCarloPixelObservation } from '../../src/image/pixelObservations.js';
-import { add, dot, horizontal, project, randomCamera, scale, shadowOnPlane, sub, sunVector, type Vec3 } from './syntheticCamera.js';
+import { add, clicker, dot, horizontal, randomCamera, scale, shadowOnPlane, sub, sunVector, type Vec3 } from './syntheticCamera.js';
 
 const WIDTH = 1600;
 const HEIGHT = 1200;
@@ -77,11 +77,7 @@ function wallCase(rng: RandomSource, index: number, noisePx: number): WallCase |
   const cam = randomCamera(rng, centre, target, mustSee, WIDTH, HEIGHT);
   if (!cam) return null;
   const mirrored = index % 5 === 0;
-  const click = (p: Vec3): PixelPoint => {
-    const q = project(cam, p)!;
-    const x = q[0] + noisePx * rng.normal();
-    return [mirrored ? WIDTH - x : x, q[1] + noisePx * rng.normal()];
-  };
+  const click: (p: Vec3) => PixelPoint = clicker(cam, rng, noisePx, mirrored, WIDTH);
   const image: ImageInfo = { widthPx: WIDTH, heightPx: HEIGHT, mirrored, pixelSigmaPx: 1 };
   const explicit = index % 2 === 1; // odd cases: 6 explicit plane points, least squares
   const plane: PlaneInImage = explicit
@@ -139,11 +135,7 @@ function groundCase(rng: RandomSource, index: number, noisePx: number): GroundCa
   const cam = randomCamera(rng, centre, add(mid, [uniform(rng, -1, 1), uniform(rng, -1, 1), 0]), [...corners, foot, tip], WIDTH, HEIGHT);
   if (!cam) return null;
   const mirrored = index % 7 === 0;
-  const click = (p: Vec3): PixelPoint => {
-    const q = project(cam, p)!;
-    const x = q[0] + noisePx * rng.normal();
-    return [mirrored ? WIDTH - x : x, q[1] + noisePx * rng.normal()];
-  };
+  const click: (p: Vec3) => PixelPoint = clicker(cam, rng, noisePx, mirrored, WIDTH);
   return {
     image: { widthPx: WIDTH, heightPx: HEIGHT, mirrored, pixelSigmaPx: 1 },
     plane: { pointsPx: corners.map(click), widthM: a, heightM: b, firstEdgeAzimuthDeg: edgeAz },
