@@ -5,6 +5,8 @@
  * to exit code 2 with its message on one line; anything else is a defect.
  */
 
+import { escapeControls, shortenText } from './textUnits.js';
+
 export type ErrorKind = 'invalid-input' | 'convergence' | 'unsupported' | 'output';
 
 /** Base class of every error heliochron raises on purpose. */
@@ -17,7 +19,10 @@ export class HeliochronError extends Error {
   }
 }
 
-/** Quote a received value for a message: strings in quotes, others as JSON, long ones shortened. */
+/**
+ * Quote a received value for a message: strings in quotes, others as JSON, long ones shortened
+ * (never inside a character), control characters escaped (they never reach a terminal raw).
+ */
 export function quoteValue(value: unknown): string {
   let text: string;
   if (typeof value === 'string') text = JSON.stringify(value);
@@ -30,7 +35,7 @@ export function quoteValue(value: unknown): string {
       text = String(value);
     }
   }
-  return text.length > 80 ? `${text.slice(0, 77)}...` : text;
+  return shortenText(escapeControls(text), 80);
 }
 
 /**

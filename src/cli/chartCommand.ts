@@ -12,7 +12,8 @@ import { renderDateHourMap } from '../charts/dateHourMap.js';
 import { skyChartData } from '../charts/skyChartData.js';
 import { renderSkyChart } from '../charts/skyChart.js';
 import { residualChartData, renderResidualChart } from '../charts/residualChart.js';
-import { checkOutputPath, deliver, readSceneForCommand } from './dateCommand.js';
+import { resolvePixelObservations } from '../image/resolvePixels.js';
+import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
 import { progressLine } from './progress.js';
 import { CHART_KINDS, type ChartKind, type ChartOptions } from './chartSpec.js';
@@ -43,9 +44,12 @@ export async function run(args: readonly string[], options: ChartOptions, io: Cl
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
   const kind = parseChartKind(options.kind);
-  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
+  const read = readSceneForCommand(scenePath, io, options.seed);
+  const fullPath = read.fullPath;
   const target = checkOutputPath(options.output, options.force, fullPath, io);
-  const answer = solveDates(scene);
+  // Pixel observations turned into numbers once, as date and check do (src/image/resolvePixels.ts).
+  const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
+  const answer = inScene(scenePath, () => solveDates(scene));
   const progress = progressLine(io, 'drawing the date and hour map');
   let svg: string;
   try {

@@ -3,16 +3,16 @@
  * text, JSON or CSV, and print it or write it to a file. A thin layer over
  * src/scene, src/solver and src/report; the validation of the options is here.
  */
-import { existsSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
-import { HeliochronError, InvalidInputError, OutputError } from '../errors.js';
+import { resolve } from 'node:path';
+import { HeliochronError, InvalidInputError } from '../errors.js';
+import { escapeControls } from '../textUnits.js';
 import type { Scene } from '../scene/types.js';
 import { readSceneFile } from '../scene/readScene.js';
 import { solveDates } from '../solver/solveDates.js';
 import { renderDateText } from '../report/text.js';
 import { dateAnswerJson, stableJson } from '../report/json.js';
 import { dateAnswerCsv } from '../report/csv.js';
-import { writeOutputFile, type CliIo } from './io.js';
+import { checkOutputTarget, writeOutputFile, type CliIo } from './io.js';
 import type { DateOptions } from './dateSpec.js';
 
 /** Read the scene file; a message about its content is prefixed with the file's path. */
@@ -47,25 +47,21 @@ export function inScene<T>(scenePath: string, work: () => T): T {
   }
 }
 
-/** Refuse an output path early (before any work) when it exists without --force or is the input. */
+/** Refuse an output path early (before any work): see checkOutputTarget in io.ts. */
 export function checkOutputPath(output: string | undefined, force: boolean, inputPath: string, io: CliIo): string | undefined {
   if (output === undefined) return undefined;
   if (output.trim() === '') throw new InvalidInputError('--output', output, 'a file name');
-  const target = resolve(io.cwd, output);
-  if (target === inputPath) throw new OutputError(`output file ${JSON.stringify(output)} is the input file; choose another name`);
-  if (existsSync(target) && !force) throw new OutputError(`output file ${JSON.stringify(output)} exists already; add --force to replace it`);
-  if (!existsSync(dirname(target))) throw new OutputError(`folder ${JSON.stringify(dirname(output))} for the output file does not exist`);
-  return target;
+  return checkOutputTarget(output, { force, inputs: [inputPath], cwd: io.cwd }).path;
 }
 
 /** Print the answer, or write it to the output file (atomically) and say so on stderr. */
 export function deliver(text: string, target: string | undefined, output: string | undefined, force: boolean, inputPath: string, io: CliIo): void {
-  if (target === undefined) {
+  if (target === undefined || output === undefined) {
     io.out(text);
     return;
   }
-  writeOutputFile(target, text, { force, inputs: [inputPath] });
-  io.err(`heliochron: wrote ${output}\n`);
+  writeOutputFile(output, text, { force, inputs: [inputPath], cwd: io.cwd });
+  io.err(`heliochron: wrote ${escapeControls(output)}\n`);
 }
 
 /** Run `heliochron date`. Bad input throws (the CLI exits with 2, nothing written). */

@@ -7,7 +7,9 @@
 import { readFileSync, realpathSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
 import { Command, CommanderError } from 'commander';
-import { HeliochronError } from '../errors.js';
+import { HeliochronError, quoteValue } from '../errors.js';
+import { escapeControls } from '../textUnits.js';
+import { isSystemError, PLAIN_SYSTEM_ERRORS, systemErrorWords } from './systemErrors.js';
 import { processIo, type CliIo } from './io.js';
 import { registerSun } from './sunSpec.js';
 import { registerCalendar } from './calendarSpec.js';
@@ -53,7 +55,13 @@ export async function main(argv: readonly string[], io: CliIo = processIo()): Pr
       return EXIT_BAD_INPUT; // commander has printed its message already
     }
     if (error instanceof HeliochronError && error.kind !== 'convergence') {
-      io.err(`heliochron: ${error.message}\n`);
+      io.err(`heliochron: ${escapeControls(error.message)}\n`);
+      return EXIT_BAD_INPUT;
+    }
+    // A system error of the user's files or machine (a full disk, a read-only folder): one plain line.
+    if (isSystemError(error) && PLAIN_SYSTEM_ERRORS.has(error.code as string)) {
+      const where = error.path !== undefined ? `${quoteValue(error.path)}: ` : '';
+      io.err(`heliochron: ${where}${escapeControls(systemErrorWords(error))}\n`);
       return EXIT_BAD_INPUT;
     }
     throw error;
@@ -74,7 +82,21 @@ function isMain(): boolean {
   }
 }
 
+/**
+ * A reader that closes the pipe early (`heliochron date --json | head -5`) is not an error:
+ * end quietly, with the exit code of a finished run. Other stream errors are reported in one line.
+ */
+function endQuietlyOnClosedPipe(stream: NodeJS.WriteStream): void {
+  stream.on('error', (error: NodeJS.ErrnoException) => {
+    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
+    process.stderr.write(`heliochron: cannot write the output: ${systemErrorWords(error)}\n`);
+    process.exit(EXIT_BAD_INPUT);
+  });
+}
+
 if (isMain()) {
+  endQuietlyOnClosedPipe(process.stdout);
+  endQuietlyOnClosedPipe(process.stderr);
   main(process.argv.slice(2)).then(
     (code) => {
       process.exitCode = code;

@@ -19,7 +19,7 @@ import { measuredQuantities, resolvePixelObservations, type ResolvedMeasurement 
 import { formatCalendarDate } from '../calendar/format.js';
 import { hhmm, roundTo } from '../report/formatTimes.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
-import { writeOutputFile, type CliIo } from './io.js';
+import { checkOutputTarget, writeOutputFile, type CliIo } from './io.js';
 import type { MeasureOptions } from './measureSpec.js';
 import { measureOverlaySvg, observationIndex, planeLabel, planeShortLabel, predictMeasurements, type MeasurementPrediction } from './measureOverlay.js';
 import { readPictureFile, type PictureFile } from './pictureFile.js';
@@ -255,15 +255,10 @@ function pictureFor(scene: Scene, sceneFullPath: string, options: MeasureOptions
   return { picture: readPictureFile(path, 'image.file', file), path };
 }
 
-/** Refuse the overlay path early, with the name as given: an existing file without --force, the scene file, a missing folder. */
+/** Refuse the overlay path early (before any work), with the name as given: see checkOutputTarget in io.ts. */
 function checkOverlayPath(options: MeasureOptions, sceneFullPath: string, io: CliIo): string | undefined {
-  const name = options.overlay;
-  if (name === undefined) return undefined;
-  const target = resolve(io.cwd, name);
-  if (target === sceneFullPath) throw new OutputError(`output file ${JSON.stringify(name)} is the input file; choose another name`);
-  if (existsSync(target) && !options.force) throw new OutputError(`output file ${JSON.stringify(name)} exists already; add --force to replace it`);
-  if (!existsSync(dirname(target))) throw new OutputError(`folder ${JSON.stringify(dirname(name))} for the overlay file does not exist`);
-  return target;
+  if (options.overlay === undefined) return undefined;
+  return checkOutputTarget(options.overlay, { force: options.force, inputs: [sceneFullPath], cwd: io.cwd }).path;
 }
 
 export async function run(args: readonly string[], options: MeasureOptions, io: CliIo): Promise<void> {
@@ -347,7 +342,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
       (overlayTarget ? `Overlay written to ${options.overlay}${picture ? ' (with the picture embedded)' : ''}.\n` : '');
 
   if (svg !== undefined && overlayTarget !== undefined) {
-    writeOutputFile(overlayTarget, svg, { force: options.force, inputs: [fullPath, ...(picturePath ? [picturePath] : [])] });
+    writeOutputFile(options.overlay!, svg, { force: options.force, inputs: [fullPath, ...(picturePath ? [picturePath] : [])], cwd: io.cwd });
   }
   io.out(text);
 }

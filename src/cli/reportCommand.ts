@@ -10,7 +10,8 @@ import { InvalidInputError } from '../errors.js';
 import { solveDates } from '../solver/solveDates.js';
 import { renderHtmlReport } from '../report/html.js';
 import { drawChart } from './chartCommand.js';
-import { checkOutputPath, deliver, readSceneForCommand } from './dateCommand.js';
+import { resolvePixelObservations } from '../image/resolvePixels.js';
+import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
 import { progressLine } from './progress.js';
 import type { ReportOptions } from './reportSpec.js';
@@ -37,10 +38,13 @@ export function sha256Hex(bytes: Uint8Array): string {
 export async function run(args: readonly string[], options: ReportOptions, io: CliIo): Promise<void> {
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
-  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
+  const read = readSceneForCommand(scenePath, io, options.seed);
+  const fullPath = read.fullPath;
   const target = checkOutputPath(options.output, options.force, fullPath, io);
+  // Pixel observations turned into numbers once, as date and check do (src/image/resolvePixels.ts).
+  const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
   const bytes = readFileSync(fullPath);
-  const answer = solveDates(scene);
+  const answer = inScene(scenePath, () => solveDates(scene));
   const progress = progressLine(io, 'drawing the date and hour map');
   let charts;
   try {

@@ -5,6 +5,7 @@
  * is allowed. Unknown keys are refused with a "did you mean" suggestion.
  */
 import { InvalidInputError } from '../errors.js';
+import { graphemeLength, shortenText } from '../textUnits.js';
 import { closestWord, suggestKey } from './didYouMean.js';
 
 /** A map of the file, its path and the keys it may hold. */
@@ -19,7 +20,7 @@ export interface Fields {
  * not a plain word is quoted in brackets: `site["lat deg"]`.
  */
 export function keyPath(path: string, key: string): string {
-  if (!/^[A-Za-z_$][\w$-]*$/.test(key)) return `${path}[${JSON.stringify(key.length > 60 ? `${key.slice(0, 57)}...` : key)}]`;
+  if (!/^[A-Za-z_$][\w$-]*$/.test(key)) return `${path}[${JSON.stringify(shortenText(key, 60))}]`;
   return path === '' ? key : `${path}.${key}`;
 }
 
@@ -168,8 +169,17 @@ export function checkString(value: unknown, path: string, words: string, maxLeng
   if (typeof value !== 'string') {
     throw new InvalidInputError(path, value, allowed, typeDetail(value, false));
   }
-  if (value.trim().length === 0 || value.length > maxLength) {
-    throw new InvalidInputError(path, value, allowed, value.length > maxLength ? `It has ${value.length} characters.` : 'It is empty.');
+  // Lengths in user-perceived characters (src/textUnits.ts): an emoji or an accented letter counts once.
+  const length = value.length > maxLength ? graphemeLength(value) : value.length;
+  if (value.trim().length === 0 || length > maxLength) {
+    throw new InvalidInputError(path, value, allowed, length > maxLength ? `It has ${length} characters.` : 'It is empty.');
+  }
+  // Control characters (a YAML or JSON escape such as "\e[2J" or "\u001b") could act on a terminal
+  // when the text is printed: refused, except tab and line feed.
+  const control = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/.exec(value);
+  if (control) {
+    const code = control[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, '0');
+    throw new InvalidInputError(path, value, `${words} without control characters`, `It holds U+${code} at character ${graphemeLength(value.slice(0, control.index)) + 1}; write plain text.`);
   }
   if (pattern && !pattern.test(value)) throw new InvalidInputError(path, value, words);
   return value;

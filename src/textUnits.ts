@@ -1,0 +1,56 @@
+/**
+ * Text as a reader sees it: lengths in user-perceived characters (extended
+ * grapheme clusters, Unicode Standard Annex #29, through Intl.Segmenter), text
+ * shortened without cutting a character in half, and control characters made
+ * visible so that they never reach a terminal raw.
+ *
+ * Control characters: C0 (U+0000-U+001F), DEL (U+007F) and C1 (U+0080-U+009F),
+ * ISO/IEC 6429 (ECMA-48, 5th ed. 1991), sec. 5: the code points a terminal may
+ * act on (ESC starts a sequence; U+009B is the one-character CSI).
+ * Runs unchanged in a browser (Intl.Segmenter is part of ECMA-402).
+ */
+
+const SEGMENTER = new Intl.Segmenter('en', { granularity: 'grapheme' });
+
+/** The user-perceived characters of `text`, in order. */
+export function graphemes(text: string): string[] {
+  return Array.from(SEGMENTER.segment(text), (s) => s.segment);
+}
+
+/**
+ * The number of user-perceived characters of `text`.
+ * @example graphemeLength('👍🏽é') // 2 (UTF-16 length 6)
+ */
+export function graphemeLength(text: string): number {
+  let n = 0;
+  for (const _ of SEGMENTER.segment(text)) n++;
+  return n;
+}
+
+/**
+ * `text` cut to at most `max` user-perceived characters, ending "..." when cut.
+ * @example shortenText('abcdef', 5) // 'ab...'
+ */
+export function shortenText(text: string, max: number): string {
+  if (text.length <= max) return text;
+  const parts = graphemes(text);
+  if (parts.length <= max) return text;
+  return `${parts.slice(0, Math.max(0, max - 3)).join('')}...`;
+}
+
+/** C0, DEL and C1 control characters (tab and line feed included). */
+export const CONTROL_CHARACTERS = /[\u0000-\u001f\u007f-\u009f]/g;
+
+/**
+ * `text` with every control character written as a visible escape (`\n`, `\t`, `\u001b`),
+ * so that it prints as one line and cannot act on a terminal.
+ * @example escapeControls('a\u001b[2Jb\n') // 'a\\u001b[2Jb\\n'
+ */
+export function escapeControls(text: string): string {
+  return text.replace(CONTROL_CHARACTERS, (c) => {
+    if (c === '\n') return '\\n';
+    if (c === '\r') return '\\r';
+    if (c === '\t') return '\\t';
+    return `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`;
+  });
+}
