@@ -12,20 +12,22 @@
 
 const SEGMENTER = new Intl.Segmenter('en', { granularity: 'grapheme' });
 
-/** The user-perceived characters of `text`, in order. */
-export function graphemes(text: string): string[] {
-  return Array.from(SEGMENTER.segment(text), (s) => s.segment);
-}
-
 /**
- * The number of user-perceived characters of `text`.
+ * The number of user-perceived characters of `text`, counted up to `stopAfter` at most
+ * (Intl.Segmenter takes time growing faster than the length on long texts: stop early
+ * when only "more than N" matters).
  * @example graphemeLength('👍🏽é') // 2 (UTF-16 length 6)
  */
-export function graphemeLength(text: string): number {
+export function graphemeLength(text: string, stopAfter = Infinity): number {
   let n = 0;
-  for (const _ of SEGMENTER.segment(text)) n++;
+  for (const _ of SEGMENTER.segment(text)) {
+    if (++n >= stopAfter) break;
+  }
   return n;
 }
+
+/** Longest text whose length in characters a message states exactly; beyond it, "more than". */
+export const EXACT_COUNT_LIMIT = 5000;
 
 /**
  * `text` cut to at most `max` user-perceived characters, ending "..." when cut.
@@ -33,9 +35,12 @@ export function graphemeLength(text: string): number {
  */
 export function shortenText(text: string, max: number): string {
   if (text.length <= max) return text;
-  const parts = graphemes(text);
-  if (parts.length <= max) return text;
-  return `${parts.slice(0, Math.max(0, max - 3)).join('')}...`;
+  const kept: string[] = [];
+  for (const { segment } of SEGMENTER.segment(text)) {
+    kept.push(segment);
+    if (kept.length > max) return `${kept.slice(0, Math.max(0, max - 3)).join('')}...`;
+  }
+  return text;
 }
 
 /** C0, DEL and C1 control characters (tab and line feed included). */

@@ -183,7 +183,8 @@ export function findRegion(id: string, field = 'calendar', table: readonly Regio
   const wanted = id.trim().toLowerCase();
   const found = table.find((r) => r.id === wanted);
   if (found) return found;
-  const near = table
+  // No region id is long: a long text gets no suggestion (the edit distance takes time growing with its length).
+  const near = (wanted.length > 64 ? [] : table)
     .map((r) => ({ id: r.id, score: Math.min(editDistance(wanted, r.id), r.id.includes(wanted) || (wanted.length >= 4 && r.name.toLowerCase().includes(wanted)) ? 1 : 99) }))
     .filter((c) => c.score <= Math.max(2, Math.floor(wanted.length / 3)))
     .sort((a, b) => a.score - b.score || a.id.localeCompare(b.id))

@@ -20,7 +20,7 @@
 import { randomBytes } from 'node:crypto';
 import {
   accessSync, closeSync, constants, fchmodSync, fstatSync, fsyncSync, linkSync, lstatSync, openSync,
-  realpathSync, renameSync, statSync, unlinkSync, writeSync, type Stats,
+  readlinkSync, realpathSync, renameSync, statSync, unlinkSync, writeSync, type Stats,
 } from 'node:fs';
 import { dirname, join, resolve } from 'node:path';
 import { OutputError, quoteValue } from '../errors.js';
@@ -52,6 +52,26 @@ function kindWords(stat: Stats): string {
   if (stat.isSocket()) return 'a socket';
   if (stat.isSymbolicLink()) return 'a symbolic link';
   return 'not a regular file';
+}
+
+/**
+ * The first step of a chain of symbolic links that lands in /proc or /dev (a process's open
+ * stream such as /proc/self/fd/1, a terminal), or undefined. Such a link may point to a regular
+ * file today (stdout redirected to a file) but is never an output file.
+ */
+function specialLinkTarget(path: string): string | undefined {
+  let current = path;
+  for (let hop = 0; hop < 40; hop++) {
+    let next: string;
+    try {
+      next = resolve(dirname(current), readlinkSync(current));
+    } catch {
+      return undefined; // not a link (any more): the end of the chain
+    }
+    if (/^\/(proc|dev)\//.test(next)) return next;
+    current = next;
+  }
+  return undefined;
 }
 
 /** Where an output goes: the file to replace or create, and whether it exists now. */
@@ -97,6 +117,10 @@ export function checkOutputTarget(name: string, options: TargetOptions): OutputT
     const link = lstatSync(given);
     let stat = link;
     if (link.isSymbolicLink()) {
+      const special = specialLinkTarget(given);
+      if (special !== undefined) {
+        throw new OutputError(`output file ${quoteValue(name)} is a symbolic link to ${quoteValue(special)}, a stream or device of the system, not a regular file; heliochron writes only regular files`);
+      }
       try {
         stat = statSync(given);
         path = realpathSync(given);
@@ -229,7 +253,7 @@ export function writeOutputFile(name: string, content: string | Uint8Array, opti
   } catch (error) {
     if (temp && open) closeSync(temp.fd);
     if (error instanceof OutputError) throw error;
-    throw systemRefusal(name, error);
+    throw new OutputError(`output file ${quoteValue(name)} cannot be written: ${systemErrorWords(error)}; nothing was written, and a file of that name, if any, is unchanged`);
   } finally {
     if (temp) {
       removeQuietly(temp.path); // after a link, the temporary name; after a rename, nothing is left there

@@ -5,7 +5,7 @@
  * is allowed. Unknown keys are refused with a "did you mean" suggestion.
  */
 import { InvalidInputError } from '../errors.js';
-import { graphemeLength, shortenText } from '../textUnits.js';
+import { EXACT_COUNT_LIMIT, graphemeLength, shortenText } from '../textUnits.js';
 import { closestWord, suggestKey } from './didYouMean.js';
 
 /** A map of the file, its path and the keys it may hold. */
@@ -170,16 +170,17 @@ export function checkString(value: unknown, path: string, words: string, maxLeng
     throw new InvalidInputError(path, value, allowed, typeDetail(value, false));
   }
   // Lengths in user-perceived characters (src/textUnits.ts): an emoji or an accented letter counts once.
-  const length = value.length > maxLength ? graphemeLength(value) : value.length;
+  const length = value.length > maxLength ? graphemeLength(value, maxLength + 1) : value.length;
   if (value.trim().length === 0 || length > maxLength) {
-    throw new InvalidInputError(path, value, allowed, length > maxLength ? `It has ${length} characters.` : 'It is empty.');
+    const count = value.length <= EXACT_COUNT_LIMIT ? `${graphemeLength(value)}` : `more than ${EXACT_COUNT_LIMIT}`;
+    throw new InvalidInputError(path, value, allowed, length > maxLength ? `It has ${count} characters.` : 'It is empty.');
   }
   // Control characters (a YAML or JSON escape such as "\e[2J" or "\u001b") could act on a terminal
   // when the text is printed: refused, except tab and line feed.
   const control = /[\u0000-\u0008\u000b-\u001f\u007f-\u009f]/.exec(value);
   if (control) {
     const code = control[0].charCodeAt(0).toString(16).toUpperCase().padStart(4, '0');
-    throw new InvalidInputError(path, value, `${words} without control characters`, `It holds U+${code} at character ${graphemeLength(value.slice(0, control.index)) + 1}; write plain text.`);
+    throw new InvalidInputError(path, value, `${words} without control characters`, `It holds U+${code}; write plain text.`);
   }
   if (pattern && !pattern.test(value)) throw new InvalidInputError(path, value, words);
   return value;

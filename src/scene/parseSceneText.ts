@@ -5,12 +5,13 @@
  * the `yaml` package with the core schema only. Refused, each with a message
  * naming the file: files over MAX_SCENE_BYTES, binary content (NUL and other
  * control characters, undecodable bytes), nesting deeper than MAX_NESTING_DEPTH
- * (checked on the text before parsing, so that no deep recursion can start),
+ * (measured on the parser's syntax tree before any value is built, so that no deep
+ * recursion can start),
  * YAML tags of any kind (`!!js/function`, `!foo`, `!!binary`), keys that are
  * not plain text, duplicate keys, more than one document, YAML directives, and
  * alias expansion beyond MAX_ALIAS_COUNT (the "billion laughs" pattern).
  */
-import { isAlias, isCollection, isMap, isPair, isScalar, parseDocument, visit } from 'yaml';
+import { isAlias, isCollection, isMap, isPair, isScalar, Lexer, parseDocument, Parser, visit } from 'yaml';
 import { InvalidInputError } from '../errors.js';
 
 /** Largest scene file read, bytes (1 MiB). A scene with a thousand observations is well under 200 KB. */
@@ -26,6 +27,12 @@ const PLAIN_WORDS: Readonly<Record<string, { allowed: string; detail?: string }>
   MULTIPLE_DOCS: { allowed: 'one scene per file', detail: 'A line "---" starts a second document; remove it or split the file.' },
   TAG_RESOLVE_FAILED: { allowed: 'plain values without YAML tags (no "!" or "!!" before a value)' },
   TAB_AS_INDENT: { allowed: 'indentation by spaces', detail: 'YAML does not allow tabs for indentation.' },
+};
+
+/** A line "..." ends the document; anything after it would be a second one. */
+const DOCUMENT_END = {
+  allowed: 'one scene per file',
+  detail: 'A line "..." ends the scene, and more text follows it; remove the "..." line (or what follows it).',
 };
 
 /** Where in the text a character offset falls, as "line L, column C". */
@@ -62,78 +69,92 @@ function refuseBinary(text: string, fileName: string): void {
   }
 }
 
+/** A node of the parser's concrete syntax tree (the `yaml` package's CST tokens), as far as depth needs it. */
+interface CstNode {
+  readonly type: string;
+  readonly offset?: number;
+  readonly value?: CstNode;
+  readonly items?: ReadonlyArray<{ readonly key?: CstNode | null; readonly value?: CstNode | null }>;
+}
+
+/** The lexer's markers that stand for no text of the file (document, flow end, scalar: the `yaml` package's cst.ts). */
+const LEXER_MARKERS = new Set(['\x02', '\x18', '\x1f']);
+
+const COLLECTIONS = new Set(['block-map', 'block-seq', 'flow-collection']);
+
 /**
- * A conservative estimate of the nesting depth of a YAML or JSON text, without
- * parsing: flow brackets outside quotes, plus the block indentation levels and
- * sequence dashes open on each line. It never underestimates the depth of
- * brackets, so a bracket bomb is refused before the parser sees it.
+ * The nesting depth of lists and maps of a YAML or JSON text, measured on the tokens of the
+ * `yaml` package's own parser (its Parser builds the syntax tree with an explicit stack, without
+ * recursion, so any depth is safe to measure; only building values afterwards recurses).
+ * Brackets inside quoted text and comments are not structure and do not count.
+ * @returns the deepest level and the character offset where it is reached
+ * @example nestingDepth('a: [[1]]').depth // 3 (the map, two lists)
  */
-export function estimateNestingDepth(text: string): { depth: number; offset: number } {
+export function nestingDepth(text: string): { depth: number; offset: number } {
+  // First the parser's lexer alone, stopped as soon as its flow brackets, or the sequence
+  // dashes of one line ("- - - x"), nest too deep: the syntax tree of such a bomb would take
+  // seconds to build (time growing with the depth).
   let flow = 0;
+  let dashes = 0;
+  let offset = 0;
+  for (const token of new Lexer().lex(text)) {
+    if (token === '[' || token === '{') flow++;
+    else if ((token === ']' || token === '}') && flow > 0) flow--;
+    else if (token === '-') dashes++;
+    else if (token === '\n' || token === '\r\n') dashes = 0;
+    if (flow + dashes > MAX_NESTING_DEPTH) return { depth: flow + dashes, offset };
+    if (!LEXER_MARKERS.has(token)) offset += token.length;
+  }
   let worst = 0;
   let worstOffset = 0;
-  const indents: number[] = [];
-  let i = 0;
-  const n = text.length;
-  while (i < n) {
-    // Start of a line: indentation and leading "- " markers (block structure).
-    let col = 0;
-    while (i < n && text[i] === ' ') {
-      i++;
-      col++;
+  const stack: Array<{ node: CstNode; depth: number }> = [];
+  for (const token of new Parser().parse(text) as Iterable<CstNode>) stack.push({ node: token, depth: 0 });
+  // Bounded: every node of the tree is visited once.
+  while (stack.length > 0) {
+    const { node, depth } = stack.pop()!;
+    if (node.type === 'document') {
+      if (node.value) stack.push({ node: node.value, depth });
+      continue;
     }
-    const first = text[i];
-    const blank = i >= n || first === '\n' || first === '\r' || first === '#';
-    if (!blank && flow === 0) {
-      while (indents.length > 0 && indents[indents.length - 1] > col) indents.pop();
-      if (indents.length === 0 || indents[indents.length - 1] < col) indents.push(col);
+    if (!COLLECTIONS.has(node.type)) continue;
+    const level = depth + 1;
+    if (level > worst) {
+      worst = level;
+      worstOffset = node.offset ?? 0;
     }
-    let dashes = 0;
-    while (!blank && flow === 0 && text[i] === '-' && (text[i + 1] === ' ' || text[i + 1] === '\n')) {
-      dashes++;
-      i++;
-      while (i < n && text[i] === ' ') i++;
+    for (const item of node.items ?? []) {
+      if (item.key) stack.push({ node: item.key, depth: level });
+      if (item.value) stack.push({ node: item.value, depth: level });
     }
-    const blockDepth = indents.length + dashes;
-    if (blockDepth + flow > worst) {
-      worst = blockDepth + flow;
-      worstOffset = i;
-    }
-    // Rest of the line: count brackets outside quoted scalars and comments.
-    let previous = ' ';
-    while (i < n && text[i] !== '\n') {
-      const c = text[i];
-      if (c === '#' && (previous === ' ' || previous === '\t')) {
-        while (i < n && text[i] !== '\n') i++;
-        break;
-      }
-      if ((c === '"' || c === "'") && ' \t[{,:'.includes(previous)) {
-        // A quoted scalar (it may run over several lines).
-        i++;
-        while (i < n && text[i] !== c) {
-          if (c === '"' && text[i] === '\\') i++;
-          i++;
-        }
-        i++;
-        previous = c;
-        continue;
-      }
-      if (c === '-' && (previous === ' ' || previous === '\t') && (text[i + 1] === ' ' || text[i + 1] === '\n')) {
-        // A dash later in the line ("key: - - x") may open a further sequence level: count it.
-        dashes++;
-      }
-      if (c === '[' || c === '{') flow++;
-      else if ((c === ']' || c === '}') && flow > 0) flow--;
-      if (indents.length + dashes + flow > worst) {
-        worst = indents.length + dashes + flow;
-        worstOffset = i;
-      }
-      previous = c;
-      i++;
-    }
-    i++;
   }
   return { depth: worst, offset: worstOffset };
+}
+
+/** The parser's complaints that are about indentation: the line it names may be the one after the offending one. */
+const INDENT_CODES = new Set(['BAD_INDENT', 'BLOCK_AS_IMPLICIT_KEY', 'MULTILINE_IMPLICIT_KEY', 'MISSING_CHAR', 'UNEXPECTED_TOKEN']);
+
+/**
+ * For an indentation error at `offset`, the start of the line to blame: of the line the parser
+ * names and its neighbours with content, the one whose indentation no other line of the file
+ * uses (a line indented by 3 spaces among lines indented by 0, 2 and 4). The parser can only
+ * see where the structure breaks, often on the line after a mis-indented one.
+ */
+function misindentedLineStart(text: string, offset: number): number {
+  const lines: Array<{ start: number; indent: number }> = [];
+  let lineStart = 0;
+  for (const line of text.split('\n')) {
+    const body = line.replace(/\r$/, '');
+    const trimmed = body.trimStart();
+    if (trimmed !== '' && !trimmed.startsWith('#')) lines.push({ start: lineStart, indent: body.length - trimmed.length });
+    lineStart += line.length + 1;
+  }
+  const named = lines.findIndex((l, i) => offset >= l.start && (i + 1 === lines.length || offset < lines[i + 1].start));
+  if (named < 0) return offset;
+  const uses = new Map<number, number>();
+  for (const l of lines) uses.set(l.indent, (uses.get(l.indent) ?? 0) + 1);
+  const at = (i: number): number => lines[i].start + lines[i].indent;
+  const lonely = [named - 1, named, named + 1].filter((i) => i >= 0 && i < lines.length && uses.get(lines[i].indent) === 1);
+  return lonely.length === 1 && lonely[0] !== named ? at(lonely[0]) : offset;
 }
 
 /**
@@ -187,7 +208,7 @@ export function parseSceneTextWithLines(text: string, fileName: string): ParsedS
   if (body.trim() === '') {
     throw new InvalidInputError(fileName, '', 'a scene: a YAML or JSON map starting with "heliochron: 1"', 'The file is empty.');
   }
-  const estimate = estimateNestingDepth(body);
+  const estimate = nestingDepth(body);
   if (estimate.depth > MAX_NESTING_DEPTH) {
     throw new InvalidInputError(
       `${fileName} (${lineColumn(body, estimate.offset)})`,
@@ -217,8 +238,8 @@ export function parseSceneTextWithLines(text: string, fileName: string): ParsedS
   });
   const problem = doc.errors[0] ?? doc.warnings[0];
   if (problem) {
-    const offset = problem.pos[0];
-    const plain = PLAIN_WORDS[problem.code];
+    const offset = INDENT_CODES.has(problem.code) ? misindentedLineStart(body, problem.pos[0]) : problem.pos[0];
+    const plain = problem.code === 'MULTIPLE_DOCS' && /^\.\.\.[ \t]*(#.*)?$/m.test(body) ? DOCUMENT_END : PLAIN_WORDS[problem.code];
     const message = problem.message.split('\n')[0].replace(/ at line \d+, column \d+:?$/, '');
     throw new InvalidInputError(
       `${fileName} (${lineColumn(body, offset)})`,

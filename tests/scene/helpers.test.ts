@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { closestKey, editDistance, suggestKey } from '../../src/scene/didYouMean.js';
-import { estimateNestingDepth } from '../../src/scene/parseSceneText.js';
+import { nestingDepth } from '../../src/scene/parseSceneText.js';
 import { wallAzimuthFromMap } from '../../src/scene/wallFromMap.js';
 import { expectClose } from '../helpers/expectClose.js';
 
@@ -63,12 +63,12 @@ describe('wallAzimuthFromMap', () => {
   });
 });
 
-describe('estimateNestingDepth', () => {
-  it('counts flow brackets, block indentation and sequence dashes, and not brackets inside quotes or comments', () => {
-    expect(estimateNestingDepth('a: [[1]]').depth).toBe(3);
-    expect(estimateNestingDepth('a:\n  b:\n    c: 1\n').depth).toBe(3);
-    expect(estimateNestingDepth('a: "[[[[[[" # {{{{{{\n').depth).toBe(1);
-    expect(estimateNestingDepth('- - - x').depth).toBe(4);
-    expect(estimateNestingDepth('title: the Tanners\' Hall [print]').depth).toBe(2);
+describe('nestingDepth', () => {
+  it("counts the lists and maps of the parser's own syntax tree, not brackets inside quotes or comments", () => {
+    expect(nestingDepth('a: [[1]]').depth).toBe(3);
+    expect(nestingDepth('a:\n  b:\n    c: 1\n').depth).toBe(3);
+    expect(nestingDepth('a: "[[[[[[" # {{{{{{\n').depth).toBe(1);
+    expect(nestingDepth('- - - x').depth).toBe(3);
+    expect(nestingDepth('title: the Tanners\' Hall [print]').depth).toBe(1);
   });
 });
