@@ -83,28 +83,15 @@ const LEXER_MARKERS = new Set(['\x02', '\x18', '\x1f']);
 const COLLECTIONS = new Set(['block-map', 'block-seq', 'flow-collection']);
 
 /**
- * The nesting depth of lists and maps of a YAML or JSON text, measured on the tokens of the
- * `yaml` package's own parser (its Parser builds the syntax tree with an explicit stack, without
- * recursion, so any depth is safe to measure; only building values afterwards recurses).
- * Brackets inside quoted text and comments are not structure and do not count.
+ * The nesting depth of lists and maps of a YAML or JSON text, measured on the syntax tree of
+ * the `yaml` package's own parser (its Parser builds the tree with an explicit stack, without
+ * recursion; only building values afterwards recurses). Brackets inside quoted text and
+ * comments are not structure and do not count. Time grows faster than the depth: for untrusted
+ * text use `tooDeep`, which stops early.
  * @returns the deepest level and the character offset where it is reached
  * @example nestingDepth('a: [[1]]').depth // 3 (the map, two lists)
  */
 export function nestingDepth(text: string): { depth: number; offset: number } {
-  // First the parser's lexer alone, stopped as soon as its flow brackets, or the sequence
-  // dashes of one line ("- - - x"), nest too deep: the syntax tree of such a bomb would take
-  // seconds to build (time growing with the depth).
-  let flow = 0;
-  let dashes = 0;
-  let offset = 0;
-  for (const token of new Lexer().lex(text)) {
-    if (token === '[' || token === '{') flow++;
-    else if ((token === ']' || token === '}') && flow > 0) flow--;
-    else if (token === '-') dashes++;
-    else if (token === '\n' || token === '\r\n') dashes = 0;
-    if (flow + dashes > MAX_NESTING_DEPTH) return { depth: flow + dashes, offset };
-    if (!LEXER_MARKERS.has(token)) offset += token.length;
-  }
   let worst = 0;
   let worstOffset = 0;
   const stack: Array<{ node: CstNode; depth: number }> = [];
@@ -128,6 +115,36 @@ export function nestingDepth(text: string): { depth: number; offset: number } {
     }
   }
   return { depth: worst, offset: worstOffset };
+}
+
+/**
+ * Whether the lists and maps of a text nest deeper than `limit`: the depth and where, or
+ * undefined. First the parser's lexer alone, stopped as soon as flow brackets, or the sequence
+ * dashes of one line ("- - - x"), nest too deep (the syntax tree of such a bomb would take
+ * seconds to build); then, only when the indentation could hide deeper block nesting, the
+ * exact depth of nestingDepth.
+ * @example tooDeep('a: ' + '['.repeat(40), 32)?.depth // 33
+ */
+export function tooDeep(text: string, limit: number): { depth: number; offset: number } | undefined {
+  let flow = 0;
+  let dashes = 0;
+  let offset = 0;
+  let lexDepth = 0;
+  for (const token of new Lexer().lex(text)) {
+    if (token === '[' || token === '{') flow++;
+    else if ((token === ']' || token === '}') && flow > 0) flow--;
+    else if (token === '-') dashes++;
+    else if (token === '\n' || token === '\r\n') dashes = 0;
+    if (flow + dashes > limit) return { depth: flow + dashes, offset };
+    lexDepth = Math.max(lexDepth, flow + dashes);
+    if (!LEXER_MARKERS.has(token)) offset += token.length;
+  }
+  // A block map or list is indented deeper than its parent or, a list under a key, as deep:
+  // at most two levels per indentation width in use.
+  const widths = new Set(text.match(/^[ ]*(?=\S)/gm)?.map((w) => w.length));
+  if (2 * widths.size + lexDepth <= limit) return undefined;
+  const exact = nestingDepth(text);
+  return exact.depth > limit ? exact : undefined;
 }
 
 /** The parser's complaints that are about indentation: the line it names may be the one after the offending one. */
@@ -208,8 +225,8 @@ export function parseSceneTextWithLines(text: string, fileName: string): ParsedS
   if (body.trim() === '') {
     throw new InvalidInputError(fileName, '', 'a scene: a YAML or JSON map starting with "heliochron: 1"', 'The file is empty.');
   }
-  const estimate = nestingDepth(body);
-  if (estimate.depth > MAX_NESTING_DEPTH) {
+  const estimate = tooDeep(body, MAX_NESTING_DEPTH);
+  if (estimate !== undefined) {
     throw new InvalidInputError(
       `${fileName} (${lineColumn(body, estimate.offset)})`,
       `nesting ${estimate.depth} levels deep`,
