@@ -8,8 +8,9 @@
  * refusal (exit 2) leaves nothing behind.
  */
 import { existsSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
-import { InvalidInputError, OutputError } from '../errors.js';
+import { dirname, relative, resolve } from 'node:path';
+import { InvalidInputError } from '../errors.js';
+import { escapeControls } from '../textUnits.js';
 import { readSceneFile } from '../scene/readScene.js';
 import type { Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
@@ -339,7 +340,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
         notes,
       }, null, 2)}\n`
     : renderText(scene, planeRecords, observationRecords, best, notes) +
-      (overlayTarget ? `Overlay written to ${options.overlay}${picture ? ' (with the picture embedded)' : ''}.\n` : '');
+      (overlayTarget ? `Overlay written to ${escapeControls(options.overlay!)}${picture && picturePath ? ` (with the picture ${escapeControls(relative(io.cwd, picturePath) || picturePath)} embedded)` : ''}.\n` : '');
 
   if (svg !== undefined && overlayTarget !== undefined) {
     writeOutputFile(options.overlay!, svg, { force: options.force, inputs: [fullPath, ...(picturePath ? [picturePath] : [])], cwd: io.cwd });

@@ -32,6 +32,15 @@ export function readImage(value: unknown, path: string): ImageInfo {
   const widthPx = num(f, 'widthPx', SIDE_PX);
   const heightPx = num(f, 'heightPx', SIDE_PX);
   const file = optStr(f, 'file', 'a JPEG or PNG file name beside the scene file, ending .jpg, .jpeg or .png', 1000, /\.(jpe?g|png)$/i);
+  // The picture sits in the scene's folder (or a folder inside it): no absolute path, no way up.
+  if (file !== undefined && (/^([/\\]|[A-Za-z]:)/.test(file) || file.split(/[/\\]/).includes('..'))) {
+    throw new InvalidInputError(
+      keyPath(path, 'file'),
+      file,
+      "a file name relative to the scene file's folder, in it or in a folder inside it (no absolute path, no \"..\")",
+      'Copy the picture beside the scene file, or give it to measure with --image.',
+    );
+  }
   const mirrored = optBool(f, 'mirrored', false);
   const pixelSigmaPx = optNum(f, 'pixelSigmaPx', PIXEL_SIGMA, DEFAULT_PIXEL_SIGMA_PX);
   return file === undefined ? { widthPx, heightPx, mirrored, pixelSigmaPx } : { widthPx, heightPx, file, mirrored, pixelSigmaPx };
