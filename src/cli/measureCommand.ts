@@ -11,7 +11,6 @@ import { existsSync } from 'node:fs';
 import { dirname, relative, resolve } from 'node:path';
 import { InvalidInputError } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
-import { readSceneFile } from '../scene/readScene.js';
 import type { Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservations.js';
@@ -21,6 +20,7 @@ import { formatCalendarDate } from '../calendar/format.js';
 import { hhmm, roundTo } from '../report/formatTimes.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
 import { checkOutputTarget, writeOutputFile, type CliIo } from './io.js';
+import { inScene, readSceneForCommand } from './dateCommand.js';
 import type { MeasureOptions } from './measureSpec.js';
 import { measureOverlaySvg, observationIndex, planeLabel, planeShortLabel, predictMeasurements, type MeasurementPrediction } from './measureOverlay.js';
 import { readPictureFile, type PictureFile } from './pictureFile.js';
@@ -271,11 +271,10 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
   if (options.image !== undefined && options.overlay === undefined) {
     throw new InvalidInputError('--image', options.image, 'a picture only together with --overlay <file.svg>, which it is embedded in');
   }
-  const read = readSceneFile(fullPath);
-  const scene = options.seed === undefined ? read : { ...read, seed: options.seed };
+  const { scene } = readSceneForCommand(scenePath, io, options.seed);
   const overlayTarget = checkOverlayPath(options, fullPath, io);
-  const resolved = resolvePixelObservations(scene);
-  const planes = allPlanes(scene, resolved.planes);
+  const resolved = inScene(scenePath, () => resolvePixelObservations(scene));
+  const planes = inScene(scenePath, () => allPlanes(scene, resolved.planes));
   const notes: string[] = [];
 
   let picture: PictureFile | undefined;

@@ -211,23 +211,23 @@ describe('heliochron measure: degenerate clicks (exit 2, one line naming the pat
       'three collinear corners',
       (t) => wallPoints(t, '[[588, 558], [672, 558], [756, 558], [585, 686]]')
         .replace(/      planePointsM: .*\n/, '      widthM: 1.2\n      heightM: 1.8\n'),
-      /^heliochron: walls\[0\]\.imagePlane\.pointsPx\[1\]: \[672,558\] is not allowed; expected four points of which no three lie on one line\. Points 0, 1 and 2 are on one line/,
+      /^heliochron: \S+\.yaml: walls\[0\]\.imagePlane\.pointsPx\[1\]: \[672,558\] is not allowed; expected four points of which no three lie on one line\. Points 0, 1 and 2 are on one line/,
     ],
     [
       'crossing edges of a rectangle',
       (t) => wallPoints(t, '[[588, 558], [672, 558], [585, 686], [671, 686]]')
         .replace(/      planePointsM: .*\n/, '      widthM: 1.2\n      heightM: 1.8\n'),
-      /^heliochron: walls\[0\]\.imagePlane\.pointsPx: .*Two edges of the clicked figure cross each other/,
+      /^heliochron: \S+\.yaml: walls\[0\]\.imagePlane\.pointsPx: .*Two edges of the clicked figure cross each other/,
     ],
     [
       'a point outside the picture',
       (t) => t.replace('fromPx: [800, 515]', 'fromPx: [1700, 515]'),
-      /^heliochron: observations\[1\]\.pixels\.fromPx\[0\]: 1700 is not allowed; expected an x in pixels inside the image \(width 1600 px\)/,
+      /^heliochron: \S+\.yaml: observations\[1\]\.pixels\.fromPx\[0\]: 1700 is not allowed; expected an x in pixels inside the image \(width 1600 px\)/,
     ],
     [
       'a ground corner outside the picture',
       (t) => t.replace('[63, 987]]', '[63, 1250]]'),
-      /^heliochron: groundPlane\.pointsPx\[3\]\[1\]: 1250 is not allowed; expected a y in pixels inside the image/,
+      /^heliochron: \S+\.yaml: groundPlane\.pointsPx\[3\]\[1\]: 1250 is not allowed; expected a y in pixels inside the image/,
     ],
   ];
   for (const [what, edit, message] of cases) {
@@ -270,10 +270,12 @@ describe('pictureFile: JPEG and PNG recognised by their first bytes', () => {
     expect([p.widthPx, p.heightPx]).toEqual([1600, 1200]);
   });
   it('reads the size of a JPEG from its start-of-frame segment (ITU-T T.81 Annex B)', () => {
-    // SOI, an APP0 segment of length 16, SOF0 (length 17): precision 8, height 0x01E0 = 480, width 0x0280 = 640
+    // SOI, an APP0 segment of length 16, SOF0 (length 17): precision 8, height 0x01E0 = 480, width 0x0280 = 640;
+    // then a start of scan (length 12, three components), two bytes of data and EOI
     const bytes = new Uint8Array([
       0xff, 0xd8, 0xff, 0xe0, 0x00, 0x10, 0x4a, 0x46, 0x49, 0x46, 0x00, 0x01, 0x01, 0x00, 0x00, 0x01, 0x00, 0x01, 0x00, 0x00,
       0xff, 0xc0, 0x00, 0x11, 0x08, 0x01, 0xe0, 0x02, 0x80, 0x03, 0x01, 0x22, 0x00, 0x02, 0x11, 0x01, 0x03, 0x11, 0x01,
+      0xff, 0xda, 0x00, 0x0c, 0x03, 0x01, 0x00, 0x02, 0x11, 0x03, 0x11, 0x00, 0x3f, 0x00, 0x12, 0x34, 0xff, 0xd9,
     ]);
     const p = sniffPicture(bytes, '--image', 'x.jpg');
     expect(p.mimeType).toBe('image/jpeg');
