@@ -102,7 +102,7 @@ if (isMain()) {
       process.exitCode = code;
     },
     (error: unknown) => {
-      process.stderr.write(`heliochron: internal error (please report): ${error instanceof Error ? error.message : String(error)}\n`);
+      process.stderr.write(`heliochron: internal error (please report): ${escapeControls(error instanceof Error ? error.message : String(error))}\n`);
       process.exitCode = 70;
     },
   );
