@@ -256,6 +256,12 @@ function pictureFor(scene: Scene, sceneFullPath: string, options: MeasureOptions
   return { picture: readPictureFile(path, 'image.file', file), path };
 }
 
+/** A path as shown to the user: relative to the working folder when inside it, else in full. */
+function shownPath(path: string, cwd: string): string {
+  const rel = relative(cwd, path);
+  return rel === '' || rel.startsWith('..') ? path : rel;
+}
+
 /** Refuse the overlay path early (before any work), with the name as given: see checkOutputTarget in io.ts. */
 function checkOverlayPath(options: MeasureOptions, sceneFullPath: string, io: CliIo): string | undefined {
   if (options.overlay === undefined) return undefined;
@@ -339,7 +345,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
         notes,
       }, null, 2)}\n`
     : renderText(scene, planeRecords, observationRecords, best, notes) +
-      (overlayTarget ? `Overlay written to ${escapeControls(options.overlay!)}${picture && picturePath ? ` (with the picture ${escapeControls(relative(io.cwd, picturePath) || picturePath)} embedded)` : ''}.\n` : '');
+      (overlayTarget ? `Overlay written to ${escapeControls(options.overlay!)}${picture && picturePath ? ` (with the picture ${escapeControls(shownPath(picturePath, io.cwd))} embedded)` : ''}.\n` : '');
 
   if (svg !== undefined && overlayTarget !== undefined) {
     writeOutputFile(options.overlay!, svg, { force: options.force, inputs: [fullPath, ...(picturePath ? [picturePath] : [])], cwd: io.cwd });
