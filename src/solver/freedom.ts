@@ -1,0 +1,74 @@
+/**
+ * Evidence that cannot fix the day and the hour: a clock alone (it fixes the hour, not the day),
+ * one measured number (it puts the sun on a line across the sky), facts without numbers, or numbers
+ * that depend on the sun in the same way (the fit is singular). Such an answer gets its own status,
+ * 'undetermined', and its first line says what is left free and which kind of observation would fix
+ * it (common practice: two independent numbers fix the two unknowns, day and hour).
+ */
+import type { AnswerFreedom, Candidate } from './types.js';
+import type { EvidenceModel } from './evidenceModel.js';
+import { MONTH_NAMES } from '../calendar/julianDay.js';
+import { hhmm } from './candidates.js';
+
+/** Whether the evidence fixes day and hour, judged from the model and the best candidate. */
+export function evidenceFixesDayAndHour(model: EvidenceModel, best: Candidate): boolean {
+  return model.measuredCount >= 2 && best.uncertainty.fixesDayAndHour;
+}
+
+/** What the evidence leaves free, and what would fix it. */
+export function freedomOf(model: EvidenceModel): AnswerFreedom {
+  const shadowNumbers = model.shadows.reduce((n, t) => n + t.count, 0);
+  if (model.measuredCount === 0) {
+    return {
+      kind: 'facts-only',
+      leftFree: 'facts without a measured number (a wall lit or in shade, the sun up) fix neither the day nor the hour; they only rule some hours out',
+      wouldFix: 'a measured shadow (the direction and length of a pole\'s shadow, the depth of a cornice\'s shadow, the slope of a rod\'s shadow on a wall) would fix them',
+    };
+  }
+  if (shadowNumbers === 0) {
+    return {
+      kind: 'clock-only',
+      leftFree: 'a clock alone fixes the hour, not the day',
+      wouldFix: 'a measured shadow (the direction and length of a pole\'s shadow, the depth of a cornice\'s shadow, the slope of a rod\'s shadow on a wall) would fix the day',
+    };
+  }
+  if (model.measuredCount === 1) {
+    return {
+      kind: 'one-number',
+      leftFree: 'one measured number puts the sun on a line across the sky, not at one point: on many days some hour fits',
+      wouldFix: 'a second measurement of the same moment (the shadow\'s length besides its direction, a shadow on a wall, or a clock) would fix the day and the hour, up to the mirror date on the other side of the solstice',
+    };
+  }
+  return {
+    kind: 'same-dependence',
+    leftFree: 'the measured numbers depend on the sun in the same way, so they do not fix the day and the hour separately',
+    wouldFix: 'a measurement of another kind (a shadow\'s length besides its direction, a shadow on a wall, or a clock) would fix them',
+  };
+}
+
+const capitalised = (s: string): string => s.charAt(0).toUpperCase() + s.slice(1);
+
+function dayHour(c: Candidate): string {
+  return `${c.civilDate.day} ${MONTH_NAMES[c.civilDate.month - 1]} at ${hhmm(c.times.localApparentMinutes)} local apparent time`;
+}
+
+/**
+ * The verdict of an undetermined answer: what is free, examples from the candidates, what would fix it.
+ * @example undeterminedVerdict(freedom, candidates, '1760-1790')
+ *   // "Undetermined: a clock alone fixes the hour, not the day. Any day of 1760-1790 fits ..."
+ */
+export function undeterminedVerdict(freedom: AnswerFreedom, candidates: readonly Candidate[], windowText: string): string {
+  const shown = candidates.slice(0, 3);
+  let free: string;
+  if (freedom.kind === 'clock-only' && shown.length > 0) {
+    const clock = shown[0].residuals.find((r) => r.observationKind === 'clock');
+    const minutes = candidates.map((c) => c.times.localApparentMinutes);
+    const reading = clock ? `the clock's ${hhmm(clock.measured)}` : 'the clock\'s reading';
+    free = ` Any day of ${windowText} fits, at the hour ${reading} gives (${hhmm(Math.min(...minutes))}-${hhmm(Math.max(...minutes))} local apparent time over the candidates shown, as the equation of time changes through the year).`;
+  } else if (shown.length > 0) {
+    free = ` For example ${shown.map(dayHour).join(', or ')} fit alike; the candidates listed are points along that curve, not separate answers.`;
+  } else {
+    free = '';
+  }
+  return `Undetermined: ${freedom.leftFree}.${free} ${capitalised(freedom.wouldFix)}.`;
+}
