@@ -210,7 +210,7 @@ export function candidateUncertainty(raw: RawCandidate, win: DayWindow, cache: U
   const sd = Math.sqrt(cov2.xx);
   const sm = Math.sqrt(cov2.yy);
   return {
-    method: u.valid ? 'ellipse' : 'profile-scan',
+    method: !u.fixes ? 'not-fixed' : u.valid ? 'ellipse' : 'profile-scan',
     ellipseValid: u.valid,
     invalidReason: u.reason,
     linearityCheck: u.linearity,

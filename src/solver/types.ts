@@ -128,8 +128,11 @@ export interface ProfileScan {
 
 /** The uncertainty of one candidate; `method` says which of the two forms holds. */
 export interface CandidateUncertainty {
-  /** 'ellipse': the linearised covariance is valid; 'profile-scan': it is not and the scan gives the interval. */
-  readonly method: 'ellipse' | 'profile-scan';
+  /**
+   * 'ellipse': the linearised covariance is valid; 'profile-scan': it is not and the scan gives the
+   * interval; 'not-fixed': the evidence does not fix the day and the hour (no ellipse, no interval).
+   */
+  readonly method: 'ellipse' | 'profile-scan' | 'not-fixed';
   readonly ellipseValid: boolean;
   /** Plain words when invalid: "near the solstice the date is poorly constrained", "linearisation check failed ...". */
   readonly invalidReason?: string;
