@@ -292,7 +292,8 @@ export function renderCheckText(answer: CheckAnswer, scene: Scene): string {
   out.push('');
   if (answer.best) {
     out.push(`Best fit inside the proposal: ${candidateLine(answer.best, scene)}`);
-    out.push(`  on its own: chi2 ${fixed(answer.chiSquare, 2)} with ${countWords(answer.degreesOfFreedom, 'degree of freedom', 'degrees of freedom')}, p ${pText(answer.pValue)} (${answer.best.clockAssumptionLabel})`);
+    const dof = answer.degreesOfFreedom > 0 ? `with ${countWords(answer.degreesOfFreedom, 'degree of freedom', 'degrees of freedom')}, p ${pText(answer.pValue)}` : 'with no degrees of freedom left to judge it';
+    out.push(`  on its own: chi2 ${fixed(answer.chiSquare, 2)} ${dof} (${answer.best.clockAssumptionLabel})`);
     const r = answer.relative;
     if (r) {
       out.push(

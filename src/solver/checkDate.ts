@@ -13,7 +13,7 @@
  * inconsistent (p < 0.001, or a fact fails); the rule for no degrees of freedom is that of
  * solveDates.
  */
-import type { Candidate, CheckAbsoluteFit, CheckAnswer, CheckOverallFit, CheckRelativeFit, CheckVerdict, Proposal } from './types.js';
+import type { AnswerFreedom, Candidate, CheckAbsoluteFit, CheckAnswer, CheckOverallFit, CheckRelativeFit, CheckVerdict, Proposal } from './types.js';
 import type { CivilDay, ClockKind, Scene } from '../scene/types.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { InvalidInputError } from '../errors.js';
@@ -169,10 +169,14 @@ function pWords(p: number | null): string {
 }
 
 /** How well the evidence as a whole fits: the best fit in the window, judged as the answer of `date` judges it. */
-function overallFit(model: EvidenceModel, best: Candidate): CheckOverallFit {
+function overallFit(model: EvidenceModel, best: Candidate, freedom: AnswerFreedom | undefined): CheckOverallFit {
   const dof = Math.max(0, model.measuredCount - 2);
   const fit = judgeFit(model, best.chiSquare, best.softPenalty);
-  const numbers = `chi-square ${best.chiSquare.toFixed(2)} with ${countWords(dof, 'degree of freedom', 'degrees of freedom')}, ${pWords(best.pValue)}`;
+  if (freedom && fit !== 'does-not-fit') {
+    const words = `the evidence does not fix the day and the hour (${freedom.leftFree}), so many dates fit as well as the proposal; ${freedom.wouldFix}`;
+    return { chiSquare: best.chiSquare, degreesOfFreedom: dof, pValue: best.pValue, weak: false, words };
+  }
+  const numbers = dof > 0 ? `chi-square ${best.chiSquare.toFixed(2)} with ${countWords(dof, 'degree of freedom', 'degrees of freedom')}, ${pWords(best.pValue)}` : `chi-square ${best.chiSquare.toFixed(2)}, no degrees of freedom left`;
   const words =
     fit === 'fits'
       ? `the evidence as a whole fits well (the best fit in the window: ${numbers})`
@@ -260,7 +264,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   const globalBest = global.candidates[0] ?? null;
   const absolute = best ? absoluteFit(model, proposal, best) : null;
   const relative = best && globalBest ? relativeFit(proposal, best.objective, globalBest.chiSquare + globalBest.softPenalty) : null;
-  const overall = globalBest ? overallFit(model, globalBest) : null;
+  const overall = globalBest ? overallFit(model, globalBest, global.freedom) : null;
   const verdict = verdictOf(best, relative, absolute);
   const what = proposalText(proposal);
   let verdictText: string;
@@ -286,13 +290,13 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
         '.';
     }
     if (absolute) {
-      verdictText += ` On its own: chi-square ${absolute.chiSquare.toFixed(2)} with ${countWords(absolute.degreesOfFreedom, 'degree of freedom', 'degrees of freedom')}, ${pWords(absolute.pValue)}.`;
+      verdictText +=
+        absolute.degreesOfFreedom > 0
+          ? ` On its own: chi-square ${absolute.chiSquare.toFixed(2)} with ${countWords(absolute.degreesOfFreedom, 'degree of freedom', 'degrees of freedom')}, ${pWords(absolute.pValue)}.`
+          : ` On its own: chi-square ${absolute.chiSquare.toFixed(2)}, with no degrees of freedom left to judge it.`;
     }
-    if (overall?.weak) verdictText += ` Apart from the proposal: ${overall.words}.`;
+    if (overall && (overall.weak || global.freedom)) verdictText += ` Apart from the proposal: ${overall.words}.`;
     if (globalBest) verdictText += ` The best fit anywhere in the window: ${describeCandidate(globalBest)}.`;
-  }
-  if (global.status === 'undetermined' && global.freedom) {
-    notes.push(`The evidence cannot fix the day and the hour: ${global.freedom.leftFree}; ${global.freedom.wouldFix}. Many days fit as well as the proposal.`);
   }
   return {
     sceneTitle: scene.title,

@@ -116,6 +116,8 @@ export function describeCandidate(c: Candidate): string {
   return `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${cal}, ${c.weekdayName}), ${hhmm(c.times.localApparentMinutes)} local apparent time (chi-square ${c.chiSquare.toFixed(2)}, ${p})`;
 }
 
+const capitalised = (t: string): string => t.charAt(0).toUpperCase() + t.slice(1);
+
 /** How a fit is judged: 'fits', 'marginal' or 'does-not-fit' (the rule of the answer's status). */
 export function judgeFit(model: EvidenceModel, chiSquare: number, penalty: number): FamilyKeeping['fit'] {
   const pj = judgingP(model, chiSquare);
@@ -260,7 +262,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         ` (best chi-square ${best.chiSquare.toFixed(1)}${p !== null ? `, p = ${p.toPrecision(2)}` : ''}${violated.length ? `; facts that cannot hold there: ${violated.join('; ')}` : ''}).` +
         (turnedAzimuths ? ` ${turnedAzimuths.words}` : '') +
         ` The observations in conflict: ${conflictingIds.join(', ')}.` +
-        (without.length ? ` ${without.join('; ')}.` : '');
+        (without.length ? ` ${capitalised(without.join('; '))}.` : '');
     } else if (status === 'undetermined') {
       freedom = freedomOf(model);
       verdict = undeterminedVerdict(freedom, candidates, windowText);
@@ -349,5 +351,6 @@ function turnedAzimuthHint(scene: Scene, win: DayWindow, cutoff: number): Turned
   const b = s.kept[0];
   if (!fitsWell(model, b)) return undefined;
   const c = dressed(s, b);
-  return { best: c, words: turnedAzimuthWords(describeCandidate(c)) };
+  const p = c.pValue === null ? 'no degrees of freedom left' : `p = ${c.pValue.toPrecision(2)}`;
+  return { best: c, words: turnedAzimuthWords(`${familiesOf(s, false)[0].headline} (chi-square ${c.chiSquare.toFixed(2)}, ${p})`) };
 }
