@@ -263,7 +263,7 @@ export function proposalWords(p: Proposal): string {
       const years =
         p.fromYear !== undefined && p.toYear !== undefined
           ? p.fromYear === p.toYear
-            ? `, ${formatYearBcAd(p.fromYear)}`
+            ? ` ${formatYearBcAd(p.fromYear)}`
             : `, years ${formatYearBcAd(p.fromYear)}-${formatYearBcAd(p.toYear)}`
           : ", any year of the scene's window";
       return `in ${months}${years}`;

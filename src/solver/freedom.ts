@@ -9,6 +9,8 @@ import type { AnswerFreedom, Candidate } from './types.js';
 import type { EvidenceModel } from './evidenceModel.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { hhmm } from './candidates.js';
+import { equationOfTimeMinutes } from '../ephemeris/equationOfTime.js';
+import { describeClockKind } from '../time/clock.js';
 
 /** Whether the evidence fixes day and hour, judged from the model and the best candidate. */
 export function evidenceFixesDayAndHour(model: EvidenceModel, best: Candidate): boolean {
@@ -57,18 +59,38 @@ function dayHour(c: Candidate): string {
  * @example undeterminedVerdict(freedom, candidates, '1760-1790')
  *   // "Undetermined: a clock alone fixes the hour, not the day. Any day of 1760-1790 fits ..."
  */
-export function undeterminedVerdict(freedom: AnswerFreedom, candidates: readonly Candidate[], windowText: string): string {
+export function undeterminedVerdict(freedom: AnswerFreedom, candidates: readonly Candidate[], windowText: string, model: EvidenceModel, midJdUT: number): string {
   const shown = candidates.slice(0, 3);
   let free: string;
-  if (freedom.kind === 'clock-only' && shown.length > 0) {
-    const clock = shown[0].residuals.find((r) => r.observationKind === 'clock');
-    const minutes = candidates.map((c) => c.times.localApparentMinutes);
-    const reading = clock ? `the clock's ${hhmm(clock.measured)}` : 'the clock\'s reading';
-    free = ` Any day of ${windowText} fits, at the hour ${reading} gives (${hhmm(Math.min(...minutes))}-${hhmm(Math.max(...minutes))} local apparent time over the candidates shown, as the equation of time changes through the year).`;
+  if (freedom.kind === 'clock-only' && model.clocks.length > 0) {
+    free = ` Any day of ${windowText} fits, at ${clockHourWords(model, midJdUT)}.`;
   } else if (shown.length > 0) {
     free = ` For example ${shown.map(dayHour).join(', or ')} fit alike; the candidates listed are points along that curve, not separate answers.`;
   } else {
     free = '';
   }
   return `Undetermined: ${freedom.leftFree}.${free} ${capitalised(freedom.wouldFix)}.`;
+}
+
+/**
+ * The hour a lone clock gives, in local apparent time: the reading itself for a sundial-time clock;
+ * for a mean-time clock the reading plus the equation of time, which runs through about -14 to +16
+ * minutes in a year (sampled every 2 days over the year around midJdUT; Meeus 1998 ch. 28).
+ */
+function clockHourWords(model: EvidenceModel, midJdUT: number): string {
+  const c = model.clocks[0];
+  const reading = hhmm(c.readingMinutes);
+  let eMin = Infinity;
+  let eMax = -Infinity;
+  for (let d = -182; d <= 182; d += 2) {
+    const e = equationOfTimeMinutes(midJdUT + d);
+    eMin = Math.min(eMin, e);
+    eMax = Math.max(eMax, e);
+  }
+  const meanWords = `${hhmm(c.readingMinutes + eMin)}-${hhmm(c.readingMinutes + eMax)} local apparent time through the year (the equation of time)`;
+  const kept = c.kept;
+  if (kept === null) return `the clock's ${reading}: that hour in local apparent time if the clock kept sundial time, ${meanWords} if it kept local mean time`;
+  if (kept.kind === 'apparent') return `the clock's ${reading} local apparent time`;
+  if (kept.kind === 'mean') return `the clock's ${reading} local mean time, which is ${meanWords}`;
+  return `the hour the clock's ${reading} (${describeClockKind(kept)}) gives`;
 }

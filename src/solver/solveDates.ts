@@ -265,7 +265,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         (without.length ? ` ${capitalised(without.join('; '))}.` : '');
     } else if (status === 'undetermined') {
       freedom = freedomOf(model);
-      verdict = undeterminedVerdict(freedom, candidates, windowText);
+      verdict = undeterminedVerdict(freedom, candidates, windowText, model, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
       notes.push('The evidence does not fix the day and the hour: the candidates are examples along a curve of equally good fits, and their families are not separate answers.');
     } else {
       if (opt.consistency && model.measuredCount > 0) {
