@@ -93,6 +93,8 @@ function noPReason(measured: number): string {
 
 const NO_DOF_PROPOSAL = 'no degrees of freedom left: the proposal fixes as many unknowns as there are measured values, so chi-square cannot be judged';
 
+const NO_SCAN_MINUTE = 'no day of the scan could be fitted, so no hour is known there';
+
 const FREE = 'the evidence does not fix the day and the hour separately (the covariance is singular): the day is free along a curve';
 
 function uncertaintyJson(c: Candidate) {
@@ -136,7 +138,7 @@ function uncertaintyJson(c: Candidate) {
             }
           : null,
       profile: p
-        ? {
+        ? present({
             fromDate: formatIsoDay(p.fromDate),
             toDate: formatIsoDay(p.toDate),
             fromDays: p.fromDays,
@@ -147,7 +149,7 @@ function uncertaintyJson(c: Candidate) {
             toLocalApparentMinutes: p.toLocalApparentMinutes,
             deltaChiSquare: p.deltaChiSquare,
             open: p.open,
-          }
+          }, { fromLocalApparentMinutes: NO_SCAN_MINUTE, toLocalApparentMinutes: NO_SCAN_MINUTE })
         : null,
     },
     {

@@ -9,9 +9,13 @@
  * or season is searched like the window (stage A and B restricted to it); where the best fit
  * lies outside, the proposal's edge days are fitted directly. The scene's own documentary
  * restrictions (bounds, months, weekday) are not applied to the proposal: it is judged on the
- * light alone. Verdict: consistent (p >= 0.05 and the facts hold), doubtful (0.001 <= p < 0.05),
- * inconsistent (p < 0.001, or a fact fails); the rule for no degrees of freedom is that of
- * solveDates.
+ * light alone, and so is the best fit in the window it is compared with.
+ *
+ * Judged both ways: against the best in the window (Delta chi-square with as many degrees of freedom
+ * as the proposal fixes, its p-value and the likelihood ratio; this gives the verdict: consistent
+ * for p >= 0.05 and the facts holding, doubtful for 0.001 <= p < 0.05, inconsistent below or when a
+ * fact fails), and on its own (its chi-square with measured numbers minus what is fitted inside it).
+ * The fit of the evidence as a whole is said apart.
  */
 import type { AnswerFreedom, Candidate, CheckAbsoluteFit, CheckAnswer, CheckOverallFit, CheckRelativeFit, CheckVerdict, Proposal } from './types.js';
 import type { CivilDay, ClockKind, Scene } from '../scene/types.js';
@@ -30,7 +34,7 @@ import { lowPrecisionSun } from './seasons.js';
 import { exactPoint, type RawCandidate, type RepresentativeFit } from './stageB.js';
 import { assumedKind, countWords, dressCandidate, hhmm } from './candidates.js';
 import { dayWindowOf, type DayWindow } from './window.js';
-import { describeCandidate, judgeFit, solveDates, FACT_PENALTY_LIMIT, NOTHING_FITS_P, MARGINAL_P } from './solveDates.js';
+import { candidateDayWords, describeCandidate, judgeFit, solveDates, FACT_PENALTY_LIMIT, NOTHING_FITS_P, MARGINAL_P } from './solveDates.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 
@@ -270,7 +274,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   let verdictText: string;
   if (!candidate) verdictText = `${what}: no instant there can be judged (no fit was found).`;
   else {
-    const where = `best there ${describeCandidate(candidate)}`;
+    const where = `best there ${candidateDayWords(candidate)}`;
     const failing = candidate.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
     const worst = [...candidate.residuals].sort((a, b) => Math.abs(b.normalised) - Math.abs(a.normalised))[0];
     const against = relative

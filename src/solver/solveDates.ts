@@ -7,7 +7,9 @@
  * 1 dof: chi-square should then be 0); 'marginal' when 0.001 <= p < 0.05; 'nothing-fits' when p < 0.001 or the facts cannot
  * all hold (a soft penalty above FACT_PENALTY_LIMIT at the best candidate: a violation of more
  * than 1 deg); then the search is rerun without each observation and those whose removal lets
- * the rest fit are named. This is an answer, not an error.
+ * the rest fit are named (and, when every azimuth turned by 180 deg fits, that is said). This is an
+ * answer, not an error. 'undetermined' when the fit holds but the evidence cannot fix day and hour
+ * (src/solver/freedom.ts).
  */
 import type {
   AnswerFreedom,
@@ -109,11 +111,17 @@ function fitsWell(model: EvidenceModel, raw: RawCandidate | undefined): boolean 
   return raw.penalty <= FACT_PENALTY_LIMIT && judgingP(model, raw.chiSquare) >= NOTHING_FITS_P;
 }
 
-export function describeCandidate(c: Candidate): string {
+/** A candidate's day and hour in words, without its fit: "2 April 1775 (Gregorian, Sunday), 09:08 local apparent time". */
+export function candidateDayWords(c: Candidate): string {
   const d = c.civilDate;
   const cal = c.civilReckoning === 'swedish' ? 'Swedish reckoning of 1700-1712' : d.calendar === 'julian' ? 'Julian' : 'Gregorian';
+  return `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${cal}, ${c.weekdayName}), ${hhmm(c.times.localApparentMinutes)} local apparent time`;
+}
+
+/** A candidate's day, hour and fit in words. */
+export function describeCandidate(c: Candidate): string {
   const p = c.pValue === null ? 'no degrees of freedom left' : `p = ${c.pValue.toPrecision(2)}`;
-  return `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${cal}, ${c.weekdayName}), ${hhmm(c.times.localApparentMinutes)} local apparent time (chi-square ${c.chiSquare.toFixed(2)}, ${p})`;
+  return `${candidateDayWords(c)} (chi-square ${c.chiSquare.toFixed(2)}, ${p})`;
 }
 
 const capitalised = (t: string): string => t.charAt(0).toUpperCase() + t.slice(1);
@@ -302,7 +310,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       const pText = p === null ? 'no degrees of freedom left' : `p = ${p.toPrecision(2)}`;
       verdict =
         (status === 'fits' ? 'The evidence fits.' : `The best fit is marginal (p = ${pj.toPrecision(2)}): treat every candidate with caution.`) +
-        ` Best: ${top.headline}; ${top.clockAssumptionLabel} (chi-square ${best.chiSquare.toFixed(2)}, ${pText}).` +
+        ` Best: ${top.headline}${top.clockAssumption.kind === 'none' ? '' : `, ${top.clockAssumptionLabel}`}; chi-square ${best.chiSquare.toFixed(2)}, ${pText}.` +
         ` ${famCount} famil${famCount === 1 ? 'y' : 'ies'} of candidates${renamed} in ${windowText}.` +
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
       if (!top.yearsTold.singledOut && top.yearsTold.alikeYears.length > 1) {
