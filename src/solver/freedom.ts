@@ -9,12 +9,40 @@ import type { AnswerFreedom, Candidate } from './types.js';
 import type { EvidenceModel } from './evidenceModel.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { hhmm } from './candidates.js';
+import type { RawCandidate } from './stageB.js';
+import { TROPICAL_YEAR_DAYS } from './seasons.js';
 import { equationOfTimeMinutes } from '../ephemeris/equationOfTime.js';
 import { describeClockKind } from '../time/clock.js';
 
-/** Whether the evidence fixes day and hour, judged from the model and the best candidate. */
-export function evidenceFixesDayAndHour(model: EvidenceModel, best: Candidate): boolean {
-  return model.measuredCount >= 2 && best.uncertainty.fixesDayAndHour;
+/** Candidates within this Delta chi-square of the best fit alike (the 68.3% level of one parameter). */
+const ALIKE_DELTA_CHI2 = 1;
+/** Alike candidates this many days of the year apart mean the day is left free. */
+const FREE_SPREAD_DAYS = 20;
+
+/**
+ * Largest distance in days of the year (across the year end, by the tropical year) between the best
+ * candidate and any candidate that fits alike (within ALIKE_DELTA_CHI2 of it).
+ */
+export function alikeDaySpread(kept: readonly RawCandidate[]): number {
+  if (kept.length === 0) return 0;
+  const best = kept[0];
+  let spread = 0;
+  for (const c of kept) {
+    if (c.objective > best.objective + ALIKE_DELTA_CHI2) continue;
+    const d = Math.abs(c.dayJd0 - best.dayJd0) % TROPICAL_YEAR_DAYS;
+    spread = Math.max(spread, Math.min(d, TROPICAL_YEAR_DAYS - d));
+  }
+  return spread;
+}
+
+/**
+ * Whether the evidence fixes day and hour: two measured numbers or more with a regular fit, or else
+ * a window and evidence that leave no other day of the year fitting alike (a one-day window, a
+ * shadow of length 0 that only the solstice's noon gives).
+ */
+export function evidenceFixesDayAndHour(model: EvidenceModel, best: Candidate, kept: readonly RawCandidate[]): boolean {
+  if (model.measuredCount >= 2 && best.uncertainty.fixesDayAndHour) return true;
+  return model.measuredCount > 0 && alikeDaySpread(kept) <= FREE_SPREAD_DAYS;
 }
 
 /** What the evidence leaves free, and what would fix it. */

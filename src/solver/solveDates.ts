@@ -228,7 +228,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     const p = bestC.pValue;
     const pj = judgingP(model, best.chiSquare);
     const fit = judgeFit(model, best.chiSquare, best.penalty);
-    status = fit === 'does-not-fit' ? 'nothing-fits' : !evidenceFixesDayAndHour(model, bestC) ? 'undetermined' : fit === 'marginal' ? 'marginal' : 'fits';
+    status = fit === 'does-not-fit' ? 'nothing-fits' : !evidenceFixesDayAndHour(model, bestC, s.kept) ? 'undetermined' : fit === 'marginal' ? 'marginal' : 'fits';
     if (status === 'nothing-fits') {
       // Rerun the whole search without each observation (facts and clocks included).
       const entries: LeaveOneOutEntry[] = [];
