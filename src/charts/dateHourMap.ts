@@ -176,7 +176,7 @@ export function renderDateHourMap(data: DateHourMapData, idPrefix = 'hc-map'): s
     { id: `${idPrefix}-hatch`, width: 6, height: 6, patternUnits: 'userSpaceOnUse', patternTransform: 'rotate(45)' },
     [el('rect', { width: 6, height: 6, fill: INK.paper, 'fill-opacity': 0.35 }), el('line', { x1: 0, y1: 0, x2: 0, y2: 6, stroke: INK.frame, 'stroke-width': 1.2 })],
   );
-  const title = `When the light fits: day and hour in ${data.yearLabel}`;
+  const title = `When the light fits: day and hour, ${data.titleYears}`;
   const caption = `Shading: how well each day and hour of ${data.yearLabel} fits the evidence; red: the best dates and hours with their error ellipses.`;
   return svgDocument({
     width: WIDTH,

@@ -47,6 +47,8 @@ export interface MapMarker {
 export interface DateHourMapData {
   readonly year: number;
   readonly yearLabel: string;
+  /** The years for the title: the drawn year only when the evidence singles it out, else "any year 1760-1790 (drawn on the days of 1784)". */
+  readonly titleYears: string;
   readonly calendarLabel: string;
   readonly clockLabel: string;
   /** Number of days in the civil year (x domain [0, dayCount]). */
@@ -175,6 +177,7 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
   return {
     year,
     yearLabel: formatYearBcAd(year),
+    titleYears: answer.yearsWords && answer.yearsWords !== formatYearBcAd(year) ? `${answer.yearsWords} (drawn on the days of ${formatYearBcAd(year)})` : formatYearBcAd(year),
     calendarLabel: best ? (best.civilDate.calendar === 'julian' ? 'Julian calendar' : 'Gregorian calendar') : 'calendar of the site',
     clockLabel: best ? best.clockAssumptionLabel : 'no clock',
     dayCount,

@@ -27,7 +27,7 @@ export function csvField(value: string | number | boolean | null): string {
 
 function row(c: Candidate, familyId: string, scene: Scene): (string | number | boolean | null)[] {
   const date = civilDateRendering(c.civilDate, scene);
-  const e = ellipse95(c.uncertainty);
+  const e = c.uncertainty.fixesDayAndHour ? ellipse95(c.uncertainty) : null;
   const p = c.uncertainty.profile;
   const scan = c.uncertainty.method === 'profile-scan' && p !== undefined;
   return [

@@ -180,6 +180,10 @@ export function profileWords(c: Candidate): string | null {
   const p = c.uncertainty.profile;
   if (!p) return null;
   const open = p.open ? ', open: the interval runs to the edge of the scan or of the window' : '';
+  // A scan that keeps one day is no interval of zero width: the day is fixed to within the whole-day step.
+  if (p.fromDays === p.toDays) {
+    return `95% profile scan over whole days keeps only ${formatDayWords(p.fromDate)} (the neighbouring days fit worse by more than ${p.deltaChiSquare.toFixed(2)} in chi-square), ${minuteRange(p.fromLocalApparentMinutes, p.toLocalApparentMinutes)} local apparent time`;
+  }
   return (
     `95% profile scan ${formatDayWords(p.fromDate)} to ${formatDayWords(p.toDate)} (${signedDays(p.fromDays)} to ${signedDays(p.toDays)} d${open}), ` +
     `${minuteRange(p.fromLocalApparentMinutes, p.toLocalApparentMinutes)} local apparent time`
@@ -195,6 +199,7 @@ export function uncertaintyWords(c: Candidate): string {
   if (c.uncertainty.method === 'ellipse' && e) {
     return `+/- ${e.halfWidthDays.toFixed(1)} d, +/- ${e.halfWidthMinutes.toFixed(0)} min (95% ellipse)`;
   }
+  if (!c.uncertainty.fixesDayAndHour) return 'not fixed: the evidence does not fix the day and the hour separately, so the day is free along a curve (no ellipse, no interval)';
   const scan = profileWords(c);
   return `${scan ?? 'no interval'}; ellipse replaced because ${replacedReason(c)}`;
 }
@@ -236,7 +241,7 @@ const monthDayKey = (md: { readonly month: number; readonly day: number }): numb
 
 /**
  * The id of the family a candidate belongs to ('' when none): by membership when the members are
- * listed, else the family that has it as its best, else the family of the same clock assumption and
+ * listed, else the family that has it as its best, else the family with the same clock keeping and
  * calendar whose years and span of days (which may wrap the year end) hold it.
  */
 export function familyIdOf(answer: DateAnswer, c: Candidate): string {
@@ -244,7 +249,8 @@ export function familyIdOf(answer: DateAnswer, c: Candidate): string {
   const code = clockAssumptionCode(c.clockAssumption);
   const key = monthDayKey(c.civilDate);
   for (const f of answer.families) {
-    if (clockAssumptionCode(f.clockAssumption) !== code || f.calendar !== c.civilDate.calendar) continue;
+    const codes = (f.keepings ?? [{ clockAssumption: f.clockAssumption }]).map((k) => clockAssumptionCode(k.clockAssumption));
+    if (!codes.includes(code) || f.calendar !== c.civilDate.calendar) continue;
     if (c.civilDate.year < f.fromYear || c.civilDate.year > f.toYear) continue;
     const from = monthDayKey(f.fromMonthDay);
     const to = monthDayKey(f.toMonthDay);

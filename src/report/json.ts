@@ -36,6 +36,7 @@ import {
   yearStartWords,
 } from './formatTimes.js';
 import { proposalWords } from './text.js';
+import { countWords } from '../solver/candidates.js';
 
 /** Decimal digits of each kind of number in the JSON and CSV answers. */
 export const DIGITS = {
@@ -70,38 +71,98 @@ function factJson(f: FactEntry) {
   return { observationId: f.observationId, observationKind: f.observationKind, satisfied: f.satisfied, penalty: roundTo(f.penalty, DIGITS.chiSquare), note: f.note };
 }
 
+/**
+ * Numbers that cannot be given are left out, and the object's `absent` map says why, field by field
+ * (never a null standing for "no number"). `present(obj, reasons)` drops the keys whose value is null,
+ * undefined or not finite and lists them with their reason.
+ */
+export function present<T extends Record<string, unknown>>(obj: T, reasons: Readonly<Record<string, string>>): Partial<T> & { absent?: Record<string, string> } {
+  const out: Record<string, unknown> = {};
+  const absent: Record<string, string> = {};
+  for (const [k, v] of Object.entries(obj)) {
+    if (k in reasons && (v === null || v === undefined || (typeof v === 'number' && !Number.isFinite(v)))) absent[k] = reasons[k];
+    else out[k] = v;
+  }
+  return (Object.keys(absent).length ? { ...out, absent } : out) as Partial<T> & { absent?: Record<string, string> };
+}
+
+/** Why a candidate's p-value is absent: no degrees of freedom left with this many measured values. */
+function noPReason(measured: number): string {
+  return `no degrees of freedom left: ${countWords(measured, 'measured value', 'measured values')} for the 2 unknowns (day and hour), so chi-square cannot be judged`;
+}
+
+const NO_DOF_PROPOSAL = 'no degrees of freedom left: the proposal fixes as many unknowns as there are measured values, so chi-square cannot be judged';
+
+const NO_SCAN_MINUTE = 'no day of the scan could be fitted, so no hour is known there';
+
+const FREE = 'the evidence does not fix the day and the hour separately (the covariance is singular): the day is free along a curve';
+
 function uncertaintyJson(c: Candidate) {
   const u = c.uncertainty;
   const e = ellipse95(u);
   const p = u.profile;
-  return {
-    method: u.method,
-    words: uncertaintyWords(c),
-    ellipseValid: u.ellipseValid,
-    ...(u.invalidReason === undefined ? {} : { invalidReason: u.invalidReason }),
-    sigmaDays: roundOrNull(u.sigmaDays, DIGITS.days),
-    sigmaMinutes: roundOrNull(u.sigmaMinutes, DIGITS.minutes),
-    correlation: roundOrNull(u.correlation, DIGITS.ratio),
-    minutesPerDay: roundOrNull(u.minutesPerDay, DIGITS.minutes),
-    ellipse95: e
-      ? {
-          halfWidthDays: roundOrNull(e.halfWidthDays, DIGITS.days),
-          halfWidthMinutes: roundOrNull(e.halfWidthMinutes, DIGITS.minutes),
-          orientationDeg: roundOrNull(e.orientationDeg, DIGITS.angleDeg),
-        }
-      : null,
-    profile: p
-      ? {
-          fromDate: formatIsoDay(p.fromDate),
-          toDate: formatIsoDay(p.toDate),
-          fromDays: roundTo(p.fromDays, DIGITS.days),
-          toDays: roundTo(p.toDays, DIGITS.days),
-          fromLocalApparent: hhmm(p.fromLocalApparentMinutes),
-          toLocalApparent: hhmm(p.toLocalApparentMinutes),
-          open: p.open,
-        }
-      : null,
-  };
+  const noCov = u.fixesDayAndHour ? 'the covariance could not be computed' : FREE;
+  const noProfile = !u.fixesDayAndHour ? FREE : u.method === 'ellipse' ? 'the ellipse holds, so no profile scan was needed' : 'the profile scan was not run';
+  const cov = u.covariance;
+  const covOk = Number.isFinite(cov.days2) && Number.isFinite(cov.minutes2) && Number.isFinite(cov.daysMinutes);
+  return present(
+    {
+      method: u.method,
+      words: uncertaintyWords(c),
+      ellipseValid: u.ellipseValid,
+      fixesDayAndHour: u.fixesDayAndHour,
+      ...(u.invalidReason === undefined ? {} : { invalidReason: u.invalidReason }),
+      sigmaDays: roundOrNull(u.sigmaDays, DIGITS.days),
+      sigmaMinutes: roundOrNull(u.sigmaMinutes, DIGITS.minutes),
+      correlation: roundOrNull(u.correlation, DIGITS.ratio),
+      minutesPerDay: roundOrNull(u.minutesPerDay, DIGITS.minutes),
+      // Full precision (not rounded), so that a reader can redraw and test every ellipse.
+      centre: { days: u.centre.days, localApparentMinutes: u.centre.localApparentMinutes },
+      covariance: covOk ? { days2: cov.days2, daysMinutes: cov.daysMinutes, minutes2: cov.minutes2 } : null,
+      ellipses: covOk
+        ? u.ellipses.map((x) => ({
+            probability: x.probability,
+            deltaChiSquare: x.deltaChiSquare,
+            halfWidthDays: x.halfWidthDays,
+            halfWidthMinutes: x.halfWidthMinutes,
+            semiAxes: x.semiAxes.map((a) => ({ days: a.days, minutes: a.minutes })),
+            orientationDeg: x.orientationDeg,
+          }))
+        : null,
+      ellipse95:
+        e && covOk
+          ? {
+              halfWidthDays: roundOrNull(e.halfWidthDays, DIGITS.days),
+              halfWidthMinutes: roundOrNull(e.halfWidthMinutes, DIGITS.minutes),
+              orientationDeg: roundOrNull(e.orientationDeg, DIGITS.angleDeg),
+            }
+          : null,
+      profile: p
+        ? present({
+            fromDate: formatIsoDay(p.fromDate),
+            toDate: formatIsoDay(p.toDate),
+            fromDays: p.fromDays,
+            toDays: p.toDays,
+            fromLocalApparent: hhmm(p.fromLocalApparentMinutes),
+            toLocalApparent: hhmm(p.toLocalApparentMinutes),
+            fromLocalApparentMinutes: p.fromLocalApparentMinutes,
+            toLocalApparentMinutes: p.toLocalApparentMinutes,
+            deltaChiSquare: p.deltaChiSquare,
+            open: p.open,
+          }, { fromLocalApparentMinutes: NO_SCAN_MINUTE, toLocalApparentMinutes: NO_SCAN_MINUTE })
+        : null,
+    },
+    {
+      sigmaDays: noCov,
+      sigmaMinutes: noCov,
+      correlation: noCov,
+      minutesPerDay: noCov,
+      covariance: noCov,
+      ellipses: noCov,
+      ellipse95: noCov,
+      profile: noProfile,
+    },
+  );
 }
 
 /** One candidate as JSON: `jd` (UT) and the renderings beside it. */
@@ -142,19 +203,24 @@ export function candidateJson(c: Candidate, scene: Scene, familyId?: string) {
     },
     chiSquare: roundTo(c.chiSquare, DIGITS.chiSquare),
     degreesOfFreedom: c.degreesOfFreedom,
-    pValue: roundProbability(c.pValue, DIGITS.probabilitySignificant),
+    ...present({ pValue: roundProbability(c.pValue, DIGITS.probabilitySignificant) }, { pValue: noPReason(c.residuals.length) }),
     softPenalty: roundTo(c.softPenalty, DIGITS.chiSquare),
     weight: roundTo(c.relativeWeight, DIGITS.weight),
     uncertainty: uncertaintyJson(c),
     residuals: c.residuals.map(residualJson),
     facts: c.facts.map(factJson),
-    nuisances: c.nuisances.map((n) => ({
-      name: n.name,
-      priorDeg: roundTo(n.priorDeg, DIGITS.angleDeg),
-      priorSigmaDeg: roundTo(n.priorSigmaDeg, DIGITS.angleDeg),
-      fittedDeg: roundTo(n.fittedDeg, DIGITS.angleDeg),
-      posteriorSigmaDeg: roundOrNull(n.posteriorSigmaDeg, DIGITS.angleDeg),
-    })),
+    nuisances: c.nuisances.map((n) =>
+      present(
+        {
+          name: n.name,
+          priorDeg: roundTo(n.priorDeg, DIGITS.angleDeg),
+          priorSigmaDeg: roundTo(n.priorSigmaDeg, DIGITS.angleDeg),
+          fittedDeg: roundTo(n.fittedDeg, DIGITS.angleDeg),
+          posteriorSigmaDeg: roundOrNull(n.posteriorSigmaDeg, DIGITS.angleDeg),
+        },
+        { posteriorSigmaDeg: 'the covariance of the fit is singular' },
+      ),
+    ),
     fit: { converged: c.fit.converged, iterations: c.fit.iterations },
   };
 }
@@ -166,7 +232,29 @@ function familyJson(f: CandidateFamily, scene: Scene, allYears: boolean) {
     id: f.id,
     rank: f.rank,
     summary: f.summary,
+    headline: f.headline,
+    yearsTold: {
+      singledOut: f.yearsTold.singledOut,
+      alikeYears: [...f.yearsTold.alikeYears],
+      spreadChiSquare: roundTo(f.yearsTold.spreadChiSquare, DIGITS.chiSquare),
+      ...(f.yearsTold.singledOutBy === undefined ? {} : { singledOutBy: f.yearsTold.singledOutBy }),
+      words: f.yearsTold.words,
+    },
     clockAssumption: clockAssumptionCode(f.clockAssumption),
+    clockAssumptionLabel: f.clockAssumptionLabel,
+    keepings: f.keepings.map((k) =>
+      present(
+        {
+          clockAssumption: clockAssumptionCode(k.clockAssumption),
+          label: k.clockAssumptionLabel,
+          fit: k.fit,
+          bestChiSquare: roundTo(k.bestChiSquare, DIGITS.chiSquare),
+          bestPValue: roundProbability(k.bestPValue, DIGITS.probabilitySignificant),
+          yearCount: k.yearCount,
+        },
+        { bestPValue: noPReason(f.best.residuals.length) },
+      ),
+    ),
     calendar: f.calendar,
     fromYear: f.fromYear,
     toYear: f.toYear,
@@ -178,7 +266,7 @@ function familyJson(f: CandidateFamily, scene: Scene, allYears: boolean) {
     bestCandidateId: f.best.id,
     bestJd: roundTo(f.best.jdUT, DIGITS.jd),
     bestChiSquare: roundTo(f.bestChiSquare, DIGITS.chiSquare),
-    bestPValue: roundProbability(f.bestPValue, DIGITS.probabilitySignificant),
+    ...present({ bestPValue: roundProbability(f.bestPValue, DIGITS.probabilitySignificant) }, { bestPValue: noPReason(f.best.residuals.length) }),
     weight: roundTo(f.relativeWeight, DIGITS.weight),
     ...(allYears ? { members: (f.members ?? []).map((m) => candidateJson(m, scene)) } : {}),
   };
@@ -194,7 +282,7 @@ function consistencyJson(c: ConsistencyReport, scene: Scene) {
       observationKind: e.observationKind,
       residualCount: e.residualCount,
       chiSquareAll: roundTo(e.chiSquareAll, DIGITS.chiSquare),
-      chiSquareWithout: roundOrNull(e.chiSquareWithout, DIGITS.chiSquare),
+      ...present({ chiSquareWithout: roundOrNull(e.chiSquareWithout, DIGITS.chiSquare) }, { chiSquareWithout: 'no candidate was found without this observation' }),
       improvement: roundTo(e.improvement, DIGITS.chiSquare),
       pValue: roundProbability(e.pValue, DIGITS.probabilitySignificant),
       flagged: e.flagged,
@@ -247,9 +335,13 @@ export function dateAnswerJson(answer: DateAnswer, scene: Scene, version: string
     scene: answer.sceneTitle,
     status: answer.status,
     verdict: answer.verdict,
+    ...(answer.headline === null ? {} : { headline: answer.headline, yearsWords: answer.yearsWords }),
+    ...(answer.freedom ? { freedom: { ...answer.freedom } } : {}),
+    ...(answer.turnedAzimuths ? { turnedAzimuths: { words: answer.turnedAzimuths.words, best: candidateJson(answer.turnedAzimuths.best, scene) } } : {}),
     window: { fromYear: answer.window.fromYear, toYear: answer.window.toYear },
     seed: answer.seed,
     measuredResiduals: answer.measuredResiduals,
+    familyCount: answer.familyCount,
     families: answer.families.map((f) => familyJson(f, scene, options.allYears === true)),
     candidates: answer.candidates.map((c) => candidateJson(c, scene, familyIdOf(answer, c))),
     consistency: consistencyJson(answer.consistency, scene),
@@ -282,7 +374,7 @@ function proposalJson(p: Proposal) {
 
 /** The `check` answer as one plain object. */
 export function checkAnswerJson(answer: CheckAnswer, scene: Scene, version: string) {
-  return {
+  const json = {
     heliochronVersion: version,
     scene: answer.sceneTitle,
     proposal: proposalJson(answer.proposal),
@@ -291,6 +383,38 @@ export function checkAnswerJson(answer: CheckAnswer, scene: Scene, version: stri
     chiSquare: roundOrNull(answer.chiSquare, DIGITS.chiSquare),
     degreesOfFreedom: answer.degreesOfFreedom,
     pValue: roundProbability(answer.pValue, DIGITS.probabilitySignificant),
+    absolute: answer.absolute
+      ? present(
+          {
+            chiSquare: roundTo(answer.absolute.chiSquare, DIGITS.chiSquare),
+            degreesOfFreedom: answer.absolute.degreesOfFreedom,
+            pValue: roundProbability(answer.absolute.pValue, DIGITS.probabilitySignificant),
+            softPenalty: roundTo(answer.absolute.softPenalty, DIGITS.chiSquare),
+          },
+          { pValue: NO_DOF_PROPOSAL },
+        )
+      : null,
+    relative: answer.relative
+      ? {
+          deltaChiSquare: roundTo(answer.relative.deltaChiSquare, DIGITS.chiSquare),
+          degreesOfFreedom: answer.relative.degreesOfFreedom,
+          pValue: roundProbability(answer.relative.pValue, DIGITS.probabilitySignificant),
+          likelihoodRatio: roundProbability(answer.relative.likelihoodRatio, DIGITS.probabilitySignificant),
+          region: answer.relative.region,
+        }
+      : null,
+    overall: answer.overall
+      ? present(
+          {
+            chiSquare: roundTo(answer.overall.chiSquare, DIGITS.chiSquare),
+            degreesOfFreedom: answer.overall.degreesOfFreedom,
+            pValue: roundProbability(answer.overall.pValue, DIGITS.probabilitySignificant),
+            weak: answer.overall.weak,
+            words: answer.overall.words,
+          },
+          { pValue: 'no degrees of freedom left, so chi-square cannot be judged' },
+        )
+      : null,
     best: answer.best ? candidateJson(answer.best, scene) : null,
     globalBest: answer.globalBest ? candidateJson(answer.globalBest, scene) : null,
     deltaChiSquareToGlobal: roundOrNull(answer.deltaChiSquareToGlobal, DIGITS.chiSquare),
@@ -301,6 +425,12 @@ export function checkAnswerJson(answer: CheckAnswer, scene: Scene, version: stri
     units: UNITS,
     digits: DIGITS,
   };
+  const noFit = 'no fit was found inside the proposal';
+  return present(json, {
+    chiSquare: noFit,
+    pValue: answer.best ? NO_DOF_PROPOSAL : noFit,
+    deltaChiSquareToGlobal: 'no fit inside the proposal or in the window to compare',
+  });
 }
 
 /** JSON text with two-space indent and a final newline (key order as built). */

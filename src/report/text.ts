@@ -8,9 +8,10 @@
  */
 import type { Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, CheckAnswer, DateAnswer, Proposal, ResidualEntry } from '../solver/types.js';
-import { formatDayWords } from '../calendar/format.js';
+import { formatDayWords, formatYearBcAd } from '../calendar/format.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { describeClockKind } from '../time/clock.js';
+import { countWords } from '../solver/candidates.js';
 import {
   CAUTION,
   calendarRuleWords,
@@ -62,10 +63,12 @@ function utText(c: Candidate): string {
 /** Short uncertainty for the table; the long words follow below it. */
 function shortUncertainty(c: Candidate): string {
   const e = ellipse95(c.uncertainty);
+  if (!c.uncertainty.fixesDayAndHour) return 'not fixed (see below)';
   if (c.uncertainty.method === 'ellipse' && e) return `+/-${e.halfWidthDays.toFixed(1)} d +/-${e.halfWidthMinutes.toFixed(0)} min`;
   const p = c.uncertainty.profile;
   if (!p) return 'none (see below)';
   const signed = (d: number): string => (d >= 0 ? '+' : '') + d.toFixed(0);
+  if (p.fromDays === p.toDays) return 'scan: this day only';
   return `scan ${signed(p.fromDays)}..${signed(p.toDays)} d${p.open ? ' (open)' : ''}`;
 }
 
@@ -132,9 +135,11 @@ function familyLine(f: CandidateFamily): string {
 
 function membersLines(f: CandidateFamily, scene: Scene): string[] {
   if (!f.members || f.members.length === 0) return [`  family ${f.rank}: no per-year members in this answer`];
-  const rows: string[][] = [['year', 'date (site calendar)', 'weekday', 'apparent', 'mean', 'chi2', 'p']];
+  const keepings = f.keepings.length > 1;
+  const rows: string[][] = [['year', 'date (site calendar)', 'weekday', 'apparent', 'mean', 'chi2', 'p', ...(keepings ? ['clock kept'] : [])]];
   for (const m of f.members) {
-    rows.push([String(m.civilDate.year), civilDateRendering(m.civilDate, scene).text, m.weekdayName, hhmm(m.times.localApparentMinutes), hhmm(m.times.localMeanMinutes), fixed(m.chiSquare, 2), pText(m.pValue)]);
+    const kept = m.clockAssumption.kind === 'none' ? '' : describeClockKind(m.clockAssumption);
+    rows.push([String(m.civilDate.year), civilDateRendering(m.civilDate, scene).text, m.weekdayName, hhmm(m.times.localApparentMinutes), hhmm(m.times.localMeanMinutes), fixed(m.chiSquare, 2), pText(m.pValue), ...(keepings ? [kept] : [])]);
   }
   return [`  Family ${f.rank} (${f.clockAssumptionLabel}), every year:`, ...textTable(rows, [0, 5, 6]).map((l) => `    ${l}`)];
 }
@@ -161,13 +166,19 @@ const TABLE_ROWS = 10;
 export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTextOptions = {}): string {
   const out: string[] = [];
   out.push(`${answer.sceneTitle}`);
-  out.push(`Years searched: ${answer.window.fromYear} to ${answer.window.toYear}; ${answer.measuredResiduals} measured values; seed ${answer.seed}`);
+  const years = answer.window.fromYear === answer.window.toYear ? `Year searched: ${answer.window.fromYear}` : `Years searched: ${answer.window.fromYear} to ${answer.window.toYear}`;
+  out.push(`${years}; ${countWords(answer.measuredResiduals, 'measured value', 'measured values')}; seed ${answer.seed}`);
   out.push('');
   out.push(`Verdict: ${answer.verdict}`);
   const best = answer.candidates[0] ?? null;
 
   if (answer.families.length > 0) {
-    out.push('', 'Families of dates (the same light in several years), best first:');
+    out.push(
+      '',
+      answer.status === 'undetermined'
+        ? 'Examples of dates and hours that fit (points along a curve of equally good fits, not separate answers):'
+        : 'Families of dates (the same light in several years and clock keepings), best first:',
+    );
     for (const f of answer.families) out.push(familyLine(f));
     if (options.allYears) {
       out.push('');
@@ -189,7 +200,11 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
     if (clocked) out.push(`  (clock column: the time the clock showed under the assumption of its row, ${clocked.label})`);
     const styles = dualStyleWords(scene);
     if (styles) out.push(`  (${styles})`);
-    const replaced = shown.filter((c) => c.uncertainty.method !== 'ellipse' || ellipse95(c.uncertainty) === null);
+    const free = shown.filter((c) => !c.uncertainty.fixesDayAndHour);
+    if (free.length > 0) {
+      out.push('', `No ellipse and no interval for rank ${free.map((c) => c.rank).join(', ')}: the evidence does not fix the day and the hour separately, so the day is free along a curve.`);
+    }
+    const replaced = shown.filter((c) => c.uncertainty.fixesDayAndHour && (c.uncertainty.method !== 'ellipse' || ellipse95(c.uncertainty) === null));
     const reasons = [...new Set(replaced.map(replacedReason))];
     for (const reason of reasons) {
       const these = replaced.filter((c) => replacedReason(c) === reason);
@@ -245,7 +260,12 @@ export function proposalWords(p: Proposal): string {
       return `between ${formatDayWords(p.from)} and ${formatDayWords(p.to)}`;
     case 'season': {
       const months = p.months.map((m) => MONTH_NAMES[m - 1]).join(', ');
-      const years = p.fromYear !== undefined && p.toYear !== undefined ? `, years ${p.fromYear}-${p.toYear}` : ", any year of the scene's window";
+      const years =
+        p.fromYear !== undefined && p.toYear !== undefined
+          ? p.fromYear === p.toYear
+            ? ` ${formatYearBcAd(p.fromYear)}`
+            : `, years ${formatYearBcAd(p.fromYear)}-${formatYearBcAd(p.toYear)}`
+          : ", any year of the scene's window";
       return `in ${months}${years}`;
     }
   }
@@ -272,14 +292,22 @@ export function renderCheckText(answer: CheckAnswer, scene: Scene): string {
   out.push('');
   if (answer.best) {
     out.push(`Best fit inside the proposal: ${candidateLine(answer.best, scene)}`);
-    out.push(`  chi2 ${fixed(answer.chiSquare, 2)} with ${answer.degreesOfFreedom} degrees of freedom, p ${pText(answer.pValue)} (${answer.best.clockAssumptionLabel})`);
+    const dof = answer.degreesOfFreedom > 0 ? `with ${countWords(answer.degreesOfFreedom, 'degree of freedom', 'degrees of freedom')}, p ${pText(answer.pValue)}` : 'with no degrees of freedom left to judge it';
+    out.push(`  on its own: chi2 ${fixed(answer.chiSquare, 2)} ${dof} (${answer.best.clockAssumptionLabel})`);
+    const r = answer.relative;
+    if (r) {
+      out.push(
+        `  against the best in the window: Delta chi2 ${r.deltaChiSquare.toFixed(2)} with ${countWords(r.degreesOfFreedom, 'degree of freedom', 'degrees of freedom')} (what the proposal fixes), p ${pText(r.pValue)}, likelihood ratio ${r.likelihoodRatio.toPrecision(2)}`,
+      );
+    }
   } else {
     out.push('Best fit inside the proposal: none (the sun is not up where the evidence needs it at any instant of the proposal)');
   }
   if (answer.globalBest) {
     out.push(`Best fit anywhere in the window: ${candidateLine(answer.globalBest, scene)}`);
-    out.push(`  chi2 ${fixed(answer.globalBest.chiSquare, 2)}, p ${pText(answer.globalBest.pValue)}` + (answer.deltaChiSquareToGlobal === null ? '' : `; the proposal is worse by ${answer.deltaChiSquareToGlobal.toFixed(2)} in chi2`));
+    out.push(`  chi2 ${fixed(answer.globalBest.chiSquare, 2)}, p ${pText(answer.globalBest.pValue)}`);
   }
+  if (answer.overall) out.push(`Fit of the evidence as a whole: ${answer.overall.words}`);
   if (answer.best) {
     out.push('', 'Residuals of the best fit inside the proposal:');
     if (answer.best.residuals.length > 0) out.push(...residualTable(answer.best.residuals).map((l) => `  ${l}`));

@@ -165,7 +165,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
     throw new InvalidInputError(keyPath(path, 'kind'), undefined, `the kind of observation: one of ${OBSERVATION_KINDS.join(', ')}`, 'Every observation needs "kind".');
   }
   const kind = checkChoice(kindValue, keyPath(path, 'kind'), OBSERVATION_KINDS, 'the kind of observation');
-  const f = openFields(value, path, `a ${kind} observation`, KEYS[kind]);
+  const f = openFields(value, path, `${/^[aeiou]/.test(kind) ? 'an' : 'a'} ${kind} observation`, KEYS[kind]);
   const id = str(f, 'id', ID_WORDS, 64, ID_PATTERN);
   const note = optStr(f, 'note', 'a note', NOTE_MAX);
   const base = note === undefined ? { id } : { id, note };

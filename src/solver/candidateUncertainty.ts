@@ -30,12 +30,17 @@ const SOLSTICE_RATE_DEG_PER_DAY = 0.05;
 
 interface RepUncertainty {
   readonly cov2: Covariance2 | null;
+  /** False when the fit is singular: the evidence leaves the day (or the hour) free. */
+  readonly fixes: boolean;
   readonly linearity: number;
   readonly valid: boolean;
   readonly reason?: string;
   readonly sky: Covariance2 | null;
   profile?: { from: number; to: number; open: boolean; otherMin: number; otherMax: number; points: { days: number; minutes: number; objective: number }[] };
 }
+
+/** Why there is neither ellipse nor scan when the fit is singular. */
+export const FREE_REASON = 'the evidence does not fix the day and the hour separately (the fit is singular): the day is free along a curve, so no ellipse or interval is given';
 
 /** Cache of per-representative results (one solve). */
 export type UncertaintyCache = Map<RepresentativeFit, RepUncertainty>;
@@ -65,7 +70,7 @@ function repUncertainty(rep: RepresentativeFit, cache: UncertaintyCache): RepUnc
   const c = rep.covariance;
   let result: RepUncertainty;
   if (!c) {
-    result = { cov2: null, linearity: Infinity, valid: false, reason: 'the evidence does not fix the date and the hour separately (the fit is singular)', sky: null };
+    result = { cov2: null, fixes: false, linearity: Infinity, valid: false, reason: FREE_REASON, sky: null };
   } else {
     const cov2: Covariance2 = { xx: c[0][0], xy: c[0][1], yy: c[1][1] };
     // Sky covariance by first-order propagation through central differences of (azimuth, altitude).
@@ -89,11 +94,12 @@ function repUncertainty(rep: RepresentativeFit, cache: UncertaintyCache): RepUnc
       return s;
     };
     const sky: Covariance2 = { xx: prop(jac[0], jac[0]), xy: prop(jac[0], jac[1]), yy: prop(jac[1], jac[1]) };
-    if (!isPositiveDefinite(cov2)) {
-      result = { cov2, linearity: Infinity, valid: false, reason: 'the evidence does not fix the date and the hour separately', sky };
+    if (!isPositiveDefinite(cov2) || ctx.model.measuredCount < 2) {
+      result = { cov2, fixes: false, linearity: Infinity, valid: false, reason: FREE_REASON, sky };
     } else if (Math.sqrt(DELTA_CHI2_2DOF_95 * cov2.xx) > MAX_ELLIPSE_DAYS || Math.sqrt(DELTA_CHI2_2DOF_95 * cov2.yy) > MAX_ELLIPSE_MINUTES) {
       result = {
         cov2,
+        fixes: true,
         linearity: Infinity,
         valid: false,
         reason: `the linearised 95% ellipse reaches beyond ${MAX_ELLIPSE_DAYS} days or ${MAX_ELLIPSE_MINUTES} minutes, where the linearisation cannot hold`,
@@ -116,7 +122,7 @@ function repUncertainty(rep: RepresentativeFit, cache: UncertaintyCache): RepUnc
             ? `near the solstice the declination changes by only ${rate.toFixed(3)} deg a day, so the day is poorly constrained and the ellipse does not hold`
             : `the linearised ellipse fails its check: chi-square on the 95% ellipse differs from the prediction by up to ${(100 * Math.min(linearity, 99)).toFixed(0)}%`;
       }
-      result = { cov2, linearity, valid, reason, sky };
+      result = { cov2, fixes: true, linearity, valid, reason, sky };
     }
   }
   cache.set(rep, result);
@@ -176,12 +182,14 @@ export function candidateUncertainty(raw: RawCandidate, win: DayWindow, cache: U
     return { probability: lv.probability, deltaChiSquare: lv.deltaChiSquare, semiMajorDeg: e.semiMajor, semiMinorDeg: e.semiMinor, orientationDeg: e.orientationDeg };
   });
   let profile: ProfileScan | undefined;
-  if ((!u.valid && allowProfile) || forceProfile) {
+  if (u.fixes && ((!u.valid && allowProfile) || forceProfile)) {
     const p = runProfile(raw.rep, win, u);
-    // Offsets are relative to the continuous optimum; carry them to this year's candidate day.
+    // Offsets are relative to the continuous optimum; carry them to this year's candidate day,
+    // held to the window and made to hold the candidate's own day (a mapped year's day may fall
+    // at the other end of its representative's interval).
     const base = raw.continuousDay - raw.dayJd0;
-    const fromDays = Math.round(p.from + base);
-    const toDays = Math.round(p.to + base);
+    const fromDays = Math.max(win.firstDayJd0 - raw.dayJd0, Math.min(0, Math.round(p.from + base)));
+    const toDays = Math.min(win.lastDayJd0 - raw.dayJd0, Math.max(0, Math.round(p.to + base)));
     const dateOf = (offset: number) => {
       const d = jdToCivilDate(win.calendar, raw.dayJd0 + offset + 0.5).date;
       return { calendar: d.calendar, year: d.year, month: d.month, day: d.day };
@@ -202,7 +210,7 @@ export function candidateUncertainty(raw: RawCandidate, win: DayWindow, cache: U
   const sd = Math.sqrt(cov2.xx);
   const sm = Math.sqrt(cov2.yy);
   return {
-    method: u.valid ? 'ellipse' : 'profile-scan',
+    method: !u.fixes ? 'not-fixed' : u.valid ? 'ellipse' : 'profile-scan',
     ellipseValid: u.valid,
     invalidReason: u.reason,
     linearityCheck: u.linearity,
@@ -216,5 +224,6 @@ export function candidateUncertainty(raw: RawCandidate, win: DayWindow, cache: U
     skyEllipses,
     centre: { days: raw.continuousDay - raw.dayJd0, localApparentMinutes: raw.continuousMinutes },
     profile,
+    fixesDayAndHour: u.fixes,
   };
 }

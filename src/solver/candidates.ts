@@ -124,7 +124,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
     fittedDeg: n.kind === 'latitude' ? latitudeOf(model, raw.nuisances) : raw.nuisances[k], // the latitude as used: held to [-90, 90]
     posteriorSigmaDeg: cov ? Math.sqrt(cov[k + 2][k + 2]) : NaN,
   }));
-  const dof = model.measuredCount - 2;
+  const dof = Math.max(0, model.measuredCount - 2);
   const weekday = weekdayOfJd(raw.dayJd0 + 0.5);
   const utFraction = p.jdUT - 0.5 - Math.floor(p.jdUT - 0.5);
   return {
@@ -166,4 +166,12 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
 export function hhmm(minutes: number): string {
   const m = Math.round(wrapDay(minutes)) % 1440;
   return `${String(Math.floor(m / 60)).padStart(2, '0')}:${String(m % 60).padStart(2, '0')}`;
+}
+
+/**
+ * A count with its noun in the right number.
+ * @example countWords(1, 'degree of freedom', 'degrees of freedom') // "1 degree of freedom"
+ */
+export function countWords(n: number, singular: string, plural: string): string {
+  return `${n} ${n === 1 ? singular : plural}`;
 }

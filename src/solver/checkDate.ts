@@ -9,11 +9,15 @@
  * or season is searched like the window (stage A and B restricted to it); where the best fit
  * lies outside, the proposal's edge days are fitted directly. The scene's own documentary
  * restrictions (bounds, months, weekday) are not applied to the proposal: it is judged on the
- * light alone. Verdict: consistent (p >= 0.05 and the facts hold), doubtful (0.001 <= p < 0.05),
- * inconsistent (p < 0.001, or a fact fails); the rule for no degrees of freedom is that of
- * solveDates.
+ * light alone, and so is the best fit in the window it is compared with.
+ *
+ * Judged both ways: against the best in the window (Delta chi-square with as many degrees of freedom
+ * as the proposal fixes, its p-value and the likelihood ratio; this gives the verdict: consistent
+ * for p >= 0.05 and the facts holding, doubtful for 0.001 <= p < 0.05, inconsistent below or when a
+ * fact fails), and on its own (its chi-square with measured numbers minus what is fitted inside it).
+ * The fit of the evidence as a whole is said apart.
  */
-import type { Candidate, CheckAnswer, CheckVerdict, Proposal } from './types.js';
+import type { AnswerFreedom, Candidate, CheckAbsoluteFit, CheckAnswer, CheckOverallFit, CheckRelativeFit, CheckVerdict, Proposal } from './types.js';
 import type { CivilDay, ClockKind, Scene } from '../scene/types.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { InvalidInputError } from '../errors.js';
@@ -28,14 +32,19 @@ import { searchCandidates, clockAssumptionsOf } from './search.js';
 import { stageA } from './stageA.js';
 import { lowPrecisionSun } from './seasons.js';
 import { exactPoint, type RawCandidate, type RepresentativeFit } from './stageB.js';
-import { assumedKind, dressCandidate, hhmm } from './candidates.js';
+import { assumedKind, countWords, dressCandidate, hhmm } from './candidates.js';
 import { dayWindowOf, type DayWindow } from './window.js';
-import { describeCandidate, solveDates, FACT_PENALTY_LIMIT, NOTHING_FITS_P, MARGINAL_P } from './solveDates.js';
+import { candidateDayWords, describeCandidate, judgeFit, solveDates, FACT_PENALTY_LIMIT, NOTHING_FITS_P, MARGINAL_P } from './solveDates.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 
 function dayText(d: CivilDay): string {
   return `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)}`;
+}
+
+/** "1775" or "1770-1780". */
+function yearSpan(from: number, to: number): string {
+  return from === to ? formatYearBcAd(from) : `${formatYearBcAd(from)}-${formatYearBcAd(to)}`;
 }
 
 function proposalText(p: Proposal): string {
@@ -45,7 +54,7 @@ function proposalText(p: Proposal): string {
     case 'range':
       return `${dayText(p.from)} to ${dayText(p.to)}`;
     case 'season':
-      return `${p.months.map((m) => MONTH_NAMES[m - 1]).join(', ')}${p.fromYear !== undefined ? ` of ${p.fromYear}-${p.toYear ?? p.fromYear}` : ''}`;
+      return `${p.months.map((m) => MONTH_NAMES[m - 1]).join(', ')}${p.fromYear !== undefined ? ` of ${yearSpan(p.fromYear, p.toYear ?? p.fromYear)}` : ''}`;
   }
 }
 
@@ -131,13 +140,60 @@ function nearestOptimum(ctx: DatedContext, dayJd0: number, rest: readonly number
   return { cycle: 0, fit, objective: fit.lm.chiSquare, covariance: covarianceFromJacobian(fit.lm.jacobian, fit.x.length), context: ctx };
 }
 
-function verdictOf(model: EvidenceModel, raw: RawCandidate | null): { verdict: CheckVerdict; p: number | null; pj: number } {
-  if (!raw) return { verdict: 'inconsistent', p: null, pj: 0 };
-  const dof = model.measuredCount - 2;
-  const p = dof > 0 ? chiSquarePValue(raw.chiSquare, dof) : null;
-  const pj = p ?? chiSquarePValue(raw.chiSquare, 1);
-  const verdict: CheckVerdict = raw.penalty > FACT_PENALTY_LIMIT || pj < NOTHING_FITS_P ? 'inconsistent' : pj < MARGINAL_P ? 'doubtful' : 'consistent';
-  return { verdict, p, pj };
+/** Parameters fitted inside a proposal: none for a day with a fixed time, the minute for a day, day and minute for a range or season. */
+function fittedInside(p: Proposal): number {
+  if (p.kind !== 'day') return 2;
+  return p.timeMinutes !== undefined && !(p.timeToleranceMinutes ?? 0) ? 0 : 1;
+}
+
+/** The proposal's own fit: its chi-square with measured numbers minus what is fitted inside it. */
+function absoluteFit(model: EvidenceModel, proposal: Proposal, raw: RawCandidate): CheckAbsoluteFit {
+  const dof = Math.max(0, model.measuredCount - fittedInside(proposal));
+  return { chiSquare: raw.chiSquare, degreesOfFreedom: dof, pValue: dof > 0 ? chiSquarePValue(raw.chiSquare, dof) : null, softPenalty: raw.penalty };
+}
+
+/**
+ * The proposal against the best fit in the window: Delta chi-square with as many degrees of freedom
+ * as the proposal fixes (2 for a day and time, else 1), its p-value and the likelihood ratio
+ * exp(-Delta/2) (Wilks 1938; Press et al., Numerical Recipes, 3rd ed. (2007), section 15.6.5).
+ */
+function relativeFit(proposal: Proposal, proposalObjective: number, bestObjective: number): CheckRelativeFit {
+  const dof = proposal.kind === 'day' && proposal.timeMinutes !== undefined ? 2 : 1;
+  const delta = Math.max(0, proposalObjective - bestObjective);
+  const pValue = chiSquarePValue(delta, dof);
+  const region: CheckRelativeFit['region'] = pValue >= ONE_SIGMA_P ? 'as-good' : pValue >= MARGINAL_P ? 'within-95' : pValue >= NOTHING_FITS_P ? 'outside-95' : 'outside-99.9';
+  return { deltaChiSquare: delta, degreesOfFreedom: dof, pValue, likelihoodRatio: Math.exp(-delta / 2), region };
+}
+
+/** p at the edge of the 68.3% (one-sigma) region. */
+const ONE_SIGMA_P = 1 - 0.6827;
+
+function pWords(p: number | null): string {
+  return p === null ? 'no degrees of freedom left' : `p = ${p.toPrecision(2)}`;
+}
+
+/** How well the evidence as a whole fits: the best fit in the window, judged as the answer of `date` judges it. */
+function overallFit(model: EvidenceModel, best: Candidate, freedom: AnswerFreedom | undefined): CheckOverallFit {
+  const dof = Math.max(0, model.measuredCount - 2);
+  const fit = judgeFit(model, best.chiSquare, best.softPenalty);
+  if (freedom && fit !== 'does-not-fit') {
+    const words = `the evidence does not fix the day and the hour (${freedom.leftFree}), so many dates fit as well as the proposal; ${freedom.wouldFix}`;
+    return { chiSquare: best.chiSquare, degreesOfFreedom: dof, pValue: best.pValue, weak: false, words };
+  }
+  const numbers = dof > 0 ? `chi-square ${best.chiSquare.toFixed(2)} with ${countWords(dof, 'degree of freedom', 'degrees of freedom')}, ${pWords(best.pValue)}` : `chi-square ${best.chiSquare.toFixed(2)}, no degrees of freedom left`;
+  const words =
+    fit === 'fits'
+      ? `the evidence as a whole fits well (the best fit in the window: ${numbers})`
+      : fit === 'marginal'
+        ? `the evidence as a whole fits only weakly (the best fit in the window: ${numbers}); treat every verdict with caution`
+        : `nothing in the window fits the evidence well (the best fit: ${numbers}${best.softPenalty > FACT_PENALTY_LIMIT ? ', a fact fails' : ''}); a proposal as good as the best is only as good as a poor fit`;
+  return { chiSquare: best.chiSquare, degreesOfFreedom: dof, pValue: best.pValue, weak: fit !== 'fits', words };
+}
+
+function verdictOf(raw: RawCandidate | null, relative: CheckRelativeFit | null, absolute: CheckAbsoluteFit | null): CheckVerdict {
+  if (!raw || raw.penalty > FACT_PENALTY_LIMIT) return 'inconsistent';
+  const p = relative ? relative.pValue : (absolute?.pValue ?? chiSquarePValue(raw.chiSquare, 1));
+  return p < NOTHING_FITS_P ? 'inconsistent' : p < MARGINAL_P ? 'doubtful' : 'consistent';
 }
 
 function civilDay(scene: Scene, day: CivilDay, field: string): number {
@@ -207,25 +263,43 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   const cache: UncertaintyCache = new Map();
   const assumptions = clockAssumptionsOf(model);
   const candidate: Candidate | null = best ? dressCandidate(best, 'check', 1, 1, { model, win, assumptions, cache, profileScans: true }) : null;
-  const global = solveDates(scene, { consistency: false, maxCandidates: 1, maxFamilies: 1 });
+  // The best in the window on the light alone, as the proposal is judged (the scene's restrictions left out).
+  const global = solveDates(unrestricted, { consistency: false, maxCandidates: 1, maxFamilies: 1 });
   const globalBest = global.candidates[0] ?? null;
-  const { verdict, p } = verdictOf(model, best);
+  const absolute = best ? absoluteFit(model, proposal, best) : null;
+  const relative = best && globalBest ? relativeFit(proposal, best.objective, globalBest.chiSquare + globalBest.softPenalty) : null;
+  const overall = globalBest ? overallFit(model, globalBest, global.freedom) : null;
+  const verdict = verdictOf(best, relative, absolute);
   const what = proposalText(proposal);
   let verdictText: string;
   if (!candidate) verdictText = `${what}: no instant there can be judged (no fit was found).`;
   else {
-    const where = `best there ${describeCandidate(candidate)}`;
+    const where = `best there ${candidateDayWords(candidate)}`;
     const failing = candidate.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
     const worst = [...candidate.residuals].sort((a, b) => Math.abs(b.normalised) - Math.abs(a.normalised))[0];
-    if (verdict === 'consistent') verdictText = `${what} is consistent with the evidence: ${where}.`;
-    else if (verdict === 'doubtful') verdictText = `${what} is doubtful: the evidence fits only poorly there; ${where}.`;
+    const against = relative
+      ? `Delta chi-square ${relative.deltaChiSquare.toFixed(2)} against the best in the window, p = ${relative.pValue.toPrecision(2)}, likelihood ratio ${relative.likelihoodRatio.toPrecision(2)}`
+      : 'no best fit in the window to compare with';
+    if (verdict === 'consistent') {
+      verdictText =
+        relative?.region === 'as-good'
+          ? `${what} is consistent: as good as any date in the window (${against}); ${where}.`
+          : `${what} is consistent: within the 95% region around the best fit in the window (${against}); ${where}.`;
+    } else if (verdict === 'doubtful') verdictText = `${what} is doubtful: it fits clearly worse than the best in the window (${against}); ${where}.`;
     else {
       verdictText =
-        `${what} is not consistent with the evidence: ${where}` +
+        `${what} is not consistent with the evidence (${against}): ${where}` +
         (failing.length ? `; a fact fails: ${failing.join('; ')}` : '') +
         (worst ? `; worst misfit: ${worst.observationId} (${worst.normalised.toFixed(1)} sigma)` : '') +
         '.';
     }
+    if (absolute) {
+      verdictText +=
+        absolute.degreesOfFreedom > 0
+          ? ` On its own: chi-square ${absolute.chiSquare.toFixed(2)} with ${countWords(absolute.degreesOfFreedom, 'degree of freedom', 'degrees of freedom')}, ${pWords(absolute.pValue)}.`
+          : ` On its own: chi-square ${absolute.chiSquare.toFixed(2)}, with no degrees of freedom left to judge it.`;
+    }
+    if (overall && (overall.weak || global.freedom)) verdictText += ` Apart from the proposal: ${overall.words}.`;
     if (globalBest) verdictText += ` The best fit anywhere in the window: ${describeCandidate(globalBest)}.`;
   }
   return {
@@ -235,10 +309,13 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
     verdictText,
     best: candidate,
     chiSquare: candidate ? candidate.chiSquare : null,
-    degreesOfFreedom: model.measuredCount - 2,
-    pValue: p,
+    degreesOfFreedom: absolute ? absolute.degreesOfFreedom : Math.max(0, model.measuredCount - fittedInside(proposal)),
+    pValue: absolute ? absolute.pValue : null,
     globalBest,
     deltaChiSquareToGlobal: candidate && globalBest ? candidate.chiSquare + candidate.softPenalty - (globalBest.chiSquare + globalBest.softPenalty) : null,
+    absolute,
+    relative,
+    overall,
     notes,
   };
 }

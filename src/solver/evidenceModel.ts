@@ -13,7 +13,8 @@
  *   above zero, with their Gaussian priors as pseudo-observations (Press et al., Numerical
  *   Recipes 3rd ed. 2007, section 15.4 on priors as extra data points; common practice).
  * - Facts without numbers (wall lit / shaded, sun up) and the implicit facts of every shadow
- *   (its wall is lit, the sun is up): soft penalties of src/geometry/lightFacts.ts, zero when
+ *   (its wall is lit, the sun is up) and of a clock (read in a sunlit picture: the sun is up),
+ *   soft penalties of src/geometry/lightFacts.ts, zero when
  *   they hold, not counted as measured residuals.
  */
 import { InvalidInputError } from '../errors.js';
@@ -174,6 +175,11 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
         modulusMinutes: modulus,
         kept: o.kept.kind === 'unknown' ? null : (o.kept as ClockKind),
       });
+      // A clock read in a sunlit picture: daylight, so the sun is up (no night-time hour on a 12-hour dial).
+      if (!implicitSunUp) {
+        implicitSunUp = true;
+        facts.push({ observationId: o.id, fact: 'sun-up', implicit: true });
+      }
       return;
     }
     if (o.kind === 'wall-lit' || o.kind === 'wall-shaded') {
@@ -379,7 +385,8 @@ export function predictedValuesOf(term: ShadowTerm, sun: SolverSunDirection, wal
 export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean): string {
   const wallName = f.wallId ?? '';
   if (f.fact === 'sun-up') {
-    return `the sun is ${satisfied ? 'up' : 'below the horizon'} (altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? ', as a shadow needs' : ''}`;
+    const needs = model.clocks.some((c) => c.observationId === f.observationId) ? ', as a clock read in daylight needs' : ', as a shadow needs';
+    return `the sun is ${satisfied ? 'up' : 'below the horizon'} (altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? needs : ''}`;
   }
   const hsa = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
   const lit = f.fact === 'wall-lit';

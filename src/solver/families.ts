@@ -1,14 +1,35 @@
 /**
- * Families: candidates that differ only by year (same clock assumption, same stage-A
- * minimum and side of the solstice, same civil calendar) grouped under one line such as
- * "any year 1640-1690: 10-16 September (Gregorian), 07:35-07:50 local apparent time".
- * A family is split where the civil calendar changes within the window.
+ * Families: candidates that differ only by year, and by the clock keeping tried, grouped under one
+ * line such as "any year 1640-1690: 10-16 September (Gregorian), 07:35-07:50 local apparent time".
+ *
+ * A family is the same light: the same stage-A minimum and side of the solstice, in one civil
+ * calendar (split where the calendar changes within the window). Keepings of a clock of unknown
+ * keeping (local apparent, local mean time, ...) that put the same light on the same days (best
+ * members within SAME_DAYS days and SAME_MINUTES minutes) are one family that lists the keepings,
+ * not several families (the reader sees one set of days).
+ *
+ * Years: the sun's light returns every year on almost the same day, so the years of a family
+ * usually fit alike. Years within YEARS_ALIKE_DELTA_CHI2 of the family's best are called alike
+ * (3.841: Delta chi-square of one parameter at 95%, Press et al., Numerical Recipes, 3rd ed.
+ * (2007), section 15.6.5); a single year is named only when no other is alike, with what singled
+ * it out.
  */
-import type { Candidate, CandidateFamily } from './types.js';
+import type { Candidate, CandidateFamily, ClockAssumption, FamilyKeeping, YearsTold } from './types.js';
+import type { ClockKind } from '../scene/types.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
-import { hhmm } from './candidates.js';
+import { formatYearBcAd } from '../calendar/format.js';
+import { DELTA_CHI2_1DOF_95 } from '../math/chiSquare.js';
+import { describeClockKind } from '../time/clock.js';
+import { clockAssumptionLabel, hhmm } from './candidates.js';
 
 const CUMULATIVE_DAYS = [0, 31, 59, 90, 120, 151, 181, 212, 243, 273, 304, 334];
+
+/** Years whose chi-square lies within this of the family's best are alike (one parameter, 95%). */
+export const YEARS_ALIKE_DELTA_CHI2 = DELTA_CHI2_1DOF_95;
+/** Keepings whose best members lie within this many days of the year ... */
+export const SAME_DAYS = 7;
+/** ... and this many minutes of local apparent time are one family. */
+export const SAME_MINUTES = 30;
 
 /** A member as the family needs it. */
 export interface FamilyMember {
@@ -21,11 +42,31 @@ export interface FamilyMember {
   readonly apparentMinutes: number;
   readonly weight: number;
   readonly chiSquare: number;
+  readonly penalty: number;
   readonly pValue: number | null;
+  readonly assumptionIndex: number;
+  readonly assumption: ClockAssumption;
+}
+
+/** What a family needs to know of the answer around it. */
+export interface FamilyContext {
+  /** The years searched. */
+  readonly fromYear: number;
+  readonly toYear: number;
+  /** The window's restrictions on days in words ("the weekday (Mondays only)"), or null when there are none. */
+  readonly restrictions: string | null;
+  /** How a keeping's best fits: as the answer judges it. */
+  readonly judge: (chiSquare: number, penalty: number) => FamilyKeeping['fit'];
 }
 
 function ordinal(month: number, day: number): number {
   return CUMULATIVE_DAYS[month - 1] + day;
+}
+
+/** Distance between two month-days in days, across the year end. */
+export function monthDayDistance(a: { month: number; day: number }, b: { month: number; day: number }): number {
+  const d = Math.abs(ordinal(a.month, a.day) - ordinal(b.month, b.day));
+  return Math.min(d, 365 - d);
 }
 
 function monthDayText(a: { month: number; day: number }, b: { month: number; day: number }): string {
@@ -38,16 +79,64 @@ function calendarName(c: 'julian' | 'gregorian'): string {
   return c === 'julian' ? 'Julian' : 'Gregorian';
 }
 
-/** Build one family from its members (at least one). */
-export function buildFamily(
-  id: string,
-  rank: number,
-  members: readonly FamilyMember[],
-  label: string,
-  assumption: Candidate['clockAssumption'],
-  perYear: boolean,
-): CandidateFamily {
-  const sorted = [...members].sort((a, b) => a.year - b.year);
+/**
+ * Years in words: "1775", "any year 1760-1790" (every year of the span), "12 of the years 1760-1790".
+ * @example yearsText([1760, 1761, 1762]) // "any year 1760-1762"
+ */
+export function yearsText(years: readonly number[]): string {
+  const sorted = [...new Set(years)].sort((a, b) => a - b);
+  const from = sorted[0];
+  const to = sorted[sorted.length - 1];
+  if (from === to) return formatYearBcAd(from);
+  const span = `${formatYearBcAd(from)}-${formatYearBcAd(to)}`;
+  return sorted.length === to - from + 1 ? `any year ${span}` : `${sorted.length} of the years ${span}`;
+}
+
+/** The lowest objective of each year. */
+function bestByYear(members: readonly FamilyMember[]): Map<number, number> {
+  const byYear = new Map<number, number>();
+  for (const m of members) byYear.set(m.year, Math.min(byYear.get(m.year) ?? Infinity, m.objective));
+  return byYear;
+}
+
+/** Whether the family's years are told apart (by the members of the best keeping). */
+export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext): YearsTold {
+  const byYear = bestByYear(members);
+  const best = Math.min(...byYear.values());
+  const alikeYears = [...byYear].filter(([, o]) => o <= best + YEARS_ALIKE_DELTA_CHI2).map(([y]) => y).sort((a, b) => a - b);
+  const spreadChiSquare = Math.max(...[...byYear.values()].map((o) => o - best));
+  if (alikeYears.length > 1) {
+    return { singledOut: false, alikeYears, spreadChiSquare, words: `${yearsText(alikeYears)} (the light alone cannot tell these years apart)` };
+  }
+  const year = alikeYears[0];
+  let by: string;
+  if (byYear.size > 1) {
+    const next = Math.min(...[...byYear].filter(([y]) => y !== year).map(([, o]) => o - best));
+    by = `the light itself: every other year of the family fits worse, by ${next.toFixed(1)} or more in chi-square`;
+  } else if (ctx.fromYear === ctx.toYear) {
+    by = 'the window, which holds this year only';
+  } else if (ctx.restrictions) {
+    by = `the window's restrictions (${ctx.restrictions}), which leave this year only`;
+  } else {
+    by = 'the window: no other year of it has this light on an allowed day';
+  }
+  return { singledOut: true, alikeYears, spreadChiSquare, singledOutBy: by, words: `${formatYearBcAd(year)} (singled out by ${by})` };
+}
+
+/** The keepings of a family in words: "clock kept local mean time (best chi2 3.31) or local apparent (sundial) time (best chi2 4.11); tried: ...". */
+function keepingsLabel(keepings: readonly FamilyKeeping[]): string {
+  if (keepings.length === 1) return keepings[0].clockAssumptionLabel;
+  const kinds = keepings.map((k) => {
+    const { stated: _stated, ...kind } = k.clockAssumption as ClockKind & { stated: boolean };
+    return `${describeClockKind(kind as ClockKind)} (best chi2 ${k.bestChiSquare.toFixed(2)}${k.fit === 'does-not-fit' ? ', does not fit' : ''})`;
+  });
+  const stated = keepings.every((k) => k.clockAssumption.kind !== 'none' && k.clockAssumption.stated);
+  return `clock kept ${kinds.join(' or ')}; ${stated ? 'as stated' : 'tried: the scene does not say'}`;
+}
+
+/** Build one family from its members (at least one; several keepings allowed). */
+export function buildFamily(id: string, rank: number, members: readonly FamilyMember[], ctx: FamilyContext, perYear: boolean): CandidateFamily {
+  const sorted = [...members].sort((a, b) => a.year - b.year || a.objective - b.objective);
   const best = [...members].sort((a, b) => a.objective - b.objective)[0];
   let ords = sorted.map((m) => ({ m, o: ordinal(m.month, m.day) }));
   const lo0 = Math.min(...ords.map((x) => x.o));
@@ -58,23 +147,48 @@ export function buildFamily(
   const minutes = sorted.map((m) => m.apparentMinutes);
   const fromMin = Math.min(...minutes);
   const toMin = Math.max(...minutes);
+  const years = [...new Set(sorted.map((m) => m.year))];
   const fromYear = sorted[0].year;
   const toYear = sorted[sorted.length - 1].year;
-  const span = toYear - fromYear + 1;
-  const years =
-    fromYear === toYear ? `${fromYear}` : sorted.length === span ? `any year ${fromYear}-${toYear}` : `${sorted.length} of the years ${fromYear}-${toYear}`;
+
+  const byKeeping = new Map<number, FamilyMember[]>();
+  for (const m of members) byKeeping.set(m.assumptionIndex, [...(byKeeping.get(m.assumptionIndex) ?? []), m]);
+  const keepings: FamilyKeeping[] = [...byKeeping.values()]
+    .map((list) => {
+      const b = list.reduce((x, y) => (y.objective < x.objective ? y : x));
+      return {
+        clockAssumption: b.assumption,
+        clockAssumptionLabel: clockAssumptionLabel(b.assumption),
+        bestChiSquare: b.chiSquare,
+        bestPValue: b.pValue,
+        fit: ctx.judge(b.chiSquare, b.penalty),
+        yearCount: new Set(list.map((m) => m.year)).size,
+      };
+    })
+    .sort((a, b) => a.bestChiSquare - b.bestChiSquare);
+  const label = keepingsLabel(keepings);
+  const yearsTold = yearsToldOf(byKeeping.get(best.assumptionIndex) ?? [best], ctx);
+
   const time = hhmm(fromMin) === hhmm(toMin) ? hhmm(fromMin) : `${hhmm(fromMin)}-${hhmm(toMin)}`;
-  const summary = `${years}: ${monthDayText(first, last)} (${calendarName(sorted[0].calendar)}), ${time} local apparent time; ${label}`;
+  const days = monthDayText(first, last);
+  const only = yearsTold.singledOut && years.length > 1 ? `; only ${formatYearBcAd(best.year)} fits as well (${yearsTold.singledOutBy})` : '';
+  const summary = `${yearsText(years)}: ${days} (${calendarName(sorted[0].calendar)}), ${time} local apparent time; ${label}${only}`;
   const bestCandidate = best.candidate();
+  const headline = yearsTold.singledOut
+    ? `${best.day} ${MONTH_NAMES[best.month - 1]} ${formatYearBcAd(best.year)} (${calendarName(best.calendar)}), ${hhmm(best.apparentMinutes)} local apparent time (the year singled out by ${yearsTold.singledOutBy})`
+    : `${days} (${calendarName(sorted[0].calendar)}), ${yearsTold.words}, ${time} local apparent time`;
   return {
     id,
     rank,
-    clockAssumption: assumption,
+    clockAssumption: best.assumption,
     clockAssumptionLabel: label,
+    keepings,
+    yearsTold,
+    headline,
     calendar: sorted[0].calendar,
     fromYear,
     toYear,
-    yearCount: sorted.length,
+    yearCount: years.length,
     fromMonthDay: { month: first.month, day: first.day },
     toMonthDay: { month: last.month, day: last.day },
     fromLocalApparentMinutes: fromMin,
@@ -86,4 +200,35 @@ export function buildFamily(
     summary,
     members: perYear ? sorted.map((m) => m.candidate()) : undefined,
   };
+}
+
+/**
+ * Groups of members (one per track and calendar, best first) joined where they differ only in the
+ * clock keeping: the same calendar, no keeping in common, best members within SAME_DAYS days of the
+ * year and SAME_MINUTES minutes. Returns the joined groups, best first.
+ */
+export function joinKeepings(groups: readonly (readonly FamilyMember[])[]): FamilyMember[][] {
+  const bestOf = (g: readonly FamilyMember[]): FamilyMember => g.reduce((x, y) => (y.objective < x.objective ? y : x));
+  const joined: { members: FamilyMember[]; heads: FamilyMember[]; keepings: Set<number> }[] = [];
+  for (const g of [...groups].sort((a, b) => bestOf(a).objective - bestOf(b).objective)) {
+    const head = bestOf(g);
+    const into = joined.find(
+      (j) =>
+        !j.keepings.has(head.assumptionIndex) &&
+        j.heads.some(
+          (h) =>
+            h.calendar === head.calendar &&
+            monthDayDistance(h, head) <= SAME_DAYS &&
+            Math.abs(h.apparentMinutes - head.apparentMinutes) <= SAME_MINUTES,
+        ),
+    );
+    if (into) {
+      into.members.push(...g);
+      into.heads.push(head);
+      into.keepings.add(head.assumptionIndex);
+    } else {
+      joined.push({ members: [...g], heads: [head], keepings: new Set([head.assumptionIndex]) });
+    }
+  }
+  return joined.map((j) => j.members);
 }

@@ -7,12 +7,17 @@
  * 1 dof: chi-square should then be 0); 'marginal' when 0.001 <= p < 0.05; 'nothing-fits' when p < 0.001 or the facts cannot
  * all hold (a soft penalty above FACT_PENALTY_LIMIT at the best candidate: a violation of more
  * than 1 deg); then the search is rerun without each observation and those whose removal lets
- * the rest fit are named. This is an answer, not an error.
+ * the rest fit are named (and, when every azimuth turned by 180 deg fits, that is said). This is an
+ * answer, not an error. 'undetermined' when the fit holds but the evidence cannot fix day and hour
+ * (src/solver/freedom.ts).
  */
 import type {
+  AnswerFreedom,
   AnswerStatus,
   Candidate,
   CandidateFamily,
+  FamilyKeeping,
+  TurnedAzimuthsHint,
   ConsistencyReport,
   DateAnswer,
   LeaveOneOutEntry,
@@ -25,8 +30,10 @@ import { MONTH_NAMES, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import { buildEvidenceModel, type EvidenceModel } from './evidenceModel.js';
 import { searchCandidates, type SearchResult } from './search.js';
-import { assumedKind, clockAssumptionLabel, dressCandidate, hhmm, type DressContext } from './candidates.js';
-import { buildFamily, type FamilyMember } from './families.js';
+import { assumedKind, dressCandidate, hhmm, type DressContext } from './candidates.js';
+import { buildFamily, joinKeepings, type FamilyContext, type FamilyMember } from './families.js';
+import { evidenceFixesDayAndHour, freedomOf, undeterminedVerdict } from './freedom.js';
+import { turnedAzimuthScene, turnedAzimuthWords } from './turnedAzimuths.js';
 import { improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
@@ -104,43 +111,71 @@ function fitsWell(model: EvidenceModel, raw: RawCandidate | undefined): boolean 
   return raw.penalty <= FACT_PENALTY_LIMIT && judgingP(model, raw.chiSquare) >= NOTHING_FITS_P;
 }
 
-export function describeCandidate(c: Candidate): string {
+/** A candidate's day and hour in words, without its fit: "2 April 1775 (Gregorian, Sunday), 09:08 local apparent time". */
+export function candidateDayWords(c: Candidate): string {
   const d = c.civilDate;
   const cal = c.civilReckoning === 'swedish' ? 'Swedish reckoning of 1700-1712' : d.calendar === 'julian' ? 'Julian' : 'Gregorian';
-  const p = c.pValue === null ? 'no degrees of freedom left' : `p = ${c.pValue.toPrecision(2)}`;
-  return `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${cal}, ${c.weekdayName}), ${hhmm(c.times.localApparentMinutes)} local apparent time (chi-square ${c.chiSquare.toFixed(2)}, ${p})`;
+  return `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${cal}, ${c.weekdayName}), ${hhmm(c.times.localApparentMinutes)} local apparent time`;
 }
 
-function familiesOf(s: Solved, maxFamilies: number, perYear: boolean): CandidateFamily[] {
-  const groups = new Map<string, RawCandidate[]>();
-  for (const raw of s.kept) {
-    const cal = jdToCivilDate(s.win.calendar, raw.dayJd0 + 0.5).date.calendar;
-    const key = `${raw.trackKey}|${cal}`;
-    const list = groups.get(key) ?? [];
-    list.push(raw);
-    groups.set(key, list);
+/** A candidate's day, hour and fit in words. */
+export function describeCandidate(c: Candidate): string {
+  const p = c.pValue === null ? 'no degrees of freedom left' : `p = ${c.pValue.toPrecision(2)}`;
+  return `${candidateDayWords(c)} (chi-square ${c.chiSquare.toFixed(2)}, ${p})`;
+}
+
+const capitalised = (t: string): string => t.charAt(0).toUpperCase() + t.slice(1);
+
+/** How a fit is judged: 'fits', 'marginal' or 'does-not-fit' (the rule of the answer's status). */
+export function judgeFit(model: EvidenceModel, chiSquare: number, penalty: number): FamilyKeeping['fit'] {
+  const pj = judgingP(model, chiSquare);
+  return penalty > FACT_PENALTY_LIMIT || pj < NOTHING_FITS_P ? 'does-not-fit' : pj < MARGINAL_P ? 'marginal' : 'fits';
+}
+
+/** The window's restrictions on days in words, or null. */
+function restrictionWords(scene: Scene, win: DayWindow): string | null {
+  const parts: string[] = [];
+  const w = scene.window;
+  if (w.notBefore || w.notAfter) {
+    const day = (d: { year: number; month: number; day: number }) => `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)}`;
+    parts.push(`the documentary bounds: ${[w.notBefore ? `not before ${day(w.notBefore)}` : '', w.notAfter ? `not after ${day(w.notAfter)}` : ''].filter(Boolean).join(', ')}`);
   }
-  const ordered = [...groups.values()].sort((a, b) => a[0].objective - b[0].objective).slice(0, maxFamilies);
-  return ordered.map((list, i) => {
-    const members: FamilyMember[] = list.map((raw) => {
-      const answer = jdToCivilDate(s.win.calendar, raw.dayJd0 + 0.5);
-      const civil = { ...answer.civil, calendar: answer.date.calendar };
-      return {
-        candidate: () => dressed(s, raw),
-        objective: raw.objective,
-        year: civil.year,
-        month: civil.month,
-        day: civil.day,
-        calendar: civil.calendar,
-        apparentMinutes: ((raw.apparentMinutes % 1440) + 1440) % 1440,
-        weight: s.weights.get(raw) ?? 0,
-        chiSquare: raw.chiSquare,
-        pValue: pOf(s.model, raw.chiSquare),
-      };
-    });
-    const assumption = s.search.assumptions[list[0].assumptionIndex];
-    return buildFamily(`f${i + 1}`, i + 1, members, clockAssumptionLabel(assumption), assumption, perYear);
-  });
+  if (win.months) parts.push(`the months: ${[...win.months].sort((a, b) => a - b).map((m) => MONTH_NAMES[m - 1]).join(', ')}`);
+  if (win.weekday !== null) parts.push(`the weekday: ${WEEKDAY_NAMES[win.weekday]}s only`);
+  return parts.length ? parts.join('; ') : null;
+}
+
+/** All families, best first (keepings of one light joined), before the maxFamilies cut. */
+function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
+  const groups = new Map<string, FamilyMember[]>();
+  for (const raw of s.kept) {
+    const answer = jdToCivilDate(s.win.calendar, raw.dayJd0 + 0.5);
+    const civil = { ...answer.civil, calendar: answer.date.calendar };
+    const key = `${raw.trackKey}|${civil.calendar}`;
+    const member: FamilyMember = {
+      candidate: () => dressed(s, raw),
+      objective: raw.objective,
+      year: civil.year,
+      month: civil.month,
+      day: civil.day,
+      calendar: civil.calendar,
+      apparentMinutes: ((raw.apparentMinutes % 1440) + 1440) % 1440,
+      weight: s.weights.get(raw) ?? 0,
+      chiSquare: raw.chiSquare,
+      penalty: raw.penalty,
+      pValue: pOf(s.model, raw.chiSquare),
+      assumptionIndex: raw.assumptionIndex,
+      assumption: s.search.assumptions[raw.assumptionIndex],
+    };
+    groups.set(key, [...(groups.get(key) ?? []), member]);
+  }
+  const ctx: FamilyContext = {
+    fromYear: s.win.fromYear,
+    toYear: s.win.toYear,
+    restrictions: restrictionWords(s.model.scene, s.win),
+    judge: (chi, penalty) => judgeFit(s.model, chi, penalty),
+  };
+  return joinKeepings([...groups.values()]).map((list, i) => buildFamily(`f${i + 1}`, i + 1, list, ctx, perYear));
 }
 
 /**
@@ -164,7 +199,6 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       `${s.edgeDropped} candidate${s.edgeDropped === 1 ? '' : 's'} whose best day lies outside the allowed days (months, bounds, weekday) and that fit poorly at the nearest allowed day (chi-square more than ${EDGE_CANDIDATE_DELTA_CHI2.toFixed(1)} above the best) ${s.edgeDropped === 1 ? 'was' : 'were'} left out: ${s.edgeDropped === 1 ? 'it is' : 'they are'} the edge of the window, not a fit.`,
     );
   }
-  if (model.measuredCount < 2) notes.push('Fewer than two measured numbers: the evidence cannot fix both the date and the hour; candidates are points along a curve.');
 
   let consistency: ConsistencyReport = {
     rule: `an observation is flagged when leaving it out lowers chi-square by an amount whose p-value (chi-square with as many degrees of freedom as the observation has numbers) is below ${LOO_P_THRESHOLD}`,
@@ -175,9 +209,15 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   let status: AnswerStatus;
   let conflictingIds: string[] = [];
   let verdict: string;
+  let freedom: AnswerFreedom | undefined;
+  let turnedAzimuths: TurnedAzimuthsHint | undefined;
+  const allFamilies = familiesOf(s, opt.perYear);
+  const families = allFamilies.slice(0, opt.maxFamilies);
+  const candidates = s.kept.slice(0, opt.maxCandidates).map((raw) => dressed(s, raw));
   const monthsText = win.months ? `${[...win.months].sort((a, b) => a - b).map((m) => MONTH_NAMES[m - 1]).join(', ')} of ` : '';
   const weekdayText = win.weekday !== null ? ` (${WEEKDAY_NAMES[win.weekday]}s only)` : '';
-  const windowText = `${monthsText}${formatYearBcAd(win.fromYear)}-${formatYearBcAd(win.toYear)}${weekdayText}`;
+  const yearsSpan = win.fromYear === win.toYear ? formatYearBcAd(win.fromYear) : `${formatYearBcAd(win.fromYear)}-${formatYearBcAd(win.toYear)}`;
+  const windowText = `${monthsText}${yearsSpan}${weekdayText}`;
   if (!best) {
     status = 'no-candidates';
     verdict = windowHasAllowedDay(win)
@@ -186,9 +226,9 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   } else {
     const bestC = dressed(s, best);
     const p = bestC.pValue;
-    const factsHold = best.penalty <= FACT_PENALTY_LIMIT;
     const pj = judgingP(model, best.chiSquare);
-    status = !factsHold || pj < NOTHING_FITS_P ? 'nothing-fits' : pj < MARGINAL_P ? 'marginal' : 'fits';
+    const fit = judgeFit(model, best.chiSquare, best.penalty);
+    status = fit === 'does-not-fit' ? 'nothing-fits' : !evidenceFixesDayAndHour(model, bestC, s.kept) ? 'undetermined' : fit === 'marginal' ? 'marginal' : 'fits';
     if (status === 'nothing-fits') {
       // Rerun the whole search without each observation (facts and clocks included).
       const entries: LeaveOneOutEntry[] = [];
@@ -224,11 +264,17 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       const without = entries
         .filter((e) => conflictingIds.includes(e.observationId) && e.bestWithout)
         .map((e) => `without ${e.observationId} the best fit is ${describeCandidate(e.bestWithout!)}`);
+      turnedAzimuths = turnedAzimuthHint(scene, win, opt.chiSquareCutoff);
       verdict =
         `Nothing fits: no date and hour in ${windowText} agree with all the observations` +
         ` (best chi-square ${best.chiSquare.toFixed(1)}${p !== null ? `, p = ${p.toPrecision(2)}` : ''}${violated.length ? `; facts that cannot hold there: ${violated.join('; ')}` : ''}).` +
+        (turnedAzimuths ? ` ${turnedAzimuths.words}` : '') +
         ` The observations in conflict: ${conflictingIds.join(', ')}.` +
-        (without.length ? ` ${without.join('; ')}.` : '');
+        (without.length ? ` ${capitalised(without.join('; '))}.` : '');
+    } else if (status === 'undetermined') {
+      freedom = freedomOf(model);
+      verdict = undeterminedVerdict(freedom, candidates, windowText, model, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
+      notes.push('The evidence does not fix the day and the hour: the candidates are examples along a curve of equally good fits, and their families are not separate answers.');
     } else {
       if (opt.consistency && model.measuredCount > 0) {
         const loo = localLeaveOneOut(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
@@ -252,24 +298,39 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         });
         consistency = { ...consistency, entries, flaggedIds: entries.filter((e) => e.flagged).map((e) => e.observationId) };
       }
-      // Count families as they are listed (a track split at a calendar switch is two families).
-      const trackCount = new Set(s.kept.map((c) => c.trackKey)).size;
-      const famCount = Math.min(opt.maxFamilies, new Set(s.kept.map((c) => `${c.trackKey}|${jdToCivilDate(s.win.calendar, c.dayJd0 + 0.5).date.calendar}`)).size);
-      const renamed = famCount > trackCount ? ` (${famCount - trackCount} of them the same light as another, named in the other calendar)` : '';
+      // Count families as they are listed (a light split at a calendar switch is two families).
+      const famCount = allFamilies.length;
+      const calendarsOfTrack = new Map<string, Set<string>>();
+      for (const c of s.kept) {
+        const cal = jdToCivilDate(s.win.calendar, c.dayJd0 + 0.5).date.calendar;
+        calendarsOfTrack.set(c.trackKey, (calendarsOfTrack.get(c.trackKey) ?? new Set()).add(cal));
+      }
+      const renamed = [...calendarsOfTrack.values()].some((cals) => cals.size > 1) ? ' (some of them the same light as another, named in the other calendar)' : '';
+      const top = families[0];
+      const pText = p === null ? 'no degrees of freedom left' : `p = ${p.toPrecision(2)}`;
       verdict =
         (status === 'fits' ? 'The evidence fits.' : `The best fit is marginal (p = ${pj.toPrecision(2)}): treat every candidate with caution.`) +
-        ` Best: ${describeCandidate(bestC)}.` +
+        ` Best: ${top.headline}${top.clockAssumption.kind === 'none' ? '' : `, ${top.clockAssumptionLabel}`}; chi-square ${best.chiSquare.toFixed(2)}, ${pText}.` +
         ` ${famCount} famil${famCount === 1 ? 'y' : 'ies'} of candidates${renamed} in ${windowText}.` +
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
+      if (!top.yearsTold.singledOut && top.yearsTold.alikeYears.length > 1) {
+        notes.push(
+          `The years of a family fit alike (family 1: within ${top.yearsTold.spreadChiSquare.toFixed(2)} in chi-square): the order of its years among the candidates is no preference, and the light alone does not date the picture to one year.`,
+        );
+      }
     }
   }
-  const families = familiesOf(s, opt.maxFamilies, opt.perYear);
-  const candidates = s.kept.slice(0, opt.maxCandidates).map((raw) => dressed(s, raw));
+  const top = families[0];
   return {
     sceneTitle: scene.title,
     status,
     verdict,
     window: { fromYear: win.fromYear, toYear: win.toYear },
+    headline: top ? top.headline : null,
+    yearsWords: top ? (top.yearsTold.singledOut ? formatYearBcAd(top.best.civilDate.year) : top.yearsTold.words.replace(/ \(.*\)$/, '')) : null,
+    ...(freedom ? { freedom } : {}),
+    ...(turnedAzimuths ? { turnedAzimuths } : {}),
+    familyCount: allFamilies.length,
     families,
     candidates,
     consistency,
@@ -287,4 +348,17 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     },
     seed: scene.seed,
   };
+}
+
+/** When nothing fits: the best fit with every stated azimuth turned by 180 deg, if that fits. */
+function turnedAzimuthHint(scene: Scene, win: DayWindow, cutoff: number): TurnedAzimuthsHint | undefined {
+  const turned = turnedAzimuthScene(scene);
+  if (!turned) return undefined;
+  const model = buildEvidenceModel(turned);
+  const s = solveModel(model, win, cutoff, false);
+  const b = s.kept[0];
+  if (!fitsWell(model, b)) return undefined;
+  const c = dressed(s, b);
+  const p = c.pValue === null ? 'no degrees of freedom left' : `p = ${c.pValue.toPrecision(2)}`;
+  return { best: c, words: turnedAzimuthWords(`${familiesOf(s, false)[0].headline} (chi-square ${c.chiSquare.toFixed(2)}, ${p})`) };
 }

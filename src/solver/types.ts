@@ -128,8 +128,11 @@ export interface ProfileScan {
 
 /** The uncertainty of one candidate; `method` says which of the two forms holds. */
 export interface CandidateUncertainty {
-  /** 'ellipse': the linearised covariance is valid; 'profile-scan': it is not and the scan gives the interval. */
-  readonly method: 'ellipse' | 'profile-scan';
+  /**
+   * 'ellipse': the linearised covariance is valid; 'profile-scan': it is not and the scan gives the
+   * interval; 'not-fixed': the evidence does not fix the day and the hour (no ellipse, no interval).
+   */
+  readonly method: 'ellipse' | 'profile-scan' | 'not-fixed';
   readonly ellipseValid: boolean;
   /** Plain words when invalid: "near the solstice the date is poorly constrained", "linearisation check failed ...". */
   readonly invalidReason?: string;
@@ -153,6 +156,12 @@ export interface CandidateUncertainty {
    * (the day itself is the best whole day) and minutes of local apparent time.
    */
   readonly centre: { readonly days: number; readonly localApparentMinutes: number };
+  /**
+   * False when the evidence does not fix the day and the hour separately (fewer than two measured
+   * numbers, or numbers that depend on the sun in the same way: the fit is singular). The day is then
+   * free along a curve; no ellipse and no scan interval is given (`profile` absent).
+   */
+  readonly fixesDayAndHour: boolean;
 }
 
 /** One local best fit: a date and hour in one year, under one clock assumption. */
@@ -185,8 +194,9 @@ export interface Candidate {
   };
   readonly chiSquare: number; // sum of squared normalised residuals, nuisance priors included, soft penalties excluded
   readonly softPenalty: number; // sum of the fact penalties
-  readonly degreesOfFreedom: number; // measured scalar residuals - 2
-  /** Upper-tail probability of chiSquare with degreesOfFreedom; null when degreesOfFreedom <= 0. */
+  /** Measured scalar residuals - 2, never below 0. */
+  readonly degreesOfFreedom: number;
+  /** Upper-tail probability of chiSquare with degreesOfFreedom; null when no degrees of freedom are left. */
   readonly pValue: number | null;
   /** exp(-(chi2 + penalty)/2) normalised over all candidates of the answer (ellipse volume not included). */
   readonly relativeWeight: number;
@@ -200,15 +210,58 @@ export interface Candidate {
   readonly mapped: boolean;
 }
 
-/** Candidates that differ only by year, under one clock assumption and one calendar. */
+/** One clock keeping tried within a family, with how well its best year fits. */
+export interface FamilyKeeping {
+  readonly clockAssumption: ClockAssumption;
+  readonly clockAssumptionLabel: string;
+  readonly bestChiSquare: number;
+  readonly bestPValue: number | null;
+  /** 'fits' (p >= 0.05, facts hold), 'marginal' (0.001 <= p < 0.05), 'does-not-fit'; p judged as for the answer. */
+  readonly fit: 'fits' | 'marginal' | 'does-not-fit';
+  /** Years in which this keeping has a candidate of the family. */
+  readonly yearCount: number;
+}
+
+/**
+ * Whether the evidence tells the family's years apart. Years whose chi-square (plus penalty) lies
+ * within YEARS_ALIKE_DELTA_CHI2 (3.841, one parameter at 95%) of the family's best are alike: the
+ * light alone cannot choose between them. A single year is singled out only when it alone is left,
+ * and `singledOutBy` then says what did it (the window, its restrictions, or the light itself).
+ */
+export interface YearsTold {
+  readonly singledOut: boolean;
+  /** The years alike (the best keeping's), sorted. */
+  readonly alikeYears: readonly number[];
+  /** Largest difference in chi-square (plus penalty) between the best and any other year of the best keeping; 0 with one year. */
+  readonly spreadChiSquare: number;
+  /** What singled the year out, in words; present only when singledOut. */
+  readonly singledOutBy?: string;
+  /** The years in words: "any year 1760-1790 (the light alone cannot tell these years apart)", "1784 (...)". */
+  readonly words: string;
+}
+
+/**
+ * Candidates that differ only by year and by the clock keeping tried (the same days and hours),
+ * in one calendar. A family groups the same light: a keeping that puts the same days within a few
+ * days and minutes is listed in `keepings`, not counted as another family.
+ */
 export interface CandidateFamily {
   readonly id: string; // "f1"
   readonly rank: number;
+  /** The keeping of the family's best member. */
   readonly clockAssumption: ClockAssumption;
+  /** The keepings of the family in words ("clock kept local mean time or local apparent (sundial) time (tried: ...)"). */
   readonly clockAssumptionLabel: string;
+  /** Every keeping of the family, best first (one entry without a clock). */
+  readonly keepings: readonly FamilyKeeping[];
+  /** Whether the light tells the years apart. */
+  readonly yearsTold: YearsTold;
+  /** The family in one phrase that names no single year unless the evidence singles it out: "5-7 April, any year 1760-1790 (...), 09:08-09:10 local apparent time". */
+  readonly headline: string;
   readonly calendar: 'julian' | 'gregorian';
   readonly fromYear: number;
   readonly toYear: number;
+  /** Distinct years with a member (never more than the years of the window). */
   readonly yearCount: number;
   /** Earliest and latest month/day over the years (may wrap the year end). */
   readonly fromMonthDay: { readonly month: number; readonly day: number };
@@ -223,7 +276,7 @@ export interface CandidateFamily {
   readonly relativeWeight: number;
   /** One line: "any year 1640-1690: 10-16 September (Gregorian), 07:35-07:50 local apparent time". */
   readonly summary: string;
-  /** Every member, one per year; present when the option `perYear` is set. */
+  /** Every member, one per year and keeping; present when the option `perYear` is set. */
   readonly members?: readonly Candidate[];
 }
 
@@ -257,9 +310,28 @@ export interface ConsistencyReport {
  * 'fits': best p >= 0.05 and the facts hold (with no degrees of freedom left, p is taken with
  * 1 dof); 'marginal': 0.001 <= p < 0.05; 'nothing-fits': best p < 0.001, or the facts cannot
  * all hold at any candidate (soft penalty above 4: a violation of more than 1 deg);
- * 'no-candidates': no instant in the window (e.g. the sun never where the evidence puts it).
+ * 'no-candidates': no instant in the window (e.g. the sun never where the evidence puts it);
+ * 'undetermined': the evidence cannot fix the day and the hour (a clock alone, one measured
+ * number, facts without numbers): `freedom` says what is left free and what would fix it.
  */
-export type AnswerStatus = 'fits' | 'marginal' | 'nothing-fits' | 'no-candidates';
+export type AnswerStatus = 'fits' | 'marginal' | 'nothing-fits' | 'no-candidates' | 'undetermined';
+
+/** What evidence that cannot fix the day and hour leaves free, and which kind of observation would fix it. */
+export interface AnswerFreedom {
+  /** 'clock-only', 'one-number', 'facts-only', 'same-dependence'. */
+  readonly kind: 'clock-only' | 'one-number' | 'facts-only' | 'same-dependence';
+  /** "a clock alone fixes the hour, not the day". */
+  readonly leftFree: string;
+  /** "a measured shadow (...) would fix the day". */
+  readonly wouldFix: string;
+}
+
+/** A fit found by turning every stated azimuth by 180 deg, when nothing fits as stated. */
+export interface TurnedAzimuthsHint {
+  readonly best: Candidate;
+  /** The words of the hint. */
+  readonly words: string;
+}
 
 /** Options of solveDates. */
 export interface SolveOptions {
@@ -297,6 +369,19 @@ export interface DateAnswer {
   /** One or two sentences in plain words, e.g. "Nothing fits: the north wall cannot be sunlit ...". */
   readonly verdict: string;
   readonly window: { readonly fromYear: number; readonly toYear: number };
+  /**
+   * The best family in one phrase (its headline; a single year only when the evidence singles it
+   * out, and then what did), or null without candidates. Charts and reports use it for titles.
+   */
+  readonly headline: string | null;
+  /** The years of the answer in words for a title: "any year 1760-1790" or "1784"; null without candidates. */
+  readonly yearsWords: string | null;
+  /** Present when status is 'undetermined'. */
+  readonly freedom?: AnswerFreedom;
+  /** Present when nothing fits as stated but every azimuth turned by 180 deg would fit. */
+  readonly turnedAzimuths?: TurnedAzimuthsHint;
+  /** Number of families found (before maxFamilies cut the list). */
+  readonly familyCount: number;
   readonly families: readonly CandidateFamily[];
   /** The best candidates over all years, ranked (at most maxCandidates). */
   readonly candidates: readonly Candidate[];
@@ -332,8 +417,45 @@ export type Proposal =
       readonly toYear?: number;
     };
 
-/** 'consistent': p >= 0.05; 'doubtful': 0.001 <= p < 0.05; 'inconsistent': p < 0.001 or facts violated. */
+/**
+ * Judged against the best fit in the window (`relative`): 'consistent' when the proposal lies
+ * within the 95% region around the best (Delta chi-square p >= 0.05) and its facts hold;
+ * 'doubtful' when 0.001 <= p < 0.05; 'inconsistent' when p < 0.001 or a fact fails.
+ */
 export type CheckVerdict = 'consistent' | 'doubtful' | 'inconsistent';
+
+/** The proposal's own fit (its chi-square judged alone). */
+export interface CheckAbsoluteFit {
+  readonly chiSquare: number;
+  /** Measured numbers minus what is fitted inside the proposal (0 for a fixed day and time, 1 for a day, 2 for a range or season), never below 0. */
+  readonly degreesOfFreedom: number;
+  /** Null when no degrees of freedom are left. */
+  readonly pValue: number | null;
+  readonly softPenalty: number;
+}
+
+/** The proposal against the best fit in the window (a likelihood-ratio test, Wilks 1938). */
+export interface CheckRelativeFit {
+  /** Proposal's chi-square + penalty minus the window's best (never below 0). */
+  readonly deltaChiSquare: number;
+  /** Parameters the proposal fixes: 2 for a day and time, 1 for a day, a range or a season. */
+  readonly degreesOfFreedom: number;
+  readonly pValue: number;
+  /** exp(-deltaChiSquare / 2): how much less likely the evidence is at the proposal than at the best. */
+  readonly likelihoodRatio: number;
+  /** 'as-good' within the 68.3% region, 'within-95', 'outside-95', 'outside-99.9'. */
+  readonly region: 'as-good' | 'within-95' | 'outside-95' | 'outside-99.9';
+}
+
+/** How well the evidence as a whole fits (the window's best), said apart from the verdict. */
+export interface CheckOverallFit {
+  readonly chiSquare: number;
+  readonly degreesOfFreedom: number;
+  readonly pValue: number | null;
+  /** True when the best fit in the window is itself weak (p < 0.05) or a fact fails there. */
+  readonly weak: boolean;
+  readonly words: string;
+}
 
 /** The answer to "could the light have fallen on this date / in this range / season?". */
 export interface CheckAnswer {
@@ -349,7 +471,13 @@ export interface CheckAnswer {
   readonly pValue: number | null;
   /** The unrestricted best fit in the scene's window, for comparison. */
   readonly globalBest: Candidate | null;
-  /** best.chiSquare - globalBest.chiSquare. */
+  /** best.chiSquare - globalBest.chiSquare (penalties included). */
   readonly deltaChiSquareToGlobal: number | null;
+  /** The proposal's own fit; null without a fit. */
+  readonly absolute: CheckAbsoluteFit | null;
+  /** Against the best in the window; null without either fit. */
+  readonly relative: CheckRelativeFit | null;
+  /** The evidence as a whole; null without a best fit in the window. */
+  readonly overall: CheckOverallFit | null;
   readonly notes: readonly string[];
 }

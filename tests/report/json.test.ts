@@ -9,7 +9,7 @@ describe('dateAnswerJson', () => {
 
   it('has the top-level fields of the answer in a fixed order', () => {
     expect(Object.keys(json)).toEqual([
-      'heliochronVersion', 'scene', 'status', 'verdict', 'window', 'seed', 'measuredResiduals', 'families', 'candidates',
+      'heliochronVersion', 'scene', 'status', 'verdict', 'headline', 'yearsWords', 'window', 'seed', 'measuredResiduals', 'familyCount', 'families', 'candidates',
       'consistency', 'conflictingIds', 'assumptions', 'notes', 'caution', 'units', 'digits',
     ]);
     expect(json.heliochronVersion).toBe('0.1.0');
@@ -64,10 +64,11 @@ describe('checkAnswerJson', () => {
 });
 
 describe('edge cases', () => {
-  it('null p-values stay null and small ones keep their digits', () => {
+  it('a p-value that cannot be given is absent, with the reason in `absent`; small ones keep their digits', () => {
     const a = answer();
-    const json = dateAnswerJson({ ...a, candidates: [{ ...a.candidates[0], pValue: null }] }, scene, '0.1.0');
-    expect(json.candidates[0].pValue).toBeNull();
+    const json = dateAnswerJson({ ...a, candidates: [{ ...a.candidates[0], pValue: null, degreesOfFreedom: 0 }] }, scene, '0.1.0');
+    expect(json.candidates[0]).not.toHaveProperty('pValue');
+    expect(json.candidates[0].absent?.pValue).toMatch(/^no degrees of freedom left: 4 measured values/);
     expect(DIGITS.probabilitySignificant).toBe(4);
     expect(dateAnswerJson({ ...a, candidates: [{ ...a.candidates[0], pValue: 3.71234e-239 }] }, scene, 'x').candidates[0].pValue).toBe(3.712e-239);
     expect(dateAnswerJson(a, scene, 'x').candidates[2].pValue).toBe(0.0004);

@@ -70,7 +70,8 @@ describe('renderCheckText', () => {
     expect(text.split('\n')[1]).toBe('Proposal: on 30 July 1771 at 08:06 local mean time');
     expect(text).toContain('Verdict: doubtful - The light fits 30 July 1771 at 08:06 local mean time only poorly (p = 0.023).');
     expect(text).toContain('chi2 9.50 with 3 degrees of freedom, p 0.023');
-    expect(text).toContain('the proposal is worse by 8.30 in chi2');
+    expect(text).toContain('against the best in the window: Delta chi2 8.30 with 2 degrees of freedom (what the proposal fixes), p 0.016, likelihood ratio 0.016');
+    expect(text).toContain('Fit of the evidence as a whole: the evidence as a whole fits well');
     expect(text).toContain('Residuals of the best fit inside the proposal:');
   });
   it('says so when the proposal holds no instant', () => {

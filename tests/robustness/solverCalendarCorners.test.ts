@@ -86,7 +86,7 @@ describe('a window across the Protestant German switch of 1700', () => {
 describe('negative years', () => {
   it('a window from -500 to -490 (Julian) gives candidates in those years, with weekdays from the Julian Day', () => {
     const { answer } = solve(velmar({ calendar: 'julian', window: { fromYear: -500, toYear: -490 } }));
-    expect(answer.status).toBe('fits');
+    expect(answer.status).toBe('undetermined'); // one rod slope: day and hour are not both fixed
     expect(answer.candidates.length).toBeGreaterThan(0);
     for (const c of answer.candidates) {
       expect(c.civilDate.calendar).toBe('julian');
