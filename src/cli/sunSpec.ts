@@ -41,8 +41,8 @@ export function registerSun(program: Command, io: CliIo): void {
         'uncertainty, local apparent and mean time, the clock given), the civil date in both calendars, weekday and Julian Day. ' +
         'With --day: the whole day as a table between sunrise and sunset.',
     )
-    .option('--lat <deg>', 'latitude in degrees, north positive (-90 to 90)')
-    .option('--lon <deg>', 'longitude in degrees, east positive (-180 to 180)')
+    .option('--lat <deg>', `latitude in degrees, north positive (-90 to 90); also 48°12'30"N, "48 12 N", 48.2N`)
+    .option('--lon <deg>', `longitude in degrees, east positive (-180 to 180); also 16°24'E, "16 24 E", 16.4W (west negative)`)
     .option('--elevation <m>', 'height above sea level in metres', SUN_DEFAULTS.elevation)
     .option('--date <date>', 'the civil day: 1650-03-10, -0043-03-15 (astronomical years), 44-03-15 BC, "10 March 1650"')
     .option(
