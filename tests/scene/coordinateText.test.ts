@@ -66,7 +66,7 @@ describe('the scene reader takes the same forms for the site', () => {
   });
   it('says what is missing when the longitude is left out, with the line', () => {
     expect(() => readSceneText(scene('  latitudeDeg: 48.2'), 'velmar.yaml')).toThrow(
-      /^site\.longitudeDeg is missing; expected a longitude in degrees from -180 to 180, east positive.* The site needs "longitudeDeg"\. See line 3 of velmar\.yaml\.$/,
+      /^site\.longitudeDeg is missing; expected a longitude in degrees from -180 to 180, east positive.* The site needs "longitudeDeg"\. See line 4 of velmar\.yaml\.$/,
     );
   });
 });
