@@ -3,6 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { outputForm } from './outputFormat.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 export interface ReportOptions {
@@ -34,11 +35,13 @@ export function registerReport(program: Command, io: CliIo): void {
         '  heliochron report examples/marktgasse-print.yaml -o marktgasse-report.html\n',
     )
     .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
+      const output = options.output === undefined ? undefined : String(options.output);
+      outputForm(output, 'html', false, ['html'], 'report');
       const { run } = await import('./reportCommand.js');
       await run(
         [scene],
         {
-          output: options.output === undefined ? undefined : String(options.output),
+          output,
           force: options.force === true,
           seed: parseSeedOption(options.seed),
           version: String(command.parent?.version() ?? ''),

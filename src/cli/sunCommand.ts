@@ -137,7 +137,7 @@ function defaultsLine(options: SunOptions): string {
   const names: Record<string, string> = {
     elevation: `--elevation ${options.elevation} m`,
     calendar: `--calendar ${options.calendar} (proleptic Gregorian before 1582)`,
-    clock: `--clock ${options.clock} (local mean time)`,
+    clock: `--clock ${options.clock} (${describeClockKind(parseClockKind(options.clock, '--clock'))})`,
     pressure: `--pressure ${options.pressure} hPa`,
     temperature: `--temperature ${options.temperature} C`,
     step: `--step ${options.step} min`,

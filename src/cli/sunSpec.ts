@@ -3,11 +3,12 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { CLOCK_DEFAULT, CLOCK_DEFAULT_WHY, CLOCK_FLAGS, CLOCK_KINDS_HELP } from './clockOption.js';
 
 export const SUN_DEFAULTS = {
   elevation: '0',
   calendar: 'gregorian',
-  clock: 'mean',
+  clock: CLOCK_DEFAULT,
   pressure: '1010',
   temperature: '10',
   step: '30',
@@ -52,13 +53,7 @@ export function registerSun(program: Command, io: CliIo): void {
       SUN_DEFAULTS.calendar,
     )
     .option('--time <hh:mm[:ss]>', 'time of day on the clock given by --clock (not needed with --day)')
-    .option(
-      '--clock <kind>',
-      "what the time was kept in: 'apparent' (sundial), 'mean' (local mean time), 'meridian:<deg>' (mean time of that " +
-        "meridian, east positive), 'zone:<IANA name>' (e.g. zone:Europe/Zurich; from 1847 on, or local mean time where the " +
-        "zone database starts with it), 'ut'",
-      SUN_DEFAULTS.clock,
-    )
+    .option(CLOCK_FLAGS, `what the time was kept in: ${CLOCK_KINDS_HELP}`, SUN_DEFAULTS.clock)
     .option('--pressure <hPa>', 'air pressure for refraction, hPa', SUN_DEFAULTS.pressure)
     .option('--temperature <C>', 'air temperature for refraction, degrees Celsius', SUN_DEFAULTS.temperature)
     .option('--json', 'print one JSON object instead of text')
@@ -67,9 +62,11 @@ export function registerSun(program: Command, io: CliIo): void {
     .addHelpText(
       'after',
       '\nNothing is guessed silently: without --calendar the date is read in the proleptic Gregorian calendar, without\n' +
-        '--clock the time is local mean time, without --pressure/--temperature refraction uses 1010 hPa and 10 C, and\n' +
-        'every answer lists the defaults it used. Examples (Velmar, 47.62 N 9.35 E):\n' +
-        '  heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30 --clock apparent\n' +
+        `--clock the time is ${CLOCK_DEFAULT_WHY},\n` +
+        'without --pressure/--temperature refraction uses 1010 hPa and 10 C, and every answer lists the defaults it used.\n' +
+        'Examples (Velmar, 47.62 N 9.35 E):\n' +
+        '  heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30\n' +
+        `  heliochron sun --lat 47°37'N --lon 9°21'E --date 1780-06-15 --time 16:00 --clock mean\n` +
         '  heliochron sun --lat 47.62 --lon 9.35 --date 1890-06-15 --time 16:00 --clock zone:Europe/Zurich --json\n' +
         '  heliochron sun --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --day --step 60\n',
     )
