@@ -17,7 +17,7 @@ import {
 } from '../calendar/regions.js';
 import { reckoningName } from '../calendar/reckoning.js';
 import { formatDayWithYearText, formatDayWords, formatDualStyle, formatIsoDay } from '../calendar/format.js';
-import { formatDualYear, historicalToJanuaryYear } from '../calendar/yearStart.js';
+import { checkDualYearUnderStyle, formatDualYear, historicalToJanuaryYear } from '../calendar/yearStart.js';
 import type { CliIo } from './io.js';
 
 export interface CalendarOptions {
@@ -85,6 +85,7 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
     readAs = `Julian Day ${jdMatch[1]}`;
   } else {
     const parsed = parseDateParts(text, '<date>');
+    if (parsed.dualYear) checkDualYearUnderStyle(parsed.day, style, '<date>', text);
     const day: CivilDay = parsed.dualYear ? parsed.day : { ...parsed.day, year: historicalToJanuaryYear(parsed.day, style) };
     civilJd = civilDateToJd(resolved, day, '<date>');
     readAs = parsed.dualYear || style === 'jan1'
