@@ -92,7 +92,7 @@ export function parseCoordinate(value: unknown, axis: CoordinateAxis, field: str
   }
   const m = DMS.exec(text);
   if (!m) throw new InvalidInputError(field, value, words);
-  const [, degText, , minText, , secText] = m;
+  const [, degText, degMark, minText, , secText] = m;
   const degrees = Number(degText);
   const minutes = minText === undefined ? 0 : Number(minText);
   const seconds = secText === undefined ? 0 : Number(secText);
@@ -108,7 +108,8 @@ export function parseCoordinate(value: unknown, axis: CoordinateAxis, field: str
   // 1 degree = 60 minutes = 3600 seconds (sexagesimal division, common practice).
   const result = sign * (degrees + minutes / 60 + seconds / 3600);
   if (Math.abs(result) > limit) {
-    throw new InvalidInputError(field, value, words, `That is ${decimalText(result)} degrees.`);
+    const plain = letter === undefined && minText === undefined && degMark === undefined;
+    throw new InvalidInputError(field, value, words, plain ? undefined : `That is ${decimalText(result)} degrees.`);
   }
   return result;
 }
