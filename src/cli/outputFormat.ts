@@ -49,7 +49,8 @@ export function outputForm(output: string | undefined, asked: OutputForm, flagGi
   if (named === undefined || !forms.includes(named)) {
     const other = named === undefined ? undefined : OTHER_COMMAND[named];
     const hint = `${command} writes ${wordList(forms.map((f) => FORM_WORDS[f]))}, not ${named === undefined ? `a ${ext} file` : FORM_WORDS[named]}`;
-    throw new InvalidInputError('--output', output, allowed, other === undefined ? `${hint}.` : `${hint}; for ${FORM_WORDS[named as OutputForm]} use ${other}.`);
+    const pdf = ext === '.pdf' && forms.includes('html') ? '; open the HTML in a browser and print it to PDF' : '';
+    throw new InvalidInputError('--output', output, allowed, other === undefined ? `${hint}${pdf}.` : `${hint}; for ${FORM_WORDS[named as OutputForm]} use ${other}.`);
   }
   if (flagGiven && named !== asked) {
     throw new InvalidInputError('--output', output, allowed, `The name says ${FORM_WORDS[named]} but --${asked} asks for ${FORM_WORDS[asked]}; change one of them.`);
