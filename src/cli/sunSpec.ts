@@ -66,7 +66,7 @@ export function registerSun(program: Command, io: CliIo): void {
         'without --pressure/--temperature refraction uses 1010 hPa and 10 C, and every answer lists the defaults it used.\n' +
         'Examples (Velmar, 47.62 N 9.35 E):\n' +
         '  heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30\n' +
-        `  heliochron sun --lat 47°37'N --lon 9°21'E --date 1780-06-15 --time 16:00 --clock mean\n` +
+        `  heliochron sun --lat "47°37'N" --lon "9 21 E" --date 1780-06-15 --time 16:00 --clock mean\n` +
         '  heliochron sun --lat 47.62 --lon 9.35 --date 1890-06-15 --time 16:00 --clock zone:Europe/Zurich --json\n' +
         '  heliochron sun --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --day --step 60\n',
     )
