@@ -5,7 +5,8 @@
  * contradict their day. Every refusal: one line naming the field, the value and what is allowed,
  * exit code 2, nothing on the output stream and no file written.
  */
-import { copyFileSync, readdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { spawnSync } from 'node:child_process';
+import { copyFileSync, readdirSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
@@ -241,5 +242,28 @@ describe('a dual year that contradicts its day', () => {
     const r = await cli(['calendar', '1650/1-02-10', '--year-start', 'mar25-forward'], tempDir());
     expect(r.code, r.err).toBe(0);
     expect(r.out).toContain('read as 10 February 1651');
+  });
+});
+
+describe('installed, heliochron runs from any folder', () => {
+  // `npm install -g` puts a symbolic link to the package's bin file on the PATH; .ci/run checks the whole
+  // installation (pack, install into a temporary prefix); here the link alone, run from another folder.
+  const root = fileURLToPath(new URL('../../', import.meta.url));
+  const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { bin: Record<string, string>; files: string[] };
+
+  it('the package names its bin and ships what the bin reads at run time', () => {
+    expect(pkg.bin.heliochron).toBe('dist/cli/main.js');
+    for (const folder of ['dist', 'data', 'examples']) expect(pkg.files).toContain(folder);
+  });
+
+  it('a link to the bin, run from another folder, answers', () => {
+    const dir = tempDir();
+    symlinkSync(join(root, pkg.bin.heliochron), join(dir, 'heliochron'));
+    copyFileSync(EXAMPLE, join(dir, 'scene.yaml'));
+    const r = spawnSync(process.execPath, [join(dir, 'heliochron'), 'calendar', '1752-09-14', '--calendar', 'great-britain'], { cwd: dir, encoding: 'utf8' });
+    expect(r.stderr).toBe('');
+    expect(r.status).toBe(0);
+    // 14 September 1752 (Gregorian) = 3 September (Julian) in Great Britain (Calendar (New Style) Act 1750).
+    expect(r.stdout).toContain('Julian:        3 September 1752');
   });
 });
