@@ -26,7 +26,7 @@ export function registerReport(program: Command, io: CliIo): void {
         'and what is needed to reproduce it (version, SHA-256 of the scene file, the command, the seed).',
     )
     .argument('<scene>', 'the scene file (.yaml, .yml or .json)')
-    .option('-o, --output <file>', 'write the HTML to this file (default: print it)')
+    .option('-o, --output <file>', 'write the HTML to this file, ending in .html (default: print it)')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
