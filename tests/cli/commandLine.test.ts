@@ -267,3 +267,13 @@ describe('installed, heliochron runs from any folder', () => {
     expect(r.stdout).toContain('Julian:        3 September 1752');
   });
 });
+
+describe('a dual year read without a stated year start', () => {
+  it('calendar 1650/1-03-30 names the only style that writes 30 March with two years', async () => {
+    const r = await cli(['calendar', '1650/1-03-30'], tempDir());
+    expect(r.code, r.err).toBe(0);
+    // Pisan style: from 25 March the next year's number (Cheney, A Handbook of Dates (2000), ch. 1).
+    expect(r.out).toContain('read as 30 March 1650 (dual year 1650/1: January year 1650)');
+    expect(r.out).toMatch(/Note: +a dual year on 30 March is written only under mar25-backward .*; read so, it is January year 1650; add --year-start/);
+  });
+});
