@@ -39,20 +39,28 @@ export function quoteValue(value: unknown): string {
 }
 
 /**
+ * The first part of a refusal: "<field>: <quoted value> is not allowed; expected <allowed>",
+ * or "<field> is missing; expected <allowed>" when nothing was given.
+ */
+export function refusalHead(field: string, value: unknown, allowed: string): string {
+  if (value === undefined) return `${field} is missing; expected ${allowed}`;
+  return `${field}: ${quoteValue(value)} is not allowed; expected ${allowed}`;
+}
+
+/**
  * Bad input: names the field (an option such as `--lat`, or a path in a scene
  * file such as `walls[1].azimuthDeg`), quotes the value and says what is allowed.
  * @example new InvalidInputError('--lat', 95, 'a latitude from -90 to 90 degrees')
  *   // message: "--lat: 95 is not allowed; expected a latitude from -90 to 90 degrees"
+ * @example new InvalidInputError('--lat', undefined, 'a latitude from -90 to 90 degrees')
+ *   // message: "--lat is missing; expected a latitude from -90 to 90 degrees"
  */
 export class InvalidInputError extends HeliochronError {
   readonly field: string;
   readonly value: unknown;
   readonly allowed: string;
   constructor(field: string, value: unknown, allowed: string, detail?: string) {
-    super(
-      'invalid-input',
-      `${field}: ${quoteValue(value)} is not allowed; expected ${allowed}${detail ? `. ${detail}` : ''}`,
-    );
+    super('invalid-input', `${refusalHead(field, value, allowed)}${detail ? `. ${detail}` : ''}`);
     this.field = field;
     this.value = value;
     this.allowed = allowed;

@@ -107,3 +107,36 @@ export function parseDualYear(text: string, month: number, day: number, field: s
   }
   return before(month, day, 3, 25) ? full : earlier;
 }
+
+/** The days that carry two year numbers under each style (none under jan1). */
+const DUAL_SPAN: Record<YearStartStyle, string> = {
+  jan1: 'no days',
+  'mar25-forward': '1 January to 24 March',
+  'mar25-backward': '25 March to 31 December',
+  mar1: '1 January to the end of February',
+  dec25: '25 to 31 December',
+};
+
+/**
+ * Refuse a dual year written on a day that carries only one year number under the stated style:
+ * `1650/1-03-30` under mar25-forward (the year began on 25 March, so 30 March is plainly 1650 or 1651).
+ * Under jan1, the default when no style is stated, a dual year is read as written (it names the
+ * style of its document itself).
+ * @param day the day as read, with its January year (parseDualYear's result)
+ * @param quoted the whole date as written, for the message
+ * @throws InvalidInputError naming the field, quoting the date, saying which days are dual under the style
+ * @example checkDualYearUnderStyle({ year: 1650, month: 3, day: 30 }, 'mar25-forward', '<date>', '1650/1-03-30') // throws
+ */
+export function checkDualYearUnderStyle(day: CivilDay, style: YearStartStyle, field: string, quoted: string): void {
+  if (style === 'jan1' || historicalOffset(day.month, day.day, style) !== 0) return;
+  // The two January years the dual year names (parseDualYear took the later before 25 March, else the earlier).
+  const [earlier, later] = before(day.month, day.day, 3, 25) ? [day.year - 1, day.year] : [day.year, day.year + 1];
+  const iso = (year: number): string => `${year}-${String(day.month).padStart(2, '0')}-${String(day.day).padStart(2, '0')}`;
+  throw new InvalidInputError(
+    field,
+    quoted,
+    `a single year for a day that carries one year number under ${style}`,
+    `Under ${style} only ${DUAL_SPAN[style]} are written with two years; write ${iso(earlier)} or ${iso(later)}, ` +
+      'or state the year start the document used.',
+  );
+}

@@ -4,7 +4,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import type { CivilDay, YearStartStyle } from '../scene/types.js';
-import { ROME_FIRST_GREGORIAN_JD, WEEKDAY_NAMES, jdToCalendarDate, weekdayOfJd } from '../calendar/julianDay.js';
+import { MONTH_NAMES, ROME_FIRST_GREGORIAN_JD, WEEKDAY_NAMES, jdToCalendarDate, weekdayOfJd } from '../calendar/julianDay.js';
 import { parseDateParts } from '../calendar/parseDate.js';
 import {
   civilDateToJd,
@@ -17,7 +17,7 @@ import {
 } from '../calendar/regions.js';
 import { reckoningName } from '../calendar/reckoning.js';
 import { formatDayWithYearText, formatDayWords, formatDualStyle, formatIsoDay } from '../calendar/format.js';
-import { formatDualYear, historicalToJanuaryYear } from '../calendar/yearStart.js';
+import { checkDualYearUnderStyle, formatDualYear, historicalOffset, historicalToJanuaryYear } from '../calendar/yearStart.js';
 import type { CliIo } from './io.js';
 
 export interface CalendarOptions {
@@ -79,12 +79,21 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
   // The day: a JD, or a date written in the stated calendar and year-start style.
   let civilJd: number; // a count of local civil days, no time scale
   let readAs: string;
+  let dualNote: string | null = null;
   const jdMatch = /^JD\s*([-+]?\d+(?:\.\d+)?)$/i.exec(text.trim());
   if (jdMatch) {
     civilJd = Number(jdMatch[1]);
     readAs = `Julian Day ${jdMatch[1]}`;
   } else {
     const parsed = parseDateParts(text, '<date>');
+    if (parsed.dualYear) checkDualYearUnderStyle(parsed.day, style, '<date>', text);
+    if (parsed.dualYear && style === 'jan1') {
+      // No style stated: say which styles write this day with two years, so the reading can be checked.
+      const styles = YEAR_STARTS.filter((s) => historicalOffset(parsed.day.month, parsed.day.day, s) !== 0);
+      dualNote =
+        `a dual year on ${parsed.day.day} ${MONTH_NAMES[parsed.day.month - 1]} is written only under ${styles.map((s) => `${s} (${YEAR_START_WORDS[s]})`).join(' or ')}; ` +
+        `read so, it is January year ${parsed.day.year}; add --year-start to state the style of the document`;
+    }
     const day: CivilDay = parsed.dualYear ? parsed.day : { ...parsed.day, year: historicalToJanuaryYear(parsed.day, style) };
     civilJd = civilDateToJd(resolved, day, '<date>');
     readAs = parsed.dualYear || style === 'jan1'
@@ -126,7 +135,7 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
       civil: { reckoning: civil.reckoning, year: civilDay.year, month: civilDay.month, day: civilDay.day, text: formatDayWords(civilDay) },
       oldStyleNewStyle: dualStyle,
       dualYear: { style, text: dualYear },
-      notes: regionStyleNote === null ? [] : [regionStyleNote],
+      notes: [dualNote, regionStyleNote].filter((n): n is string => n !== null),
     };
     io.out(`${JSON.stringify(out, null, 2)}\n`);
     return;
@@ -144,6 +153,7 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
     `Civil date:    ${formatDayWords(civilDay)} (${reckoningName(civil.reckoning)}) under ${resolved.label}`,
     ...(dualStyle ? [`Old/New Style: ${dualStyle}`] : []),
     `Year written:  ${dualYear} (${style})`,
+    ...(dualNote ? [`Note:          ${dualNote}`] : []),
     ...(regionStyleNote ? [`Note:          ${regionStyleNote}`] : []),
   ];
   io.out(`${lines.join('\n')}\n`);

@@ -3,10 +3,13 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { outputForm } from './outputFormat.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 export const CHART_KINDS = ['map', 'sky', 'residuals'] as const;
 export type ChartKind = (typeof CHART_KINDS)[number];
+/** The value of --kind that writes every chart, each into its own file. */
+export const ALL_CHARTS = 'all';
 
 /** The options as the command receives them (the kind is validated in chartCommand.ts). */
 export interface ChartOptions {
@@ -29,23 +32,30 @@ export function registerChart(program: Command, io: CliIo): void {
         'candidate, in units of its sigma. docs/pictures.md explains how to read them.',
     )
     .argument('<scene>', 'the scene file (.yaml, .yml or .json)')
-    .option('--kind <kind>', `which chart: ${CHART_KINDS.join(', ')}`)
-    .option('-o, --output <file>', 'write the SVG to this file (default: print it)')
+    .option(
+      '--kind <kind>',
+      `which chart (required): ${CHART_KINDS.join(', ')}, or ${ALL_CHARTS} for the three, each in its own file ` +
+        'NAME-map.svg, NAME-sky.svg, NAME-residuals.svg (NAME from -o, else the scene file\'s name, in the current folder)',
+    )
+    .option('-o, --output <file>', 'write the SVG to this file, ending in .svg (default: print it; with --kind all, the NAME of the three files)')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
       'after',
       '\nExamples (the bundled example is in the fictional town of Velmar):\n' +
         '  heliochron chart examples/marktgasse-print.yaml --kind map -o map.svg\n' +
-        '  heliochron chart examples/marktgasse-print.yaml --kind sky -o sky.svg --force\n',
+        '  heliochron chart examples/marktgasse-print.yaml --kind sky -o sky.svg --force\n' +
+        '  heliochron chart examples/marktgasse-print.yaml --kind all -o marktgasse.svg   (marktgasse-map.svg, -sky.svg, -residuals.svg)\n',
     )
     .action(async (scene: string, options: Record<string, unknown>) => {
+      const output = options.output === undefined ? undefined : String(options.output);
+      outputForm(output, 'svg', false, ['svg'], 'chart');
       const { run } = await import('./chartCommand.js');
       await run(
         [scene],
         {
           kind: options.kind === undefined ? undefined : String(options.kind),
-          output: options.output === undefined ? undefined : String(options.output),
+          output,
           force: options.force === true,
           seed: parseSeedOption(options.seed),
         },

@@ -17,6 +17,7 @@ import { parseTimeOfDay } from './sunCommand.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
 import type { CheckOptions } from './checkSpec.js';
+import { CLOCK_DEFAULT } from './clockOption.js';
 
 const SEASON_ALLOWED =
   'months as numbers or English names (three letters or more): a range 5-9 or may-sep (nov-feb wraps the year end), a list 5,6,7, or both (5-6,9)';
@@ -92,7 +93,7 @@ export function proposalFromOptions(options: CheckOptions, scene: Scene): Propos
     const on = day(options.on, '--on');
     if (options.time === undefined) return { kind: 'day', day: on.day };
     const timeMinutes = parseTimeOfDay(options.time, '--time');
-    const timeClock = options.clock === undefined ? { kind: 'apparent' as const } : parseClockKind(options.clock, '--clock');
+    const timeClock = parseClockKind(options.clock ?? CLOCK_DEFAULT, '--clock');
     if (options.within === undefined) return { kind: 'day', day: on.day, timeMinutes, timeClock };
     return { kind: 'day', day: on.day, timeMinutes, timeClock, timeToleranceMinutes: toleranceMinutes(options.within) };
   }

@@ -3,6 +3,8 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { outputForm } from './outputFormat.js';
+import { CLOCK_DEFAULT, CLOCK_DEFAULT_WHY, CLOCK_FLAGS, CLOCK_KINDS_HELP } from './clockOption.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 /** The options as the command receives them (strings, validated in checkCommand.ts). */
@@ -34,12 +36,12 @@ export function registerCheck(program: Command, io: CliIo): void {
     .argument('<scene>', 'the scene file (.yaml, .yml or .json); put it before --between')
     .option('--on <date>', 'one civil day: 1771-07-30, "30 July 1771", 1650/1-02-10 (dual year)')
     .option('--time <hh:mm>', 'with --on: the hour, on the clock given by --clock')
-    .option('--clock <kind>', "with --time: what the hour was kept in: apparent (the default), mean, meridian:<deg>, zone:<IANA name>, ut")
+    .option(CLOCK_FLAGS, `with --time: what the hour was kept in: ${CLOCK_KINDS_HELP} (default: ${CLOCK_DEFAULT}, ${CLOCK_DEFAULT_WHY})`)
     .option('--within <minutes>', 'with --time: how far the true hour may lie from it, minutes (default 0: the hour is taken as exact)')
     .option('--between <dates...>', 'two civil days, the first and the last of a range (both included)')
     .option('--season <months>', 'months of any year of the window: 5-9, may-sep, 5,6,7, nov-feb (wraps the year end)')
     .option('--json', 'print one JSON object instead of text')
-    .option('-o, --output <file>', 'write the answer to this file instead of the screen')
+    .option('-o, --output <file>', 'write the answer to this file instead of the screen; a name ending in .json writes JSON, .txt text')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
@@ -50,8 +52,10 @@ export function registerCheck(program: Command, io: CliIo): void {
         '  heliochron check examples/marktgasse-print.yaml --season may-jun --json\n',
     )
     .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
-      const { run } = await import('./checkCommand.js');
       const text = (name: string): string | undefined => (options[name] === undefined ? undefined : String(options[name]));
+      const json = options.json === true;
+      const form = outputForm(text('output'), json ? 'json' : 'text', json, ['text', 'json'], 'check');
+      const { run } = await import('./checkCommand.js');
       await run([scene], {
         on: text('on'),
         time: text('time'),
@@ -59,7 +63,7 @@ export function registerCheck(program: Command, io: CliIo): void {
         within: text('within'),
         between: Array.isArray(options.between) ? options.between.map(String) : undefined,
         season: text('season'),
-        json: options.json === true,
+        json: form === 'json',
         output: text('output'),
         force: options.force === true,
         seed: parseSeedOption(options.seed),

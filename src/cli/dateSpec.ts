@@ -3,6 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { outputForm } from './outputFormat.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 /** The options as the command receives them. */
@@ -33,7 +34,7 @@ export function registerDate(program: Command, io: CliIo): void {
     .option('--json', 'print one JSON object instead of text (byte-identical for the same input)')
     .option('--csv', 'print one CSV row per candidate, with a header row')
     .option('--all-years', 'list every year of each family (one line, or CSV row, per year)')
-    .option('-o, --output <file>', 'write the answer to this file instead of the screen')
+    .option('-o, --output <file>', 'write the answer to this file instead of the screen; a name ending in .json writes JSON, .csv CSV, .txt text')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
@@ -44,12 +45,17 @@ export function registerDate(program: Command, io: CliIo): void {
         '  heliochron date examples/upper-gate-drawing.yaml --all-years --csv\n',
     )
     .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
+      const output = options.output === undefined ? undefined : String(options.output);
+      const json = options.json === true;
+      const csv = options.csv === true;
+      // The form from the output file's name (both flags together are refused by the command).
+      const form = json && csv ? 'text' : outputForm(output, json ? 'json' : csv ? 'csv' : 'text', json || csv, ['text', 'json', 'csv'], 'date');
       const { run } = await import('./dateCommand.js');
       await run([scene], {
-        json: options.json === true,
-        csv: options.csv === true,
+        json: json || form === 'json',
+        csv: csv || form === 'csv',
         allYears: options.allYears === true,
-        output: options.output === undefined ? undefined : String(options.output),
+        output,
         force: options.force === true,
         seed: parseSeedOption(options.seed),
         version: String(command.parent?.version() ?? ''),

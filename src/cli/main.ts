@@ -6,7 +6,8 @@
  */
 import { readFileSync, realpathSync } from 'node:fs';
 import { pathToFileURL } from 'node:url';
-import { Command, CommanderError } from 'commander';
+import { CommanderError, type Command } from 'commander';
+import { HistorianCommand } from './commandLine.js';
 import { HeliochronError, quoteValue } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
 import { isSystemError, PLAIN_SYSTEM_ERRORS, systemErrorWords } from './systemErrors.js';
@@ -33,7 +34,7 @@ const COMMANDS: ReadonlyArray<(program: Command, io: CliIo) => void> = [
 export const EXIT_BAD_INPUT = 2;
 
 export async function main(argv: readonly string[], io: CliIo = processIo()): Promise<number> {
-  const program = new Command();
+  const program = new HistorianCommand();
   program
     .name('heliochron')
     .description('Date a depicted outdoor scene from its sunlight.')
@@ -42,8 +43,13 @@ export async function main(argv: readonly string[], io: CliIo = processIo()): Pr
     .configureOutput({
       writeOut: io.out,
       writeErr: io.err,
-      // The option parser's own complaints, as one line like every other refusal.
-      outputError: (text, write) => write(`heliochron: ${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ')}; add --help for the options\n`),
+      // The option parser's own complaints, as one line like every other refusal; ours (commandLine.ts) are already in shape.
+      outputError: (text, write) =>
+        write(
+          text.startsWith('error: ')
+            ? `heliochron: ${text.replace(/^error: /, '').trim().replace(/\s*\n\s*/g, ' ').replace(/\.$/, '')}; add --help for the options\n`
+            : `heliochron: ${text.trim().replace(/\s*\n\s*/g, ' ')}\n`,
+        ),
     });
   for (const register of COMMANDS) register(program, io);
   try {

@@ -3,6 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { outputForm } from './outputFormat.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 
 export interface ReportOptions {
@@ -25,7 +26,7 @@ export function registerReport(program: Command, io: CliIo): void {
         'and what is needed to reproduce it (version, SHA-256 of the scene file, the command, the seed).',
     )
     .argument('<scene>', 'the scene file (.yaml, .yml or .json)')
-    .option('-o, --output <file>', 'write the HTML to this file (default: print it)')
+    .option('-o, --output <file>', 'write the HTML to this file, ending in .html (default: print it)')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
@@ -34,11 +35,13 @@ export function registerReport(program: Command, io: CliIo): void {
         '  heliochron report examples/marktgasse-print.yaml -o marktgasse-report.html\n',
     )
     .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
+      const output = options.output === undefined ? undefined : String(options.output);
+      outputForm(output, 'html', false, ['html'], 'report');
       const { run } = await import('./reportCommand.js');
       await run(
         [scene],
         {
-          output: options.output === undefined ? undefined : String(options.output),
+          output,
           force: options.force === true,
           seed: parseSeedOption(options.seed),
           version: String(command.parent?.version() ?? ''),

@@ -8,6 +8,7 @@ import type { Air, CalendarRule, ClockKind } from '../scene/types.js';
 import { jdToCalendarDate, weekdayOfJd, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { civilDateToJd, jdToCivilDate, parseCalendarRule } from '../calendar/regions.js';
 import { parseDateText } from '../calendar/parseDate.js';
+import { coordinateWords, parseCoordinate, type CoordinateAxis } from '../scene/coordinateText.js';
 import { formatCalendarDate, formatDayWords, formatIsoDay } from '../calendar/format.js';
 import { sunPosition, type SunPosition, type SunSite } from '../ephemeris/sunPosition.js';
 import { sunEvents } from '../ephemeris/riseSet.js';
@@ -28,6 +29,12 @@ function numberOption(text: string | undefined, field: string, min: number, max:
   const value = NUMBER.test(text.trim()) ? Number(text) : NaN;
   if (!Number.isFinite(value) || value < min || value > max) throw new InvalidInputError(field, text, what);
   return value;
+}
+
+/** A required latitude or longitude: decimal degrees, or degrees-minutes-seconds with a hemisphere letter. */
+function coordinateOption(text: string | undefined, field: string, axis: CoordinateAxis): number {
+  if (text === undefined) throw new InvalidInputError(field, text, `${coordinateWords(axis)} (this option is required)`);
+  return parseCoordinate(text, axis, field);
 }
 
 /** hh:mm or hh:mm:ss (24-hour) to minutes since midnight. */
@@ -54,8 +61,8 @@ interface Inputs {
 
 function readInputs(options: SunOptions): Inputs {
   const site: SunSite = {
-    latitudeDeg: numberOption(options.lat, '--lat', -90, 90, 'a latitude from -90 to 90 degrees, north positive'),
-    longitudeDeg: numberOption(options.lon, '--lon', -180, 180, 'a longitude from -180 to 180 degrees, east positive'),
+    latitudeDeg: coordinateOption(options.lat, '--lat', 'latitude'),
+    longitudeDeg: coordinateOption(options.lon, '--lon', 'longitude'),
     elevationM: numberOption(options.elevation, '--elevation', -500, 9000, 'a height above sea level from -500 to 9000 metres'),
   };
   const air: Air = {
@@ -130,7 +137,7 @@ function defaultsLine(options: SunOptions): string {
   const names: Record<string, string> = {
     elevation: `--elevation ${options.elevation} m`,
     calendar: `--calendar ${options.calendar} (proleptic Gregorian before 1582)`,
-    clock: `--clock ${options.clock} (local mean time)`,
+    clock: `--clock ${options.clock} (${describeClockKind(parseClockKind(options.clock, '--clock'))})`,
     pressure: `--pressure ${options.pressure} hPa`,
     temperature: `--temperature ${options.temperature} C`,
     step: `--step ${options.step} min`,

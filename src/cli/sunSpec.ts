@@ -3,11 +3,12 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
+import { CLOCK_DEFAULT, CLOCK_DEFAULT_WHY, CLOCK_FLAGS, CLOCK_KINDS_HELP } from './clockOption.js';
 
 export const SUN_DEFAULTS = {
   elevation: '0',
   calendar: 'gregorian',
-  clock: 'mean',
+  clock: CLOCK_DEFAULT,
   pressure: '1010',
   temperature: '10',
   step: '30',
@@ -41,8 +42,8 @@ export function registerSun(program: Command, io: CliIo): void {
         'uncertainty, local apparent and mean time, the clock given), the civil date in both calendars, weekday and Julian Day. ' +
         'With --day: the whole day as a table between sunrise and sunset.',
     )
-    .option('--lat <deg>', 'latitude in degrees, north positive (-90 to 90)')
-    .option('--lon <deg>', 'longitude in degrees, east positive (-180 to 180)')
+    .option('--lat <deg>', `latitude in degrees, north positive (-90 to 90); also 48°12'30"N, "48 12 N", 48.2N`)
+    .option('--lon <deg>', `longitude in degrees, east positive (-180 to 180); also 16°24'E, "16 24 E", 16.4W (west negative)`)
     .option('--elevation <m>', 'height above sea level in metres', SUN_DEFAULTS.elevation)
     .option('--date <date>', 'the civil day: 1650-03-10, -0043-03-15 (astronomical years), 44-03-15 BC, "10 March 1650"')
     .option(
@@ -52,13 +53,7 @@ export function registerSun(program: Command, io: CliIo): void {
       SUN_DEFAULTS.calendar,
     )
     .option('--time <hh:mm[:ss]>', 'time of day on the clock given by --clock (not needed with --day)')
-    .option(
-      '--clock <kind>',
-      "what the time was kept in: 'apparent' (sundial), 'mean' (local mean time), 'meridian:<deg>' (mean time of that " +
-        "meridian, east positive), 'zone:<IANA name>' (e.g. zone:Europe/Zurich; from 1847 on, or local mean time where the " +
-        "zone database starts with it), 'ut'",
-      SUN_DEFAULTS.clock,
-    )
+    .option(CLOCK_FLAGS, `what the time was kept in: ${CLOCK_KINDS_HELP}`, SUN_DEFAULTS.clock)
     .option('--pressure <hPa>', 'air pressure for refraction, hPa', SUN_DEFAULTS.pressure)
     .option('--temperature <C>', 'air temperature for refraction, degrees Celsius', SUN_DEFAULTS.temperature)
     .option('--json', 'print one JSON object instead of text')
@@ -67,9 +62,11 @@ export function registerSun(program: Command, io: CliIo): void {
     .addHelpText(
       'after',
       '\nNothing is guessed silently: without --calendar the date is read in the proleptic Gregorian calendar, without\n' +
-        '--clock the time is local mean time, without --pressure/--temperature refraction uses 1010 hPa and 10 C, and\n' +
-        'every answer lists the defaults it used. Examples (Velmar, 47.62 N 9.35 E):\n' +
-        '  heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30 --clock apparent\n' +
+        `--clock the time is ${CLOCK_DEFAULT_WHY},\n` +
+        'without --pressure/--temperature refraction uses 1010 hPa and 10 C, and every answer lists the defaults it used.\n' +
+        'Examples (Velmar, 47.62 N 9.35 E):\n' +
+        '  heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30\n' +
+        `  heliochron sun --lat "47°37'N" --lon "9 21 E" --date 1780-06-15 --time 16:00 --clock mean\n` +
         '  heliochron sun --lat 47.62 --lon 9.35 --date 1890-06-15 --time 16:00 --clock zone:Europe/Zurich --json\n' +
         '  heliochron sun --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --day --step 60\n',
     )

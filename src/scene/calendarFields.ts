@@ -5,7 +5,7 @@
 import { InvalidInputError } from '../errors.js';
 import { civilDateToJd, findRegion, parseCalendarRule, yearStartInRegion } from '../calendar/regions.js';
 import { parseDateParts, parseDateText } from '../calendar/parseDate.js';
-import { historicalToJanuaryYear } from '../calendar/yearStart.js';
+import { checkDualYearUnderStyle, historicalToJanuaryYear } from '../calendar/yearStart.js';
 import { closestWord } from './didYouMean.js';
 import { checkChoice, keyPath, openFields, raw, has, missing } from './fields.js';
 import type { CalendarRule, CivilDay, YearStartStyle } from './types.js';
@@ -79,6 +79,7 @@ export function readCivilDate(value: unknown, path: string, rule: CalendarRule, 
   }
   // A dual year such as 1650/1-02-10 names the January year itself; a single year is read in the scene's style.
   const written = parseDateParts(value, path);
+  if (written.dualYear) checkDualYearUnderStyle(written.day, style, path, value);
   const day = style === 'jan1' || written.dualYear ? written.day : { ...written.day, year: historicalToJanuaryYear(written.day, style) };
   const jd0 = civilDateToJd(rule, day, path);
   return { day, jd0 };

@@ -9,13 +9,14 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { STANDARD_AIR } from '../ephemeris/refraction.js';
-import { InvalidInputError, quoteValue } from '../errors.js';
+import { InvalidInputError, refusalHead } from '../errors.js';
 import { readCalendar, readCivilDate, readYearStart } from './calendarFields.js';
 import {
   checkChoice, checkList, checkNumber, checkPair, exactlyOne, has, itemPath, keyPath, missing, num, openFields,
   optNum, optStr, raw, str, type NumberRule,
-  SIGMA_FLOOR,
+  SIGMA_FLOOR, type Fields,
 } from './fields.js';
+import { coordinateWords, parseCoordinate, type CoordinateAxis } from './coordinateText.js';
 import { MAX_SCENE_BYTES, parseSceneTextWithLines } from './parseSceneText.js';
 import { checkGroundWalls, needImage, readImage, readPlane } from './readImage.js';
 import { ID_PATTERN, ID_WORDS, NOTE_MAX, readObservation } from './readObservation.js';
@@ -55,11 +56,17 @@ const AZIMUTH: NumberRule = { words: 'an azimuth in degrees clockwise from true 
 const WALL_SIGMA: NumberRule = { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 45, zeroOrAtLeast: SIGMA_FLOOR };
 const MAP_COORD: NumberRule = { words: 'a map coordinate in metres', min: -1e7, max: 1e7 };
 
+/** A required latitude or longitude: decimal degrees, or degrees-minutes-seconds with a hemisphere letter. */
+function coordinate(f: Fields, key: string, axis: CoordinateAxis): number {
+  if (!has(f, key)) throw missing(f, key, coordinateWords(axis));
+  return parseCoordinate(raw(f, key), axis, keyPath(f.path, key));
+}
+
 function readSite(value: unknown): Site {
   const f = openFields(value, 'site', 'the site', SITE_KEYS);
   return {
-    latitudeDeg: num(f, 'latitudeDeg', { words: 'a latitude in degrees, north positive', min: -90, max: 90 }),
-    longitudeDeg: num(f, 'longitudeDeg', { words: 'a longitude in degrees, east positive', min: -180, max: 180 }),
+    latitudeDeg: coordinate(f, 'latitudeDeg', 'latitude'),
+    longitudeDeg: coordinate(f, 'longitudeDeg', 'longitude'),
     elevationM: optNum(f, 'elevationM', { words: 'a height above sea level in metres', min: -500, max: 9000 }, 0),
     latitudeSigmaDeg: optNum(f, 'latitudeSigmaDeg', { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 5, zeroOrAtLeast: SIGMA_FLOOR }, 0),
     longitudeSigmaDeg: optNum(f, 'longitudeSigmaDeg', { words: 'a sigma in degrees (0 = known exactly)', min: 0, max: 5, zeroOrAtLeast: SIGMA_FLOOR }, 0),
@@ -245,7 +252,7 @@ export function readSceneText(text: string, fileName: string): Scene {
     // Say where in the file: "... (line 14 of velmar.yaml)".
     const line = parsed.lineOf(error.field);
     if (line === undefined) throw error;
-    const head = `${error.field}: ${quoteValue(error.value)} is not allowed; expected ${error.allowed}`;
+    const head = refusalHead(error.field, error.value, error.allowed);
     const detail = error.message.startsWith(head) ? error.message.slice(head.length).replace(/^\. /, '') : '';
     const where = `See line ${line} of ${fileName}.`;
     throw new InvalidInputError(error.field, error.value, error.allowed, detail ? `${detail} ${where}` : where);

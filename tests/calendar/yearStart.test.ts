@@ -5,6 +5,7 @@ import {
   historicalToJanuaryYear,
   januaryYearToHistorical,
   parseDualYear,
+  checkDualYearUnderStyle,
 } from '../../src/calendar/yearStart.js';
 import type { YearStartStyle } from '../../src/scene/types.js';
 
@@ -69,5 +70,34 @@ describe('edge cases', () => {
   it('refuses a dual year whose second part is not the next year', () => {
     expect(() => parseDualYear('1650/2', 2, 10, 'date')).toThrow(/does not read as 1651/);
     expect(() => parseDualYear('1650-1', 2, 10, 'date')).toThrow(/dual year such as 1650\/1/);
+  });
+});
+
+describe('a dual year that contradicts its day under the stated year start', () => {
+  // Which days carry two year numbers under each style follows from the table above (common practice of
+  // chronology; Cheney, A Handbook of Dates (2000), ch. 1): a day is dual exactly when its historical and
+  // January years differ.
+  it.each([
+    ['mar25-forward', 3, 30, '1650/1-03-30'], // 30 March is after Lady Day: plainly 1650 or 1651
+    ['mar25-backward', 2, 10, '1650/1-02-10'], // Pisan: before 25 March both counts agree
+    ['mar1', 3, 10, '1650/1-03-10'], // Venetian: March already belongs to the new year
+    ['dec25', 6, 1, '1650/1-06-01'], // nativity: only 25-31 December are dual
+  ] as const)('under %s, %i/%i written %s is refused, naming both plain readings', (style, month, day, text) => {
+    const januaryYear = parseDualYear('1650/1', month, day, 'date');
+    expect(() => checkDualYearUnderStyle({ year: januaryYear, month, day }, style, 'date', text)).toThrow(
+      new RegExp(`^date: "${text.replace(/\//g, '\\/')}" is not allowed; expected a single year .* under ${style}\\. .* write 1650-${String(month).padStart(2, '0')}-${String(day).padStart(2, '0')} or 1651-`),
+    );
+  });
+  it.each([
+    ['mar25-forward', 2, 10],
+    ['mar25-backward', 3, 30],
+    ['mar1', 2, 10],
+    ['dec25', 12, 28],
+    ['jan1', 3, 30], // no style stated: the dual year names its document's style itself
+  ] as const)('under %s, %i/%i with a dual year is read', (style, month, day) => {
+    const januaryYear = parseDualYear('1650/1', month, day, 'date');
+    expect(() => checkDualYearUnderStyle({ year: januaryYear, month, day }, style, 'date', 'x')).not.toThrow();
+    // ... and the reading agrees with the style's own historical year: one of the two numbers is the historical year.
+    if (style !== 'jan1') expect([1650, 1651]).toContain(januaryYearToHistorical({ year: januaryYear, month, day }, style));
   });
 });

@@ -85,7 +85,7 @@ describe('heliochron calendar through main()', () => {
       [['calendar', '1650-13-01'], /<date>: "1650-13-01" .*Month 13 does not exist/],
       [['calendar', '1650-01-01', '--calendar', 'great-britian'], /--calendar: "great-britian" .*Did you mean "great-britain"/],
       [['calendar', '1650-01-01', '--year-start', 'easter'], /--year-start: "easter" is not allowed; expected jan1, mar25-forward/],
-      [['calendar'], /<date>: nothing is not allowed/],
+      [['calendar'], /<date> is missing; expected a date/],
     ])('%j', async (args, pattern) => {
       const r = await runMain(args);
       expect(r.code).toBe(2);

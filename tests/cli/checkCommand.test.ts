@@ -76,7 +76,7 @@ describe('heliochron check', () => {
 
 describe('bad input: one line, exit 2, nothing written', () => {
   const cases: [string, string[], RegExp][] = [
-    ['no proposal', [], /--on\/--between\/--season: nothing is not allowed; expected exactly one of --on <date>, --between <date> <date>, --season <months>/],
+    ['no proposal', [], /--on\/--between\/--season is missing; expected exactly one of --on <date>, --between <date> <date>, --season <months>/],
     ['two proposals', ['--on', '1771-07-30', '--season', '5-9'], /"--on --season" is not allowed; expected exactly one of/],
     ['a bad date', ['--on', '1771-13-01'], /--on: "1771-13-01" is not allowed/],
     ['29 February of a common Gregorian year', ['--on', '1771-02-29'], /--on: "1771-02-29" is not allowed/],

@@ -125,9 +125,15 @@ describe('bad input: one line, exit 2, nothing written', () => {
   it('the output may not be the input', async () => {
     const dir = tempDir();
     writeFileSync(join(dir, 'scene.yaml'), readFileSync(`${ROOT}${MARKTGASSE}`, 'utf8'));
+    // A .yaml name is no output form at all (refused by its extension); a scene kept as .txt reaches the input guard.
     const r = await cli(['date', 'scene.yaml', '-o', 'scene.yaml', '--force'], dir);
     expect(r.code).toBe(2);
-    expect(r.err).toContain('is the input file');
+    expect(r.err).toContain('--output: "scene.yaml" is not allowed');
     expect(readFileSync(join(dir, 'scene.yaml'), 'utf8')).toBe(readFileSync(`${ROOT}${MARKTGASSE}`, 'utf8'));
+    writeFileSync(join(dir, 'scene.txt'), readFileSync(`${ROOT}${MARKTGASSE}`, 'utf8'));
+    const txt = await cli(['date', 'scene.txt', '-o', 'scene.txt', '--force'], dir);
+    expect(txt.code).toBe(2);
+    expect(txt.err).toContain('is the input file');
+    expect(readFileSync(join(dir, 'scene.txt'), 'utf8')).toBe(readFileSync(`${ROOT}${MARKTGASSE}`, 'utf8'));
   });
 });

@@ -41,7 +41,7 @@ describe('measureScenePixels', () => {
   });
   test('a wall without imagePlane and an unknown wall id are named by path', () => {
     const noPlane: Scene = { ...SCENE, observations: [{ id: 'b', kind: 'rod-shadow', wallId: 'granary', pixels: { fromPx: [1, 2], toPx: [3, 4] } }] };
-    expect(() => measureScenePixels(noPlane)).toThrow(/^walls\[0\]\.imagePlane:/);
+    expect(() => measureScenePixels(noPlane)).toThrow(/^walls\[0\]\.imagePlane is missing; /);
     const unknown: Scene = { ...SCENE, observations: [{ id: 'b', kind: 'rod-shadow', wallId: 'chapel', pixels: { fromPx: [1, 2], toPx: [3, 4] } }] };
     expect(() => measureScenePixels(unknown)).toThrow(/^observations\[0\]\.wallId: "chapel"/);
   });

@@ -34,10 +34,11 @@ import { renderDateText } from '../../src/report/text.js';
 import { nonFinitePaths } from './robustHelpers.js';
 
 /**
- * Bound on each call (solveDates, checkProposal), ms: a hang guard, far above the typical 10-300 ms
- * (the slowest seen, a 1750-year window, took 1.8 s on a loaded 2-core machine).
+ * Hang guard on each call (solveDates, checkProposal), ms: far above the typical 10-300 ms (the slowest
+ * seen, a 1750-year window, took 1.8 s on a loaded 2-core machine), so that only a runaway fails.
+ * Speed is measured in bench/solver-window.mjs, not here.
  */
-export const CASE_LIMIT_MS = 5000;
+export const CASE_WATCHDOG_MS = 30_000;
 export const BAD_WORDS = /\bNaN\b|\bInfinity\b|\bundefined\b/;
 
 export type Outcome = { kind: 'solved'; status: string } | { kind: 'refused'; errorKind: string; message: string };
@@ -97,7 +98,7 @@ function runOne(scene: Scene, i: number): { outcome: Outcome; ms: number } {
   return { outcome, ms };
 }
 
-/** Run each distinct scene once (timed twice more when slow, keeping the best time: a GC pause is not a hang). */
+/** Run each distinct scene once; a call past the hang guard fails. */
 export function runAll(scenes: readonly Scene[]): { outcomes: Outcome[]; slowestMs: number; distinct: number; totalMs: number } {
   const seen = new Map<string, Outcome>();
   const outcomes: Outcome[] = [];
@@ -107,12 +108,8 @@ export function runAll(scenes: readonly Scene[]): { outcomes: Outcome[]; slowest
     const key = JSON.stringify(scene);
     let outcome = seen.get(key);
     if (outcome === undefined) {
-      let r = runOne(scene, seen.size);
-      for (let retry = 0; retry < 2 && r.ms > CASE_LIMIT_MS; retry++) {
-        const again = runOne(scene, seen.size);
-        if (again.ms < r.ms) r = again;
-      }
-      if (r.ms > CASE_LIMIT_MS) throw new Error(`a call on scene ${i} took ${r.ms.toFixed(0)} ms (bound ${CASE_LIMIT_MS} ms): ${key.slice(0, 400)}`);
+      const r = runOne(scene, seen.size);
+      if (r.ms > CASE_WATCHDOG_MS) throw new Error(`a call on scene ${i} ran past the hang guard (${r.ms.toFixed(0)} ms): ${key.slice(0, 400)}`);
       slowestMs = Math.max(slowestMs, r.ms);
       outcome = r.outcome;
       seen.set(key, outcome);

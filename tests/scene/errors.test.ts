@@ -4,8 +4,11 @@ import { InvalidInputError } from '../../src/errors.js';
 import { readSceneText, sceneFromData } from '../../src/scene/readScene.js';
 import { BAD_SCENES, GOOD_SCENES } from './sceneSamples.js';
 
-/** The shape every refusal must have: "<path>: <quoted value> is not allowed; expected <what is allowed>". */
-export const MESSAGE_SHAPE = /^[^\s:][^:]*: .+ is not allowed; expected .+/s;
+/**
+ * The shape every refusal must have: "<path>: <quoted value> is not allowed; expected <what is allowed>",
+ * or, when nothing was given, "<path> is missing; expected <what is allowed>".
+ */
+export const MESSAGE_SHAPE = /^([^\s:][^:]*: .+ is not allowed|[^\s:][^:]* is missing); expected .+/s;
 
 function refusal(data: unknown): InvalidInputError {
   try {
@@ -97,7 +100,7 @@ describe('edge cases of the text', () => {
     const bad = text.replace('sigmaDeg: 2 }', 'sigmaDeg: -2 }');
     expect(() => readSceneText(bad, 'velmar.yaml')).toThrow(/^observations\[0\]\.sigmaDeg: -2 is not allowed; .* See line 36 of velmar\.yaml\.$/);
     const missing = text.replace('  - { id: chapel-lit, kind: wall-lit, wall: chapel-south }\n', '  - { id: chapel-lit, kind: wall-lit }\n');
-    expect(() => readSceneText(missing, 'velmar.yaml')).toThrow(/^observations\[5\]\.wall: nothing is not allowed; .* See line 46 of velmar\.yaml\.$/);
+    expect(() => readSceneText(missing, 'velmar.yaml')).toThrow(/^observations\[5\]\.wall is missing; .* See line 46 of velmar\.yaml\.$/);
   });
 
   it('refuses a __proto__ key as an unknown key rather than changing any prototype', () => {

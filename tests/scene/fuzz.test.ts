@@ -2,8 +2,9 @@
  * Fuzz test of the scene reader (fast-check): malformed, truncated and mutated
  * scene files in YAML and JSON. Contract: no exception other than
  * InvalidInputError; every refusal names a path or the file, quotes the value
- * and says what is allowed; no case takes longer than 200 ms; and every scene
- * the reader accepts is also valid under docs/scene.schema.json.
+ * and says what is allowed; no case hangs (a 30 s guard, not a speed target:
+ * bench/scene-reader.mjs measures speed); and every scene the reader accepts is
+ * also valid under docs/scene.schema.json.
  */
 import { readFileSync } from 'node:fs';
 import { describe, expect, it } from 'vitest';
@@ -18,7 +19,6 @@ describe('the scene reader under fuzzing', () => {
   it(`refuses malformed scenes cleanly and accepts only schema-valid ones (${NUM_RUNS} cases)`, () => {
     const result = runSceneFuzz({
       numRuns: NUM_RUNS,
-      maxCaseMs: 200,
       check: (_scene, text) => {
         const violation = schemaViolation(schema, parse(text));
         if (violation !== null) throw new Error(`reader accepted what the schema refuses (${violation}):\n${text.slice(0, 400)}`);
@@ -34,6 +34,5 @@ describe('the scene reader under fuzzing', () => {
     // Both outcomes must be exercised: the mutations reach the validation and some survive it.
     expect(result.rejected).toBeGreaterThan(NUM_RUNS / 2);
     expect(result.accepted.length).toBeGreaterThan(50);
-    expect(result.totalMs).toBeLessThan(120_000);
   });
 });

@@ -74,7 +74,7 @@ describe('defaults', () => {
     // 10 February 1650 in the Florentine style is 10 February 1651 in January years.
     expect(scene.window.notBefore).toEqual({ year: 1651, month: 2, day: 10 });
     const across = { ...s, window: { fromYear: 1740, toYear: 1760 } };
-    expect(() => readSceneText(JSON.stringify(across), 'florence.json')).toThrow(/yearStart: nothing is not allowed; expected a stated yearStart.*"mar25-forward" style in 1740 and in the "jan1" style in 1760/);
+    expect(() => readSceneText(JSON.stringify(across), 'florence.json')).toThrow(/yearStart is missing; expected a stated yearStart.*"mar25-forward" style in 1740 and in the "jan1" style in 1760/);
   });
 
   it('reads a dual year as the January year whatever the style', () => {

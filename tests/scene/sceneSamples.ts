@@ -44,6 +44,9 @@ const obs = (o: Data): Data => variant({ 'observations.0': o });
 /** Valid scenes: every kind of observation and every form. */
 export const GOOD_SCENES: readonly { readonly name: string; readonly data: Data }[] = [
   { name: 'minimal', data: minimalScene() },
+  { name: 'site in degrees-minutes-seconds', data: variant({ site: { latitudeDeg: "47°37'12\"N", longitudeDeg: '9 21 E' } }) },
+  { name: 'site with hemisphere letters', data: variant({ site: { latitudeDeg: '33.9 S', longitudeDeg: '18.4W' } }) },
+  { name: 'latitude as quoted decimal', data: variant({ 'site.latitudeDeg': '47.62' }) },
   { name: 'all site fields', data: variant({ site: { latitudeDeg: -33.9, longitudeDeg: -18.4, elevationM: 12, latitudeSigmaDeg: 0.01, longitudeSigmaDeg: 0.02 } }) },
   { name: 'region calendar', data: variant({ calendar: 'protestant-germany', yearStart: 'jan1' }) },
   { name: 'switch calendar map', data: variant({ calendar: { lastJulian: '1700-02-18', firstGregorian: '1700-03-01' } }) },
@@ -112,8 +115,9 @@ export const BAD_SCENES: readonly BadScene[] = [
   { name: 'version 2', data: variant({ heliochron: 2 }), field: 'heliochron', says: /format version 1/, schemaSees: true },
   { name: 'no title', data: variant({ title: undefined }), field: 'title', says: /title/, schemaSees: true },
   { name: 'blank title', data: variant({ title: '   ' }), field: 'title', says: /It is empty/, schemaSees: true },
-  { name: 'latitude out of range', data: variant({ 'site.latitudeDeg': 95 }), field: 'site.latitudeDeg', says: /95 is not allowed; expected a latitude in degrees, north positive, from -90 to 90/, schemaSees: true },
-  { name: 'latitude as text', data: variant({ 'site.latitudeDeg': '47.62' }), field: 'site.latitudeDeg', says: /without quotes/, schemaSees: true },
+  { name: 'latitude out of range', data: variant({ 'site.latitudeDeg': 95 }), field: 'site.latitudeDeg', says: /95 is not allowed; expected a latitude in degrees from -90 to 90, north positive/, schemaSees: true },
+  { name: 'latitude with an east letter', data: variant({ 'site.latitudeDeg': '47.62 E' }), field: 'site.latitudeDeg', says: /E marks a longitude; a latitude takes N or S/, schemaSees: true },
+  { name: 'longitude minutes over 59', data: variant({ 'site.longitudeDeg': "9°75'E" }), field: 'site.longitudeDeg', says: /Minutes and seconds run from 0 to 59/, schemaSees: false },
   { name: 'latitude NaN text', data: variant({ 'site.latitudeDeg': 'NaN' }), field: 'site.latitudeDeg', says: /Only finite numbers/, schemaSees: true },
   { name: 'latitude NaN number', data: variant({ 'site.latitudeDeg': Number.NaN }), field: 'site.latitudeDeg', says: /NaN is not allowed.*Only finite numbers/, schemaSees: true },
   { name: 'unit-less lat key', data: variant({ site: { lat: 47.6, longitudeDeg: 9.35 } }), field: 'site.lat', says: /Did you mean "latitudeDeg"\? Angles are in degrees/, schemaSees: true },
