@@ -14,6 +14,8 @@ export interface FormContext {
   readonly refusal: Refusal | null;
   readonly itemRefusals: ReadonlyMap<string, string>;
   readonly commit: (label: string, change: (d: Draft) => void) => void;
+  /** Sections the user opened or closed, by title (view state, kept across re-renders). */
+  readonly sectionsOpen: Map<string, boolean>;
 }
 
 type FieldKind = 'number' | 'text' | 'checkbox' | 'select' | 'months' | 'longtext';
@@ -99,8 +101,10 @@ function field(ctx: FormContext, spec: FieldSpec): HTMLElement {
   ]);
 }
 
-function section(title: string, children: readonly Child[], open = true): HTMLElement {
-  return h('details', { class: 'form-section', open }, [h('summary', { text: title }), ...children]);
+function section(ctx: FormContext, title: string, children: readonly Child[], open = true): HTMLElement {
+  const details = h('details', { class: 'form-section', open: ctx.sectionsOpen.get(title) ?? open }, [h('summary', { text: title }), ...children]);
+  details.addEventListener('toggle', () => ctx.sectionsOpen.set(title, details.open));
+  return details;
 }
 
 const YEAR_STARTS: readonly (readonly [string, string])[] = [
@@ -148,7 +152,7 @@ function wallsSection(ctx: FormContext): HTMLElement {
     const list = Array.isArray(d.walls) ? d.walls : (d.walls = []);
     list.push({ id: `wall-${list.length + 1}`, azimuthDeg: '' as DraftValue, azimuthSigmaDeg: 1 });
   }));
-  return section('Walls', [h('p', { class: 'small', text: 'Each wall: where it faces (the azimuth of its outward normal) and how well that is known.' }), ...items, add]);
+  return section(ctx, 'Walls', [h('p', { class: 'small', text: 'Each wall: where it faces (the azimuth of its outward normal) and how well that is known.' }), ...items, add]);
 }
 
 function removeButton(ctx: FormContext, label: string, path: DraftPath): HTMLButtonElement {
@@ -213,8 +217,8 @@ function factsAndClocks(ctx: FormContext): HTMLElement[] {
     list.push({ id: `clock-${list.length + 1}`, kind: 'clock', reading: '', precisionMinutes: 5 });
   }));
   return [
-    section('Facts without numbers', [...facts, h('div', { class: 'row' }, [factKind, addFact])], facts.length > 0),
-    section('Clocks', [...clocks, addClock], clocks.length > 0),
+    section(ctx, 'Facts without numbers', [...facts, h('div', { class: 'row' }, [factKind, addFact])], facts.length > 0),
+    section(ctx, 'Clocks', [...clocks, addClock], clocks.length > 0),
   ];
 }
 
@@ -223,23 +227,23 @@ export function renderForms(ctx: FormContext): HTMLElement[] {
   const whole = ctx.refusal && ctx.refusal.field === '' ? h('p', { class: 'message', role: 'alert' }, [h('strong', { text: 'Not accepted: ' }), ctx.refusal.message]) : null;
   return [
     ...(whole ? [whole] : []),
-    section('Scene', [
+    section(ctx, 'Scene', [
       field(ctx, { path: ['title'], label: 'title', kind: 'text' }),
       field(ctx, { path: ['seed'], label: 'seed for Monte Carlo runs', kind: 'number', hint: 'default 1' }),
     ]),
-    section('Picture', [
+    section(ctx, 'Picture', [
       field(ctx, { path: ['image', 'file'], label: 'file', kind: 'text', readOnly: true }),
       field(ctx, { path: ['image', 'widthPx'], label: 'width, px (read from the file)', kind: 'number', readOnly: true }),
       field(ctx, { path: ['image', 'heightPx'], label: 'height, px (read from the file)', kind: 'number', readOnly: true }),
       field(ctx, { path: ['image', 'pixelSigmaPx'], label: 'clicking precision, px (sigma)', kind: 'number' }),
       field(ctx, { path: ['image', 'mirrored'], label: 'reversed print (mirror: x is flipped before measuring)', kind: 'checkbox' }),
     ]),
-    section('Site', [
+    section(ctx, 'Site', [
       field(ctx, { path: ['site', 'latitudeDeg'], label: 'latitude, deg (north +)', kind: 'number' }),
       field(ctx, { path: ['site', 'longitudeDeg'], label: 'longitude, deg (east +)', kind: 'number' }),
       field(ctx, { path: ['site', 'elevationM'], label: 'elevation, m', kind: 'number' }),
     ]),
-    section('Calendar and window', [
+    section(ctx, 'Calendar and window', [
       field(ctx, { path: ['calendar'], label: 'calendar in force at the site', kind: 'select', choices: calendarChoices() }),
       field(ctx, { path: ['yearStart'], label: 'year began on', kind: 'select', choices: YEAR_STARTS }),
       field(ctx, { path: ['window', 'fromYear'], label: 'from year', kind: 'number' }),
@@ -249,10 +253,10 @@ export function renderForms(ctx: FormContext): HTMLElement[] {
       field(ctx, { path: ['window', 'notAfter'], label: 'not after (date, YYYY-MM-DD)', kind: 'text' }),
       field(ctx, { path: ['window', 'weekday'], label: 'weekday', kind: 'select', choices: WEEKDAY_CHOICES }),
     ]),
-    section('Air (for refraction)', [
+    section(ctx, 'Air (for refraction)', [
       field(ctx, { path: ['air', 'pressureHPa'], label: 'pressure, hPa', kind: 'number' }),
       field(ctx, { path: ['air', 'temperatureC'], label: 'temperature, deg C', kind: 'number' }),
-    ], false),
+    ], ctx.draft.air !== undefined),
     wallsSection(ctx),
     ...factsAndClocks(ctx),
   ];

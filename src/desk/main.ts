@@ -35,6 +35,7 @@ interface DeskState {
   pointer: PixelPoint | null;
   /** While a point is dragged: the document with the point moved (not yet committed). */
   preview: Draft | null;
+  sectionsOpen: Map<string, boolean>;
 }
 
 let session: Session = { opened: null, kind: null };
@@ -194,7 +195,7 @@ function renderDocument(): void {
   const focused = document.activeElement as HTMLElement | null;
   const focusKey = focused?.dataset?.field;
   fill($('measurements'), renderMeasurements({ draft, derived: state.derived, commit: change, remove: removeAt }));
-  fill($('forms'), renderForms({ draft, refusal: state.derived.refusal, itemRefusals: state.derived.itemRefusals, commit: change }));
+  fill($('forms'), renderForms({ draft, refusal: state.derived.refusal, itemRefusals: state.derived.itemRefusals, commit: change, sectionsOpen: state.sectionsOpen }));
   if (focusKey) (document.querySelector(`[data-field="${CSS.escape(focusKey)}"]`) as HTMLElement | null)?.focus();
   renderToolPanel();
   renderOverlay();
@@ -320,7 +321,7 @@ function installPointer(): void {
   window.addEventListener('keyup', (e) => { if (e.code === 'Space') spaceHeld = false; });
 
   viewer.addEventListener('pointerdown', (e) => {
-    viewer.focus();
+    viewer.focus({ preventScroll: true });
     const [sx, sy] = viewerPoint(e);
     if (e.button === 1 || (e.button === 0 && spaceHeld)) {
       drag = { kind: 'pan', sx, sy, panX: state.view.panX, panY: state.view.panY };
@@ -596,6 +597,7 @@ async function start(): Promise<void> {
     cross: null,
     pointer: null,
     preview: null,
+    sectionsOpen: new Map(),
   };
   answers = new AnswerPanel({
     draft: () => state.history.draft,

@@ -11,6 +11,7 @@ import { renderCheckText, renderDateText } from '../report/text.js';
 import { drawChart } from '../cli/chartCommand.js';
 import { checkProposal } from '../solver/checkDate.js';
 import { proposalFromOptions } from '../cli/checkCommand.js';
+import { resolvePixelObservations } from '../image/resolvePixels.js';
 import type { WorkerReply, WorkerRequest } from './workerProtocol.js';
 
 function reply(message: WorkerReply): void {
@@ -63,15 +64,17 @@ function handle(request: WorkerRequest): void {
     const text = renderDateText(answer, scene);
     let charts = null;
     if (request.charts) {
+      // the charts read the numeric form of each observation: pixel forms are measured first, as solveDates does
+      const measured = resolvePixelObservations(scene).scene;
       reply({ id, kind: 'progress', stage: 'drawing the date and hour map', fraction: 0 });
       let last = 0;
-      const map = drawChart('map', scene, answer, (done, total) => {
+      const map = drawChart('map', measured, answer, (done, total) => {
         if (done - last >= total / 20 || done === total) {
           last = done;
           reply({ id, kind: 'progress', stage: 'drawing the date and hour map', fraction: done / total });
         }
       }, 'hc-map');
-      charts = { map, sky: drawChart('sky', scene, answer, undefined, 'hc-sky'), residuals: drawChart('residuals', scene, answer, undefined, 'hc-residuals') };
+      charts = { map, sky: drawChart('sky', measured, answer, undefined, 'hc-sky'), residuals: drawChart('residuals', measured, answer, undefined, 'hc-residuals') };
     }
     reply({ id, kind: 'date', answer, text, charts, solveMs });
   } catch (error) {
