@@ -88,8 +88,18 @@ function measuringCopy(draft: Draft): Draft {
   return copy;
 }
 
-/** Leave out the item a refusal names; false when there is nothing left to leave out. */
-function leaveOut(copy: Draft, owner: string): boolean {
+/** Replace the observations that stand on a left-out plane by stand-ins, saying why beside each. */
+function leaveOutDependents(copy: Draft, onPlane: (o: DraftValue) => boolean, why: string, refusals: Map<string, string>): void {
+  const list = copy.observations as DraftValue[];
+  list.forEach((o, k) => {
+    if (getAt(o, ['kind']) === 'sun-up' || !onPlane(o)) return;
+    list[k] = standIn(k);
+    if (!refusals.has(`observations[${k}]`)) refusals.set(`observations[${k}]`, why);
+  });
+}
+
+/** Leave out the item a refusal names (and what stands on it); false when there is nothing left to leave out. */
+function leaveOut(copy: Draft, owner: string, refusals: Map<string, string>): boolean {
   const obs = /^observations\[(\d+)\]$/.exec(owner);
   if (obs) {
     const k = Number(obs[1]);
@@ -103,10 +113,12 @@ function leaveOut(copy: Draft, owner: string): boolean {
     const w = (copy.walls as DraftValue[])[Number(wall[1])] as Record<string, DraftValue>;
     if (!w || w.imagePlane === undefined) return false;
     delete w.imagePlane;
+    leaveOutDependents(copy, (o) => getAt(o, ['wall']) === w.id, `it is measured on wall ${String(w.id)}, whose figure is not accepted (see that figure)`, refusals);
     return true;
   }
   if (owner === 'groundPlane' && copy.groundPlane !== undefined) {
     delete copy.groundPlane;
+    leaveOutDependents(copy, (o) => getAt(o, ['kind']) === 'pole-shadow', 'it is measured on the ground, whose figure is not accepted (see the ground)', refusals);
     return true;
   }
   return false;
@@ -142,11 +154,8 @@ export function derive(draft: Draft): Derived {
       const r = refusalOf(error);
       const owner = ownerOf(r.field);
       measuringScene = null;
-      if (!leaveOut(copy, owner)) {
-        if (r.field === '' || !itemRefusals.has(owner)) itemRefusals.set(owner || 'image', r.message);
-        break;
-      }
-      if (!itemRefusals.has(owner)) itemRefusals.set(owner, r.message);
+      if (!itemRefusals.has(owner || 'image')) itemRefusals.set(owner || 'image', r.message);
+      if (!leaveOut(copy, owner, itemRefusals)) break;
     }
   }
 
