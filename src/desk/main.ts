@@ -108,7 +108,7 @@ function deletePoint(p: DraftPoint): void {
 
 function autosave(): void {
   try {
-    localStorage.setItem(storageKey, JSON.stringify({ draft: state.history.draft, savedJson: state.history.savedJson, at: new Date().toISOString() }));
+    localStorage.setItem(storageKey, JSON.stringify({ draft: state.history.draft, savedJson: state.history.savedJson, saveName: sceneFileName(), at: new Date().toISOString() }));
   } catch {
     // storage full or refused: the work stays in the page
   }
@@ -141,8 +141,17 @@ function pendingLines(): (readonly [PixelPoint, PixelPoint])[] {
   return lines;
 }
 
+/** The view transform on the viewer element, at once (tests and assistive tools read it). */
+function publishView(): void {
+  const viewer = $('viewer');
+  viewer.dataset.zoom = String(state.view.zoom);
+  viewer.dataset.panX = String(state.view.panX);
+  viewer.dataset.panY = String(state.view.panY);
+}
+
 let frame = 0;
 function drawSoon(): void {
+  publishView();
   if (frame) return;
   frame = requestAnimationFrame(() => {
     frame = 0;
@@ -157,10 +166,7 @@ function drawPicture(): void {
   drawView(canvas, picture, w, ph, state.view, all, pendingLines());
   const overlay = $('overlay');
   overlay.style.transform = `matrix(${state.view.zoom}, 0, 0, ${state.view.zoom}, ${state.view.panX}, ${state.view.panY})`;
-  const viewer = $('viewer');
-  viewer.dataset.zoom = String(state.view.zoom);
-  viewer.dataset.panX = String(state.view.panX);
-  viewer.dataset.panY = String(state.view.panY);
+  publishView();
   $('zoom-readout').textContent = `${Math.round(state.view.zoom * 1000) / 10}%`;
   const at = state.pointer ?? state.cross;
   const magnifier = $('magnifier') as HTMLCanvasElement;
@@ -544,10 +550,17 @@ async function openScene(name: string, restore: boolean): Promise<void> {
   answers.documentChanged(history.draft);
 }
 
-function readStored(): { draft: Draft; savedJson: string | null; at: string } | null {
+interface Stored {
+  readonly draft: Draft;
+  readonly savedJson: string | null;
+  readonly saveName?: string;
+  readonly at: string;
+}
+
+function readStored(): Stored | null {
   try {
     const raw = localStorage.getItem(storageKey);
-    return raw ? (JSON.parse(raw) as { draft: Draft; savedJson: string | null; at: string }) : null;
+    return raw ? (JSON.parse(raw) as Stored) : null;
   } catch {
     return null;
   }
@@ -573,7 +586,8 @@ async function openPicture(name: string): Promise<void> {
   const stored = readStored();
   if (stored) {
     state.history = startHistory(stored.draft, stored.savedJson);
-    notice(`Your work on ${name} from ${stored.at} was restored from this browser's storage. Undo is not kept across a reload.`);
+    if (stored.saveName) ($('save-name') as HTMLInputElement).value = stored.saveName;
+    if (isUnsaved(state.history)) notice(`Your work on ${name} from ${stored.at} was restored from this browser's storage. Undo is not kept across a reload.`);
   } else {
     state.history = startHistory(emptyDraft(name, pictureFile?.widthPx ?? picture?.width ?? null, pictureFile?.heightPx ?? picture?.height ?? null), null);
   }

@@ -41,6 +41,21 @@ function cli(args: readonly string[], cwd = ROOT): string {
   return run.stdout;
 }
 
+/** Start `heliochron desk FILE` in a folder; resolves with the address it prints first. */
+async function startDesk(cwd: string, file: string): Promise<{ child: ChildProcess; url: string }> {
+  const child = spawn(process.execPath, [CLI, 'desk', file], { cwd, stdio: ['ignore', 'pipe', 'pipe'] });
+  const url = await new Promise<string>((resolve, reject) => {
+    let text = '';
+    child.stdout!.on('data', (d: Buffer) => {
+      text += d.toString('utf8');
+      if (text.includes('\n')) resolve(text.split('\n')[0]);
+    });
+    child.on('exit', (code) => reject(new Error(`heliochron desk exited with ${code}`)));
+  });
+  expect(url).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/[A-Za-z0-9_-]{22}\/$/);
+  return { child, url };
+}
+
 beforeAll(async () => {
   if (!existsSync(CHROMIUM)) {
     throw new Error(`Chromium was not found at ${CHROMIUM}: install the Debian package "chromium" (apt-get install chromium) to run the browser test of the desk`);
@@ -52,15 +67,7 @@ beforeAll(async () => {
   mkdirSync(OUT_DIR, { recursive: true });
   folder = mkdtempSync(join(tmpdir(), 'heliochron-desk-browser-'));
   copyFileSync(join(EXAMPLE_DIR, PICTURE), join(folder, PICTURE));
-  desk = spawn(process.execPath, [CLI, 'desk', PICTURE], { cwd: folder, stdio: ['ignore', 'pipe', 'pipe'] });
-  deskUrl = await new Promise<string>((resolve, reject) => {
-    let text = '';
-    desk!.stdout!.on('data', (d: Buffer) => {
-      text += d.toString('utf8');
-      if (text.includes('\n')) resolve(text.split('\n')[0]);
-    });
-    desk!.on('exit', (code) => reject(new Error(`heliochron desk exited with ${code}`)));
-  });
+  ({ child: desk, url: deskUrl } = await startDesk(folder, PICTURE));
   browser = await chromium.launch({
     executablePath: CHROMIUM,
     headless: true,
@@ -75,10 +82,10 @@ afterAll(async () => {
 });
 
 /** Watch a page: console errors, page errors and every request that is not to the desk's own address. */
-function watch(page: Page): { errors: string[]; offMachine: string[] } {
+function watch(page: Page, address = deskUrl): { errors: string[]; offMachine: string[] } {
   const errors: string[] = [];
   const offMachine: string[] = [];
-  const origin = new URL(deskUrl).origin;
+  const origin = new URL(address).origin;
   page.on('console', (m) => {
     if (m.type() === 'error') errors.push(m.text());
   });
@@ -269,9 +276,84 @@ describe('the measuring desk in Chromium', () => {
     expect(await page.locator('[data-field="title"]').inputValue()).toBe("The Tanners' Hall, west front, photograph of about 1890");
     expect(await page.locator('li[data-id]').count()).toBe(3);
     expect(await page.locator('#unsaved').textContent()).toBe('');
+    expect(await page.locator('#save-name').inputValue()).toBe('tanners-hall-desk.yaml');
+
+    // a refused value: the scene reader's own message stands beside the field
+    await fillField(page, 'site.latitudeDeg', '95');
+    expect(await page.locator('.field.refused .message').textContent()).toContain('site.latitudeDeg: 95 is not allowed');
+    await fillField(page, 'site.latitudeDeg', '47.62');
+    expect(await page.locator('.field.refused').count()).toBe(0);
+
+    // choose a point, nudge it 1 px and 0.1 px with the keys, undo both, redo one, undo it
+    const storedDraft = async (): Promise<Example> =>
+      (JSON.parse((await page.evaluate(() => localStorage.getItem('heliochron-desk:tanners-hall-photo.png')))!) as { draft: Example }).draft;
+    await page.keyboard.press('Escape');
+    await clickPixel(page, ground.pointsPx[0]);
+    await page.keyboard.press('ArrowRight');
+    await page.keyboard.press('Shift+ArrowDown');
+    expect((await storedDraft()).groundPlane.pointsPx[0]).toEqual([ground.pointsPx[0][0] + 1, ground.pointsPx[0][1] + 0.1]);
+    expect(await page.locator('#unsaved').textContent()).toBe('(unsaved changes)');
+    await page.keyboard.press('Control+z');
+    await page.keyboard.press('Control+z');
+    expect((await storedDraft()).groundPlane.pointsPx[0]).toEqual(ground.pointsPx[0]);
+    await page.keyboard.press('Control+Shift+z');
+    expect((await storedDraft()).groundPlane.pointsPx[0]).toEqual([ground.pointsPx[0][0] + 1, ground.pointsPx[0][1]]);
+    await page.locator('#undo').click();
+    expect((await storedDraft()).groundPlane.pointsPx[0]).toEqual(ground.pointsPx[0]);
+    expect(await page.locator('#unsaved').textContent()).toBe('');
+
+    // a point placed with the keyboard alone: a tool's key, the arrows move the cross, Enter places it
+    await page.keyboard.press('p');
+    await page.locator('#viewer').focus();
+    await page.keyboard.press('ArrowLeft');
+    await page.keyboard.press('Enter');
+    expect(await page.locator('#instruction').textContent()).toContain('Pole shadow, click 2 of 2');
+    await page.keyboard.press('Escape');
+    expect(await page.locator('#instruction').textContent()).toContain('Select and move');
+
+    // the overlay written from the page is the command line's, byte for byte
+    await page.locator('#export-overlay').click();
+    await page.waitForFunction(() => (document.getElementById('notice')!.textContent ?? '').startsWith('Written'));
+    cli(['measure', 'tanners-hall-desk.yaml', '--overlay', 'cli-overlay.svg'], folder);
+    expect(readFileSync(join(folder, 'tanners-hall-desk-overlay.svg')).equals(readFileSync(join(folder, 'cli-overlay.svg')))).toBe(true);
+
+    // check: the verdict of `heliochron check` on the saved file, word for word
+    await page.locator('#check-on').fill('1890-09-02');
+    await page.locator('#check-it').click();
+    await page.waitForFunction(() => !/^(Checking\.\.\.)?$/.test(document.getElementById('check-text')!.textContent ?? ''));
+    expect(await page.locator('#check-text').textContent()).toBe(cli(['check', 'tanners-hall-desk.yaml', '--on', '1890-09-02'], folder));
+    await page.screenshot({ path: join(OUT_DIR, '4-checked.png'), fullPage: true });
 
     expect(watched.errors).toEqual([]);
     expect(watched.offMachine).toEqual([]);
     await context.close();
   }, 400_000);
+
+  it('writes the HTML report of an opened scene file byte for byte as `heliochron report` does', async () => {
+    const reportFolder = mkdtempSync(join(tmpdir(), 'heliochron-desk-report-'));
+    copyFileSync(join(ROOT, 'examples', 'marktgasse-print.yaml'), join(reportFolder, 'marktgasse-print.yaml'));
+    const started = await startDesk(reportFolder, 'marktgasse-print.yaml');
+    try {
+      const context = await browser!.newContext({ viewport: { width: 1500, height: 1000 } });
+      const page = await context.newPage();
+      const watched = watch(page, started.url);
+      await page.goto(started.url);
+      await page.waitForSelector('body[data-ready="true"]');
+      expect(await page.locator('[data-field="title"]').inputValue()).toBe('Marktgasse view, anonymous print');
+      await page.locator('#export-report').click();
+      await page.waitForFunction(() => (document.getElementById('notice')!.textContent ?? '').startsWith('Written'), undefined, { timeout: 200_000 });
+      cli(['report', 'marktgasse-print.yaml', '-o', 'cli-report.html'], reportFolder);
+      const fromPage = readFileSync(join(reportFolder, 'marktgasse-print-report.html'), 'utf8');
+      const fromCli = readFileSync(join(reportFolder, 'cli-report.html'), 'utf8');
+      // the one difference: the command line named in the report's reproducibility block (each names its own output)
+      expect(fromPage.replace('-o marktgasse-print-report.html', '-o cli-report.html')).toBe(fromCli);
+      expect(fromPage.length).toBeGreaterThan(20_000);
+      expect(watched.errors).toEqual([]);
+      expect(watched.offMachine).toEqual([]);
+      await context.close();
+    } finally {
+      started.child.kill('SIGINT');
+      rmSync(reportFolder, { recursive: true, force: true });
+    }
+  }, 300_000);
 });
