@@ -122,6 +122,8 @@ export class AnswerPanel {
     this.chosen = keep >= 0 ? keep : 0;
     $('answer-text').textContent = reply.text;
     $('answer-area').dataset.solveMs = String(reply.solveMs);
+    $('answer-area').dataset.roundTripMs = String(performance.now() - started);
+    $('answer-area').dataset.solves = String(Number($('answer-area').dataset.solves ?? '0') + 1);
     $('answer-area').dataset.firstCandidate = reply.answer.candidates[0] ? candidateCaption(reply.answer.candidates[0]) : '';
     if (reply.charts) {
       fill($('charts'), [
