@@ -7,7 +7,7 @@ import { measureOverlaySvg, type MeasurementPrediction } from '../cli/measureOve
 import type { PictureFile } from '../cli/pictureFile.js';
 import type { Derived } from './derive.js';
 import type { Draft } from './draft.js';
-import { readFolderFile, saveFolderFile } from './files.js';
+import { readFolderFile, saveAskingFirst } from './files.js';
 import { runInWorker } from './workerClient.js';
 
 export interface ChosenPrediction {
@@ -32,15 +32,8 @@ export function overlayFor(derived: Derived, best: ChosenPrediction | null, pict
 type Notice = (text: string, kind?: 'info' | 'error') => void;
 
 async function writeFile(name: string, content: string, notice: Notice): Promise<void> {
-  let outcome = await saveFolderFile(name, content, false);
-  if (outcome === 'exists') {
-    if (!window.confirm(`${name} exists already in this folder. Replace it?`)) {
-      notice(`Not written: ${name} exists already and was kept.`);
-      return;
-    }
-    outcome = await saveFolderFile(name, content, true);
-  }
-  notice(`Written: ${name}.`);
+  if (await saveAskingFirst(name, content)) notice(`Written: ${name}.`);
+  else notice(`Not written: ${name} exists already and was kept.`);
 }
 
 function baseOf(sceneName: string): string {

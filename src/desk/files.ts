@@ -41,3 +41,13 @@ export async function saveFolderFile(name: string, content: string, replace: boo
   }
   return 'saved';
 }
+
+/**
+ * Save a file of the folder; when it exists already, ask the user once and replace it only
+ * when they say so. True when the file was written.
+ */
+export async function saveAskingFirst(name: string, content: string): Promise<boolean> {
+  if ((await saveFolderFile(name, content, false)) === 'saved') return true;
+  if (!window.confirm(`${name} exists already in this folder. Replace it?`)) return false;
+  return (await saveFolderFile(name, content, true)) === 'saved';
+}

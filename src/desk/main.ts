@@ -16,7 +16,7 @@ import type { DeskTool, ToolValues } from './tools/tool.js';
 import { renderForms } from './forms.js';
 import { renderMeasurements } from './measurements.js';
 import { sceneYamlText } from './sceneYaml.js';
-import { fetchSession, readFolderFile, saveFolderFile, type Session } from './files.js';
+import { fetchSession, readFolderFile, saveAskingFirst, type Session } from './files.js';
 import { overlayFor, exportOverlaySvg, exportHtmlReport } from './exports.js';
 import { AnswerPanel } from './answerPanel.js';
 
@@ -159,7 +159,17 @@ function drawSoon(): void {
   });
 }
 
+/** While a point is dragged, its measurement follows it (derived once per frame from the moved document). */
+let previewDerivedFor: Draft | null = null;
+function derivePreview(): void {
+  if (!state.preview || state.preview === previewDerivedFor) return;
+  previewDerivedFor = state.preview;
+  const derived = derive(state.preview);
+  fill($('measurements'), renderMeasurements({ draft: state.preview, derived, commit: change, remove: removeAt }));
+}
+
 function drawPicture(): void {
+  derivePreview();
   const { w, h: ph } = pictureSize();
   const canvas = $('picture') as HTMLCanvasElement;
   const all = marks();
@@ -503,13 +513,9 @@ async function save(): Promise<void> {
   }
   const text = sceneYamlText(state.history.draft);
   try {
-    let outcome = await saveFolderFile(name, text, false);
-    if (outcome === 'exists') {
-      if (!window.confirm(`${name} exists already in this folder. Replace it?`)) {
-        notice(`Not saved: ${name} exists already and was kept.`);
-        return;
-      }
-      outcome = await saveFolderFile(name, text, true);
+    if (!(await saveAskingFirst(name, text))) {
+      notice(`Not saved: ${name} exists already and was kept.`);
+      return;
     }
     setHistory(markSaved(state.history));
     autosave();

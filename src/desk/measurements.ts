@@ -53,7 +53,13 @@ function planeItems(ctx: MeasurementsContext): HTMLElement[] {
       const r = rectificationReport(plane);
       const misfit = / larger than the clicking precision/.test(r.note);
       body.push(h('p', { class: 'small', text: `residuals ${r.residualsPx.map((v) => v.toFixed(2)).join(', ')} px; rms ${r.rmsPx.toFixed(2)} px; condition number ${r.conditionNumber.toPrecision(3)}` }));
-      body.push(h('p', { class: misfit ? 'warning' : 'small' }, [misfit ? h('strong', { text: 'Warning: ' }) : null, r.note]));
+      // the worst point named by its label on the picture (numbered from 1), not by its index
+      const worst = r.residualsPx.indexOf(Math.max(...r.residualsPx));
+      const short = wallNo ? `W${Number(wallNo[1]) + 1}` : 'G';
+      const note = r.exactlyDetermined || plane.fromWalls
+        ? r.note
+        : `largest residual ${r.residualsPx[worst].toFixed(2)} px at ${short} ${worst + 1}: ${misfit ? 'larger than the clicking precision, so a point is misclicked or the picture does not follow one perspective on this plane' : 'within the clicking precision'}`;
+      body.push(h('p', { class: misfit ? 'warning' : 'small' }, [misfit ? h('strong', { text: 'Warning: ' }) : null, note]));
     }
     if (refusal) body.push(refusalNote(refusal));
     items.push(h('li', { class: 'item', 'data-item': field }, [h('h4', { text: title }), ...body, remove]));

@@ -3,16 +3,10 @@
  */
 import type { CheckAnswer, DateAnswer } from '../solver/types.js';
 import type { Draft } from './draft.js';
+import type { CheckOptions } from '../cli/checkSpec.js';
 
-/** A proposal as typed in the check form, in the words of `heliochron check`'s options. */
-export interface CheckRequestFields {
-  readonly on?: string;
-  readonly time?: string;
-  readonly clock?: string;
-  readonly within?: string;
-  readonly between?: readonly string[];
-  readonly season?: string;
-}
+/** A proposal as typed in the check form: `heliochron check`'s own options. */
+export type CheckRequestFields = Pick<CheckOptions, 'on' | 'time' | 'clock' | 'within' | 'between' | 'season'>;
 
 export type WorkerRequestBody =
   | { readonly kind: 'date'; readonly draft: Draft; readonly charts: boolean }

@@ -214,6 +214,8 @@ describe('the measuring desk in Chromium', () => {
     }
     await page.keyboard.press('Escape');
     await page.locator('#zoom-select').selectOption('fit');
+    await page.locator('.panels').evaluate((el) => { el.scrollTop = 0; });
+    await page.mouse.move(10, 990); // the pointer off the picture: no magnifier in the picture of the docs
     await page.screenshot({ path: join(OUT_DIR, '2-measured.png') });
 
     // every clicked point is where the example file has it (the pixel mapping at 200%)
@@ -329,7 +331,7 @@ describe('the measuring desk in Chromium', () => {
     await context.close();
   }, 400_000);
 
-  it('writes the HTML report of an opened scene file byte for byte as `heliochron report` does', async () => {
+  it('writes the HTML report of an opened scene file byte for byte as `heliochron report` does, shows a typed title as text, and asks before leaving unsaved work', async () => {
     const reportFolder = mkdtempSync(join(tmpdir(), 'heliochron-desk-report-'));
     copyFileSync(join(ROOT, 'examples', 'marktgasse-print.yaml'), join(reportFolder, 'marktgasse-print.yaml'));
     const started = await startDesk(reportFolder, 'marktgasse-print.yaml');
@@ -348,6 +350,22 @@ describe('the measuring desk in Chromium', () => {
       // the one difference: the command line named in the report's reproducibility block (each names its own output)
       expect(fromPage.replace('-o marktgasse-print-report.html', '-o cli-report.html')).toBe(fromCli);
       expect(fromPage.length).toBeGreaterThan(20_000);
+
+      // a user's text is shown as text, never as markup
+      const hostile = 'Marktgasse <img src=x onerror="document.title=1"><b>bold</b>';
+      await fillField(page, 'title', hostile);
+      expect(await page.locator('#doc-name').textContent()).toBe(hostile);
+      expect(await page.locator('img, b').count()).toBe(0);
+      expect(await page.title()).toBe('heliochron measuring desk');
+
+      // leaving with unsaved changes asks first
+      let asked = '';
+      page.on('dialog', (dialog) => {
+        asked = dialog.type();
+        void dialog.dismiss();
+      });
+      await page.close({ runBeforeUnload: true });
+      await expect.poll(() => asked).toBe('beforeunload');
       expect(watched.errors).toEqual([]);
       expect(watched.offMachine).toEqual([]);
       await context.close();
