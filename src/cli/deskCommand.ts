@@ -13,7 +13,7 @@ import type { DeskOptions } from './deskSpec.js';
 import { startDeskServer } from './deskServer.js';
 
 const SCENE_ENDINGS = ['.yaml', '.yml', '.json'];
-const PICTURE_ENDINGS = ['.jpg', '.jpeg', '.png'];
+const PICTURE_ENDINGS = ['.jpg', '.jpeg', '.png', '.tif', '.tiff'];
 
 /** The built page: dist/desk-page beside dist/cli (this file runs from dist/cli, or from src/cli under the tests). */
 export function deskPageFolder(): string {
@@ -45,7 +45,7 @@ export async function run(args: readonly string[], options: DeskOptions, io: Cli
     const name = args[0];
     const ending = extname(name).toLowerCase();
     if (!SCENE_ENDINGS.includes(ending) && !PICTURE_ENDINGS.includes(ending)) {
-      throw new InvalidInputError('file', name, 'a scene file (.yaml, .yml, .json) or a picture (.jpg, .jpeg, .png)');
+      throw new InvalidInputError('file', name, 'a scene file (.yaml, .yml, .json) or a picture (.jpg, .jpeg, .png, .tif, .tiff)');
     }
     const full = resolve(io.cwd, name);
     let isFile = false;

@@ -23,7 +23,7 @@ export function registerDesk(program: Command, io: CliIo): void {
         'with a random session token; open it in a browser on this computer. The page reads and saves files only in the ' +
         'folder of the file given (or the current folder). Stop the server with Ctrl-C. See docs/desk.md.',
     )
-    .argument('[file]', 'a scene file (.yaml, .yml, .json) or a picture (.jpg, .jpeg, .png) to open; none: an empty desk in the current folder')
+    .argument('[file]', 'a scene file (.yaml, .yml, .json) or a picture (.jpg, .jpeg, .png, .tif, .tiff) to open; none: an empty desk in the current folder')
     .option('--port <n>', 'the port to listen on (default: a free one)')
     .option('--open', "also open the page in the system's browser (without it nothing is launched)")
     .addHelpText(

@@ -19,6 +19,7 @@ import { sceneYamlText } from './sceneYaml.js';
 import { fetchSession, readFolderFile, saveAskingFirst, type Session } from './files.js';
 import { overlayFor, exportOverlaySvg, exportHtmlReport } from './exports.js';
 import { AnswerPanel } from './answerPanel.js';
+import { decodeTiff, isTiff } from './tiffPicture.js';
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
 
@@ -40,7 +41,9 @@ interface DeskState {
 
 let session: Session = { opened: null, kind: null };
 let picture: ImageBitmap | null = null;
-let pictureFile: PictureFile | null = null;
+/** The picture file's bytes and name as read (JPEG, PNG or TIFF), for its size and for the overlay export. */
+let pictureBytes: Uint8Array | null = null;
+let pictureName = '';
 let state: DeskState;
 let answers: AnswerPanel;
 let storageKey = 'heliochron-desk:empty';
@@ -575,12 +578,30 @@ function readStored(): Stored | null {
 async function loadPicture(name: string): Promise<void> {
   try {
     const bytes = await readFolderFile(name);
-    pictureFile = sniffPicture(bytes, 'image.file', name);
-    picture = await createImageBitmap(new Blob([bytes as BlobPart], { type: pictureFile.mimeType }));
+    pictureBytes = bytes;
+    pictureName = name;
+    if (isTiff(bytes)) {
+      const decoded = decodeTiff(bytes, name);
+      picture = await createImageBitmap(new ImageData(decoded.rgba as Uint8ClampedArray<ArrayBuffer>, decoded.widthPx, decoded.heightPx));
+    } else {
+      const file = sniffPicture(bytes, 'image.file', name);
+      picture = await createImageBitmap(new Blob([bytes as BlobPart], { type: file.mimeType }));
+    }
   } catch (error) {
     picture = null;
-    pictureFile = null;
+    pictureBytes = null;
     notice(error instanceof Error ? error.message : String(error), 'error');
+  }
+}
+
+/** The picture to embed in an exported overlay: only JPEG and PNG, refused as the command line refuses it. */
+function overlayPicture(): PictureFile | null | 'refused' {
+  if (!pictureBytes) return null;
+  try {
+    return sniffPicture(pictureBytes, 'image.file', pictureName);
+  } catch (error) {
+    notice(`${error instanceof Error ? error.message : String(error)} (the overlay embeds the picture as the command line does)`, 'error');
+    return 'refused';
   }
 }
 
@@ -595,7 +616,7 @@ async function openPicture(name: string): Promise<void> {
     if (stored.saveName) ($('save-name') as HTMLInputElement).value = stored.saveName;
     if (isUnsaved(state.history)) notice(`Your work on ${name} from ${stored.at} was restored from this browser's storage. Undo is not kept across a reload.`);
   } else {
-    state.history = startHistory(emptyDraft(name, pictureFile?.widthPx ?? picture?.width ?? null, pictureFile?.heightPx ?? picture?.height ?? null), null);
+    state.history = startHistory(emptyDraft(name, picture?.width ?? null, picture?.height ?? null), null);
   }
   state.derived = derive(state.history.draft);
   setZoom('fit');
@@ -636,7 +657,10 @@ async function start(): Promise<void> {
       openScene(name.trim(), false).catch((error: unknown) => notice(error instanceof Error ? error.message : String(error), 'error'));
     }
   });
-  $('export-overlay').addEventListener('click', () => void exportOverlaySvg(state.derived, pictureFile, sceneFileName(), notice));
+  $('export-overlay').addEventListener('click', () => {
+    const file = overlayPicture();
+    if (file !== 'refused') void exportOverlaySvg(state.derived, file, sceneFileName(), notice);
+  });
   $('export-report').addEventListener('click', () => void exportHtmlReport(state.history.draft, sceneFileName(), state.history.savedJson === JSON.stringify(state.history.draft), notice));
   $('mirror').addEventListener('change', () => {
     const on = ($('mirror') as HTMLInputElement).checked;

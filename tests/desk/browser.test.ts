@@ -1,11 +1,13 @@
+/// <reference lib="dom" />
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
-import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, statSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
 import { parse } from 'yaml';
+import { tiffFile } from './tiffFile.js';
 
 // The measuring desk in a real browser (issue 10, "What it must show"): Debian's Chromium through
 // playwright-core, as tests/report/browser.test.ts does. The desk is started by the command line on
@@ -374,4 +376,40 @@ describe('the measuring desk in Chromium', () => {
       rmSync(reportFolder, { recursive: true, force: true });
     }
   }, 300_000);
+
+  it('opens a TIFF scan: its size read from the file, drawn without errors', async () => {
+    const tiffFolder = mkdtempSync(join(tmpdir(), 'heliochron-desk-tiff-'));
+    // 64 x 48 px, 8-bit RGB, a gradient: red across, green down
+    const pixels: number[] = [];
+    for (let y = 0; y < 48; y += 1) for (let x = 0; x < 64; x += 1) pixels.push(x * 4, y * 5, 128);
+    writeFileSync(join(tiffFolder, 'scan.tif'), tiffFile(64, 48, 8, 3, 2, pixels));
+    const started = await startDesk(tiffFolder, 'scan.tif');
+    try {
+      const page = await browser!.newPage({ viewport: { width: 1200, height: 900 } });
+      const watched = watch(page, started.url);
+      await page.goto(started.url);
+      await page.waitForSelector('body[data-ready="true"]');
+      expect(await page.locator('[data-field="image.widthPx"]').inputValue()).toBe('64');
+      expect(await page.locator('[data-field="image.heightPx"]').inputValue()).toBe('48');
+      // the picture is drawn: the canvas at the picture's centre shows the gradient's colour there
+      const viewer = page.locator('#viewer');
+      const zoom = Number(await viewer.getAttribute('data-zoom'));
+      const panX = Number(await viewer.getAttribute('data-pan-x'));
+      const panY = Number(await viewer.getAttribute('data-pan-y'));
+      const rgb = await page.evaluate(([x, y]) => {
+        const canvas = document.getElementById('picture') as HTMLCanvasElement;
+        const ratio = window.devicePixelRatio || 1;
+        return Array.from(canvas.getContext('2d')!.getImageData(Math.round(x * ratio), Math.round(y * ratio), 1, 1).data.subarray(0, 3));
+      }, [panX + zoom * 40.5, panY + zoom * 20.5]);
+      expect(Math.abs(rgb[0] - 160)).toBeLessThanOrEqual(8); // x = 40: red 160
+      expect(Math.abs(rgb[1] - 100)).toBeLessThanOrEqual(8); // y = 20: green 100
+      expect(Math.abs(rgb[2] - 128)).toBeLessThanOrEqual(8);
+      expect(watched.errors).toEqual([]);
+      expect(watched.offMachine).toEqual([]);
+      await page.close();
+    } finally {
+      started.child.kill('SIGINT');
+      rmSync(tiffFolder, { recursive: true, force: true });
+    }
+  }, 120_000);
 });
