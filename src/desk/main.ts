@@ -186,6 +186,14 @@ function drawPicture(): void {
   if (at) {
     $('pointer-pos').textContent = `x ${at[0].toFixed(1)}, y ${at[1].toFixed(1)} px`;
     drawMagnifier(magnifier, picture, at, all);
+    // beside the pointer (above and to the right, or wherever there is room), never on the point clicked
+    const [sx, sy] = pictureToScreen(state.view, at);
+    const box = $('viewer').getBoundingClientRect();
+    const size = magnifier.offsetWidth || 176;
+    const left = sx + 24 + size < box.width ? sx + 24 : sx - 24 - size;
+    const top = sy - 24 - size > 0 ? sy - 24 - size : sy + 24;
+    magnifier.style.left = `${Math.max(0, Math.round(left))}px`;
+    magnifier.style.top = `${Math.max(0, Math.round(top))}px`;
     magnifier.hidden = false;
   } else magnifier.hidden = true;
 }

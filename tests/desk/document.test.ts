@@ -102,6 +102,14 @@ describe('the tools', () => {
     const after = structuredClone(draft);
     result.change(after);
     expect(after.observations).toEqual([{ id: 'bracket', kind: 'rod-shadow', wall: 'west', pixels: { fromPx: [800, 515], toPx: [764, 569] } }]);
+    const corner = TOOLS.find((t) => t.id === 'walls-corner')!;
+    const twoWalls = { ...draft, walls: [{ id: 'west', azimuthDeg: 268.5 }, { id: 'south', azimuthDeg: 178.5 }] };
+    const ground = corner.finish(twoWalls, [[1231.5, 954]], { wallA: 'west', wallB: 'south' });
+    if (typeof ground === 'string') throw new Error(ground);
+    const withGround = structuredClone(twoWalls);
+    ground.change(withGround);
+    expect(withGround.groundPlane).toEqual({ fromWalls: { walls: ['west', 'south'], cornerPx: [1231.5, 954] } });
+    expect(corner.finish(twoWalls, [[1, 1]], { wallA: 'west', wallB: 'west' })).toMatch(/two different walls/);
     const wallFigure = TOOLS.find((t) => t.id === 'wall-figure')!;
     expect(wallFigure.finish(emptyDraft(null, null, null), [[0, 0], [1, 0], [1, 1], [0, 1]], { wall: 'none', form: 'rectangle' })).toMatch(/Choose the wall/);
   });
