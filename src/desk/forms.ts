@@ -224,9 +224,12 @@ function factsAndClocks(ctx: FormContext): HTMLElement[] {
 
 /** All the forms, in the order of the scene file. */
 export function renderForms(ctx: FormContext): HTMLElement[] {
-  const whole = ctx.refusal && ctx.refusal.field === '' ? h('p', { class: 'message', role: 'alert' }, [h('strong', { text: 'Not accepted: ' }), ctx.refusal.message]) : null;
+  // the reader's first refusal, also at the top (the field itself may be further down, marked the same way)
+  const whole = ctx.refusal
+    ? h('p', { class: 'message', role: 'status' }, [h('strong', { text: ctx.refusal.field === '' ? 'Not accepted: ' : 'Not complete yet: ' }), ctx.refusal.message])
+    : h('p', { class: 'small', text: 'The scene reader takes this scene as it stands.' });
   return [
-    ...(whole ? [whole] : []),
+    whole,
     section(ctx, 'Scene', [
       field(ctx, { path: ['title'], label: 'title', kind: 'text' }),
       field(ctx, { path: ['seed'], label: 'seed for Monte Carlo runs', kind: 'number', hint: 'default 1' }),
