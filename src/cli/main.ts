@@ -19,6 +19,7 @@ import { registerCheck } from './checkSpec.js';
 import { registerChart } from './chartSpec.js';
 import { registerReport } from './reportSpec.js';
 import { registerMeasure } from './measureSpec.js';
+import { registerDesk } from './deskSpec.js';
 
 /** Each entry adds one command to the program. Add new commands here, one line each. */
 const COMMANDS: ReadonlyArray<(program: Command, io: CliIo) => void> = [
@@ -29,6 +30,7 @@ const COMMANDS: ReadonlyArray<(program: Command, io: CliIo) => void> = [
   registerMeasure,
   registerChart,
   registerReport,
+  registerDesk,
 ];
 
 export const EXIT_BAD_INPUT = 2;

@@ -1,0 +1,185 @@
+/**
+ * What the desk shows about its document, derived by the library on every change: the scene
+ * reader's verdict on the whole file (sceneFromData), and the measurement of every clicked
+ * figure and shadow (src/image: rectifyPlane, resolvePixelObservations) with its sigma,
+ * residuals and warnings, each put next to the item it concerns.
+ *
+ * Measuring must not wait for the site or the window to be typed in, so the pixel part is
+ * measured on a copy of the document in which what does not change a measurement (title,
+ * site, calendar, window, the non-pixel observations) is replaced by neutral stand-ins; the
+ * observations keep their places, so that paths and Monte Carlo seeds are those of the file.
+ * An item that the reader or the rectification refuses gets the message and is left out of
+ * the copy, and measuring goes on for the others (at most once per item: bounded).
+ */
+import { HeliochronError, InvalidInputError } from '../errors.js';
+import { sceneFromData } from '../scene/readScene.js';
+import type { Scene } from '../scene/types.js';
+import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
+import { rectifySceneGround } from '../image/measureScene.js';
+import { resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
+import { getAt, pathText, type Draft, type DraftValue } from './draft.js';
+
+export const PIXEL_KINDS = ['rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow'] as const;
+
+export interface Refusal {
+  /** The field the library named (`walls[0].imagePlane.pointsPx`), or '' for the file as a whole. */
+  readonly field: string;
+  readonly message: string;
+}
+
+export interface Derived {
+  /** The validated scene, when the reader takes the whole document. */
+  readonly scene: Scene | null;
+  /** The reader's refusal of the whole document (the first field it stops at). */
+  readonly refusal: Refusal | null;
+  /** The scene the measurements were made on (stand-ins for what does not matter to them). */
+  readonly measuringScene: Scene | null;
+  /** Every plane that could be straightened, by field. */
+  readonly planes: ReadonlyMap<string, RectifiedPlane>;
+  readonly measurements: readonly ResolvedMeasurement[];
+  /** Refusals of single items, by the item's path text (`observations[2]`, `walls[0].imagePlane`, `groundPlane`). */
+  readonly itemRefusals: ReadonlyMap<string, string>;
+}
+
+function refusalOf(error: unknown): Refusal {
+  if (error instanceof InvalidInputError) return { field: error.field, message: error.message };
+  if (error instanceof HeliochronError) return { field: '', message: error.message };
+  return { field: '', message: error instanceof Error ? error.message : String(error) };
+}
+
+/** The item a field belongs to: `observations[2].pixels.toPx` -> `observations[2]`; planes by their own path. */
+export function ownerOf(field: string): string {
+  const obs = /^observations\[\d+\]/.exec(field);
+  if (obs) return obs[0];
+  const wall = /^walls\[\d+\]\.imagePlane/.exec(field);
+  if (wall) return wall[0];
+  const wallItem = /^walls\[\d+\]/.exec(field);
+  if (wallItem) return wallItem[0];
+  if (field.startsWith('groundPlane')) return 'groundPlane';
+  if (field.startsWith('image')) return 'image';
+  return field;
+}
+
+function standIn(k: number): DraftValue {
+  return { id: `desk-stand-in-${k + 1}`, kind: 'sun-up' };
+}
+
+/** The copy of the document that measuring needs, with neutral stand-ins for the rest. */
+function measuringCopy(draft: Draft): Draft {
+  const walls = (Array.isArray(draft.walls) ? draft.walls : []).map((w) =>
+    w && typeof w === 'object' && !Array.isArray(w) && w.azimuthDeg === undefined && w.mapAzimuthDeg === undefined && w.mapPoints === undefined
+      ? { ...w, azimuthDeg: 0 }
+      : w,
+  );
+  const observations = (Array.isArray(draft.observations) ? draft.observations : []).map((o, k) =>
+    PIXEL_KINDS.includes(String(getAt(o, ['kind'])) as (typeof PIXEL_KINDS)[number]) && getAt(o, ['pixels']) !== undefined ? o : standIn(k),
+  );
+  if (observations.length === 0) observations.push(standIn(0));
+  const copy: Draft = {
+    heliochron: 1,
+    title: 'measuring',
+    site: { latitudeDeg: 0, longitudeDeg: 0 },
+    calendar: 'gregorian',
+    window: { fromYear: 1900, toYear: 1900 },
+    walls,
+    observations,
+  };
+  for (const key of ['image', 'groundPlane', 'mapNorthCorrectionDeg', 'seed'] as const) if (draft[key] !== undefined) copy[key] = draft[key];
+  return copy;
+}
+
+/** Replace the observations that stand on a left-out plane by stand-ins, saying why beside each. */
+function leaveOutDependents(copy: Draft, onPlane: (o: DraftValue) => boolean, why: string, refusals: Map<string, string>): void {
+  const list = copy.observations as DraftValue[];
+  list.forEach((o, k) => {
+    if (getAt(o, ['kind']) === 'sun-up' || !onPlane(o)) return;
+    list[k] = standIn(k);
+    if (!refusals.has(`observations[${k}]`)) refusals.set(`observations[${k}]`, why);
+  });
+}
+
+/** Leave out the item a refusal names (and what stands on it); false when there is nothing left to leave out. */
+function leaveOut(copy: Draft, owner: string, refusals: Map<string, string>): boolean {
+  const obs = /^observations\[(\d+)\]$/.exec(owner);
+  if (obs) {
+    const k = Number(obs[1]);
+    const list = copy.observations as DraftValue[];
+    if (getAt(list[k], ['kind']) === 'sun-up') return false;
+    list[k] = standIn(k);
+    return true;
+  }
+  const wall = /^walls\[(\d+)\](\.imagePlane)?$/.exec(owner);
+  if (wall) {
+    const w = (copy.walls as DraftValue[])[Number(wall[1])] as Record<string, DraftValue>;
+    if (!w || w.imagePlane === undefined) return false;
+    delete w.imagePlane;
+    leaveOutDependents(copy, (o) => getAt(o, ['wall']) === w.id, `it is measured on wall ${String(w.id)}, whose figure is not accepted (see that figure)`, refusals);
+    return true;
+  }
+  if (owner === 'groundPlane' && copy.groundPlane !== undefined) {
+    delete copy.groundPlane;
+    leaveOutDependents(copy, (o) => getAt(o, ['kind']) === 'pole-shadow', 'it is measured on the ground, whose figure is not accepted (see the ground)', refusals);
+    return true;
+  }
+  return false;
+}
+
+/**
+ * Everything the desk shows about a document.
+ * @example derive(draft).measurements[0].values[0] // { name: 'slopeDeg', value: 56.3, sigma: 1.1, ... }
+ */
+export function derive(draft: Draft): Derived {
+  let scene: Scene | null = null;
+  let refusal: Refusal | null = null;
+  try {
+    scene = sceneFromData(draft);
+  } catch (error) {
+    refusal = refusalOf(error);
+  }
+
+  const itemRefusals = new Map<string, string>();
+  const copy = measuringCopy(draft);
+  let measuringScene: Scene | null = null;
+  let planes = new Map<string, RectifiedPlane>();
+  let measurements: readonly ResolvedMeasurement[] = [];
+  const bound = 3 + (copy.observations as DraftValue[]).length + (copy.walls as DraftValue[]).length;
+  for (let attempt = 0; attempt < bound; attempt += 1) {
+    try {
+      measuringScene = sceneFromData(copy);
+      const resolved = resolvePixelObservations(measuringScene);
+      planes = new Map(resolved.planes);
+      measurements = resolved.measurements;
+      break;
+    } catch (error) {
+      const r = refusalOf(error);
+      const owner = ownerOf(r.field);
+      measuringScene = null;
+      if (!itemRefusals.has(owner || 'image')) itemRefusals.set(owner || 'image', r.message);
+      if (!leaveOut(copy, owner, itemRefusals)) break;
+    }
+  }
+
+  // planes that no measurement used are straightened too, for their grid and residuals
+  if (measuringScene?.image) {
+    const image = measuringScene.image;
+    measuringScene.walls.forEach((wall, i) => {
+      const field = `walls[${i}].imagePlane`;
+      if (!wall.imagePlane || planes.has(field)) return;
+      try {
+        planes.set(field, rectifyPlane(wall.imagePlane, image, 'wall', field));
+      } catch (error) {
+        itemRefusals.set(field, refusalOf(error).message);
+      }
+    });
+    if (measuringScene.groundPlane && !planes.has('groundPlane')) {
+      try {
+        rectifySceneGround(measuringScene, image, planes);
+      } catch (error) {
+        itemRefusals.set('groundPlane', refusalOf(error).message);
+      }
+    }
+  }
+  return { scene, refusal, measuringScene, planes, measurements, itemRefusals };
+}
+
+export { pathText };
