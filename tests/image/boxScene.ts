@@ -9,6 +9,7 @@
 import type { RandomSource } from '../../src/math/random.js';
 import type { CameraInput, LineFamily } from '../../src/image/cameraModel.js';
 import type { ShadowPairInput } from '../../src/image/cameraSun.js';
+import type { Scene } from '../../src/scene/types.js';
 import { add, clicker, cross, horizontal, project, randomCamera, scale, sunVector, sub, type Camera, type Vec3 } from './syntheticCamera.js';
 
 const uniform = (rng: RandomSource, a: number, b: number): number => a + (b - a) * rng.uniform();
@@ -42,6 +43,8 @@ export interface BoxOptions {
   readonly centredPrincipal?: boolean;
   /** A level camera (no tilt): vertical lines parallel in the picture. */
   readonly level?: boolean;
+  /** The sun to light the scene (else a random one in front of the building). */
+  readonly sun?: { readonly azimuthDeg: number; readonly altitudeDeg: number };
 }
 
 /** Points along the segment a -> b, `count` of them, spread between 5% and 95% of it. */
@@ -74,8 +77,8 @@ export function randomBoxPicture(rng: RandomSource, options: BoxOptions = {}): B
   const wallA = levelsA.map((z) => along(rng, at(d1, -d2, z), at(d1, d2, z), n(2, 4)));
   const wallB = levelsB.map((z) => along(rng, at(-d1, d2, z), at(d1, d2, z), n(2, 4)));
   // the sun in front of at least one face, above the horizon
-  const sunAz = azA + 45 + uniform(rng, -100, 100);
-  const sunAlt = uniform(rng, 12, 60);
+  const sunAz = options.sun ? options.sun.azimuthDeg : azA + 45 + uniform(rng, -100, 100);
+  const sunAlt = options.sun ? options.sun.altitudeDeg : uniform(rng, 12, 60);
   const s = sunVector(sunAz, sunAlt);
   // poles and figures in front of the building; shadows on steps and uneven paving (level patches at random heights)
   const camDir = uniform(rng, 22, 68); // degrees from e1 towards e2
@@ -138,4 +141,23 @@ export function trueRotation(cam: Camera): [[number, number, number], [number, n
 export function pairInputsOf(pic: BoxPicture, rng: RandomSource, noisePx: number, sigmaPx: number): ShadowPairInput[] {
   const click = clicker(pic.camera, rng, noisePx, false, pic.widthPx);
   return pic.pairs.map((p, k) => ({ field: `observations[${k}]`, objectPx: click(p.object), shadowPx: click(p.shadow), sigmaPx }));
+}
+
+/** A scene file's content for a box picture: walls a and b, the camera block and object-shadow pairs (ids fig0, fig1, ...). */
+export function sceneOfPicture(pic: BoxPicture, rng: RandomSource, noisePx: number, sigmaPx: number, base: Omit<Scene, 'walls' | 'observations' | 'image' | 'camera'>, group?: (k: number) => string | undefined): Scene {
+  const click = clicker(pic.camera, rng, noisePx, false, pic.widthPx);
+  const lines = (edges: readonly (readonly Vec3[])[]) => edges.map((e) => e.map(click));
+  return {
+    ...base,
+    image: { widthPx: pic.widthPx, heightPx: pic.heightPx, mirrored: false, pixelSigmaPx: sigmaPx },
+    walls: [
+      { id: 'a', azimuthDeg: pic.wallAzimuthsDeg[0], azimuthSigmaDeg: 0, azimuthSource: 'synthetic' },
+      { id: 'b', azimuthDeg: pic.wallAzimuthsDeg[1], azimuthSigmaDeg: 0, azimuthSource: 'synthetic' },
+    ],
+    camera: { verticalLines: lines(pic.vertical), wallLines: [{ wallId: 'a', lines: lines(pic.wallA) }, { wallId: 'b', lines: lines(pic.wallB) }] },
+    observations: pic.pairs.map((p, k) => {
+      const g = group?.(k);
+      return { id: `fig${k}`, kind: 'object-shadow' as const, objectPx: click(p.object), shadowPx: click(p.shadow), ...(g ? { group: g } : {}) };
+    }),
+  };
 }

@@ -1,0 +1,148 @@
+/**
+ * A scene's camera and the sun of each group of its object-shadow pairs.
+ *
+ * The `camera` block becomes a CameraInput (every point flipped into the
+ * working frame for a mirrored print, docs/conventions.md; each wall's
+ * horizontal lines carry its stated azimuth), solved by camera.ts. The
+ * object-shadow observations are grouped by their `group` label (no label:
+ * one group of its own), and each group's pairs give one sun direction with
+ * its covariance (cameraSun.ts). When the first-order sigma is not reliable,
+ * the Monte Carlo spread of the same clicks (seeded from the scene's seed)
+ * is used when larger, as for the other pixel measurements
+ * (resolvePixels.ts).
+ *
+ * For the solver each group becomes one `sun-direction` observation, put in
+ * place of the group's first pair; its other pairs become `sun-up` facts
+ * (a cast shadow means the sun is up) so that nothing is counted twice. The
+ * sun-direction form has independent azimuth and altitude sigmas; the
+ * correlation rho of the two is absorbed conservatively by widening both
+ * sigmas by sqrt(1 + |rho|): the matrix (1 + |rho|) diag(sigma^2) is at
+ * least the full covariance in every direction, because the correlation
+ * matrix [[1, rho], [rho, 1]] has eigenvalues 1 +- rho (common practice of
+ * bounding a covariance by a diagonal one).
+ */
+import { InvalidInputError } from '../errors.js';
+import { createRandom } from '../math/random.js';
+import type { ObjectShadowObservation, Observation, Scene } from '../scene/types.js';
+import { solveCamera, type CameraSolution } from './camera.js';
+import type { CameraInput, LineFamily } from './cameraModel.js';
+import { sunFromShadowPairs, sunFromShadowPairsFunction, type ShadowPairInput, type SunFromShadows } from './cameraSun.js';
+import { toWorkingFrame } from './planeInImage.js';
+import { monteCarloSpread } from './propagation.js';
+
+/** Monte Carlo samples when the first-order sigma of a group's sun is not reliable. */
+export const SUN_MONTE_CARLO_SAMPLES = 1000;
+
+/** The camera input of a scene's camera block, in the working frame. */
+export function cameraInputOf(scene: Scene): CameraInput {
+  const block = scene.camera;
+  const image = scene.image;
+  if (!block || !image) throw new InvalidInputError('camera', block, 'a camera block with the picture described in "image"');
+  const sigmaPx = block.sigmaPx ?? image.pixelSigmaPx;
+  const lines = (list: readonly (readonly (readonly [number, number])[])[]) =>
+    list.map((line) => ({ pointsPx: line.map((p) => toWorkingFrame(p, image)), sigmaPx }));
+  const families: LineFamily[] = [{ field: 'camera.verticalLines', direction: { kind: 'vertical' }, lines: lines(block.verticalLines) }];
+  block.wallLines.forEach((w, i) => {
+    const wall = scene.walls.find((x) => x.id === w.wallId);
+    if (!wall) throw new InvalidInputError(`camera.wallLines[${i}].wall`, w.wallId, 'the id of a wall of this scene');
+    families.push({ field: `camera.wallLines[${i}].lines`, direction: { kind: 'wall', wallId: wall.id, wallAzimuthDeg: wall.azimuthDeg }, lines: lines(w.lines) });
+  });
+  return {
+    field: 'camera', widthPx: image.widthPx, heightPx: image.heightPx, families,
+    ...(block.focalLengthPx !== undefined ? { focalLengthPx: block.focalLengthPx } : {}),
+  };
+}
+
+/** One group's sun, with the sigmas written into the scene. */
+export interface GroupSun {
+  /** The group label; '' for pairs without one. */
+  readonly group: string;
+  readonly ids: readonly string[];
+  readonly fields: readonly string[];
+  readonly sun: SunFromShadows;
+  /** Sigmas written into the sun-direction observation (widened for the correlation, or from the Monte Carlo). */
+  readonly azimuthSigmaDeg: number;
+  readonly altitudeSigmaDeg: number;
+  readonly correlation: number;
+  readonly sigmaSource: 'first-order' | 'monte-carlo';
+  readonly monteCarlo?: { readonly seed: number; readonly samples: number; readonly azimuthSigmaDeg: number; readonly altitudeSigmaDeg: number };
+}
+
+export interface SceneSun {
+  readonly camera: CameraSolution;
+  readonly groups: readonly GroupSun[];
+  /** The observations with every object-shadow pair replaced (see the header). */
+  readonly observations: readonly Observation[];
+}
+
+/** True when the scene has object-shadow pairs. */
+export function hasObjectShadows(scene: Scene): boolean {
+  return scene.observations.some((o) => o.kind === 'object-shadow');
+}
+
+/**
+ * The scene's camera and the sun of each group of object-shadow pairs.
+ * Throws InvalidInputError naming the field for degenerate lines or pairs.
+ * @example resolveSceneSun(scene).groups[0].sun.azimuthDeg // 212.8
+ */
+export function resolveSceneSun(scene: Scene): SceneSun {
+  const image = scene.image!;
+  const camera = solveCamera(cameraInputOf(scene));
+  const byGroup = new Map<string, { obs: ObjectShadowObservation; index: number }[]>();
+  scene.observations.forEach((o, index) => {
+    if (o.kind !== 'object-shadow') return;
+    const key = o.group ?? '';
+    byGroup.set(key, [...(byGroup.get(key) ?? []), { obs: o, index }]);
+  });
+  const replaced: Observation[] = [...scene.observations];
+  const groups: GroupSun[] = [];
+  for (const [group, members] of byGroup) {
+    if (members.length < 2) {
+      const m = members[0];
+      throw new InvalidInputError(
+        `observations[${m.index}]`, m.obs.id, `two or more object-shadow pairs${group ? ` in group "${group}"` : ' without a group'}`,
+        'One pair confines the sun to a great circle of the sky only; add a second pair lit by the same sun',
+      );
+    }
+    const pairs: ShadowPairInput[] = members.map(({ obs, index }) => ({
+      field: `observations[${index}]`,
+      objectPx: toWorkingFrame(obs.objectPx, image),
+      shadowPx: toWorkingFrame(obs.shadowPx, image),
+      sigmaPx: obs.sigmaPx ?? image.pixelSigmaPx,
+    }));
+    const sun = sunFromShadowPairs(camera, pairs);
+    const correlation = sun.covarianceDeg2[0][1] / (sun.azimuthSigmaDeg * sun.altitudeSigmaDeg);
+    const widen = Math.sqrt(1 + Math.abs(Number.isFinite(correlation) ? correlation : 0));
+    let azimuthSigmaDeg = sun.azimuthSigmaDeg * widen;
+    let altitudeSigmaDeg = sun.altitudeSigmaDeg * widen;
+    let sigmaSource: GroupSun['sigmaSource'] = 'first-order';
+    let monteCarlo: GroupSun['monteCarlo'];
+    if (!sun.firstOrderReliable) {
+      const seed = (scene.seed + members[0].index) >>> 0; // one stream per group, repeatable from the scene's seed
+      const chain = sunFromShadowPairsFunction(camera, pairs);
+      const mc = monteCarloSpread(chain.f, chain.p0, chain.sigmas, [true, false], createRandom(seed), SUN_MONTE_CARLO_SAMPLES);
+      const [mcAz, mcAlt] = [mc.sigmas[0] * widen, mc.sigmas[1] * widen];
+      if (Number.isFinite(mcAz) && Number.isFinite(mcAlt) && (mcAz > azimuthSigmaDeg || mcAlt > altitudeSigmaDeg)) {
+        azimuthSigmaDeg = Math.max(azimuthSigmaDeg, mcAz);
+        altitudeSigmaDeg = Math.max(altitudeSigmaDeg, mcAlt);
+        sigmaSource = 'monte-carlo';
+      }
+      monteCarlo = { seed, samples: SUN_MONTE_CARLO_SAMPLES, azimuthSigmaDeg: mc.sigmas[0], altitudeSigmaDeg: mc.sigmas[1] };
+    }
+    const [first, ...rest] = members;
+    const label = group ? `group "${group}"` : 'the pairs without a group';
+    replaced[first.index] = {
+      id: first.obs.id, kind: 'sun-direction',
+      azimuthDeg: sun.azimuthDeg, azimuthSigmaDeg, altitudeDeg: sun.altitudeDeg, altitudeSigmaDeg,
+      note: `sun from ${members.length} object-shadow pairs of ${label} through the picture's camera (${members.map((m) => m.obs.id).join(', ')})${first.obs.note ? `; ${first.obs.note}` : ''}`,
+    };
+    for (const m of rest) {
+      replaced[m.index] = { id: m.obs.id, kind: 'sun-up', note: `object-shadow pair combined into ${first.obs.id}${m.obs.note ? `; ${m.obs.note}` : ''}` };
+    }
+    groups.push({
+      group, ids: members.map((m) => m.obs.id), fields: pairs.map((p) => p.field), sun,
+      azimuthSigmaDeg, altitudeSigmaDeg, correlation, sigmaSource, ...(monteCarlo ? { monteCarlo } : {}),
+    });
+  }
+  return { camera, groups, observations: replaced };
+}
