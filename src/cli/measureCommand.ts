@@ -16,6 +16,7 @@ import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservations.js';
 import { rectifySceneGround } from '../image/measureScene.js';
 import { measuredQuantities, resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
+import { describeSceneSun, sceneSunRecord } from '../image/sceneSun.js';
 import { formatCalendarDate } from '../calendar/format.js';
 import { hhmm, roundTo } from '../report/formatTimes.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
@@ -339,11 +340,13 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
         image: scene.image ?? null,
         planes: planeRecords,
         observations: observationRecords,
+        camera: resolved.sceneSun ? sceneSunRecord(resolved.sceneSun) : null,
         best,
         overlay: overlayTarget ? { file: options.overlay, picture: picturePath ? (options.image ?? scene.image?.file ?? null) : null } : null,
         notes,
       }, null, 2)}\n`
     : renderText(scene, planeRecords, observationRecords, best, notes) +
+      (resolved.sceneSun ? `\n${describeSceneSun(resolved.sceneSun).join('\n')}\n` : '') +
       (overlayTarget ? `Overlay written to ${options.overlay}${picture ? ' (with the picture embedded)' : ''}.\n` : '');
 
   if (svg !== undefined && overlayTarget !== undefined) {

@@ -146,3 +146,86 @@ export function resolveSceneSun(scene: Scene): SceneSun {
   }
   return { camera, groups, observations: replaced };
 }
+
+const f1 = (x: number): string => x.toFixed(1);
+const f2 = (x: number): string => x.toFixed(2);
+
+/** Plain-words lines on the camera and the sun of each group, for `heliochron measure` and the desk. */
+export function describeSceneSun(s: SceneSun): string[] {
+  const c = s.camera;
+  const out: string[] = [];
+  out.push("The picture's camera, from its vanishing lines (camera)");
+  out.push(`  ${c.methodNote}`);
+  out.push(
+    `  focal length ${f1(c.focalLengthPx.value)} px, sigma ${f1(c.focalLengthPx.sigma)} px (horizontal field of view ${f1(c.horizontalFieldOfViewDeg)} deg); ` +
+      `principal point [${f1(c.principalPointPx[0].value)}, ${f1(c.principalPointPx[1].value)}] px${c.principalPointAssumed ? ' (assumed)' : `, sigma ${f1(c.principalPointPx[0].sigma)}, ${f1(c.principalPointPx[1].sigma)} px`}`,
+  );
+  out.push(
+    `  looking towards azimuth ${f2(c.viewAzimuthDeg.value)} deg (sigma ${f2(c.viewAzimuthDeg.sigma)}), tilted ${f2(c.viewAltitudeDeg.value)} deg ${c.viewAltitudeDeg.value >= 0 ? 'up' : 'down'} (sigma ${f2(c.viewAltitudeDeg.sigma)}), ` +
+      `rolled ${f2(c.rollDeg.value)} deg (sigma ${f2(c.rollDeg.sigma)}); rotation sigma about east, north, up ${c.rotationSigmaDeg.map(f2).join(', ')} deg`,
+  );
+  for (const v of c.vanishingPoints) {
+    const where = v.pointPx ? `vanishing point [${f1(v.pointPx[0])}, ${f1(v.pointPx[1])}] px` : 'vanishing point at infinity (the lines are parallel in the picture)';
+    out.push(`  ${v.field}: ${v.lineCount} lines, ${where}`);
+    out.push(`    ${v.note}`);
+  }
+  c.directionMisfitsDeg.forEach((m, k) => {
+    if (m > 2) out.push(`  WARNING: ${c.vanishingPoints[k].field} lies ${f1(m)} deg from where the camera puts its stated direction: check the wall's azimuth and the lines`);
+  });
+  for (const n of c.notes.slice(1 + c.vanishingPoints.length)) out.push(`  WARNING: ${n}`);
+  out.push('');
+  out.push('Sun directions from object-shadow pairs, through the camera');
+  for (const g of s.groups) {
+    const name = g.group ? `group "${g.group}"` : 'pairs without a group';
+    out.push(`  ${name} (${g.ids.join(', ')}; ${g.fields.join(', ')})`);
+    out.push(
+      `    sun azimuth ${f2(g.sun.azimuthDeg)} deg, sigma ${f2(g.azimuthSigmaDeg)}; apparent altitude ${f2(g.sun.altitudeDeg)} deg, sigma ${f2(g.altitudeSigmaDeg)}` +
+        `${g.sigmaSource === 'monte-carlo' ? ' (Monte Carlo spread)' : ''}`,
+    );
+    out.push(
+      `    first-order sigmas ${f2(g.sun.azimuthSigmaDeg)} and ${f2(g.sun.altitudeSigmaDeg)} deg, correlation ${g.correlation.toFixed(2)}; ` +
+        `written to the dating widened by sqrt(1 + |correlation|) so that no direction is claimed better than measured`,
+    );
+    if (g.monteCarlo) out.push(`    Monte Carlo of ${g.monteCarlo.samples} samples (seed ${g.monteCarlo.seed}): ${f2(g.monteCarlo.azimuthSigmaDeg)} and ${f2(g.monteCarlo.altitudeSigmaDeg)} deg`);
+    const vp = g.sun.vanishingPointPx;
+    out.push(`    the shadow lines meet at ${vp ? `[${f1(vp[0])}, ${f1(vp[1])}] px (the ${g.sun.vanishingPointIsSun ? 'sun' : 'point opposite the sun'})` : 'infinity (the sun is square to the line of sight)'}`);
+    for (const n of g.sun.notes) out.push(`    ${n}`);
+  }
+  out.push('  These are estimates conditional on the picture following one camera, the lines being straight edges vertical or along the stated walls, and each shadow point belonging to its object point.');
+  return out;
+}
+
+/** The camera and the groups' suns as plain JSON-ready data (no functions, no input echo). */
+export function sceneSunRecord(s: SceneSun): unknown {
+  const c = s.camera;
+  return {
+    method: c.method.kind,
+    methodNote: c.methodNote,
+    focalLengthPx: c.focalLengthPx,
+    principalPointPx: c.principalPointPx,
+    principalPointAssumed: c.principalPointAssumed,
+    horizontalFieldOfViewDeg: c.horizontalFieldOfViewDeg,
+    viewAzimuthDeg: c.viewAzimuthDeg,
+    viewAltitudeDeg: c.viewAltitudeDeg,
+    rollDeg: c.rollDeg,
+    rotation: c.rotation,
+    rotationSigmaDeg: c.rotationSigmaDeg,
+    firstOrderReliable: c.firstOrderReliable,
+    perspectiveConsistent: c.perspectiveConsistent,
+    vanishingPoints: c.vanishingPoints.map((v) => ({
+      field: v.field, pointPx: v.pointPx, covariancePx: v.covariancePx ?? null, atInfinity: v.atInfinity,
+      lines: v.lineCount, chiSquare: v.chiSquare, dof: v.dof, pValue: v.pValue, missAnglesDeg: v.missAnglesDeg, note: v.note,
+    })),
+    notes: c.notes,
+    groups: s.groups.map((g) => ({
+      group: g.group || null, ids: g.ids, fields: g.fields,
+      azimuthDeg: g.sun.azimuthDeg, altitudeDeg: g.sun.altitudeDeg,
+      firstOrder: { azimuthSigmaDeg: g.sun.azimuthSigmaDeg, altitudeSigmaDeg: g.sun.altitudeSigmaDeg, covarianceDeg2: g.sun.covarianceDeg2 },
+      written: { azimuthSigmaDeg: g.azimuthSigmaDeg, altitudeSigmaDeg: g.altitudeSigmaDeg, sigmaSource: g.sigmaSource },
+      monteCarlo: g.monteCarlo ?? null,
+      vanishingPointPx: g.sun.vanishingPointPx, vanishingPointCovariancePx: g.sun.vanishingPointCovariancePx ?? null, vanishingPointIsSun: g.sun.vanishingPointIsSun,
+      meeting: { chiSquare: g.sun.chiSquare, dof: g.sun.dof, pValue: g.sun.pValue, missAnglesDeg: g.sun.missAnglesDeg },
+      notes: g.sun.notes,
+    })),
+  };
+}
