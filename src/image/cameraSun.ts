@@ -230,3 +230,46 @@ export function sunFromShadowPairsFunction(camera: CameraSolution, pairs: readon
   const probe = sunMeasurement(camera, pairs, orientSun, [0, 0, 1], false);
   return { ...probe, f: (q) => probe.f(q).slice(0, 2) };
 }
+
+/** Whether two sets of pairs share one sun. */
+export interface SunComparison {
+  /** Angle between the two suns, degrees. */
+  readonly separationDeg: number;
+  /** Delta chi-square of one sun for both against a sun for each (2 degrees of freedom) and its p-value. */
+  readonly chiSquare: number;
+  readonly pValue: number;
+}
+
+/**
+ * Do the pairs `a` and the pairs `b` (two or more each) share one sun? The difference of their two suns,
+ * (azimuth difference x cos altitude, altitude difference), with its covariance from every click by
+ * first-order propagation (the camera's clicks shared by both, so its error largely cancels), gives
+ * chi2 = d^T C^-1 d with 2 degrees of freedom: to first order the Delta chi-square between one sun for all
+ * and a separate sun for each set (Press et al., Numerical Recipes 3rd ed. 2007, sec. 15.6, Delta chi2 of
+ * nested fits). p = exp(-chi2 / 2), the chi-square tail for 2 degrees of freedom (NIST/SEMATECH e-Handbook).
+ * @example compareShadowSets(camera, figures, buildings).pValue // 0.001
+ */
+export function compareShadowSets(camera: CameraSolution, a: readonly ShadowPairInput[], b: readonly ShadowPairInput[]): SunComparison {
+  const sa = sunFromShadowPairs(camera, a);
+  const sb = sunFromShadowPairs(camera, b);
+  const fa = sunMeasurement(camera, a, applyMatrix(camera.rotation, sa.vector), [0, 0, 1], false);
+  const fb = sunMeasurement(camera, b, applyMatrix(camera.rotation, sb.vector), [0, 0, 1], false);
+  const nc = cameraParameters(camera.input).p0.length;
+  const p0 = [...fa.p0, ...fb.p0.slice(nc)];
+  const sigmas = [...fa.sigmas, ...fb.sigmas.slice(nc)];
+  const na = fa.p0.length;
+  const f = (q: readonly number[]): number[] => {
+    const [azA, altA] = fa.f(q.slice(0, na));
+    const [azB, altB] = fb.f([...q.slice(0, nc), ...q.slice(na)]);
+    let dAz = azA - azB;
+    dAz -= 360 * Math.round(dAz / 360);
+    return [dAz * Math.cos(((altA + altB) / 2 / 180) * Math.PI), altA - altB];
+  };
+  const fo = propagateFirstOrder(f, p0, sigmas, [false, false], p0.map(() => 'clicks'));
+  const [d0, d1] = fo.values;
+  const [[c00, c01], [, c11]] = fo.covariance;
+  const det = c00 * c11 - c01 * c01;
+  const chiSquare = (d0 * d0 * c11 - 2 * d0 * d1 * c01 + d1 * d1 * c00) / det;
+  const separationDeg = (Math.acos(Math.min(1, Math.max(-1, dot3(sa.vector, sb.vector)))) * 180) / Math.PI;
+  return { separationDeg, chiSquare, pValue: Math.exp(-chiSquare / 2) };
+}

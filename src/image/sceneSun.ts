@@ -20,13 +20,20 @@
  * least the full covariance in every direction, because the correlation
  * matrix [[1, rho], [rho, 1]] has eigenvalues 1 +- rho (common practice of
  * bounding a covariance by a diagonal one).
+ *
+ * With two or more groups, each group's sun is compared with the sun of all
+ * the other pairs (cameraSun.ts, compareShadowSets): a Delta chi-square with
+ * 2 degrees of freedom, its p-value, and a plain sentence ("the shadows of
+ * group "figures" do not share the light of the other pairs: p = 0.001").
+ * This is the test at the level of the picture's shadows; the dating's own
+ * test of a group against all other evidence is not made here.
  */
 import { InvalidInputError } from '../errors.js';
 import { createRandom } from '../math/random.js';
 import type { ObjectShadowObservation, Observation, Scene } from '../scene/types.js';
 import { solveCamera, type CameraSolution } from './camera.js';
 import type { CameraInput, LineFamily } from './cameraModel.js';
-import { sunFromShadowPairs, sunFromShadowPairsFunction, type ShadowPairInput, type SunFromShadows } from './cameraSun.js';
+import { compareShadowSets, sunFromShadowPairs, sunFromShadowPairsFunction, type ShadowPairInput, type SunComparison, type SunFromShadows } from './cameraSun.js';
 import { toWorkingFrame } from './planeInImage.js';
 import { monteCarloSpread } from './propagation.js';
 
@@ -66,7 +73,12 @@ export interface GroupSun {
   readonly correlation: number;
   readonly sigmaSource: 'first-order' | 'monte-carlo';
   readonly monteCarlo?: { readonly seed: number; readonly samples: number; readonly azimuthSigmaDeg: number; readonly altitudeSigmaDeg: number };
+  /** With two or more groups: this group's sun against the sun of all other pairs (compareShadowSets). */
+  readonly againstRest?: SunComparison & { readonly sentence: string };
 }
+
+/** Below this p-value a group is said not to share the light of the rest. */
+export const GROUP_P_LIMIT = 0.01;
 
 export interface SceneSun {
   readonly camera: CameraSolution;
@@ -144,7 +156,33 @@ export function resolveSceneSun(scene: Scene): SceneSun {
       azimuthSigmaDeg, altitudeSigmaDeg, correlation, sigmaSource, ...(monteCarlo ? { monteCarlo } : {}),
     });
   }
-  return { camera, groups, observations: replaced };
+  const compared = groups.length < 2 ? groups : groups.map((g): GroupSun => {
+    const mine = new Set(g.fields);
+    const rest: ShadowPairInput[] = [];
+    for (const [, members] of byGroup) {
+      for (const { obs, index } of members) {
+        const field = `observations[${index}]`;
+        if (!mine.has(field)) rest.push({ field, objectPx: toWorkingFrame(obs.objectPx, image), shadowPx: toWorkingFrame(obs.shadowPx, image), sigmaPx: obs.sigmaPx ?? image.pixelSigmaPx });
+      }
+    }
+    const mineInputs: ShadowPairInput[] = g.fields.map((field) => {
+      const obs = scene.observations[Number(/\[(\d+)\]/.exec(field)![1])] as ObjectShadowObservation;
+      return { field, objectPx: toWorkingFrame(obs.objectPx, image), shadowPx: toWorkingFrame(obs.shadowPx, image), sigmaPx: obs.sigmaPx ?? image.pixelSigmaPx };
+    });
+    let c: SunComparison;
+    try {
+      c = compareShadowSets(camera, mineInputs, rest);
+    } catch {
+      return g; // the other pairs together give no one sun (they disagree on where the light comes from): no comparison
+    }
+    const p = c.pValue < 1e-6 ? '< 0.000001' : c.pValue < 0.001 ? c.pValue.toExponential(1) : c.pValue.toPrecision(2);
+    const who = `the shadows of group "${g.group || '(no group)'}"`;
+    const sentence = c.pValue < GROUP_P_LIMIT
+      ? `${who} do not share the light of the other pairs: p ${p.startsWith('<') ? p : `= ${p}`} (their suns are ${c.separationDeg.toFixed(1)} deg apart; Delta chi-square ${c.chiSquare.toFixed(1)} for 2 degrees of freedom)`
+      : `${who} agree with the light of the other pairs: p ${p.startsWith('<') ? p : `= ${p}`} (their suns are ${c.separationDeg.toFixed(1)} deg apart, within the clicking error)`;
+    return { ...g, againstRest: { ...c, sentence } };
+  });
+  return { camera, groups: compared, observations: replaced };
 }
 
 const f1 = (x: number): string => x.toFixed(1);
@@ -190,6 +228,7 @@ export function describeSceneSun(s: SceneSun): string[] {
     const vp = g.sun.vanishingPointPx;
     out.push(`    the shadow lines meet at ${vp ? `[${f1(vp[0])}, ${f1(vp[1])}] px (the ${g.sun.vanishingPointIsSun ? 'sun' : 'point opposite the sun'})` : 'infinity (the sun is square to the line of sight)'}`);
     for (const n of g.sun.notes) out.push(`    ${n}`);
+    if (g.againstRest) out.push(`    ${g.againstRest.sentence}`);
   }
   out.push('  These are estimates conditional on the picture following one camera, the lines being straight edges vertical or along the stated walls, and each shadow point belonging to its object point.');
   return out;
@@ -226,6 +265,7 @@ export function sceneSunRecord(s: SceneSun): unknown {
       vanishingPointPx: g.sun.vanishingPointPx, vanishingPointCovariancePx: g.sun.vanishingPointCovariancePx ?? null, vanishingPointIsSun: g.sun.vanishingPointIsSun,
       meeting: { chiSquare: g.sun.chiSquare, dof: g.sun.dof, pValue: g.sun.pValue, missAnglesDeg: g.sun.missAnglesDeg },
       notes: g.sun.notes,
+      againstRest: g.againstRest ?? null,
     })),
   };
 }

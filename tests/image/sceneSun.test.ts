@@ -70,6 +70,29 @@ describe('object-shadow pairs through the camera: the sun per group', () => {
     expect(() => resolvePixelObservations(lonely)).toThrow(/observations\[5\].*two or more object-shadow pairs in group "boat"/);
   });
 
+  test('the group test: figures under the same sun agree with the buildings; figures under another sun are named (p < 0.01)', () => {
+    const pic = picture(8);
+    const same = resolvePixelObservations(sceneOfPicture(pic, createRandom(9), 1, 1, BASE, (k) => (k < 3 ? 'buildings' : 'figures')));
+    const figuresSame = same.sceneSun!.groups.find((g) => g.group === 'figures')!;
+    // another sun for the figures: 2 hours later that day (a figure painted in on another sitting)
+    const other = sunPosition(TRUTH_JD + 2 / 24, VELMAR);
+    const s2 = [Math.sin((other.azimuthDeg * Math.PI) / 180) * Math.cos((other.altitudeDeg * Math.PI) / 180), Math.cos((other.azimuthDeg * Math.PI) / 180) * Math.cos((other.altitudeDeg * Math.PI) / 180), Math.sin((other.altitudeDeg * Math.PI) / 180)] as const;
+    const relit: BoxPicture = {
+      ...pic,
+      pairs: pic.pairs.map((p, k) => {
+        if (k < 3) return p;
+        const t = (p.object[2] - p.shadow[2]) / s2[2]; // same surface height under the shadow
+        return { object: p.object, shadow: [p.object[0] - t * s2[0], p.object[1] - t * s2[1], p.shadow[2]] as const };
+      }),
+    };
+    const mixed = resolvePixelObservations(sceneOfPicture(relit, createRandom(9), 1, 1, BASE, (k) => (k < 3 ? 'buildings' : 'figures')));
+    const figuresOther = mixed.sceneSun!.groups.find((g) => g.group === 'figures')!;
+    console.log(`group test: same sun ${figuresSame.againstRest!.sentence}; another sun ${figuresOther.againstRest!.sentence}`);
+    expect(figuresSame.againstRest!.pValue).toBeGreaterThan(0.01);
+    expect(figuresOther.againstRest!.pValue).toBeLessThan(0.01);
+    expect(figuresOther.againstRest!.sentence).toMatch(/^the shadows of group "figures" do not share the light of the other pairs: p (=|<) /);
+  });
+
   test('a picture with no sizes in metres is dated: the answer fits, and the true day and hour are consistent with it (1 px clicks)', () => {
     const pic = picture(5);
     const scene = sceneOfPicture(pic, createRandom(6), 1, 1, BASE);
