@@ -12,7 +12,8 @@
  * (resolvePixels.ts).
  *
  * For the solver each group becomes one `sun-direction` observation, put in
- * place of the group's first pair; its other pairs become `sun-up` facts
+ * place of the group's first pair and named `group:<label>` (or the first
+ * pair's id when the pairs have no group); its other pairs become `sun-up` facts
  * (a cast shadow means the sun is up) so that nothing is counted twice. The
  * sun-direction form has independent azimuth and altitude sigmas; the
  * correlation rho of the two is absorbed conservatively by widening both
@@ -143,8 +144,9 @@ export function resolveSceneSun(scene: Scene): SceneSun {
     }
     const [first, ...rest] = members;
     const label = group ? `group "${group}"` : 'the pairs without a group';
+    // a group's sun is named after the group ("group:figures"; a colon never occurs in an id of the file)
     replaced[first.index] = {
-      id: first.obs.id, kind: 'sun-direction',
+      id: group ? `group:${group}` : first.obs.id, kind: 'sun-direction',
       azimuthDeg: sun.azimuthDeg, azimuthSigmaDeg, altitudeDeg: sun.altitudeDeg, altitudeSigmaDeg,
       note: `sun from ${members.length} object-shadow pairs of ${label} through the picture's camera (${members.map((m) => m.obs.id).join(', ')})${first.obs.note ? `; ${first.obs.note}` : ''}`,
     };
@@ -186,7 +188,7 @@ export function resolveSceneSun(scene: Scene): SceneSun {
 }
 
 const f1 = (x: number): string => x.toFixed(1);
-const f2 = (x: number): string => x.toFixed(2);
+const f2 = (x: number): string => (Math.abs(x) < 0.005 ? 0 : x).toFixed(2);
 
 /** Plain-words lines on the camera and the sun of each group, for `heliochron measure` and the desk. */
 export function describeSceneSun(s: SceneSun): string[] {
@@ -229,6 +231,9 @@ export function describeSceneSun(s: SceneSun): string[] {
     out.push(`    the shadow lines meet at ${vp ? `[${f1(vp[0])}, ${f1(vp[1])}] px (the ${g.sun.vanishingPointIsSun ? 'sun' : 'point opposite the sun'})` : 'infinity (the sun is square to the line of sight)'}`);
     for (const n of g.sun.notes) out.push(`    ${n}`);
     if (g.againstRest) out.push(`    ${g.againstRest.sentence}`);
+  }
+  if (s.groups.length === 2 && s.groups.some((g) => g.againstRest && g.againstRest.pValue < GROUP_P_LIMIT)) {
+    out.push('  With two groups the test is the same both ways: it says the two groups were not lit by one sun, not which of them is out of place.');
   }
   out.push('  These are estimates conditional on the picture following one camera, the lines being straight edges vertical or along the stated walls, and each shadow point belonging to its object point.');
   return out;

@@ -66,6 +66,7 @@ describe('object-shadow pairs through the camera: the sun per group', () => {
     const r = resolvePixelObservations(scene);
     expect(r.sceneSun?.groups.map((g) => [g.group, g.ids.length])).toEqual([['buildings', 3], ['figures', 3]]);
     expect(r.scene.observations.map((o) => o.kind)).toEqual(['sun-direction', 'sun-up', 'sun-up', 'sun-direction', 'sun-up', 'sun-up']);
+    expect(r.scene.observations.map((o) => o.id)).toEqual(['group:buildings', 'fig1', 'fig2', 'group:figures', 'fig4', 'fig5']);
     const lonely = sceneOfPicture(pic, createRandom(4), 0, 1, BASE, (k) => (k === 5 ? 'boat' : undefined));
     expect(() => resolvePixelObservations(lonely)).toThrow(/observations\[5\].*two or more object-shadow pairs in group "boat"/);
   });
