@@ -331,6 +331,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
       measurements: resolved.measurements,
       ...(picture ? { picture } : {}),
       ...(predictions ? { best: { caption, predictions } } : {}),
+      ...(resolved.sceneSun ? { sceneSun: resolved.sceneSun } : {}),
     });
   }
 

@@ -36,6 +36,7 @@ import { solveCamera, type CameraSolution } from './camera.js';
 import type { CameraInput, LineFamily } from './cameraModel.js';
 import { compareShadowSets, sunFromShadowPairs, sunFromShadowPairsFunction, type ShadowPairInput, type SunComparison, type SunFromShadows } from './cameraSun.js';
 import { toWorkingFrame } from './planeInImage.js';
+import type { Point2 } from './homography.js';
 import { monteCarloSpread } from './propagation.js';
 
 /** Monte Carlo samples when the first-order sigma of a group's sun is not reliable. */
@@ -86,6 +87,8 @@ export interface SceneSun {
   readonly groups: readonly GroupSun[];
   /** The observations with every object-shadow pair replaced (see the header). */
   readonly observations: readonly Observation[];
+  /** Object and shadow point of each pair, working frame, by field (`observations[4]`). */
+  readonly pairsByField: ReadonlyMap<string, readonly [Point2, Point2]>;
 }
 
 /** True when the scene has object-shadow pairs. */
@@ -184,7 +187,11 @@ export function resolveSceneSun(scene: Scene): SceneSun {
       : `${who} agree with the light of the other pairs: p ${p.startsWith('<') ? p : `= ${p}`} (their suns are ${c.separationDeg.toFixed(1)} deg apart, within the clicking error)`;
     return { ...g, againstRest: { ...c, sentence } };
   });
-  return { camera, groups: compared, observations: replaced };
+  const pairsByField = new Map<string, readonly [Point2, Point2]>();
+  scene.observations.forEach((o, index) => {
+    if (o.kind === 'object-shadow') pairsByField.set(`observations[${index}]`, [toWorkingFrame(o.objectPx, image), toWorkingFrame(o.shadowPx, image)]);
+  });
+  return { camera, groups: compared, observations: replaced, pairsByField };
 }
 
 const f1 = (x: number): string => x.toFixed(1);
