@@ -34,6 +34,7 @@ import { civilDateToJd } from '../../dist/calendar/regions.js';
 import { clockToJdUT } from '../../dist/time/clock.js';
 import { sunPosition } from '../../dist/ephemeris/sunPosition.js';
 import { sunUnitVector } from '../../dist/geometry/sunVector.js';
+import { add, cross, dot, horizontal, mul, sub, unit } from '../siteVectors.mjs';
 
 const here = dirname(fileURLToPath(import.meta.url));
 
@@ -56,15 +57,6 @@ const jdUT = clockToJdUT(dayJd0, TRUE_LOCAL_MEAN_MINUTES, { kind: 'mean' }, SITE
 const sun = sunPosition(jdUT, SITE, AIR);
 const sunOther = sunPosition(jdUT + VARIANT_OFFSET_MINUTES / 1440, SITE, AIR);
 
-// ------------------------------------------------------------------ vectors
-const add = (a, b) => [a[0] + b[0], a[1] + b[1], a[2] + b[2]];
-const sub = (a, b) => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
-const mul = (a, k) => [a[0] * k, a[1] * k, a[2] * k];
-const dot = (a, b) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a, b) => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
-const unit = (a) => mul(a, 1 / Math.hypot(...a));
-/** Horizontal unit vector of an azimuth clockwise from north: east = sin, north = cos (docs/conventions.md). */
-const horizontal = (azDeg) => [Math.sin((azDeg * Math.PI) / 180), Math.cos((azDeg * Math.PI) / 180), 0];
 const up = [0, 0, 1];
 
 // ------------------------------------------------------------------ the place

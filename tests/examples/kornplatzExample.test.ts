@@ -12,19 +12,12 @@
 import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { main } from '../../src/cli/main.js';
-import type { CliIo } from '../../src/cli/io.js';
+import { cli as run } from '../robustness/robustHelpers.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const DIR = join(ROOT, 'examples/kornplatz-figures');
 
-async function cli(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  let out = '';
-  let err = '';
-  const io: CliIo = { out: (t) => { out += t; }, err: (t) => { err += t; }, errIsTerminal: false, cwd: ROOT };
-  const code = await main(args, io);
-  return { code, out, err };
-}
+const cli = (args: string[]) => run(args, ROOT);
 
 describe('the Kornhaus print: dated from its perspective alone', () => {
   it('measure finds the camera and, for each group, the sun of the rendering within two sigma', async () => {
