@@ -208,7 +208,7 @@ export function describeSceneSun(s: SceneSun): string[] {
       `principal point [${f1(c.principalPointPx[0].value)}, ${f1(c.principalPointPx[1].value)}] px${c.principalPointAssumed ? ' (assumed)' : `, sigma ${f1(c.principalPointPx[0].sigma)}, ${f1(c.principalPointPx[1].sigma)} px`}`,
   );
   out.push(
-    `  looking towards azimuth ${f2(c.viewAzimuthDeg.value)} deg (sigma ${f2(c.viewAzimuthDeg.sigma)}), tilted ${f2(c.viewAltitudeDeg.value)} deg ${c.viewAltitudeDeg.value >= 0 ? 'up' : 'down'} (sigma ${f2(c.viewAltitudeDeg.sigma)}), ` +
+    `  looking towards azimuth ${f2(c.viewAzimuthDeg.value)} deg (sigma ${f2(c.viewAzimuthDeg.sigma)}), tilted ${f2(Math.abs(c.viewAltitudeDeg.value))} deg ${c.viewAltitudeDeg.value >= 0 ? 'up' : 'down'} (sigma ${f2(c.viewAltitudeDeg.sigma)}), ` +
       `rolled ${f2(c.rollDeg.value)} deg (sigma ${f2(c.rollDeg.sigma)}); rotation sigma about east, north, up ${c.rotationSigmaDeg.map(f2).join(', ')} deg`,
   );
   for (const v of c.vanishingPoints) {
