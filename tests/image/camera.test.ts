@@ -13,7 +13,7 @@ import { angleDiffDeg } from '../../src/math/angles.js';
 import { InvalidInputError } from '../../src/errors.js';
 import { CAMERA_OUTPUTS, cameraOutputs, solveCamera } from '../../src/image/camera.js';
 import { cameraFromParameters, cameraParameters, rotationAngleDeg, type CameraInput } from '../../src/image/cameraModel.js';
-import { sunFromShadowPairs, sunFromShadowPairsFunction } from '../../src/image/cameraSun.js';
+import { compareShadowSets, sunFromShadowPairs, sunFromShadowPairsFunction } from '../../src/image/cameraSun.js';
 import { monteCarloSpread } from '../../src/image/propagation.js';
 import { homogeneousToPixels } from '../../src/image/vanishingPoint.js';
 import { expectClose } from '../helpers/expectClose.js';
@@ -324,5 +324,26 @@ describe('edge cases: degenerate input is refused with the field named', () => {
     const az = ((Math.atan2(f[0], f[1]) * 180) / Math.PI + 360) % 360;
     expect(Math.abs(angleDiffDeg(cam.viewAzimuthDeg.value, az))).toBeLessThan(1e-6);
     expectClose(cam.viewAltitudeDeg.value, (Math.asin(f[2]) * 180) / Math.PI, 1e-6, 'view altitude');
+  });
+});
+
+describe('the group test on synthetic pictures: calibrated when one sun lights all', () => {
+  test('two halves of the pairs under one sun are called different (p < 0.05) about 5% of the time (40 pictures, 1 px clicks)', () => {
+    // Under the null hypothesis (one sun) the Delta chi-square with 2 degrees of freedom has P(p < 0.05) = 0.05
+    // (NIST/SEMATECH chi-square table); for 40 pictures 7 or more such calls have binomial probability about 0.005.
+    const { pics, rng } = pictures(404, 40, { pairs: 6 });
+    let calls = 0;
+    const ps: number[] = [];
+    for (const pic of pics) {
+      const cam = solveCamera(cameraInputOf(pic, rng, 1, 1));
+      const pairs = pairInputsOf(pic, rng, 1, 1);
+      const c = compareShadowSets(cam, pairs.slice(0, 3), pairs.slice(3));
+      ps.push(c.pValue);
+      if (c.pValue < 0.05) calls++;
+    }
+    console.log(`group test under one sun: ${calls} of ${pics.length} pictures called different at p < 0.05; median p ${[...ps].sort((a, b) => a - b)[20].toFixed(2)}`);
+    expect(calls).toBeLessThanOrEqual(6);
+    // and it is not blind: the median p under one sun is far from 0
+    expect([...ps].sort((a, b) => a - b)[20]).toBeGreaterThan(0.2);
   });
 });
