@@ -194,7 +194,11 @@ function renderText(
   }
   out.push('');
   out.push('Observations measured from pixels');
-  if (observations.length === 0) out.push('  none: no observation of this scene is given in pixels');
+  if (observations.length === 0) {
+    out.push(scene.observations.some((o) => o.kind === 'object-shadow')
+      ? '  none on a straightened wall or ground; the object-shadow pairs are measured through the camera, below'
+      : '  none: no observation of this scene is given in pixels');
+  }
   for (const o of observations) {
     out.push(`  ${o.field} ${JSON.stringify(o.id)}: ${KIND_WORDS[o.kind]}${o.wallId ? ` on wall ${o.wallId}` : ' on the ground'}`);
     for (const v of o.values) {

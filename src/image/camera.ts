@@ -303,7 +303,7 @@ export function solveCamera(input: CameraInput): CameraSolution {
   if (misfits[worst] > WALL_MISFIT_LIMIT_DEG) {
     const fam = input.families[worst];
     throw new InvalidInputError(
-      fam.field, fam.direction.kind === 'wall' ? fam.direction.wallAzimuthDeg : 'vertical',
+      fam.field, fam.direction.kind === 'wall' ? `lines of wall ${fam.direction.wallId} (azimuth ${fam.direction.wallAzimuthDeg})` : 'vertical lines',
       'lines whose vanishing point agrees with the stated wall azimuths',
       `Their vanishing direction is ${misfits[worst].toFixed(1)} deg from where the camera fitted to all the lines puts it; the lines belong to another wall, a wall's azimuth is wrong, or a family is misclicked`,
     );

@@ -238,6 +238,7 @@ export function describeSceneSun(s: SceneSun): string[] {
     out.push(`    the shadow lines meet at ${vp ? `[${f1(vp[0])}, ${f1(vp[1])}] px (the ${g.sun.vanishingPointIsSun ? 'sun' : 'point opposite the sun'})` : 'infinity (the sun is square to the line of sight)'}`);
     for (const n of g.sun.notes) out.push(`    ${n}`);
     if (g.againstRest) out.push(`    ${g.againstRest.sentence}`);
+    else if (s.groups.length > 1) out.push('    not compared with the other pairs: taken together they do not point to one sun (several other groups under different light)');
   }
   if (s.groups.length === 2 && s.groups.some((g) => g.againstRest && g.againstRest.pValue < GROUP_P_LIMIT)) {
     out.push('  With two groups the test is the same both ways: it says the two groups were not lit by one sun, not which of them is out of place.');
