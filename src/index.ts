@@ -56,6 +56,12 @@ export { predictEvidence, evidenceResiduals, evidenceLocus } from './geometry/ob
 export { fitHomography, applyHomography, invertHomography } from './image/homography.js';
 export { measureScenePixels } from './image/measureScene.js';
 export { resolvePixelObservations } from './image/resolvePixels.js';
+export { solveCamera } from './image/camera.js';
+export type { CameraSolution, VanishingPointReport } from './image/camera.js';
+export type { CameraInput, LineFamily, ClickedLine, FamilyDirection } from './image/cameraModel.js';
+export { sunFromShadowPairs, compareShadowSets } from './image/cameraSun.js';
+export type { ShadowPairInput, SunFromShadows, SunComparison } from './image/cameraSun.js';
+export { resolveSceneSun, describeSceneSun } from './image/sceneSun.js';
 
 // Scene files
 export { readSceneText, readSceneFile } from './scene/readScene.js';

@@ -28,6 +28,7 @@ import { civilDateToJd } from '../../dist/calendar/regions.js';
 import { clockToJdUT } from '../../dist/time/clock.js';
 import { sunPosition } from '../../dist/ephemeris/sunPosition.js';
 import { sunUnitVector } from '../../dist/geometry/sunVector.js';
+import { add, cross, dot, horizontal, mul, sub, unit } from '../siteVectors.mjs';
 
 const here = dirname(fileURLToPath(import.meta.url));
 
@@ -46,16 +47,6 @@ const dayJd0 = civilDateToJd({ kind: 'gregorian' }, TRUE_DAY);
 const jdUT = clockToJdUT(dayJd0, TRUE_LOCAL_MEAN_MINUTES, { kind: 'mean' }, SITE);
 const sun = sunPosition(jdUT, SITE, AIR);
 const s = sunUnitVector(sun.azimuthDeg, sun.altitudeDeg); // towards the sun (refracted: shadows follow the apparent sun)
-
-// ------------------------------------------------------------------ vectors
-const add = (a, b) => [a[0] + b[0], a[1] + b[1], a[2] + b[2]];
-const sub = (a, b) => [a[0] - b[0], a[1] - b[1], a[2] - b[2]];
-const mul = (a, k) => [a[0] * k, a[1] * k, a[2] * k];
-const dot = (a, b) => a[0] * b[0] + a[1] * b[1] + a[2] * b[2];
-const cross = (a, b) => [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
-const unit = (a) => mul(a, 1 / Math.hypot(...a));
-/** Horizontal unit vector of an azimuth clockwise from north: east = sin, north = cos (docs/conventions.md). */
-const horizontal = (azDeg) => [Math.sin((azDeg * Math.PI) / 180), Math.cos((azDeg * Math.PI) / 180), 0];
 
 // ------------------------------------------------------------------ the place
 // Wall frame (docs/conventions.md): u to the right seen from outside, azimuth normal - 90; v up.

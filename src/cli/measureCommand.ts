@@ -16,6 +16,7 @@ import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservations.js';
 import { rectifySceneGround } from '../image/measureScene.js';
 import { measuredQuantities, resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
+import { describeSceneSun, sceneSunRecord } from '../image/sceneSun.js';
 import { formatCalendarDate } from '../calendar/format.js';
 import { hhmm, roundTo } from '../report/formatTimes.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
@@ -194,7 +195,11 @@ function renderText(
   }
   out.push('');
   out.push('Observations measured from pixels');
-  if (observations.length === 0) out.push('  none: no observation of this scene is given in pixels');
+  if (observations.length === 0) {
+    out.push(scene.observations.some((o) => o.kind === 'object-shadow')
+      ? '  none on a straightened wall or ground; the object-shadow pairs are measured through the camera, below'
+      : '  none: no observation of this scene is given in pixels');
+  }
   for (const o of observations) {
     out.push(`  ${o.field} ${JSON.stringify(o.id)}: ${KIND_WORDS[o.kind]}${o.wallId ? ` on wall ${o.wallId}` : ' on the ground'}`);
     for (const v of o.values) {
@@ -331,6 +336,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
       measurements: resolved.measurements,
       ...(picture ? { picture } : {}),
       ...(predictions ? { best: { caption, predictions } } : {}),
+      ...(resolved.sceneSun ? { sceneSun: resolved.sceneSun } : {}),
     });
   }
 
@@ -340,11 +346,13 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
         image: scene.image ?? null,
         planes: planeRecords,
         observations: observationRecords,
+        camera: resolved.sceneSun ? sceneSunRecord(resolved.sceneSun) : null,
         best,
         overlay: overlayTarget ? { file: options.overlay, picture: picturePath ? (options.image ?? scene.image?.file ?? null) : null } : null,
         notes,
       }, null, 2)}\n`
     : renderText(scene, planeRecords, observationRecords, best, notes) +
+      (resolved.sceneSun ? `\n${describeSceneSun(resolved.sceneSun).map(escapeControls).join('\n')}\n` : '') +
       (overlayTarget ? `Overlay written to ${escapeControls(options.overlay!)}${picture && picturePath ? ` (with the picture ${escapeControls(shownPath(picturePath, io.cwd))} embedded)` : ''}.\n` : '');
 
   if (svg !== undefined && overlayTarget !== undefined) {

@@ -23,6 +23,8 @@ import { applyHomography, homogeneousW, type Point2 } from '../image/homography.
 import { OVERLAY_COLOURS, renderOverlaySvg, type OverlayPlane, type OverlayShadow } from '../image/overlay.js';
 import { toPictureFrame, type RectifiedPlane } from '../image/planeInImage.js';
 import type { ResolvedMeasurement } from '../image/resolvePixels.js';
+import type { SceneSun } from '../image/sceneSun.js';
+import { cameraOverlayElements } from '../image/cameraOverlay.js';
 import type { PictureFile } from './pictureFile.js';
 import type { ImageInfo, Scene } from '../scene/types.js';
 
@@ -168,6 +170,8 @@ export interface MeasureOverlayInput {
   readonly picture?: PictureFile;
   /** Predictions of the best candidate and a one-line caption naming it. */
   readonly best?: { readonly caption: string; readonly predictions: readonly MeasurementPrediction[] };
+  /** The camera and the groups' light, when the scene has a camera block and object-shadow pairs. */
+  readonly sceneSun?: SceneSun;
 }
 
 /**
@@ -206,6 +210,8 @@ export function measureOverlaySvg(input: MeasureOverlayInput): string {
     );
   }
   extra.push('</g>');
+  const perspective = input.sceneSun ? cameraOverlayElements(input.sceneSun, input.image) : undefined;
+  if (perspective) extra.push(perspective.svg);
   // key, top left, scaled to the picture
   const size = Math.max(12, Math.round(input.image.widthPx / 100));
   const keyLines: { text: string; colour?: string; dash?: string }[] = [...input.planes].map(([field, plane]) => ({
@@ -213,7 +219,8 @@ export function measureOverlaySvg(input: MeasureOverlayInput): string {
       ? `${planeShortLabel(field)} corner: where walls ${plane.fromWalls.walls[0].id} and ${plane.fromWalls.walls[1].id} meet the ground (groundPlane.fromWalls.cornerPx); grey: the ground straightened from their foot lines`
       : `${planeShortLabel(field)} 1-${plane.pixelPoints.length}: points clicked on ${field === 'groundPlane' ? 'the ground (groundPlane)' : `wall ${planeLabel(input.scene, field)} (${field})`}; grey: its straightened grid`,
   }));
-  keyLines.push({ text: 'solid: measured shadow, from its clicked root', colour: OVERLAY_COLOURS.measured, dash: '' });
+  if (input.measurements.length > 0) keyLines.push({ text: 'solid: measured shadow, from its clicked root', colour: OVERLAY_COLOURS.measured, dash: '' });
+  if (perspective) keyLines.push(...perspective.key);
   if (input.best) {
     keyLines.push({ text: `dashed: predicted by the best candidate, ${input.best.caption}`, colour: OVERLAY_COLOURS.predicted, dash: ' stroke-dasharray="8 5"' });
   }

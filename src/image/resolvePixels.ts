@@ -10,6 +10,9 @@
  * numeric, walls, planes and everything else are kept as they are, so the
  * function is idempotent.
  *
+ * Object-shadow pairs (sceneSun.ts) are resolved through the scene's camera into one sun direction per
+ * group, in place of the group's first pair, its other pairs becoming sun-up facts.
+ *
  * Sigma: the first-order sigma of the clicks (src/image/propagation.ts,
  * after Criminisi, Reid and Zisserman 1997). When the measurement bends within
  * the clicking error (`firstOrderReliable` false), the first-order sigma may be
@@ -23,6 +26,7 @@ import type { Observation, Scene } from '../scene/types.js';
 import { measureScenePixels } from './measureScene.js';
 import { monteCarloPixelObservation, type MeasuredQuantity, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
 import type { RectifiedPlane } from './planeInImage.js';
+import { hasObjectShadows, resolveSceneSun, type SceneSun } from './sceneSun.js';
 
 /** Monte Carlo samples drawn for a measurement whose first-order sigma is not reliable. */
 export const RESOLVE_MONTE_CARLO_SAMPLES = 1000;
@@ -56,6 +60,8 @@ export interface ResolvedScene {
   readonly planes: ReadonlyMap<string, RectifiedPlane>;
   /** One per pixel-form observation, in scene order. */
   readonly measurements: readonly ResolvedMeasurement[];
+  /** The picture's camera and the sun of each group of object-shadow pairs, when the scene has such pairs (sceneSun.ts). */
+  readonly sceneSun?: SceneSun;
 }
 
 /** The measured quantities of a measurement in the order of its numeric fields. */
@@ -99,7 +105,9 @@ function numericObservation(m: PixelMeasurement, values: readonly ResolvedValue[
  */
 export function resolvePixelObservations(scene: Scene): ResolvedScene {
   const { planes, measurements } = measureScenePixels(scene);
-  if (measurements.length === 0) return { scene, planes, measurements: [] };
+  const sceneSun = hasObjectShadows(scene) ? resolveSceneSun(scene) : undefined;
+  if (sceneSun) scene = { ...scene, observations: sceneSun.observations };
+  if (measurements.length === 0) return { scene, planes, measurements: [], ...(sceneSun ? { sceneSun } : {}) };
   const resolved: ResolvedMeasurement[] = measurements.map(({ field, measurement }) => {
     const quantities = measuredQuantities(measurement);
     const reliable = quantities.every((q) => q.quantity.firstOrderReliable);
@@ -128,12 +136,12 @@ export function resolvePixelObservations(scene: Scene): ResolvedScene {
     const r = byField.get(`observations[${k}]`);
     return r ? numericObservation(r.measurement, r.values) : obs;
   });
-  return { scene: { ...scene, observations }, planes, measurements: resolved };
+  return { scene: { ...scene, observations }, planes, measurements: resolved, ...(sceneSun ? { sceneSun } : {}) };
 }
 
 /** True when a scene has at least one observation given in pixels. */
 export function hasPixelObservations(scene: Scene): boolean {
   return scene.observations.some(
-    (o) => (o.kind === 'rod-shadow' || o.kind === 'overhang-shadow' || o.kind === 'fin-shadow' || o.kind === 'pole-shadow') && o.pixels !== undefined,
+    (o) => ((o.kind === 'rod-shadow' || o.kind === 'overhang-shadow' || o.kind === 'fin-shadow' || o.kind === 'pole-shadow') && o.pixels !== undefined) || o.kind === 'object-shadow',
   );
 }

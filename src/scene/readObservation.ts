@@ -11,12 +11,12 @@ import {
   optStr, raw, str, type Fields, type NumberRule,
   SIGMA_FLOOR,
 } from './fields.js';
-import { needImage, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
-import type { ClockObservation, ImageInfo, Observation, ObservationKind, PlaneInImage, SitePoint, Wall } from './types.js';
+import { needImage, PIXEL_SIGMA, readPixelPoint, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
+import type { CameraBlock, ClockObservation, ImageInfo, Observation, ObservationKind, PlaneInImage, SitePoint, Wall } from './types.js';
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
-  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock',
+  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'object-shadow',
 ];
 
 /** Identifiers of walls and observations: letters, digits, '-', '_', '.'. */
@@ -38,7 +38,11 @@ export interface ObservationContext {
   readonly walls: ReadonlyMap<string, Wall>;
   readonly image: ImageInfo | undefined;
   readonly groundPlane: PlaneInImage | undefined;
+  readonly camera?: CameraBlock | undefined;
 }
+
+/** Group labels: the same words as ids. */
+const GROUP_WORDS = 'a group label of letters, digits, "-", "_" or ".", starting with a letter or digit, at most 64 characters';
 
 const COMMON = ['id', 'kind', 'note'];
 const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
@@ -53,6 +57,7 @@ const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'wall-shaded': [...COMMON, 'wall'],
   'sun-up': [...COMMON],
   clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
+  'object-shadow': [...COMMON, 'objectPx', 'shadowPx', 'sigmaPx', 'group'],
 };
 
 /** The keys an observation of each kind may hold (for the schema test and the docs). */
@@ -281,5 +286,21 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind };
     case 'clock':
       return readClock(f, id, note);
+    case 'object-shadow': {
+      const image = needImage(ctx.image, keyPath(path, 'objectPx'), raw(f, 'objectPx'));
+      if (ctx.camera === undefined) {
+        throw new InvalidInputError(
+          keyPath(path, 'kind'), kind, 'an object-shadow pair only when the scene has a "camera" block',
+          'The camera (lines along vertical edges and along walls of known azimuth) turns the pair into a sun direction; see docs/measuring.md.',
+        );
+      }
+      if (!has(f, 'objectPx')) throw missing(f, 'objectPx', 'the image point [xPx, yPx] of the point that casts the shadow');
+      if (!has(f, 'shadowPx')) throw missing(f, 'shadowPx', 'the image point [xPx, yPx] of its shadow');
+      const objectPx = readPixelPoint(raw(f, 'objectPx'), keyPath(path, 'objectPx'), image);
+      const shadowPx = readPixelPoint(raw(f, 'shadowPx'), keyPath(path, 'shadowPx'), image);
+      const sigmaPx = optNum(f, 'sigmaPx', PIXEL_SIGMA);
+      const group = optStr(f, 'group', GROUP_WORDS, 64, ID_PATTERN);
+      return { ...base, kind, objectPx, shadowPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}), ...(group !== undefined ? { group } : {}) };
+    }
   }
 }

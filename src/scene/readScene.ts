@@ -19,6 +19,7 @@ import {
 import { coordinateWords, parseCoordinate, type CoordinateAxis } from './coordinateText.js';
 import { MAX_SCENE_BYTES, parseSceneTextWithLines } from './parseSceneText.js';
 import { checkGroundWalls, needImage, readImage, readPlane } from './readImage.js';
+import { readCamera } from './readCamera.js';
 import { ID_PATTERN, ID_WORDS, NOTE_MAX, readObservation } from './readObservation.js';
 import { wallAzimuthFromMap } from './wallFromMap.js';
 import type { Air, CalendarRule, CivilDay, DateWindow, ImageInfo, Observation, PlaneInImage, Scene, Site, Wall, YearStartStyle } from './types.js';
@@ -35,7 +36,7 @@ export const MAX_OBSERVATIONS = 1000;
 
 const TOP_KEYS = [
   '$schema', 'heliochron', 'title', 'site', 'calendar', 'yearStart', 'window', 'air',
-  'mapNorthCorrectionDeg', 'image', 'groundPlane', 'walls', 'observations', 'seed',
+  'mapNorthCorrectionDeg', 'image', 'camera', 'groundPlane', 'walls', 'observations', 'seed',
 ];
 const SITE_KEYS = ['latitudeDeg', 'longitudeDeg', 'elevationM', 'latitudeSigmaDeg', 'longitudeSigmaDeg'];
 const WINDOW_KEYS = ['fromYear', 'toYear', 'notBefore', 'notAfter', 'months', 'weekday'];
@@ -212,10 +213,11 @@ export function sceneFromData(data: unknown): Scene {
   const walls = wallList.map((w, i) => readWall(w, itemPath('walls', i), mapNorthCorrectionDeg, image));
   refuseDuplicateIds(walls, 'walls');
   checkGroundWalls(groundPlane, walls);
+  const camera = has(f, 'camera') ? readCamera(raw(f, 'camera'), 'camera', image, walls) : undefined;
 
   if (!has(f, 'observations')) throw missing(f, 'observations', 'a list of 1 or more observations');
   const obsList = checkList(raw(f, 'observations'), 'observations', 'the observations', 1, MAX_OBSERVATIONS);
-  const ctx = { walls: new Map(walls.map((w) => [w.id, w])), image, groundPlane };
+  const ctx = { walls: new Map(walls.map((w) => [w.id, w])), image, groundPlane, camera };
   const observations: Observation[] = obsList.map((o, i) => readObservation(o, itemPath('observations', i), ctx));
   refuseDuplicateIds(observations, 'observations');
 
@@ -231,6 +233,7 @@ export function sceneFromData(data: unknown): Scene {
     ...(air ? { air } : {}),
     mapNorthCorrectionDeg,
     ...(image ? { image } : {}),
+    ...(camera ? { camera } : {}),
     ...(groundPlane ? { groundPlane } : {}),
     walls,
     observations,

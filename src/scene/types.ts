@@ -132,6 +132,22 @@ export interface Wall {
   readonly note?: string;
 }
 
+/** Clicked points along one straight edge of the picture, two or more. */
+export type PixelLine = readonly PixelPoint[];
+
+/**
+ * The picture's camera from its perspective (src/image/camera.ts): lines along edges vertical in the scene,
+ * and lines along the horizontal edges of walls of stated azimuth.
+ */
+export interface CameraBlock {
+  readonly verticalLines: readonly PixelLine[];
+  readonly wallLines: readonly { readonly wallId: string; readonly lines: readonly PixelLine[] }[];
+  /** The focal length in pixels when known (the principal point is then the picture's centre). */
+  readonly focalLengthPx?: number;
+  /** Clicking sigma of every line point, else the image's pixelSigmaPx. */
+  readonly sigmaPx?: number;
+}
+
 /** Which way a shadow runs on a wall, as seen from outside facing the wall. */
 export type Side = 'left' | 'right';
 
@@ -227,6 +243,21 @@ export interface SunUpObservation extends ObservationBase {
   readonly kind: 'sun-up';
 }
 
+/**
+ * 10. An object point and the point of its shadow, clicked on the picture, wherever the shadow falls (steps,
+ * uneven paving, a curved wall). Needs the scene's `camera`: the line from the object to its shadow is the
+ * image of a sun ray (src/image/cameraSun.ts). Pairs of one group are combined into one sun direction.
+ */
+export interface ObjectShadowObservation extends ObservationBase {
+  readonly kind: 'object-shadow';
+  readonly objectPx: PixelPoint;
+  readonly shadowPx: PixelPoint;
+  /** Clicking sigma of both points, else the image's pixelSigmaPx. */
+  readonly sigmaPx?: number;
+  /** Pairs with the same group are taken as lit by one sun; absent: the picture's own group. */
+  readonly group?: string;
+}
+
 /** 9. A clock in the picture. */
 export interface ClockObservation extends ObservationBase {
   readonly kind: 'clock';
@@ -248,7 +279,8 @@ export type Observation =
   | SunDirectionObservation
   | WallLightObservation
   | SunUpObservation
-  | ClockObservation;
+  | ClockObservation
+  | ObjectShadowObservation;
 
 export type ObservationKind = Observation['kind'];
 
@@ -263,6 +295,8 @@ export interface Scene {
   /** Added to map bearings (magnetic or grid north) to get true bearings, degrees. */
   readonly mapNorthCorrectionDeg: number;
   readonly image?: ImageInfo;
+  /** The picture's camera from its vanishing lines, when observations need it (object-shadow). */
+  readonly camera?: CameraBlock;
   /** The level ground in the picture, when ground observations are given in pixels. */
   readonly groundPlane?: PlaneInImage;
   readonly walls: readonly Wall[];

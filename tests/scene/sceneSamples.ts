@@ -66,6 +66,19 @@ export const GOOD_SCENES: readonly { readonly name: string; readonly data: Data 
   { name: 'clock 24 h zone', data: obs({ id: 'o', kind: 'clock', reading: '19:05', precisionMinutes: 2, dialHours: 24, kept: 'zone:Europe/Zurich', hourHandTrusted: false }) },
   { name: 'clock meridian', data: obs({ id: 'o', kind: 'clock', reading: '12:30', precisionMinutes: 2, kept: 'meridian:9.35' }) },
   {
+    name: 'camera block and object-shadow pairs',
+    data: variant({
+      image: IMAGE,
+      camera: {
+        verticalLines: [[[100, 100], [102, 800]], [[700, 90], [699, 820], [698, 850]]],
+        wallLines: [{ wall: 'tanners-hall-front', lines: [[[100, 200], [600, 260]], [[100, 500], [600, 480]]] }],
+        focalLengthPx: 1500,
+        sigmaPx: 1.5,
+      },
+      'observations.0': { id: 'o', kind: 'object-shadow', objectPx: [400, 300], shadowPx: [420, 700], sigmaPx: 2, group: 'figures' },
+    }),
+  },
+  {
     name: 'pixel rod on a wall plane',
     data: variant({ image: IMAGE, 'walls.0.imagePlane': WALL_PLANE, 'observations.0': { id: 'o', kind: 'rod-shadow', wall: 'tanners-hall-front', pixels: { fromPx: [300, 300], toPx: [250, 350], sigmaPx: 2 } } }),
   },
@@ -111,6 +124,16 @@ export interface BadScene {
 const o0 = 'observations[0]';
 export const BAD_SCENES: readonly BadScene[] = [
   { name: 'not a map', data: [1, 2], field: 'the scene', says: /a map of keys/, schemaSees: true },
+  {
+    name: 'object-shadow without a camera',
+    data: variant({ image: IMAGE, 'observations.0': { id: 'o', kind: 'object-shadow', objectPx: [400, 300], shadowPx: [420, 700] } }),
+    field: 'observations[0].kind', says: /only when the scene has a "camera" block/, schemaSees: false,
+  },
+  {
+    name: 'camera without wall lines',
+    data: variant({ image: IMAGE, camera: { verticalLines: [[[100, 100], [102, 800]], [[700, 90], [699, 820]]] } }),
+    field: 'camera.wallLines', says: /lines along the horizontal edges/, schemaSees: true,
+  },
   { name: 'no version', data: variant({ heliochron: undefined }), field: 'heliochron', says: /start the file with "heliochron: 1"/, schemaSees: true },
   { name: 'version 2', data: variant({ heliochron: 2 }), field: 'heliochron', says: /format version 1/, schemaSees: true },
   { name: 'no title', data: variant({ title: undefined }), field: 'title', says: /title/, schemaSees: true },
