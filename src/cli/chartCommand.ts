@@ -43,7 +43,7 @@ export async function run(args: readonly string[], options: ChartOptions, io: Cl
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
   const kind = parseChartKind(options.kind);
-  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
+  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const answer = solveDates(scene);
   const progress = progressLine(io, 'drawing the date and hour map');

@@ -112,7 +112,7 @@ export function proposalFromOptions(options: CheckOptions, scene: Scene): Propos
 export async function run(args: readonly string[], options: CheckOptions, io: CliIo): Promise<void> {
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
-  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
+  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const proposal = proposalFromOptions(options, scene);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const answer = inScene(scenePath, () => checkProposal(scene, proposal));

@@ -3,6 +3,7 @@
  * text, JSON or CSV, and print it or write it to a file. A thin layer over
  * src/scene, src/solver and src/report; the validation of the options is here.
  */
+import type { DeltaTModel } from '../time/deltaT.js';
 import { existsSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { HeliochronError, InvalidInputError, OutputError } from '../errors.js';
@@ -16,10 +17,11 @@ import { writeOutputFile, type CliIo } from './io.js';
 import type { DateOptions } from './dateSpec.js';
 
 /** Read the scene file; a message about its content is prefixed with the file's path. */
-export function readSceneForCommand(path: string, io: CliIo, seed?: number): { scene: Scene; fullPath: string } {
+export function readSceneForCommand(path: string, io: CliIo, seed?: number, deltaT?: DeltaTModel): { scene: Scene; fullPath: string } {
   const fullPath = resolve(io.cwd, path);
   try {
-    const scene = readSceneFile(fullPath);
+    const read = readSceneFile(fullPath);
+    const scene = deltaT === undefined ? read : { ...read, deltaT };
     return { scene: seed === undefined ? scene : { ...scene, seed }, fullPath };
   } catch (error) {
     if (error instanceof InvalidInputError) {
@@ -73,7 +75,7 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
   if (options.json && options.csv) throw new InvalidInputError('--csv', '--json --csv', 'one output form: --json or --csv, not both');
-  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
+  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const answer = inScene(scenePath, () => solveDates(scene, { perYear: options.allYears }));
   const text = options.json

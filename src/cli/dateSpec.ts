@@ -4,6 +4,8 @@
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
+import type { DeltaTModel } from '../time/deltaT.js';
+import { DELTA_T_FLAGS, DELTA_T_HELP, parseDeltaTOption } from './deltaTOption.js';
 
 /** The options as the command receives them. */
 export interface DateOptions {
@@ -14,6 +16,8 @@ export interface DateOptions {
   readonly force: boolean;
   /** Overrides the scene file's seed. */
   readonly seed?: number;
+  /** --delta-t: overrides the scene file's deltaT. */
+  readonly deltaT?: DeltaTModel;
   /** The program's version, written into the JSON answer. */
   readonly version: string;
 }
@@ -36,6 +40,7 @@ export function registerDate(program: Command, io: CliIo): void {
     .option('-o, --output <file>', 'write the answer to this file instead of the screen')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
+    .option(DELTA_T_FLAGS, DELTA_T_HELP)
     .addHelpText(
       'after',
       '\nExamples (the bundled examples are in the fictional town of Velmar):\n' +
@@ -52,6 +57,7 @@ export function registerDate(program: Command, io: CliIo): void {
         output: options.output === undefined ? undefined : String(options.output),
         force: options.force === true,
         seed: parseSeedOption(options.seed),
+        deltaT: parseDeltaTOption(options.deltaT),
         version: String(command.parent?.version() ?? ''),
       }, io);
     });

@@ -37,7 +37,7 @@ export function sha256Hex(bytes: Uint8Array): string {
 export async function run(args: readonly string[], options: ReportOptions, io: CliIo): Promise<void> {
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
-  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
+  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const bytes = readFileSync(fullPath);
   const answer = solveDates(scene);

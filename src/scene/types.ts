@@ -6,6 +6,8 @@
  * their unit; every measured number has its sigma beside it. Conventions
  * (azimuth origin, wall axes, pixel axes) are in docs/conventions.md.
  */
+import type { DeltaTModel } from '../time/deltaT.js';
+
 
 /** A point in image pixels: x to the right, y down, origin at the top-left corner of the top-left pixel. */
 export type PixelPoint = readonly [xPx: number, yPx: number];
@@ -260,6 +262,8 @@ export interface Scene {
   readonly yearStart: YearStartStyle;
   readonly window: DateWindow;
   readonly air?: Air;
+  /** The Delta T model (src/time/deltaT.ts); absent: the default, morrison-2021. */
+  readonly deltaT?: DeltaTModel;
   /** Added to map bearings (magnetic or grid north) to get true bearings, degrees. */
   readonly mapNorthCorrectionDeg: number;
   readonly image?: ImageInfo;
