@@ -3,6 +3,7 @@
  * text, JSON or CSV, and print it or write it to a file. A thin layer over
  * src/scene, src/solver and src/report; the validation of the options is here.
  */
+import { calendarReadings, calendarReadingsLines, type CalendarReadings } from '../solver/calendarReadings.js';
 import type { DeltaTModel } from '../time/deltaT.js';
 import { existsSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
@@ -70,6 +71,20 @@ export function deliver(text: string, target: string | undefined, output: string
   io.err(`heliochron: wrote ${output}\n`);
 }
 
+/** The JSON answer with the comparison of calendar readings added (only when the window touches a disputed switch). */
+function withCalendarReadings<T extends object>(json: T, readings: CalendarReadings | null): T | (T & { calendarReadings: CalendarReadings }) {
+  return readings === null ? json : { ...json, calendarReadings: readings };
+}
+
+/** The text answer with the comparison of calendar readings placed right after the verdict, where a reader looks first. */
+function withCalendarReadingsText(text: string, readings: CalendarReadings | null): string {
+  if (readings === null) return text;
+  const block = calendarReadingsLines(readings).join('\n');
+  const verdictAt = text.indexOf('\nVerdict:');
+  const end = verdictAt < 0 ? -1 : text.indexOf('\n\n', verdictAt + 1);
+  return end < 0 ? `${text}${block}\n` : `${text.slice(0, end)}\n${block}${text.slice(end)}`;
+}
+
 /** Run `heliochron date`. Bad input throws (the CLI exits with 2, nothing written). */
 export async function run(args: readonly string[], options: DateOptions, io: CliIo): Promise<void> {
   const [scenePath] = args;
@@ -78,10 +93,12 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
   const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const answer = inScene(scenePath, () => solveDates(scene, { perYear: options.allYears }));
+  // A disputed calendar switch in the window: solve under every published reading (src/solver/calendarReadings.ts).
+  const readings = inScene(scenePath, () => calendarReadings(scene, answer, (s) => solveDates(s, { perYear: options.allYears })));
   const text = options.json
-    ? stableJson(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }))
+    ? stableJson(withCalendarReadings(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }), readings))
     : options.csv
       ? dateAnswerCsv(answer, scene, { allYears: options.allYears })
-      : renderDateText(answer, scene, { allYears: options.allYears });
+      : withCalendarReadingsText(renderDateText(answer, scene, { allYears: options.allYears }), readings);
   deliver(text, target, options.output, options.force, fullPath, io);
 }

@@ -33,7 +33,7 @@ export interface Site {
 export type CalendarRule =
   | { readonly kind: 'julian' }
   | { readonly kind: 'gregorian' }
-  | { readonly kind: 'region'; readonly regionId: string }
+  | { readonly kind: 'region'; readonly regionId: string; /** One published reading of a disputed switch (its id); absent: the row's main reading. */ readonly reading?: string }
   | {
       readonly kind: 'switch';
       /** Last Julian civil day, Julian calendar. */
