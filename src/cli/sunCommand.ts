@@ -4,7 +4,7 @@
  * src/time and src/calendar; all validation of the options is here.
  */
 import { DEFAULT_DELTA_T_MODEL, deltaTModelName, parseDeltaTModel, type DeltaTModel } from '../time/deltaT.js';
-import { InvalidInputError } from '../errors.js';
+import { InvalidInputError, UnsupportedError } from '../errors.js';
 import type { Air, CalendarRule, ClockKind } from '../scene/types.js';
 import { jdToCalendarDate, weekdayOfJd, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { civilDateToJd, jdToCivilDate, parseCalendarRule } from '../calendar/regions.js';
@@ -83,6 +83,16 @@ function clockText(jdUT: number, clock: ClockKind, site: SunSite): string {
   return formatMinutes(jdUTToClockMinutes(jdUT, clock, site).minutesOfDay);
 }
 
+/** The reading in an hour system tied to sunrise and sunset, or null on a day without sunrise or sunset. */
+function hourSystemText(jdUT: number, clock: ClockKind, site: SunSite): string | null {
+  try {
+    return clockText(jdUT, clock, site);
+  } catch (error) {
+    if (error instanceof UnsupportedError) return null;
+    throw error;
+  }
+}
+
 /** Everything the answer reports about one moment, as plain data (also the JSON form). */
 function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
   const { site, clock, rule, dayJd0, deltaTModel } = inputs;
@@ -106,6 +116,10 @@ function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
       tt: formatMinutes(((jdUTToJdTT(jdUT, deltaTModel) - 0.5) % 1) * 1440),
       apparent: clockText(jdUT, { kind: 'apparent' }, site),
       mean: clockText(jdUT, { kind: 'mean' }, site),
+      // Hour systems tied to sunrise and sunset (src/time/hourSystems.ts); null on a day without sunrise or sunset.
+      italian: hourSystemText(jdUT, { kind: 'italian', origin: 'sunset', offsetMinutes: 0 }, site),
+      babylonian: hourSystemText(jdUT, { kind: 'babylonian' }, site),
+      unequal: hourSystemText(jdUT, { kind: 'unequal' }, site),
       clock: clockText(jdUT, clock, site),
       clockKind: formatClockKind(clock),
       ...(zone
@@ -153,6 +167,9 @@ function momentText(r: MomentRecord, inputs: Inputs, air: Air): string {
     `  clock given (${describeClockKind(clock)})  ${r.times.clock}`,
     `  local apparent time  ${r.times.apparent}`,
     `  local mean time      ${r.times.mean}`,
+    `  Italian hours        ${r.times.italian ?? '-'}  (24 hours from the previous sunset)`,
+    `  Babylonian hours     ${r.times.babylonian ?? '-'}  (24 hours from sunrise)`,
+    `  unequal hours        ${r.times.unequal ?? '-'}  (temporal: 00-12 the twelve hours of daylight, 12-24 those of the night)`,
   ];
   if (r.times.zone !== undefined) {
     lines.push(

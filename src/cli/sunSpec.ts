@@ -59,7 +59,8 @@ export function registerSun(program: Command, io: CliIo): void {
       '--clock <kind>',
       "what the time was kept in: 'apparent' (sundial), 'mean' (local mean time), 'meridian:<deg>' (mean time of that " +
         "meridian, east positive), 'zone:<IANA name>' (e.g. zone:Europe/Zurich; from 1847 on, or local mean time where the " +
-        "zone database starts with it), 'ut'",
+        "zone database starts with it), 'ut', or hours counted from sunset or sunrise: 'italian' (from sunset), 'italian+<min>' " +
+        "(from sunset plus minutes), 'italian:dusk' (from the end of civil twilight), 'babylonian' (from sunrise), 'unequal' (temporal hours)",
       SUN_DEFAULTS.clock,
     )
     .option('--pressure <hPa>', 'air pressure for refraction, hPa', SUN_DEFAULTS.pressure)

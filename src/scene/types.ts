@@ -56,7 +56,11 @@ export type ClockKind =
   | { readonly kind: 'mean' } // local mean time at the site's longitude
   | { readonly kind: 'meridian'; readonly longitudeDeg: number } // mean time of another meridian
   | { readonly kind: 'zone'; readonly zone: string } // IANA zone through luxon
-  | { readonly kind: 'ut' };
+  | { readonly kind: 'ut' }
+  /** Italian hours: 24 hours from the previous evening's sunset (or end of civil twilight), plus offsetMinutes (src/time/hourSystems.ts). */
+  | { readonly kind: 'italian'; readonly origin: 'sunset' | 'civil-dusk'; readonly offsetMinutes: number }
+  | { readonly kind: 'babylonian' } // 24 hours from sunrise
+  | { readonly kind: 'unequal' }; // temporal hours: twelfths of daylight and of night
 
 /** A civil date as written in the site's calendar (after year-start normalisation: year begins 1 January). */
 export interface CivilDay {
