@@ -127,6 +127,7 @@ function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
             zone: clockText(jdUT, clock, site),
             zoneOffsetMinutes: zone.offsetMinutes,
             zoneIsLocalMeanTime: zone.localMeanTime,
+            zoneMeridianDeg: zone.meridianDeg,
           }
         : {}),
     },
@@ -175,7 +176,8 @@ function momentText(r: MomentRecord, inputs: Inputs, air: Air): string {
     lines.push(
       `  zone time ${clock.kind === 'zone' ? clock.zone : ''}  ${r.times.zone} (UT ${signed((r.times.zoneOffsetMinutes ?? 0) / 60, 4)} h)` +
         (r.times.zoneIsLocalMeanTime
-          ? ` - for this date the zone database gives a local mean time (of the meridian ${f((r.times.zoneOffsetMinutes ?? 0) / 4, 2)} deg), not a standard zone time`
+          ? ` - for this date the zone database gives a local mean time (of the meridian ${f(r.times.zoneMeridianDeg ?? 0, 2)} deg` +
+            `${Math.abs((r.times.zoneOffsetMinutes ?? 0) - 4 * (r.times.zoneMeridianDeg ?? 0) - 60) < 1e-6 ? ', with an hour of summer time' : ''}), not a standard zone time`
           : ''),
     );
   }

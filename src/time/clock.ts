@@ -31,6 +31,7 @@ import type { ClockKind } from '../scene/types.js';
 import { equationOfTimeMinutes } from '../ephemeris/equationOfTime.js';
 import type { SunSite } from '../ephemeris/sunPosition.js';
 import { dayFrameOf, isHourSystem } from './hourSystemClock.js';
+import { historicalEntry, historicalOffsetMinutes, tzDataWords } from './zoneHistory.js';
 import { describeHourSystem, hourSystemReading, hourSystemToApparentMinutes } from './hourSystems.js';
 
 /** The part of a site a clock needs: its longitude, degrees east; hour systems tied to sunrise and sunset also need latitude and height. */
@@ -52,8 +53,13 @@ const MS_PER_DAY = 86400000;
 /** JD of 1847-12-01 0h UT (Gregorian): railway time in Great Britain, the first zone-like civil time (common practice). */
 export const ZONE_TIME_EARLIEST_JD = 2395996.5;
 
-/** Offset of a zone from UT at an instant, minutes (luxon; fractional for local mean time). */
+/**
+ * Offset of a zone from UT at an instant, minutes (fractional for local mean time): before 1970 from
+ * the full IANA history with backzone (src/time/zoneHistory.ts), from 1970 through luxon (ICU).
+ */
 export function zoneOffsetMinutes(zone: string, jdUT: number): number {
+  const historical = historicalOffsetMinutes(zone, Math.floor((jdUT - UNIX_EPOCH_JD) * 86400));
+  if (historical !== null) return historical;
   return DateTime.fromMillis(Math.round((jdUT - UNIX_EPOCH_JD) * MS_PER_DAY), { zone }).offset;
 }
 
@@ -77,7 +83,10 @@ export interface ZoneReading {
  */
 export function zoneReading(zone: string, jdUT: number, field = 'clock'): ZoneReading {
   const offsetMinutes = zoneOffsetMinutes(zone, jdUT);
-  const localMeanTime = isLocalMeanTimeOffset(offsetMinutes);
+  // Summer time of a local-mean-time zone (Amsterdam 1909-1940: +1:19:32, then +1:20): judge the standard offset, an hour less.
+  const summerHours = historicalEntry(zone, Math.floor((jdUT - UNIX_EPOCH_JD) * 86400))?.summerTime === true ? 60 : 0;
+  const standardMinutes = offsetMinutes - summerHours;
+  const localMeanTime = isLocalMeanTimeOffset(standardMinutes);
   if (jdUT < ZONE_TIME_EARLIEST_JD && !localMeanTime) {
     throw new UnsupportedError(
       `${field}: zone ${JSON.stringify(zone)} has no time-keeping rule before 1847 (zone time did not exist yet) - ` +
@@ -85,7 +94,7 @@ export function zoneReading(zone: string, jdUT: number, field = 'clock'): ZoneRe
         `or "meridian:<degrees>" for the mean time of a stated meridian`,
     );
   }
-  return { offsetMinutes, localMeanTime, meridianDeg: localMeanTime ? offsetMinutes / 4 : null };
+  return { offsetMinutes, localMeanTime, meridianDeg: localMeanTime ? standardMinutes / 4 : null };
 }
 
 /** Offset of local clock time from UT in days, for the kinds tied to the mean sun or a zone. */
@@ -250,7 +259,7 @@ export function describeClockKind(clock: ClockKind): string {
     case 'meridian':
       return `mean time of the meridian ${Math.abs(clock.longitudeDeg)} deg ${clock.longitudeDeg < 0 ? 'W' : 'E'}`;
     case 'zone':
-      return `zone time ${clock.zone}`;
+      return `zone time ${clock.zone} (${tzDataWords()})`;
     case 'italian':
     case 'babylonian':
     case 'unequal':
