@@ -3,6 +3,9 @@
  * text, JSON or CSV, and print it or write it to a file. A thin layer over
  * src/scene, src/solver and src/report; the validation of the options is here.
  */
+import { sameLightIn, sameLightLines, type SameLightAnswer } from '../solver/sameLight.js';
+import type { SunSite } from '../ephemeris/sunPosition.js';
+import type { DateAnswer } from '../solver/types.js';
 import { calendarReadings, calendarReadingsLines, type CalendarReadings } from '../solver/calendarReadings.js';
 import type { DeltaTModel } from '../time/deltaT.js';
 import { existsSync } from 'node:fs';
@@ -85,6 +88,33 @@ function withCalendarReadingsText(text: string, readings: CalendarReadings | nul
   return end < 0 ? `${text}${block}\n` : `${text.slice(0, end)}\n${block}${text.slice(end)}`;
 }
 
+/** The site as the sun model takes it. */
+function siteOfScene(scene: Scene): SunSite {
+  return { latitudeDeg: scene.site.latitudeDeg, longitudeDeg: scene.site.longitudeDeg, elevationM: scene.site.elevationM };
+}
+
+/** The same light of each family's best candidate in a later year (src/solver/sameLight.ts). */
+function sameLightOfFamilies(answer: DateAnswer, scene: Scene, year: number, zone: string): SameLightAnswer {
+  return {
+    year,
+    zone,
+    families: answer.families.map((f) => ({
+      familyId: f.id,
+      target: { azimuthDeg: f.best.sun.azimuthDeg, altitudeDeg: f.best.sun.altitudeDeg, hourAngleDeg: f.best.sun.hourAngleDeg },
+      moments: sameLightIn(year, f.best.sun, siteOfScene(scene), zone, scene.air, scene.deltaT),
+    })),
+  };
+}
+
+function familyWords(answer: DateAnswer, id: string): string {
+  const f = answer.families.find((x) => x.id === id);
+  return f === undefined ? id : `family ${f.rank} (${f.summary})`;
+}
+
+function withSameLight<T extends object>(json: T, sameLight: SameLightAnswer | null): T | (T & { sameLight: SameLightAnswer }) {
+  return sameLight === null ? json : { ...json, sameLight };
+}
+
 /** Run `heliochron date`. Bad input throws (the CLI exits with 2, nothing written). */
 export async function run(args: readonly string[], options: DateOptions, io: CliIo): Promise<void> {
   const [scenePath] = args;
@@ -95,10 +125,12 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
   const answer = inScene(scenePath, () => solveDates(scene, { perYear: options.allYears }));
   // A disputed calendar switch in the window: solve under every published reading (src/solver/calendarReadings.ts).
   const readings = inScene(scenePath, () => calendarReadings(scene, answer, (s) => solveDates(s, { perYear: options.allYears })));
+  const sameLight = options.sameLightIn === undefined || options.zone === undefined ? null : sameLightOfFamilies(answer, scene, options.sameLightIn, options.zone);
   const text = options.json
-    ? stableJson(withCalendarReadings(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }), readings))
+    ? stableJson(withSameLight(withCalendarReadings(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }), readings), sameLight))
     : options.csv
       ? dateAnswerCsv(answer, scene, { allYears: options.allYears })
-      : withCalendarReadingsText(renderDateText(answer, scene, { allYears: options.allYears }), readings);
+      : withCalendarReadingsText(renderDateText(answer, scene, { allYears: options.allYears }), readings) +
+        (sameLight === null ? '' : `${sameLightLines(sameLight, siteOfScene(scene), (id) => familyWords(answer, id), scene.air).join('\n')}\n`);
   deliver(text, target, options.output, options.force, fullPath, io);
 }

@@ -63,6 +63,14 @@ export function zoneOffsetMinutes(zone: string, jdUT: number): number {
   return DateTime.fromMillis(Math.round((jdUT - UNIX_EPOCH_JD) * MS_PER_DAY), { zone }).offset;
 }
 
+/** True when the zone keeps summer (daylight saving) time at the instant (from 1970: luxon over the runtime's data; before: the history). */
+export function isSummerTimeInZone(zone: string, jdUT: number): boolean {
+  const unixSeconds = Math.floor((jdUT - UNIX_EPOCH_JD) * 86400);
+  const historical = historicalEntry(zone, unixSeconds);
+  if (historical !== null) return historical.summerTime;
+  return DateTime.fromMillis(unixSeconds * 1000, { zone }).isInDST;
+}
+
 /** True when the offset is not a whole quarter hour: the tz database's local mean time entry. */
 function isLocalMeanTimeOffset(offsetMinutes: number): boolean {
   return Math.abs(offsetMinutes / 15 - Math.round(offsetMinutes / 15)) > 1e-6;
