@@ -27,7 +27,7 @@ export { MAX_SCENE_BYTES, MAX_NESTING_DEPTH, MAX_ALIAS_COUNT } from './parseScen
 
 /** The only format version this reader knows. */
 export const FORMAT_VERSION = 1;
-/** Years the window may span, astronomical numbering (the range of the Delta T polynomials of Espenak and Meeus 2006). */
+/** Years the window may span, astronomical numbering (where the Delta T models state an uncertainty). */
 export const MIN_YEAR = -1999;
 export const MAX_YEAR = 3000;
 export const MAX_WALLS = 200;
