@@ -246,7 +246,8 @@ export function findRegion(id: string, field = 'calendar', table: readonly Regio
         `Give dates from ${outside.year} on with --calendar gregorian, and convert earlier dates to the Julian or Gregorian calendar first.`,
     );
   }
-  const near = table
+  // No region id is longer than 40 characters: a longer text has no near miss (and the edit distance would cost time).
+  const near = (wanted.length > 40 ? [] : table)
     .map((r) => ({ id: r.id, score: Math.min(editDistance(wanted, r.id), r.id.includes(wanted) || (wanted.length >= 4 && r.name.toLowerCase().includes(wanted)) ? 1 : 99) }))
     .filter((c) => c.score <= Math.max(2, Math.floor(wanted.length / 3)))
     .sort((a, b) => a.score - b.score || a.id.localeCompare(b.id))

@@ -3,26 +3,12 @@
  * that compute the sun, `deltaT:` in a scene file (through the compiled CLI when dist/ is built).
  */
 import { describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
+import { ROOT as root, runCli } from '../helpers/runCli.js';
 
-const root = fileURLToPath(new URL('../../', import.meta.url));
-const compiled = `${root}dist/cli/main.js`;
-
-async function cli(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  if (existsSync(compiled)) {
-    const r = spawnSync(process.execPath, [compiled, ...args], { encoding: 'utf8', cwd: root });
-    return { code: r.status ?? -1, out: r.stdout, err: r.stderr };
-  }
-  const { main } = await import('../../src/cli/main.js');
-  let out = '';
-  let err = '';
-  const code = await main(args, { out: (t) => { out += t; }, err: (t) => { err += t; }, errIsTerminal: false, cwd: root });
-  return { code, out, err };
-}
+const cli = runCli;
 
 const MOMENT = ['sun', '--lat', '47.62', '--lon', '9.35', '--date', '1282-06-10', '--calendar', 'julian', '--time', '10:30', '--clock', 'apparent'];
 

@@ -4,25 +4,10 @@
  * the zone time of that year (through the compiled CLI when dist/ is built).
  */
 import { describe, expect, it } from 'vitest';
-import { spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
-import { fileURLToPath } from 'node:url';
+import { runCli } from '../helpers/runCli.js';
 import { separationDeg } from '../../src/solver/sameLight.js';
 
-const root = fileURLToPath(new URL('../../', import.meta.url));
-const compiled = `${root}dist/cli/main.js`;
-
-async function cli(args: string[]): Promise<{ code: number; out: string; err: string }> {
-  if (existsSync(compiled)) {
-    const r = spawnSync(process.execPath, [compiled, ...args], { encoding: 'utf8', cwd: root });
-    return { code: r.status ?? -1, out: r.stdout, err: r.stderr };
-  }
-  const { main } = await import('../../src/cli/main.js');
-  let out = '';
-  let err = '';
-  const code = await main(args, { out: (t) => { out += t; }, err: (t) => { err += t; }, errIsTerminal: false, cwd: root });
-  return { code, out, err };
-}
+const cli = runCli;
 
 const two = (n: number): string => String(n).padStart(2, '0');
 const hhmmss = (minutes: number): string => {
