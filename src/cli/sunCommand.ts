@@ -3,6 +3,7 @@
  * with --day the whole day between sunrise and sunset. A thin layer over src/ephemeris,
  * src/time and src/calendar; all validation of the options is here.
  */
+import { sunAccuracyWordsFrom } from '../report/formatTimes.js';
 import { DEFAULT_DELTA_T_MODEL, deltaTModelName, parseDeltaTModel, type DeltaTModel } from '../time/deltaT.js';
 import { InvalidInputError, UnsupportedError } from '../errors.js';
 import type { Air, CalendarRule, ClockKind } from '../scene/types.js';
@@ -192,6 +193,9 @@ function momentText(r: MomentRecord, inputs: Inputs, air: Air): string {
     `  declination          ${signed(r.declination, 4)} deg`,
     `  hour angle           ${signed(r.hourAngle, 4)} deg (negative before noon)`,
     `  equation of time     ${signed(r.equationOfTime, 2)} min (apparent minus mean time)`,
+    ...(sunAccuracyWordsFrom(jdToCalendarDate(r.dates.jdOfLocalMidnight, 'julian').date.year) === null
+      ? []
+      : [`  accuracy             ${sunAccuracyWordsFrom(jdToCalendarDate(r.dates.jdOfLocalMidnight, 'julian').date.year)}`]),
   );
   return lines.join('\n');
 }

@@ -219,9 +219,14 @@ const SUN_ACCURACY_NOTE_BEFORE_YEAR = 500;
  * theory there (measured in tests/ephemeris/sunAccuracyByEra.test.ts); null otherwise.
  */
 export function sunAccuracyWords(scene: Scene): string | null {
-  if (scene.window.fromYear >= SUN_ACCURACY_NOTE_BEFORE_YEAR) return null;
+  return sunAccuracyWordsFrom(scene.window.fromYear);
+}
+
+/** The same note for any first year (the sun command passes the year of its date). */
+export function sunAccuracyWordsFrom(fromYear: number): string | null {
+  if (fromYear >= SUN_ACCURACY_NOTE_BEFORE_YEAR) return null;
   return (
-    'the window reaches before AD 500: there the sun model (astronomy-engine) and VSOP87 differ by up to 0.016 deg at AD 500 ' +
+    'before AD 500 the sun model (astronomy-engine) and VSOP87 differ by up to 0.016 deg at AD 500 ' +
     'and 0.042 deg at 500 BC (mostly in declination); read differences in the sun smaller than that as not significant'
   );
 }

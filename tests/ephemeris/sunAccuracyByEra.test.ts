@@ -59,3 +59,17 @@ describe('the sun model departs from VSOP87 (astronomia) by an amount that grows
     expect(worst).toBeLessThan(bound);
   });
 });
+
+describe('an answer whose window lies before AD 500 states the measured accuracy', () => {
+  it('names the figures measured above for AD 500 and 500 BC, and says nothing from AD 500 on', async () => {
+    const { sunAccuracyWordsFrom } = await import('../../src/report/formatTimes.js');
+    expect(sunAccuracyWordsFrom(1500)).toBeNull();
+    expect(sunAccuracyWordsFrom(500)).toBeNull();
+    const words = sunAccuracyWordsFrom(100) ?? '';
+    expect(words).toContain('0.016 deg at AD 500');
+    expect(words).toContain('0.042 deg at 500 BC');
+    // The stated figures cover the measurement of this file (0.0162 at 500, 0.0418 at -500), rounded to 3 decimals.
+    expect(largestDifferenceDeg(500)).toBeLessThan(0.0165);
+    expect(largestDifferenceDeg(-500)).toBeLessThan(0.0425);
+  });
+});
