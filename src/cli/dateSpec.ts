@@ -54,7 +54,8 @@ export function registerDate(program: Command, io: CliIo): void {
       '\nExamples (the bundled examples are in the fictional town of Velmar):\n' +
         '  heliochron date examples/marktgasse-print.yaml\n' +
         '  heliochron date examples/marktgasse-print.yaml --json -o answer.json\n' +
-        '  heliochron date examples/upper-gate-drawing.yaml --all-years --csv\n',
+        '  heliochron date examples/upper-gate-drawing.yaml --all-years --csv\n' +
+        '  heliochron date examples/marktgasse-print.yaml --same-light-in 2026 --zone Europe/Zurich\n',
     )
     .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
       const { run } = await import('./dateCommand.js');
