@@ -43,6 +43,19 @@ export interface YearStartPeriod {
   readonly fromYear?: number;
 }
 
+/** One published reading of a region's switch, with its own source (data/calendar-reforms.json `readings`). */
+export interface RegionReading {
+  /** Short id, written after the region id: `holland@placaet`. The main reading's id is its source key. */
+  readonly id: string;
+  /** The switch in words, e.g. "1 January 1583 (Julian) followed by 12 January 1583". */
+  readonly label: string;
+  readonly periods: readonly ReformPeriod[];
+  readonly sourceKey: string;
+  readonly source: string;
+  readonly sourceText: string;
+  readonly note?: string;
+}
+
 export interface Region {
   readonly id: string;
   readonly name: string;
@@ -55,6 +68,17 @@ export interface Region {
   readonly note?: string;
   readonly yearStarts?: readonly YearStartPeriod[];
   readonly yearStartSource?: string;
+  /** Other published readings of the switch (the row's periods are its main reading); absent: undisputed. */
+  readonly readings?: readonly RegionReading[];
+}
+
+/** A region that left a calendar other than the Julian: refused, its calendar is outside heliochron's scope. */
+export interface OutOfScopeRegion {
+  readonly id: string;
+  readonly name: string;
+  /** The calendar it left, in words. */
+  readonly left: string;
+  readonly year: number;
 }
 
 /** A rule made ready for repeated use: its periods with their JDs. Build it once with resolveCalendarRule for loops. */
@@ -62,6 +86,8 @@ export interface ResolvedCalendar {
   readonly label: string;
   readonly periods: readonly ReformPeriod[];
   readonly region?: Region;
+  /** The reading of a disputed switch in use (absent: the row's main reading, or no region). */
+  readonly reading?: RegionReading;
 }
 
 const TABLE_URL = new URL('../../data/calendar-reforms.json', import.meta.url);
@@ -79,10 +105,12 @@ function parseTableDay(text: unknown, where: string): CivilDay {
 }
 
 interface RawPeriod { reckoning: string; firstDay?: string; lastDayBefore?: string }
+interface RawReading { id: string; label: string; periods: RawPeriod[]; source: string; sourceText: string; note?: string }
 interface RawRegion {
   id: string; name: string; periods: RawPeriod[]; source: string; sourceText: string; note?: string;
-  yearStarts?: { style: string; fromYear?: number }[]; yearStartSource?: string;
+  yearStarts?: { style: string; fromYear?: number }[]; yearStartSource?: string; readings?: RawReading[];
 }
+interface RawOutOfScope { id: string; name: string; left: string; year: number; source: string }
 
 /** Build the periods of a region and check each stated day against the days computed from the calendars. */
 function buildPeriods(raw: readonly RawPeriod[], where: string): ReformPeriod[] {
@@ -122,12 +150,23 @@ export function loadReformTable(): readonly Region[] {
   return parseReformTable(JSON.parse(readFileSync(TABLE_URL, 'utf8')));
 }
 
+/** The regions that left a calendar other than the Julian (data/calendar-reforms.json `outOfScope`). */
+export function loadOutOfScopeRegions(): readonly OutOfScopeRegion[] {
+  const json = JSON.parse(readFileSync(TABLE_URL, 'utf8')) as { outOfScope?: RawOutOfScope[] };
+  return (json.outOfScope ?? []).map((o) => Object.freeze({ id: o.id, name: o.name, left: o.left, year: o.year }));
+}
+
 /**
  * Check and build a reform table from its JSON form (the content of data/calendar-reforms.json).
  * Throws an Error naming the row when a stated day does not fit the calendars.
  */
 export function parseReformTable(data: unknown): readonly Region[] {
   const json = data as { sources: Record<string, string>; regions: RawRegion[] };
+  const sourceOf = (key: string, where: string): string => {
+    const text = json.sources[key];
+    if (text === undefined) throw tableDefect(`${where}: unknown source ${JSON.stringify(key)}`);
+    return text;
+  };
   const seen = new Set<string>();
   return json.regions.map((raw, index) => {
     const where = `regions[${index}] (${raw.id})`;
@@ -141,6 +180,19 @@ export function parseReformTable(data: unknown): readonly Region[] {
     });
     const yearStartSource = raw.yearStartSource === undefined ? undefined : json.sources[raw.yearStartSource];
     if (raw.yearStartSource !== undefined && yearStartSource === undefined) throw tableDefect(`${where}: unknown yearStartSource`);
+    const readings = raw.readings?.map((r, i): RegionReading => {
+      const at = `${where}.readings[${i}] (${r.id})`;
+      if (r.id === raw.source || raw.readings?.findIndex((o) => o.id === r.id) !== i) throw tableDefect(`${at}: reading id used twice`);
+      return Object.freeze({
+        id: r.id,
+        label: r.label,
+        periods: buildPeriods(r.periods, at),
+        sourceKey: r.source,
+        source: sourceOf(r.source, at),
+        sourceText: r.sourceText,
+        ...(r.note === undefined ? {} : { note: r.note }),
+      });
+    });
     const region: Region = {
       id: raw.id,
       name: raw.name,
@@ -151,6 +203,7 @@ export function parseReformTable(data: unknown): readonly Region[] {
       ...(raw.note === undefined ? {} : { note: raw.note }),
       ...(yearStarts === undefined ? {} : { yearStarts }),
       ...(yearStartSource === undefined ? {} : { yearStartSource }),
+      ...(readings === undefined ? {} : { readings }),
     };
     return Object.freeze(region);
   });
@@ -183,8 +236,18 @@ export function findRegion(id: string, field = 'calendar', table: readonly Regio
   const wanted = id.trim().toLowerCase();
   const found = table.find((r) => r.id === wanted);
   if (found) return found;
-  // No region id is long: a long text gets no suggestion (the edit distance takes time growing with its length).
-  const near = (wanted.length > 64 ? [] : table)
+  const outside = loadOutOfScopeRegions().find((r) => r.id === wanted || r.name.toLowerCase() === wanted);
+  if (outside) {
+    throw new InvalidInputError(
+      field,
+      id,
+      RULE_ALLOWED,
+      `${outside.name} left ${outside.left} in ${outside.year}, not the Julian calendar; that calendar is outside heliochron's scope. ` +
+        `Give dates from ${outside.year} on with --calendar gregorian, and convert earlier dates to the Julian or Gregorian calendar first.`,
+    );
+  }
+  // No region id is longer than 40 characters: a longer text has no near miss (and the edit distance would cost time).
+  const near = (wanted.length > 40 ? [] : table)
     .map((r) => ({ id: r.id, score: Math.min(editDistance(wanted, r.id), r.id.includes(wanted) || (wanted.length >= 4 && r.name.toLowerCase().includes(wanted)) ? 1 : 99) }))
     .filter((c) => c.score <= Math.max(2, Math.floor(wanted.length / 3)))
     .sort((a, b) => a.score - b.score || a.id.localeCompare(b.id))
@@ -220,7 +283,36 @@ export function parseCalendarRule(text: string, field: string): CalendarRule {
     checkSwitch(rule, field, text);
     return rule;
   }
+  const at = t.indexOf('@');
+  if (at >= 0) {
+    const region = findRegion(t.slice(0, at), field);
+    const reading = readingOf(region, t.slice(at + 1), field, text);
+    return { kind: 'region', regionId: region.id, ...(reading === undefined ? {} : { reading: reading.id }) };
+  }
   return { kind: 'region', regionId: findRegion(t, field).id };
+}
+
+/** Every reading of a region's switch: its main reading (id = its source key) first, then the others. */
+export function regionReadings(region: Region): readonly RegionReading[] {
+  const main: RegionReading = {
+    id: region.sourceKey,
+    label: 'the table\'s main reading',
+    periods: region.periods,
+    sourceKey: region.sourceKey,
+    source: region.source,
+    sourceText: region.sourceText,
+  };
+  return [main, ...(region.readings ?? [])];
+}
+
+/** The named reading of a region (undefined for its main reading); refuses an unknown id, listing the readings. */
+function readingOf(region: Region, id: string, field: string, text: string): RegionReading | undefined {
+  const wanted = id.trim().toLowerCase();
+  if (wanted === region.sourceKey.toLowerCase()) return undefined;
+  const found = region.readings?.find((r) => r.id === wanted);
+  if (found) return found;
+  const ids = regionReadings(region).map((r) => `${region.id}@${r.id}`);
+  throw new InvalidInputError(field, text, RULE_ALLOWED, `${region.name} has the readings ${ids.join(', ')}.`);
 }
 
 function checkSwitch(rule: Extract<CalendarRule, { kind: 'switch' }>, field: string, text: string): void {
@@ -257,7 +349,9 @@ export function resolveCalendarRule(rule: CalendarRule | ResolvedCalendar, field
       return { label: 'Gregorian calendar (proleptic before 1582)', periods: [{ reckoning: 'gregorian', firstJd: -Infinity }] };
     case 'region': {
       const region = findRegion(rule.regionId, field);
-      return { label: `${region.name} (region "${region.id}")`, periods: region.periods, region };
+      const reading = rule.reading === undefined ? undefined : readingOf(region, rule.reading, field, `${rule.regionId}@${rule.reading}`);
+      if (reading === undefined) return { label: `${region.name} (region "${region.id}")`, periods: region.periods, region };
+      return { label: `${region.name} (region "${region.id}", reading "${reading.id}": ${reading.label})`, periods: reading.periods, region, reading };
     }
     case 'switch': {
       const text = `switch:${formatIsoDay(rule.lastJulian)}/${formatIsoDay(rule.firstGregorian)}`;

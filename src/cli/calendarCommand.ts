@@ -2,6 +2,7 @@
  * `heliochron calendar <date>`: one day in both calendars, its Julian Day and weekday,
  * its civil date under the stated calendar rule, and its year under a year-start style.
  */
+import { disputedSwitchIn, isNameDisputed, namesUnderReadings } from '../calendar/disputedSwitch.js';
 import { InvalidInputError } from '../errors.js';
 import type { CivilDay, YearStartStyle } from '../scene/types.js';
 import { MONTH_NAMES, ROME_FIRST_GREGORIAN_JD, WEEKDAY_NAMES, jdToCalendarDate, weekdayOfJd } from '../calendar/julianDay.js';
@@ -59,7 +60,10 @@ function listRegions(options: CalendarOptions, io: CliIo): void {
     io.out(`${JSON.stringify(table.map((r) => ({ id: r.id, name: r.name, periods: r.periods.map((p) => ({ reckoning: p.reckoning, firstDay: p.firstDay ?? null, lastDayBefore: p.lastDayBefore ?? null })), source: r.source, sourceText: r.sourceText, note: r.note ?? null, yearStarts: r.yearStarts ?? null })), null, 2)}\n`);
     return;
   }
-  const lines = table.map((r) => `${r.id.padEnd(20)} ${switchText(r).padEnd(40)} ${r.name} [${r.sourceKey}]`);
+  const lines = table.map(
+    (r) => `${r.id.padEnd(20)} ${switchText(r).padEnd(40)} ${r.name} [${r.sourceKey}]` +
+      (r.readings === undefined ? '' : `; disputed, also ${r.readings.map((x) => `${r.id}@${x.id}`).join(', ')}`),
+  );
   io.out(`Regions (last day of the old reckoning / first day of the new; sources in docs/calendars.md):\n${lines.join('\n')}\n`);
 }
 
@@ -115,6 +119,16 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
       ? `in ${resolved.region?.id} the year then usually began by ${regionStyle} (${YEAR_START_WORDS[regionStyle]}), where this day is written ${formatDualYear(civilDay, regionStyle)}; ` +
         `if the year was written that way, add --year-start ${regionStyle}`
       : null;
+  // A disputed switch (docs/calendars.md): the day's name under every published reading, when they differ.
+  const dispute = disputedSwitchIn(rule, dayStartJd, dayStartJd);
+  const readingNames = dispute !== null && isNameDisputed(dispute, dayStartJd)
+    ? namesUnderReadings(dispute, dayStartJd).map((n) => ({
+        rule: n.main ? dispute.region.id : `${dispute.region.id}@${n.reading.id}`,
+        reckoning: n.reckoning,
+        text: formatDayWords(n.civil),
+        source: n.reading.source,
+      }))
+    : [];
   const calendarDefaultWords = options.calendarGiven ? '' : ' - the default; state another with --calendar';
   const yearStartDefaultWords = options.yearStartGiven ? '' : ' - the default; state another with --year-start';
   const fraction = civilJd - dayStartJd;
@@ -136,6 +150,7 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
       oldStyleNewStyle: dualStyle,
       dualYear: { style, text: dualYear },
       notes: [dualNote, regionStyleNote].filter((n): n is string => n !== null),
+      disputedReadings: readingNames,
     };
     io.out(`${JSON.stringify(out, null, 2)}\n`);
     return;
@@ -143,7 +158,7 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
   const lines = [
     `Date given:    ${text}, read as ${readAs}`,
     `Calendar:      ${resolved.label}${calendarDefaultWords}`,
-    ...(resolved.region ? [`  source:      ${resolved.region.source}`] : []),
+    ...(resolved.region ? [`  source:      ${resolved.reading?.source ?? resolved.region.source}`] : []),
     `Year start:    ${style} (${YEAR_START_WORDS[style]})${yearStartDefaultWords}`,
     `Julian:        ${formatDayWords(julian)}`,
     `Gregorian:     ${formatDayWords(gregorian)}`,
@@ -155,6 +170,12 @@ export function run(args: readonly string[], options: CalendarOptions, io: CliIo
     `Year written:  ${dualYear} (${style})`,
     ...(dualNote ? [`Note:          ${dualNote}`] : []),
     ...(regionStyleNote ? [`Note:          ${regionStyleNote}`] : []),
+    ...(readingNames.length > 0
+      ? [
+          `Disputed:      the sources disagree on the day ${dispute?.region.name} changed calendar; this day is named`,
+          ...readingNames.map((n) => `                ${n.text} (${reckoningName(n.reckoning)}) under ${n.rule} - ${n.source}`),
+        ]
+      : []),
   ];
   io.out(`${lines.join('\n')}\n`);
 }

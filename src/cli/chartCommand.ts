@@ -56,7 +56,7 @@ export async function run(args: readonly string[], options: ChartOptions, io: Cl
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
   const kind = parseChartKind(options.kind);
-  const read = readSceneForCommand(scenePath, io, options.seed);
+  const read = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const fullPath = read.fullPath;
   if (kind === ALL_CHARTS) {
     // Every file is checked before any work, so that a refusal leaves nothing written.

@@ -5,6 +5,8 @@ import type { Command } from 'commander';
 import type { CliIo } from './io.js';
 import { outputForm } from './outputFormat.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
+import type { DeltaTModel } from '../time/deltaT.js';
+import { DELTA_T_FLAGS, DELTA_T_HELP, parseDeltaTOption } from './deltaTOption.js';
 
 export const CHART_KINDS = ['map', 'sky', 'residuals'] as const;
 export type ChartKind = (typeof CHART_KINDS)[number];
@@ -18,6 +20,8 @@ export interface ChartOptions {
   readonly force: boolean;
   /** Overrides the scene file's seed. */
   readonly seed?: number;
+  /** --delta-t: overrides the scene file's deltaT. */
+  readonly deltaT?: DeltaTModel;
 }
 
 export function registerChart(program: Command, io: CliIo): void {
@@ -40,6 +44,7 @@ export function registerChart(program: Command, io: CliIo): void {
     .option('-o, --output <file>', 'write the SVG to this file, ending in .svg (default: print it; with --kind all, the NAME of the three files)')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
+    .option(DELTA_T_FLAGS, DELTA_T_HELP)
     .addHelpText(
       'after',
       '\nExamples (the bundled example is in the fictional town of Velmar):\n' +
@@ -58,6 +63,7 @@ export function registerChart(program: Command, io: CliIo): void {
           output,
           force: options.force === true,
           seed: parseSeedOption(options.seed),
+          deltaT: parseDeltaTOption(options.deltaT),
         },
         io,
       );

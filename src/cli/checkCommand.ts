@@ -83,7 +83,7 @@ export function proposalFromOptions(options: CheckOptions, scene: Scene): Propos
   if (options.time === undefined && options.within !== undefined) throw new InvalidInputError('--within', options.within, 'a tolerance only together with --time <hh:mm>');
   const day = (text: string, field: string) => {
     const read = readCivilDate(text, field, scene.calendar, scene.yearStart);
-    // The years of a scene window: the range of the Delta T model (Espenak and Meeus 2006).
+    // The years of a scene window: where the Delta T models state an uncertainty.
     if (read.day.year < MIN_YEAR || read.day.year > MAX_YEAR) {
       throw new InvalidInputError(field, text, `a date in the years ${MIN_YEAR} to ${MAX_YEAR} (astronomical numbering), as for the window of a scene file`);
     }
@@ -113,7 +113,7 @@ export function proposalFromOptions(options: CheckOptions, scene: Scene): Propos
 export async function run(args: readonly string[], options: CheckOptions, io: CliIo): Promise<void> {
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
-  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
+  const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const proposal = proposalFromOptions(options, scene);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const answer = inScene(scenePath, () => checkProposal(scene, proposal));

@@ -6,6 +6,8 @@ import type { CliIo } from './io.js';
 import { outputForm } from './outputFormat.js';
 import { CLOCK_DEFAULT, CLOCK_DEFAULT_WHY, CLOCK_FLAGS, CLOCK_KINDS_HELP } from './clockOption.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
+import type { DeltaTModel } from '../time/deltaT.js';
+import { DELTA_T_FLAGS, DELTA_T_HELP, parseDeltaTOption } from './deltaTOption.js';
 
 /** The options as the command receives them (strings, validated in checkCommand.ts). */
 export interface CheckOptions {
@@ -20,6 +22,8 @@ export interface CheckOptions {
   readonly force: boolean;
   /** Overrides the scene file's seed. */
   readonly seed?: number;
+  /** --delta-t: overrides the scene file's deltaT. */
+  readonly deltaT?: DeltaTModel;
   readonly version: string;
 }
 
@@ -44,6 +48,7 @@ export function registerCheck(program: Command, io: CliIo): void {
     .option('-o, --output <file>', 'write the answer to this file instead of the screen; a name ending in .json writes JSON, .txt text')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
+    .option(DELTA_T_FLAGS, DELTA_T_HELP)
     .addHelpText(
       'after',
       '\nExamples:\n' +
@@ -67,6 +72,7 @@ export function registerCheck(program: Command, io: CliIo): void {
         output: text('output'),
         force: options.force === true,
         seed: parseSeedOption(options.seed),
+        deltaT: parseDeltaTOption(options.deltaT),
         version: String(command.parent?.version() ?? ''),
       }, io);
     });

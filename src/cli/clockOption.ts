@@ -16,6 +16,7 @@ export const CLOCK_FLAGS = '--clock <kind>';
 export const CLOCK_KINDS_HELP =
   "'apparent' (local apparent time, the sundial's hour), 'mean' (local mean time), 'meridian:<deg>' (mean time of that " +
   "meridian, east positive), 'zone:<IANA name>' (e.g. zone:Europe/Zurich; from 1847 on, or local mean time where the " +
-  "zone database starts with it), 'ut'";
+  "zone database starts with it), 'ut', or hours counted from sunset or sunrise: 'italian' (from sunset), 'italian+<min>' " +
+  "(from sunset plus minutes), 'italian:dusk' (from the end of civil twilight), 'babylonian' (from sunrise), 'unequal' (temporal hours)";
 /** Why the default is what it is, in the words of --help. */
 export const CLOCK_DEFAULT_WHY = "local apparent time, the sundial's hour, which clocks kept until mean time spread in the late 18th and 19th centuries";

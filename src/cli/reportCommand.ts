@@ -38,7 +38,7 @@ export function sha256Hex(bytes: Uint8Array): string {
 export async function run(args: readonly string[], options: ReportOptions, io: CliIo): Promise<void> {
   const [scenePath] = args;
   if (scenePath === undefined) throw new InvalidInputError('<scene>', undefined, 'the path of a scene file');
-  const read = readSceneForCommand(scenePath, io, options.seed);
+  const read = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const fullPath = read.fullPath;
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   // Pixel observations turned into numbers once, as date and check do (src/image/resolvePixels.ts).

@@ -5,12 +5,16 @@ import type { Command } from 'commander';
 import type { CliIo } from './io.js';
 import { outputForm } from './outputFormat.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
+import type { DeltaTModel } from '../time/deltaT.js';
+import { DELTA_T_FLAGS, DELTA_T_HELP, parseDeltaTOption } from './deltaTOption.js';
 
 export interface ReportOptions {
   readonly output?: string;
   readonly force: boolean;
   /** Overrides the scene file's seed. */
   readonly seed?: number;
+  /** --delta-t: overrides the scene file's deltaT. */
+  readonly deltaT?: DeltaTModel;
   /** The program's version, written into the report's reproducibility block. */
   readonly version: string;
 }
@@ -29,6 +33,7 @@ export function registerReport(program: Command, io: CliIo): void {
     .option('-o, --output <file>', 'write the HTML to this file, ending in .html (default: print it)')
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
+    .option(DELTA_T_FLAGS, DELTA_T_HELP)
     .addHelpText(
       'after',
       '\nExample (the bundled example is in the fictional town of Velmar):\n' +
@@ -44,6 +49,7 @@ export function registerReport(program: Command, io: CliIo): void {
           output,
           force: options.force === true,
           seed: parseSeedOption(options.seed),
+          deltaT: parseDeltaTOption(options.deltaT),
           version: String(command.parent?.version() ?? ''),
         },
         io,

@@ -3,7 +3,9 @@
  * with --day the whole day between sunrise and sunset. A thin layer over src/ephemeris,
  * src/time and src/calendar; all validation of the options is here.
  */
-import { InvalidInputError } from '../errors.js';
+import { sunAccuracyWordsFrom } from '../report/formatTimes.js';
+import { DEFAULT_DELTA_T_MODEL, deltaTModelName, parseDeltaTModel, type DeltaTModel } from '../time/deltaT.js';
+import { InvalidInputError, UnsupportedError } from '../errors.js';
 import type { Air, CalendarRule, ClockKind } from '../scene/types.js';
 import { jdToCalendarDate, weekdayOfJd, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { civilDateToJd, jdToCivilDate, parseCalendarRule } from '../calendar/regions.js';
@@ -17,7 +19,7 @@ import { clockToJdUT, describeClockKind, formatClockKind, formatMinutes, jdUTToC
 import type { CliIo } from './io.js';
 import type { SunOptions } from './sunSpec.js';
 
-/** Years the sun command accepts: those of a scene window (src/scene/readScene.ts MIN_YEAR, MAX_YEAR; Delta T of Espenak and Meeus 2006). */
+/** Years the sun command accepts: those of a scene window (src/scene/readScene.ts MIN_YEAR, MAX_YEAR), where the Delta T models have a stated sigma. */
 const MIN_YEAR = -1999;
 const MAX_YEAR = 3000;
 
@@ -51,6 +53,7 @@ export function parseTimeOfDay(text: string | undefined, field: string): number 
 }
 
 interface Inputs {
+  readonly deltaTModel: DeltaTModel;
   readonly site: SunSite;
   readonly air: Air;
   readonly rule: CalendarRule;
@@ -74,10 +77,11 @@ function readInputs(options: SunOptions): Inputs {
   if (options.date === undefined) throw new InvalidInputError('--date', undefined, 'a civil date such as 1650-03-10 (this option is required)');
   const day = parseDateText(options.date, '--date');
   if (day.year < MIN_YEAR || day.year > MAX_YEAR) {
-    throw new InvalidInputError('--date', options.date, `a date in the years ${MIN_YEAR} to ${MAX_YEAR} (astronomical numbering)`, 'That is the range of the Delta T model (Espenak and Meeus 2006), as for the window of a scene file.');
+    throw new InvalidInputError('--date', options.date, `a date in the years ${MIN_YEAR} to ${MAX_YEAR} (astronomical numbering)`, 'That is the range over which the Delta T models state an uncertainty, as for the window of a scene file.');
   }
   const dayJd0 = civilDateToJd(rule, day, '--date');
-  return { site, air, rule, clock, dayJd0, dateText: formatIsoDay(day) };
+  const deltaTModel = options.deltaT === undefined ? DEFAULT_DELTA_T_MODEL : parseDeltaTModel(options.deltaT, '--delta-t');
+  return { deltaTModel, site, air, rule, clock, dayJd0, dateText: formatIsoDay(day) };
 }
 
 const f = (x: number, digits: number): string => x.toFixed(digits);
@@ -87,16 +91,26 @@ function clockText(jdUT: number, clock: ClockKind, site: SunSite): string {
   return formatMinutes(jdUTToClockMinutes(jdUT, clock, site).minutesOfDay);
 }
 
+/** The reading in an hour system tied to sunrise and sunset, or null on a day without sunrise or sunset. */
+function hourSystemText(jdUT: number, clock: ClockKind, site: SunSite): string | null {
+  try {
+    return clockText(jdUT, clock, site);
+  } catch (error) {
+    if (error instanceof UnsupportedError) return null;
+    throw error;
+  }
+}
+
 /** Everything the answer reports about one moment, as plain data (also the JSON form). */
 function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
-  const { site, clock, rule, dayJd0 } = inputs;
-  const dT = deltaTAtJdUT(jdUT);
+  const { site, clock, rule, dayJd0, deltaTModel } = inputs;
+  const dT = deltaTAtJdUT(jdUT, deltaTModel);
   const civil = jdToCivilDate(rule, dayJd0);
   const utDay = jdToCalendarDate(jdUT, civil.date.calendar);
   const zone = clock.kind === 'zone' ? zoneReading(clock.zone, jdUT, '--clock') : null;
   return {
     jd: jdUT,
-    jdTT: jdUTToJdTT(jdUT),
+    jdTT: jdUTToJdTT(jdUT, deltaTModel),
     azimuth: p.azimuthDeg,
     altitude: p.altitudeDeg,
     geometricAltitude: p.geometricAltitudeDeg,
@@ -104,12 +118,16 @@ function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
     rightAscension: p.rightAscensionDeg,
     hourAngle: p.hourAngleDeg,
     equationOfTime: p.equationOfTimeMinutes,
-    deltaT: { seconds: dT.seconds, sigmaSeconds: dT.sigmaSeconds },
+    deltaT: { seconds: dT.seconds, sigmaSeconds: dT.sigmaSeconds, model: deltaTModel, modelName: deltaTModelName(deltaTModel) },
     times: {
       ut: `${formatMinutes((utDay.dayFraction) * 1440)} on ${formatCalendarDate(utDay.date)}`,
-      tt: formatMinutes(((jdUTToJdTT(jdUT) - 0.5) % 1) * 1440),
+      tt: formatMinutes(((jdUTToJdTT(jdUT, deltaTModel) - 0.5) % 1) * 1440),
       apparent: clockText(jdUT, { kind: 'apparent' }, site),
       mean: clockText(jdUT, { kind: 'mean' }, site),
+      // Hour systems tied to sunrise and sunset (src/time/hourSystems.ts); null on a day without sunrise or sunset.
+      italian: hourSystemText(jdUT, { kind: 'italian', origin: 'sunset', offsetMinutes: 0 }, site),
+      babylonian: hourSystemText(jdUT, { kind: 'babylonian' }, site),
+      unequal: hourSystemText(jdUT, { kind: 'unequal' }, site),
       clock: clockText(jdUT, clock, site),
       clockKind: formatClockKind(clock),
       ...(zone
@@ -117,6 +135,7 @@ function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
             zone: clockText(jdUT, clock, site),
             zoneOffsetMinutes: zone.offsetMinutes,
             zoneIsLocalMeanTime: zone.localMeanTime,
+            zoneMeridianDeg: zone.meridianDeg,
           }
         : {}),
     },
@@ -157,18 +176,22 @@ function momentText(r: MomentRecord, inputs: Inputs, air: Air): string {
     `  clock given (${describeClockKind(clock)})  ${r.times.clock}`,
     `  local apparent time  ${r.times.apparent}`,
     `  local mean time      ${r.times.mean}`,
+    `  Italian hours        ${r.times.italian ?? '-'}  (24 hours from the previous sunset)`,
+    `  Babylonian hours     ${r.times.babylonian ?? '-'}  (24 hours from sunrise)`,
+    `  unequal hours        ${r.times.unequal ?? '-'}  (temporal: 00-12 the twelve hours of daylight, 12-24 those of the night)`,
   ];
   if (r.times.zone !== undefined) {
     lines.push(
       `  zone time ${clock.kind === 'zone' ? clock.zone : ''}  ${r.times.zone} (UT ${signed((r.times.zoneOffsetMinutes ?? 0) / 60, 4)} h)` +
         (r.times.zoneIsLocalMeanTime
-          ? ` - for this date the zone database gives a local mean time (of the meridian ${f((r.times.zoneOffsetMinutes ?? 0) / 4, 2)} deg), not a standard zone time`
+          ? ` - for this date the zone database gives a local mean time (of the meridian ${f(r.times.zoneMeridianDeg ?? 0, 2)} deg` +
+            `${Math.abs((r.times.zoneOffsetMinutes ?? 0) - 4 * (r.times.zoneMeridianDeg ?? 0) - 60) < 1e-6 ? ', with an hour of summer time' : ''}), not a standard zone time`
           : ''),
     );
   }
   lines.push(
     `  UT                   ${r.times.ut}`,
-    `  TT                   ${r.times.tt}  (Delta T ${f(r.deltaT.seconds, 1)} s +/- ${f(r.deltaT.sigmaSeconds, 1)} s, Espenak and Meeus 2006)`,
+    `  TT                   ${r.times.tt}  (Delta T ${f(r.deltaT.seconds, 1)} s +/- ${f(r.deltaT.sigmaSeconds, r.deltaT.sigmaSeconds < 1 ? 2 : 1)} s, ${r.deltaT.modelName})`,
     `  Julian Day (UT)      ${f(r.jd, 6)}`,
     '',
     'Sun',
@@ -177,6 +200,9 @@ function momentText(r: MomentRecord, inputs: Inputs, air: Air): string {
     `  declination          ${signed(r.declination, 4)} deg`,
     `  hour angle           ${signed(r.hourAngle, 4)} deg (negative before noon)`,
     `  equation of time     ${signed(r.equationOfTime, 2)} min (apparent minus mean time)`,
+    ...(sunAccuracyWordsFrom(jdToCalendarDate(r.dates.jdOfLocalMidnight, 'julian').date.year) === null
+      ? []
+      : [`  accuracy             ${sunAccuracyWordsFrom(jdToCalendarDate(r.dates.jdOfLocalMidnight, 'julian').date.year)}`]),
   );
   return lines.join('\n');
 }
@@ -207,7 +233,7 @@ function dayRecord(inputs: Inputs, stepMinutes: number) {
   const rows = [];
   for (let m = Math.ceil(from / stepMinutes) * stepMinutes; m <= to && rows.length < 2000; m += stepMinutes) {
     const jdUT = clockToJdUT(dayJd0, m, clock, site);
-    const p = sunPosition(jdUT, site, air);
+    const p = sunPosition(jdUT, site, air, { deltaTModel: inputs.deltaTModel });
     rows.push({ time: formatMinutes(m), jd: jdUT, azimuth: p.azimuthDeg, altitude: p.altitudeDeg, geometricAltitude: p.geometricAltitudeDeg, hourAngle: p.hourAngleDeg });
   }
   const show = (jdUT: number | null): string | null => (jdUT === null ? null : formatMinutes(minutesOf(jdUT) ?? 0));
@@ -229,7 +255,7 @@ function dayText(d: ReturnType<typeof dayRecord>, inputs: Inputs): string {
   const lines = [
     `The day in ${describeClockKind(inputs.clock)}: sunrise ${d.sunrise ?? '-'}, transit ${d.transit}, sunset ${d.sunset ?? '-'}` +
       (d.polar === 'day' ? ' (polar day: the sun does not set)' : d.polar === 'night' ? ' (polar night: the sun does not rise)' : ''),
-    '(rise and set: centre of the sun 0.8333 deg below a level horizon, Meeus 1998 ch. 15)',
+    `(rise and set: centre of the sun 0.8333 deg below a level horizon, Meeus 1998 ch. 15; Delta T: ${deltaTModelName(inputs.deltaTModel)})`,
     '',
     '  time      azimuth   altitude  geometric  hour angle',
   ];
@@ -250,7 +276,7 @@ export function run(_args: readonly string[], options: SunOptions, io: CliIo): v
     const minutes = parseTimeOfDay(options.time, '--time');
     if (inputs.clock.kind === 'zone') zoneReading(inputs.clock.zone, clockToJdUT(inputs.dayJd0, minutes, { kind: 'mean' }, inputs.site), '--clock');
     const jdUT = clockToJdUT(inputs.dayJd0, minutes, inputs.clock, inputs.site);
-    moment = momentRecord(jdUT, inputs, sunPosition(jdUT, inputs.site, inputs.air));
+    moment = momentRecord(jdUT, inputs, sunPosition(jdUT, inputs.site, inputs.air, { deltaTModel: inputs.deltaTModel }));
   }
   const day = options.day ? dayRecord(inputs, stepMinutes) : null;
   if (options.json) {

@@ -4,6 +4,7 @@
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
 import { CLOCK_DEFAULT, CLOCK_DEFAULT_WHY, CLOCK_FLAGS, CLOCK_KINDS_HELP } from './clockOption.js';
+import { DELTA_T_FLAGS, DELTA_T_HELP } from './deltaTOption.js';
 
 export const SUN_DEFAULTS = {
   elevation: '0',
@@ -28,6 +29,8 @@ export interface SunOptions {
   readonly json: boolean;
   readonly day: boolean;
   readonly step: string;
+  /** --delta-t as written (validated in sunCommand.ts). */
+  readonly deltaT?: string;
   /** Names of the options left at their defaults, to say so in the answer. */
   readonly defaulted: readonly string[];
 }
@@ -59,6 +62,7 @@ export function registerSun(program: Command, io: CliIo): void {
     .option('--json', 'print one JSON object instead of text')
     .option('--day', 'print the whole day: sunrise, transit, sunset and a table every --step minutes')
     .option('--step <minutes>', 'table step for --day, minutes', SUN_DEFAULTS.step)
+    .option(DELTA_T_FLAGS, DELTA_T_HELP)
     .addHelpText(
       'after',
       '\nNothing is guessed silently: without --calendar the date is read in the proleptic Gregorian calendar, without\n' +
@@ -89,6 +93,7 @@ export function registerSun(program: Command, io: CliIo): void {
         json: options.json === true,
         day: options.day === true,
         step: String(options.step),
+        deltaT: text('deltaT'),
         defaulted,
       };
       run([], sunOptions, io);

@@ -8,7 +8,7 @@
  * reproduced to 0.1 s. The mean sun is tied to UT, so an error in Delta T does not move it.
  */
 import { EquatorFromVector, SiderealTime } from 'astronomy-engine';
-import { astroTimeFromJdUT } from './engine.js';
+import { astroTimeFromJdUT, withDeltaT } from './engine.js';
 import { equationOfTimeFromRaMinutes, geocentricSunOfDate } from './sunPosition.js';
 
 /**
@@ -16,7 +16,9 @@ import { equationOfTimeFromRaMinutes, geocentricSunOfDate } from './sunPosition.
  * @example equationOfTimeMinutes(2448908.5 - 59 / 86400) // about +13.71 (Meeus 1998, Example 28.a: +13m42.6s)
  */
 export function equationOfTimeMinutes(jdUT: number, deltaTSeconds?: number): number {
-  const time = astroTimeFromJdUT(jdUT, deltaTSeconds);
-  const ra = EquatorFromVector(geocentricSunOfDate(time)).ra;
-  return equationOfTimeFromRaMinutes(jdUT, SiderealTime(time), ra);
+  return withDeltaT(deltaTSeconds, () => {
+    const time = astroTimeFromJdUT(jdUT, deltaTSeconds);
+    const ra = EquatorFromVector(geocentricSunOfDate(time)).ra;
+    return equationOfTimeFromRaMinutes(jdUT, SiderealTime(time), ra);
+  });
 }

@@ -13,16 +13,20 @@
  * instants 1000-2100, tests/ephemeris/crossCheckAstronomia.test.ts) the largest difference is
  * 0.008 deg, growing with distance from 2000 (0.0006 deg over 1900-2100, 0.002 deg around
  * 1600, 0.008 deg around 1000-1200); which side errs there is not settled. astronomy-engine's own accuracy is about 1 arcminute
- * or better for the sun over several millennia. Given the instant in UT (as every clock
+ * or better for the sun over several millennia. By era, the sun's direction in the Earth-fixed
+ * frame departs from VSOP87D (astronomia) by at most 0.042 deg at -500, 0.016 deg at 500,
+ * 0.008 deg at 1000, 0.004 deg at 1400 and 0.0004 deg at 2000, mostly in declination
+ * (tests/ephemeris/sunAccuracyByEra.test.ts). Given the instant in UT (as every clock
  * reading is), Delta T only moves the sun along its orbit, 0.041" per second of Delta T:
- * even its 640 s sigma at -1000 is 0.007 deg. (Were the instant known in TT, each second of
+ * even a 720 s sigma at -1000 is 0.008 deg. (Were the instant known in TT, each second of
  * Delta T would turn the Earth by 15".)
  * Leaves out: refraction below the horizon (see refraction.ts), the horizon dip of a raised observer.
  */
 import { Body, EquatorFromVector, Horizon, Observer, ObserverVector, RotateVector, Rotation_EQJ_EQD, SiderealTime, Vector, GeoVector, type AstroTime } from 'astronomy-engine';
 import type { Air } from '../scene/types.js';
 import { normalizeDeg180 } from '../math/angles.js';
-import { astroTimeFromJdUT } from './engine.js';
+import type { DeltaTModel } from '../time/deltaT.js';
+import { astroTimeFromJdUT, withDeltaT } from './engine.js';
 import { refractionDeg } from './refraction.js';
 
 /** A site on the Earth: degrees (latitude north positive, longitude east positive), metres above sea level. */
@@ -52,10 +56,12 @@ export interface SunPosition {
   readonly equationOfTimeMinutes: number;
 }
 
-/** Options for checks against published examples. */
+/** Options: the Delta T model, a fixed Delta T for checks against published examples, the frame. */
 export interface SunPositionOptions {
-  /** Use this Delta T (TT - UT, seconds) instead of the Espenak-Meeus model. */
+  /** Use this Delta T (TT - UT, seconds) instead of a model (checks against published examples). */
   readonly deltaTSeconds?: number;
+  /** The Delta T model (src/time/deltaT.ts); absent: the default, Morrison et al. (2021). */
+  readonly deltaTModel?: DeltaTModel;
   /** false: geocentric (no parallax) instead of topocentric. Default true. */
   readonly topocentric?: boolean;
 }
@@ -87,6 +93,11 @@ export function equationOfTimeFromRaMinutes(jdUT: number, gastHours: number, raH
  *   { pressureHPa: 820, temperatureC: 11 }, { deltaTSeconds: 67 }).azimuthDeg // 194.340
  */
 export function sunPosition(jdUT: number, site: SunSite, air?: Air | 'none', options?: SunPositionOptions): SunPosition {
+  return withDeltaT(options?.deltaTSeconds ?? options?.deltaTModel, () => sunPositionInForce(jdUT, site, air, options));
+}
+
+/** sunPosition with the Delta T in force (src/ephemeris/engine.ts). */
+function sunPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | undefined, options: SunPositionOptions | undefined): SunPosition {
   const time = astroTimeFromJdUT(jdUT, options?.deltaTSeconds);
   const observer = new Observer(site.latitudeDeg, site.longitudeDeg, site.elevationM);
   const geo = geocentricSunOfDate(time);

@@ -16,6 +16,7 @@ import { formatDualYear } from '../calendar/yearStart.js';
 import { resolveCalendarRule } from '../calendar/regions.js';
 import { describeClockKind, formatClockKind } from '../time/clock.js';
 import { deltaTAtJdUT } from '../time/timeScales.js';
+import { deltaTModelName } from '../time/deltaT.js';
 import { STANDARD_AIR } from '../ephemeris/refraction.js';
 
 /**
@@ -208,10 +209,31 @@ function signedDays(d: number): string {
   return (d >= 0 ? '+' : '') + d.toFixed(1);
 }
 
-/** Delta T at the candidate and its sigma (Espenak and Meeus 2006, through src/time). */
-export function deltaTWords(c: Candidate): string {
-  const dT = deltaTAtJdUT(c.jdUT);
-  return `Delta T ${c.times.deltaTSeconds.toFixed(0)} s +/- ${dT.sigmaSeconds.toFixed(0)} s at the best candidate (Espenak and Meeus 2006 polynomials)`;
+/** Delta T at the candidate and its sigma, naming the scene's Delta T model (through src/time). */
+export function deltaTWords(c: Candidate, scene: Scene): string {
+  const dT = deltaTAtJdUT(c.jdUT, scene.deltaT);
+  const sigma = dT.sigmaSeconds < 1 ? dT.sigmaSeconds.toFixed(2) : dT.sigmaSeconds.toFixed(0);
+  return `Delta T ${c.times.deltaTSeconds.toFixed(dT.sigmaSeconds < 1 ? 1 : 0)} s +/- ${sigma} s at the best candidate (${deltaTModelName(scene.deltaT)})`;
+}
+
+/** First year from which the sun model is stated to agree with VSOP87 within 0.01 deg (docs/time-keeping.md). */
+const SUN_ACCURACY_NOTE_BEFORE_YEAR = 500;
+
+/**
+ * For a window reaching before AD 500: how far the sun model is known to depart from a second
+ * theory there (measured in tests/ephemeris/sunAccuracyByEra.test.ts); null otherwise.
+ */
+export function sunAccuracyWords(scene: Scene): string | null {
+  return sunAccuracyWordsFrom(scene.window.fromYear);
+}
+
+/** The same note for any first year (the sun command passes the year of its date). */
+export function sunAccuracyWordsFrom(fromYear: number): string | null {
+  if (fromYear >= SUN_ACCURACY_NOTE_BEFORE_YEAR) return null;
+  return (
+    'before AD 500 the sun model (astronomy-engine) and VSOP87 differ by up to 0.016 deg at AD 500 ' +
+    'and 0.042 deg at 500 BC (mostly in declination); read differences in the sun smaller than that as not significant'
+  );
 }
 
 /** The refraction model and air in words. */

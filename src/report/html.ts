@@ -9,6 +9,7 @@
  * Every piece of text from the scene file is escaped (escapeXml). Pure function of its
  * input: no clock (the page carries no time of making), no console.
  */
+import { deltaTModelName } from '../time/deltaT.js';
 import type { Observation, Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '../solver/types.js';
 import { formatDayWords } from '../calendar/format.js';
@@ -21,6 +22,7 @@ import {
   civilDateRendering,
   clockAssumptionWords,
   deltaTWords,
+  sunAccuracyWords,
   dualStyleWords,
   ellipse95,
   hhmm,
@@ -155,10 +157,10 @@ function assumptionsSection(scene: Scene, answer: DateAnswer): string {
     ['Site', `${siteWords(scene)}${scene.site.latitudeSigmaDeg > 0 || scene.site.longitudeSigmaDeg > 0 ? ` (uncertainty ${scene.site.latitudeSigmaDeg} deg in latitude, ${scene.site.longitudeSigmaDeg} deg in longitude, fitted)` : ''}`],
     ['Calendar', `${calendarRuleWords(scene.calendar)}; ${yearStartWords(scene.yearStart)}. ${dualStyleWords(scene) ?? 'Dates are written in the calendar in force at the site that day.'}`],
     ['Time-keeping', clockWords(scene, answer)],
-    ['Delta T', best ? `${deltaTWords(best)}; Delta T moves the sun along its path by only 0.041 arcseconds per second, far below any shadow measurement.` : 'Espenak and Meeus (2006) polynomials (no candidate to evaluate it at).'],
+    ['Delta T', best ? `${deltaTWords(best, scene)}; Delta T moves the sun along its path by only 0.041 arcseconds per second, far below any shadow measurement.` : `${deltaTModelName(scene.deltaT)} (no candidate to evaluate it at).`],
     ['Refraction', refractionWords(scene)],
     ['Map north', `map bearings are turned by ${scene.mapNorthCorrectionDeg >= 0 ? '+' : ''}${scene.mapNorthCorrectionDeg} deg to true north (as stated in the scene)`],
-    ['Ephemeris', 'the sun from astronomy-engine (VSOP87, IAU 2006 precession, IAU 2000B nutation), topocentric apparent place'],
+    ['Ephemeris', `the sun from astronomy-engine (VSOP87, IAU 2006 precession, IAU 2000B nutation), topocentric apparent place${sunAccuracyWords(scene) ? `; ${sunAccuracyWords(scene)}` : ''}`],
   ];
   const walls = scene.walls.map((w) =>
     row([h(w.id), n(`${w.azimuthDeg.toFixed(1)} deg`), n(w.azimuthSigmaDeg > 0 ? `${w.azimuthSigmaDeg} deg` : 'exact'), h(w.azimuthSource), h(w.note ?? '')]),

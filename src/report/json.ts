@@ -6,6 +6,7 @@
  * which the objects below are written). Julian Days are UT (`jd`), with the renderings
  * beside them (civil date text, hh:mm times) so that a reader needs no calendar code.
  */
+import { deltaTModelName } from '../time/deltaT.js';
 import type { Scene } from '../scene/types.js';
 import type {
   Candidate,
@@ -307,9 +308,9 @@ function assumptionsJson(scene: Scene, clockAssumptions: DateAnswer['clockAssump
     yearStartWords: yearStartWords(scene.yearStart),
     clocks: clockAssumptions.map((a) => ({ code: clockAssumptionCode(a), words: clockAssumptionWords(a) })),
     deltaT: {
-      model: 'Espenak and Meeus (2006) polynomials',
+      model: deltaTModelName(scene.deltaT),
       secondsAtBest: best ? roundTo(best.times.deltaTSeconds, DIGITS.seconds) : null,
-      sigmaSecondsAtBest: best ? roundTo(deltaTAtJdUT(best.jdUT).sigmaSeconds, DIGITS.seconds) : null,
+      sigmaSecondsAtBest: best ? roundTo(deltaTAtJdUT(best.jdUT, scene.deltaT).sigmaSeconds, DIGITS.seconds) : null,
     },
     refraction: {
       model: 'Bennett (1982) in the NREL SPA form (Reda and Andreas 2008)',

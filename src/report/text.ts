@@ -18,6 +18,7 @@ import {
   civilDateRendering,
   clockAssumptionWords,
   deltaTWords,
+  sunAccuracyWords,
   dualStyleWords,
   ellipse95,
   hhmm,
@@ -150,7 +151,9 @@ function assumptionLines(scene: Scene, answer: { readonly clockAssumptions?: Dat
   ];
   const clocks = answer.clockAssumptions ?? [];
   if (clocks.length > 0) lines.push(`  clock: ${clocks.map(clockAssumptionWords).join('; ')}`);
-  if (best) lines.push(`  time scale: ${deltaTWords(best)}`);
+  if (best) lines.push(`  time scale: ${deltaTWords(best, scene)}`);
+  const sunNote = sunAccuracyWords(scene);
+  if (sunNote) lines.push(`  sun: ${sunNote}`);
   lines.push(`  ${refractionWords(scene)}`);
   lines.push(`  site: ${siteWords(scene)}`);
   return lines;

@@ -153,7 +153,7 @@ function readClock(f: Fields, id: string, note: string | undefined): ClockObserv
     const text = raw(f, 'kept');
     const path = keyPath(f.path, 'kept');
     if (typeof text !== 'string') {
-      throw new InvalidInputError(path, text, 'what the clock kept: "unknown", "apparent", "mean", "meridian:<longitude deg>", "zone:<IANA zone>" or "ut"');
+      throw new InvalidInputError(path, text, 'what the clock kept: "unknown", "apparent", "mean", "meridian:<longitude deg>", "zone:<IANA zone>", "ut", "italian", "italian+<minutes>", "italian:dusk", "babylonian" or "unequal"');
     }
     kept = text.trim() === 'unknown' ? { kind: 'unknown' } : parseClockKind(text, path);
   }

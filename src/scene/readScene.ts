@@ -9,10 +9,11 @@
  */
 import { readFileSync, statSync } from 'node:fs';
 import { STANDARD_AIR } from '../ephemeris/refraction.js';
-import { InvalidInputError, refusalHead } from '../errors.js';
+import { DELTA_T_MODELS } from '../time/deltaT.js';
+import { InvalidInputError, quoteValue, refusalHead } from '../errors.js';
 import { readCalendar, readCivilDate, readYearStart } from './calendarFields.js';
 import {
-  checkChoice, checkList, checkNumber, checkPair, exactlyOne, has, itemPath, keyPath, missing, num, openFields,
+  checkChoice, checkList, choice, checkNumber, checkPair, exactlyOne, has, itemPath, keyPath, missing, num, openFields,
   optNum, optStr, raw, str, type NumberRule,
   SIGMA_FLOOR, type Fields,
 } from './fields.js';
@@ -28,14 +29,14 @@ export { MAX_SCENE_BYTES, MAX_NESTING_DEPTH, MAX_ALIAS_COUNT } from './parseScen
 
 /** The only format version this reader knows. */
 export const FORMAT_VERSION = 1;
-/** Years the window may span, astronomical numbering (the range of the Delta T polynomials of Espenak and Meeus 2006). */
+/** Years the window may span, astronomical numbering (where the Delta T models state an uncertainty). */
 export const MIN_YEAR = -1999;
 export const MAX_YEAR = 3000;
 export const MAX_WALLS = 200;
 export const MAX_OBSERVATIONS = 1000;
 
 const TOP_KEYS = [
-  '$schema', 'heliochron', 'title', 'site', 'calendar', 'yearStart', 'window', 'air',
+  '$schema', 'heliochron', 'title', 'site', 'calendar', 'yearStart', 'window', 'air', 'deltaT',
   'mapNorthCorrectionDeg', 'image', 'camera', 'groundPlane', 'walls', 'observations', 'seed',
 ];
 const SITE_KEYS = ['latitudeDeg', 'longitudeDeg', 'elevationM', 'latitudeSigmaDeg', 'longitudeSigmaDeg'];
@@ -203,6 +204,7 @@ export function sceneFromData(data: unknown): Scene {
     readYearStart(raw(f, 'yearStart'), has(f, 'yearStart'), 'yearStart', calendar, years),
   );
   const air = has(f, 'air') ? readAir(raw(f, 'air')) : undefined;
+  const deltaT = has(f, 'deltaT') ? choice(f, 'deltaT', DELTA_T_MODELS, 'a Delta T model') : undefined;
   const mapNorthCorrectionDeg = optNum(f, 'mapNorthCorrectionDeg', { words: 'a correction in degrees from map north to true north, east positive', min: -180, max: 180 }, 0);
   const image = has(f, 'image') ? readImage(raw(f, 'image'), 'image') : undefined;
   const groundPlane = has(f, 'groundPlane')
@@ -231,6 +233,7 @@ export function sceneFromData(data: unknown): Scene {
     yearStart,
     window,
     ...(air ? { air } : {}),
+    ...(deltaT ? { deltaT } : {}),
     mapNorthCorrectionDeg,
     ...(image ? { image } : {}),
     ...(camera ? { camera } : {}),

@@ -6,6 +6,8 @@
  * their unit; every measured number has its sigma beside it. Conventions
  * (azimuth origin, wall axes, pixel axes) are in docs/conventions.md.
  */
+import type { DeltaTModel } from '../time/deltaT.js';
+
 
 /** A point in image pixels: x to the right, y down, origin at the top-left corner of the top-left pixel. */
 export type PixelPoint = readonly [xPx: number, yPx: number];
@@ -31,7 +33,7 @@ export interface Site {
 export type CalendarRule =
   | { readonly kind: 'julian' }
   | { readonly kind: 'gregorian' }
-  | { readonly kind: 'region'; readonly regionId: string }
+  | { readonly kind: 'region'; readonly regionId: string; /** One published reading of a disputed switch (its id); absent: the row's main reading. */ readonly reading?: string }
   | {
       readonly kind: 'switch';
       /** Last Julian civil day, Julian calendar. */
@@ -54,7 +56,11 @@ export type ClockKind =
   | { readonly kind: 'mean' } // local mean time at the site's longitude
   | { readonly kind: 'meridian'; readonly longitudeDeg: number } // mean time of another meridian
   | { readonly kind: 'zone'; readonly zone: string } // IANA zone through luxon
-  | { readonly kind: 'ut' };
+  | { readonly kind: 'ut' }
+  /** Italian hours: 24 hours from the previous evening's sunset (or end of civil twilight), plus offsetMinutes (src/time/hourSystems.ts). */
+  | { readonly kind: 'italian'; readonly origin: 'sunset' | 'civil-dusk'; readonly offsetMinutes: number }
+  | { readonly kind: 'babylonian' } // 24 hours from sunrise
+  | { readonly kind: 'unequal' }; // temporal hours: twelfths of daylight and of night
 
 /** A civil date as written in the site's calendar (after year-start normalisation: year begins 1 January). */
 export interface CivilDay {
@@ -292,6 +298,8 @@ export interface Scene {
   readonly yearStart: YearStartStyle;
   readonly window: DateWindow;
   readonly air?: Air;
+  /** The Delta T model (src/time/deltaT.ts); absent: the default, morrison-2021. */
+  readonly deltaT?: DeltaTModel;
   /** Added to map bearings (magnetic or grid north) to get true bearings, degrees. */
   readonly mapNorthCorrectionDeg: number;
   readonly image?: ImageInfo;

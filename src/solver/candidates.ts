@@ -145,7 +145,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
       utDate: plainDate(jdToCalendarDate(p.jdUT, civil.calendar).date),
       clock,
       equationOfTimeMinutes: e,
-      deltaTSeconds: deltaTAtJdUT(p.jdUT).seconds,
+      deltaTSeconds: deltaTAtJdUT(p.jdUT, scene.deltaT).seconds,
     },
     sun: { azimuthDeg: raw.sun.azimuthDeg, altitudeDeg: raw.sun.altitudeDeg, declinationDeg: raw.sun.declinationDeg, hourAngleDeg: raw.sun.hourAngleDeg },
     chiSquare: raw.chiSquare,

@@ -17,6 +17,7 @@
  *   soft penalties of src/geometry/lightFacts.ts, zero when
  *   they hold, not counted as measured residuals.
  */
+import { predictHourSystemClock } from './hourSystemPrediction.js';
 import { InvalidInputError } from '../errors.js';
 import type { ClockKind, Observation, Scene } from '../scene/types.js';
 import { evidenceResiduals, predictEvidence, type ShadowEvidence } from '../geometry/observationModels.js';
@@ -268,6 +269,9 @@ export function predictClock(term: ClockTerm, model: EvidenceModel, ctx: Evaluat
   const m = ctx.apparentMinutes;
   const lon = longitudeOf(model, ctx.nuisances);
   if (kind.kind === 'apparent') return { minutes: m, sigma: term.precisionMinutes };
+  if (kind.kind === 'italian' || kind.kind === 'babylonian' || kind.kind === 'unequal') {
+    return predictHourSystemClock(kind, m, ctx.sun, latitudeOf(model, ctx.nuisances), term.precisionMinutes); // src/solver/hourSystemPrediction.ts
+  }
   const e = ctx.equationOfTimeMinutes ?? 0;
   const sigma = ctx.equationOfTimeMinutes === null ? Math.hypot(term.precisionMinutes, STAGE_A_CLOCK_EXTRA_SIGMA_MINUTES) : term.precisionMinutes;
   const meanMinutes = m - e; // local mean time = apparent - E (Meeus 1998 ch. 28)

@@ -121,13 +121,13 @@ export interface DatedContext {
 
 export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null, anchorJdUT: number): DatedContext {
   const site = siteOf(model);
-  return { model, assumed, site, track: makeSunTrack(anchorJdUT, site), zoneOffset: zoneOffsetsAt(model, assumed, anchorJdUT), ephemerisCalls: 3 };
+  return { model, assumed, site, track: makeSunTrack(anchorJdUT, site, model.scene.deltaT), zoneOffset: zoneOffsetsAt(model, assumed, anchorJdUT), ephemerisCalls: 3 };
 }
 
 /** Move the track so that it covers jdUT (a new track when jdUT is outside its reach). */
 export function ensureTrack(c: DatedContext, jdUT: number, reach = TRACK_REACH_DAYS - 0.5): void {
   if (Math.abs(jdUT - c.track.anchorJdUT) <= reach) return;
-  c.track = makeSunTrack(jdUT, c.site);
+  c.track = makeSunTrack(jdUT, c.site, c.model.scene.deltaT);
   c.zoneOffset = zoneOffsetsAt(c.model, c.assumed, jdUT);
   c.ephemerisCalls += 3;
 }

@@ -27,13 +27,19 @@ export interface SearchResult {
 /**
  * The clock assumptions to try: none without a clock; the stated kind when every clock says
  * what it kept; else local apparent and local mean time, each its own candidate set
- * (plus any meridian or zone stated by another clock of the scene).
+ * (plus any meridian or zone stated by another clock of the scene); when every clock has a
+ * 24-hour dial, also Italian hours (from sunset), Babylonian hours (from sunrise) and unequal hours
+ * (src/time/hourSystems.ts). A 12-hour dial cannot show those 24-hour counts, so there they are
+ * tried only when stated.
  */
 export function clockAssumptionsOf(model: EvidenceModel): ClockAssumption[] {
   if (model.clocks.length === 0) return [{ kind: 'none' }];
   const unknown = model.clocks.some((c) => c.kept === null);
   if (!unknown) return [{ ...(model.clocks[0].kept as ClockKind), stated: true }];
   const tried: ClockKind[] = [{ kind: 'apparent' }, { kind: 'mean' }];
+  if (model.clocks.every((c) => c.modulusMinutes === 1440)) {
+    tried.push({ kind: 'italian', origin: 'sunset', offsetMinutes: 0 }, { kind: 'babylonian' }, { kind: 'unequal' });
+  }
   for (const c of model.clocks) {
     const k = c.kept;
     if (k && (k.kind === 'meridian' || k.kind === 'zone') && !tried.some((t) => JSON.stringify(t) === JSON.stringify(k))) tried.push(k);

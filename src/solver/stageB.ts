@@ -108,7 +108,7 @@ export function exactPoint(
 ): { point: DatedPoint; sun: SunPosition } {
   const lon = longitudeOf(model, nuisances);
   const approxJdUT = dayJd0 + (minutes - equationOfTimeGuessMinutes) / 1440 - lon / 360;
-  const sun = sunPosition(approxJdUT, { ...site, longitudeDeg: lon }, model.scene.air);
+  const sun = sunPosition(approxJdUT, { ...site, longitudeDeg: lon }, model.scene.air, { deltaTModel: model.scene.deltaT });
   const track: SunTrack = {
     anchorJdUT: approxJdUT,
     declinationDeg: [sun.declinationDeg, sun.declinationDeg, sun.declinationDeg],

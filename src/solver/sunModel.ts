@@ -24,6 +24,7 @@ import type { Air } from '../scene/types.js';
 import { DEG_PER_RAD, RAD_PER_DEG, normalizeDeg360 } from '../math/angles.js';
 import { refractionDeg } from '../ephemeris/refraction.js';
 import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
+import type { DeltaTModel } from '../time/deltaT.js';
 
 export interface SolverSunDirection {
   readonly azimuthDeg: number;
@@ -79,11 +80,11 @@ export interface SunTrack {
 /** Half-width of the interval in which a track is used, days. */
 export const TRACK_REACH_DAYS = 3;
 
-/** A track of the full ephemeris around jdUT: three sunPosition calls. */
-export function makeSunTrack(anchorJdUT: number, site: SunSite): SunTrack {
-  const a = sunPosition(anchorJdUT - 1, site, 'none');
-  const b = sunPosition(anchorJdUT, site, 'none');
-  const c = sunPosition(anchorJdUT + 1, site, 'none');
+/** A track of the full ephemeris around jdUT: three sunPosition calls (Delta T by the model given, else the default). */
+export function makeSunTrack(anchorJdUT: number, site: SunSite, deltaTModel?: DeltaTModel): SunTrack {
+  const a = sunPosition(anchorJdUT - 1, site, 'none', { deltaTModel });
+  const b = sunPosition(anchorJdUT, site, 'none', { deltaTModel });
+  const c = sunPosition(anchorJdUT + 1, site, 'none', { deltaTModel });
   return {
     anchorJdUT,
     declinationDeg: [a.declinationDeg, b.declinationDeg, c.declinationDeg],
@@ -92,8 +93,8 @@ export function makeSunTrack(anchorJdUT: number, site: SunSite): SunTrack {
 }
 
 /** A degenerate track from one exact evaluation (rates zero), for a single instant. */
-export function pointSunTrack(jdUT: number, site: SunSite): SunTrack {
-  const p = sunPosition(jdUT, site, 'none');
+export function pointSunTrack(jdUT: number, site: SunSite, deltaTModel?: DeltaTModel): SunTrack {
+  const p = sunPosition(jdUT, site, 'none', { deltaTModel });
   return {
     anchorJdUT: jdUT,
     declinationDeg: [p.declinationDeg, p.declinationDeg, p.declinationDeg],

@@ -29,10 +29,22 @@ import { DateTime, IANAZone } from 'luxon';
 import { ConvergenceError, InvalidInputError, UnsupportedError } from '../errors.js';
 import type { ClockKind } from '../scene/types.js';
 import { equationOfTimeMinutes } from '../ephemeris/equationOfTime.js';
+import type { SunSite } from '../ephemeris/sunPosition.js';
+import { dayFrameOf, isHourSystem } from './hourSystemClock.js';
+import { historicalEntry, historicalOffsetMinutes, tzDataWords } from './zoneHistory.js';
+import { describeHourSystem, hourSystemReading, hourSystemToApparentMinutes } from './hourSystems.js';
 
-/** The part of a site a clock needs: its longitude, degrees east. */
+/** The part of a site a clock needs: its longitude, degrees east; hour systems tied to sunrise and sunset also need latitude and height. */
 export interface ClockSite {
   readonly longitudeDeg: number;
+  readonly latitudeDeg?: number;
+  readonly elevationM?: number;
+}
+
+/** The full site an hour system needs (sunrise and sunset), or an error naming what is missing (a programming error). */
+function fullSite(site: ClockSite): SunSite {
+  if (site.latitudeDeg === undefined) throw new Error('hour systems need the site latitude (ClockSite.latitudeDeg)');
+  return { latitudeDeg: site.latitudeDeg, longitudeDeg: site.longitudeDeg, elevationM: site.elevationM ?? 0 };
 }
 
 /** JD of the Unix epoch 1970-01-01 0h UT (Meeus 1998 ch. 7), to speak to luxon in milliseconds. */
@@ -41,9 +53,22 @@ const MS_PER_DAY = 86400000;
 /** JD of 1847-12-01 0h UT (Gregorian): railway time in Great Britain, the first zone-like civil time (common practice). */
 export const ZONE_TIME_EARLIEST_JD = 2395996.5;
 
-/** Offset of a zone from UT at an instant, minutes (luxon; fractional for local mean time). */
+/**
+ * Offset of a zone from UT at an instant, minutes (fractional for local mean time): before 1970 from
+ * the full IANA history with backzone (src/time/zoneHistory.ts), from 1970 through luxon (ICU).
+ */
 export function zoneOffsetMinutes(zone: string, jdUT: number): number {
+  const historical = historicalOffsetMinutes(zone, Math.floor((jdUT - UNIX_EPOCH_JD) * 86400));
+  if (historical !== null) return historical;
   return DateTime.fromMillis(Math.round((jdUT - UNIX_EPOCH_JD) * MS_PER_DAY), { zone }).offset;
+}
+
+/** True when the zone keeps summer (daylight saving) time at the instant (from 1970: luxon over the runtime's data; before: the history). */
+export function isSummerTimeInZone(zone: string, jdUT: number): boolean {
+  const unixSeconds = Math.floor((jdUT - UNIX_EPOCH_JD) * 86400);
+  const historical = historicalEntry(zone, unixSeconds);
+  if (historical !== null) return historical.summerTime;
+  return DateTime.fromMillis(unixSeconds * 1000, { zone }).isInDST;
 }
 
 /** True when the offset is not a whole quarter hour: the tz database's local mean time entry. */
@@ -66,7 +91,10 @@ export interface ZoneReading {
  */
 export function zoneReading(zone: string, jdUT: number, field = 'clock'): ZoneReading {
   const offsetMinutes = zoneOffsetMinutes(zone, jdUT);
-  const localMeanTime = isLocalMeanTimeOffset(offsetMinutes);
+  // Summer time of a local-mean-time zone (Amsterdam 1909-1940: +1:19:32, then +1:20): judge the standard offset, an hour less.
+  const summerHours = historicalEntry(zone, Math.floor((jdUT - UNIX_EPOCH_JD) * 86400))?.summerTime === true ? 60 : 0;
+  const standardMinutes = offsetMinutes - summerHours;
+  const localMeanTime = isLocalMeanTimeOffset(standardMinutes);
   if (jdUT < ZONE_TIME_EARLIEST_JD && !localMeanTime) {
     throw new UnsupportedError(
       `${field}: zone ${JSON.stringify(zone)} has no time-keeping rule before 1847 (zone time did not exist yet) - ` +
@@ -74,7 +102,7 @@ export function zoneReading(zone: string, jdUT: number, field = 'clock'): ZoneRe
         `or "meridian:<degrees>" for the mean time of a stated meridian`,
     );
   }
-  return { offsetMinutes, localMeanTime, meridianDeg: localMeanTime ? offsetMinutes / 4 : null };
+  return { offsetMinutes, localMeanTime, meridianDeg: localMeanTime ? standardMinutes / 4 : null };
 }
 
 /** Offset of local clock time from UT in days, for the kinds tied to the mean sun or a zone. */
@@ -91,6 +119,10 @@ function localOffsetDays(jdUT: number, clock: ClockKind, site: ClockSite, deltaT
       return site.longitudeDeg / 360 + equationOfTimeMinutes(jdUT, deltaTSeconds) / 1440;
     case 'zone':
       return zoneReading(clock.zone, jdUT).offsetMinutes / 1440;
+    case 'italian':
+    case 'babylonian':
+    case 'unequal':
+      throw new Error(`${clock.kind} hours are not an offset from UT (clock.ts handles them before)`);
   }
 }
 
@@ -106,6 +138,11 @@ const MAX_STEPS = 8;
  * @example clockToJdUT(2451544.5, 720, { kind: 'mean' }, { longitudeDeg: 15 }) // 2451545.0 - 15/360
  */
 export function clockToJdUT(localDayJd0: number, minutesOfDay: number, clock: ClockKind, site: ClockSite, deltaTSeconds?: number): number {
+  if (isHourSystem(clock)) {
+    // The reading names apparent minutes of the day by the day's own sunrise and sunset (src/time/hourSystems.ts).
+    const apparent = hourSystemToApparentMinutes(clock, minutesOfDay, dayFrameOf(clock, localDayJd0, fullSite(site)));
+    return clockToJdUT(localDayJd0, apparent, { kind: 'apparent' }, site, deltaTSeconds);
+  }
   const localJd = localDayJd0 + minutesOfDay / 1440;
   if (clock.kind === 'ut' || clock.kind === 'mean' || clock.kind === 'meridian') {
     return localJd - localOffsetDays(localJd, clock, site);
@@ -146,6 +183,11 @@ export interface ClockReading {
  * @example jdUTToClockMinutes(2451545.0, { kind: 'ut' }, site) // { dayJd0: 2451544.5, minutesOfDay: 720 }
  */
 export function jdUTToClockMinutes(jdUT: number, clock: ClockKind, site: ClockSite, deltaTSeconds?: number): ClockReading {
+  if (isHourSystem(clock)) {
+    const apparent = jdUTToClockMinutes(jdUT, { kind: 'apparent' }, site, deltaTSeconds);
+    const frame = dayFrameOf(clock, apparent.dayJd0, fullSite(site));
+    return { dayJd0: apparent.dayJd0, minutesOfDay: hourSystemReading(clock, apparent.minutesOfDay, frame) };
+  }
   const localJd = jdUT + localOffsetDays(jdUT, clock, site, deltaTSeconds);
   const dayJd0 = Math.floor(localJd - 0.5) + 0.5;
   return { dayJd0, minutesOfDay: (localJd - dayJd0) * 1440 };
@@ -161,7 +203,18 @@ export function formatMinutes(minutesOfDay: number): string {
   return `${String(hh).padStart(2, '0')}:${String(mm).padStart(2, '0')}:${String(ss).padStart(2, '0')}`;
 }
 
-const CLOCK_ALLOWED = 'apparent, mean, meridian:<degrees east, -180 to 180>, zone:<IANA zone name such as Europe/Zurich>, or ut';
+const CLOCK_ALLOWED =
+  'apparent, mean, meridian:<degrees east, -180 to 180>, zone:<IANA zone name such as Europe/Zurich>, ut, ' +
+  'italian (from sunset), italian+<minutes> (from sunset plus minutes), italian:dusk (from the end of civil twilight), babylonian (from sunrise), or unequal (temporal hours)';
+
+/** Italian hours as written: italian, italian+30, italian-15, italian:dusk, italian:dusk+10. */
+function parseItalian(lower: string, field: string, text: string): ClockKind {
+  const match = /^italian(:dusk)?(?:([+-])(\d{1,3}))?$/.exec(lower);
+  if (!match) throw new InvalidInputError(field, text, CLOCK_ALLOWED, 'Italian hours: italian, italian+<minutes after sunset> (0 to 120), or italian:dusk');
+  const offset = match[3] === undefined ? 0 : Number(match[3]) * (match[2] === '-' ? -1 : 1);
+  if (Math.abs(offset) > 120) throw new InvalidInputError(field, text, CLOCK_ALLOWED, 'The offset from sunset is at most 120 minutes either way');
+  return { kind: 'italian', origin: match[1] === undefined ? 'sunset' : 'civil-dusk', offsetMinutes: offset };
+}
 
 /**
  * Read a clock kind from text: `apparent`, `mean`, `meridian:<deg>`, `zone:<IANA>`, `ut`.
@@ -170,7 +223,8 @@ const CLOCK_ALLOWED = 'apparent, mean, meridian:<degrees east, -180 to 180>, zon
 export function parseClockKind(text: string, field: string): ClockKind {
   const t = text.trim();
   const lower = t.toLowerCase();
-  if (lower === 'apparent' || lower === 'mean' || lower === 'ut') return { kind: lower };
+  if (lower === 'apparent' || lower === 'mean' || lower === 'ut' || lower === 'babylonian' || lower === 'unequal') return { kind: lower };
+  if (lower.startsWith('italian')) return parseItalian(lower, field, text);
   if (lower.startsWith('meridian:')) {
     const body = t.slice('meridian:'.length).trim();
     const value = /^[+-]?(\d+(\.\d*)?|\.\d+)$/.test(body) ? Number(body) : NaN;
@@ -196,6 +250,8 @@ export function formatClockKind(clock: ClockKind): string {
       return `meridian:${clock.longitudeDeg}`;
     case 'zone':
       return `zone:${clock.zone}`;
+    case 'italian':
+      return `italian${clock.origin === 'civil-dusk' ? ':dusk' : ''}${clock.offsetMinutes === 0 ? '' : `${clock.offsetMinutes > 0 ? '+' : '-'}${Math.abs(clock.offsetMinutes)}`}`;
     default:
       return clock.kind;
   }
@@ -211,7 +267,11 @@ export function describeClockKind(clock: ClockKind): string {
     case 'meridian':
       return `mean time of the meridian ${Math.abs(clock.longitudeDeg)} deg ${clock.longitudeDeg < 0 ? 'W' : 'E'}`;
     case 'zone':
-      return `zone time ${clock.zone}`;
+      return `zone time ${clock.zone} (${tzDataWords()})`;
+    case 'italian':
+    case 'babylonian':
+    case 'unequal':
+      return describeHourSystem(clock);
     case 'ut':
       return 'Universal Time';
   }

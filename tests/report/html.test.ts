@@ -52,7 +52,7 @@ describe('HTML report', () => {
     }
   });
   it('states the assumptions a reader must weigh', () => {
-    for (const words of ['Site', 'Calendar', 'Time-keeping', 'Delta T', 'Refraction', 'the year begins on 1 January', 'Espenak and Meeus', '960 hPa', 'plan &lt;1820&gt; &amp; survey']) {
+    for (const words of ['Site', 'Calendar', 'Time-keeping', 'Delta T', 'Refraction', 'the year begins on 1 January', 'Morrison, Stephenson, Hohenkerk and Zawilski 2021', '960 hPa', 'plan &lt;1820&gt; &amp; survey']) {
       expect(html).toContain(words);
     }
     expect(html).toContain('Weigh it with the documentary evidence and expert judgement');

@@ -51,7 +51,7 @@ describe('renderDateText', () => {
     expect(c).toBeGreaterThan(a);
     expect(text).toContain('calendar: Gregorian calendar');
     expect(text).toContain('the year begins on 1 January');
-    expect(text).toContain('Espenak and Meeus 2006');
+    expect(text).toContain('Morrison, Stephenson, Hohenkerk and Zawilski 2021 spline');
     expect(text).toContain('refraction by the Bennett / NREL SPA formula for 1010 hPa and 10 C (standard air, the scene states none)');
     expect(text).toContain('documentary evidence and expert judgement');
   });

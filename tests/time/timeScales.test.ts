@@ -23,7 +23,9 @@ describe('UT and TT', () => {
   it('TT - UT is the Delta T of the epoch', () => {
     const jdUT = 2415020.5; // 1900-01-01 0h (Meeus 1998 ch. 7)
     expectClose((jdUTToJdTT(jdUT) - jdUT) * 86400, deltaTSeconds(1900), 1e-4, 'Delta T 1900 (JD resolution 4e-5 s)');
-    expectClose(deltaTAtJdUT(jdUT).sigmaSeconds, 0.1, 1e-9, 'sigma 1900'); // Espenak and Meeus (2006)
+    expectClose(deltaTAtJdUT(jdUT).sigmaSeconds, 0.05, 1e-9, 'sigma 1900'); // Morrison et al. (2021), HMNAO table
+    expectClose(deltaTAtJdUT(jdUT, 'espenak-meeus-2006').sigmaSeconds, 0.1, 1e-9, 'sigma 1900'); // Espenak and Meeus (2006)
+    expectClose((jdUTToJdTT(jdUT, 'espenak-meeus-2006') - jdUT) * 86400, -2.79, 0.01, 'Delta T 1900 by Espenak and Meeus');
   });
   it.each([-1000000, 1000000, 2086302.5, 2299160.5, 2451545, 2816787.5])('round-trips UT -> TT -> UT at JD %d within 1e-8 day', (jdUT) => {
     const back = jdTTToJdUTSolution(jdUTToJdTT(jdUT));
