@@ -183,3 +183,36 @@ export function covarianceFromJacobian(jac: readonly number[][], n: number): num
     return null;
   }
 }
+
+/**
+ * Solution of a small dense linear system A x = b (A n x n given by rows, n up to a few dozen)
+ * by Gaussian elimination with partial pivoting (Press et al., Numerical Recipes 3rd ed. 2007,
+ * section 2.1); plain arrays, no matrix objects. Null when A is singular (a pivot below
+ * 1e-300 or a non-finite result). A and b are left unchanged.
+ * @example solveSmallSystem([[2, 0], [0, 4]], [2, 8]) // [1, 2]
+ */
+export function solveSmallSystem(a: readonly (readonly number[])[], b: readonly number[]): number[] | null {
+  const n = b.length;
+  const m = a.map((row, i) => [...row, b[i]]);
+  for (let col = 0; col < n; col += 1) {
+    let pivot = col;
+    for (let i = col + 1; i < n; i += 1) if (Math.abs(m[i][col]) > Math.abs(m[pivot][col])) pivot = i;
+    if (!(Math.abs(m[pivot][col]) > 1e-300)) return null;
+    if (pivot !== col) [m[pivot], m[col]] = [m[col], m[pivot]];
+    const rowCol = m[col];
+    for (let i = col + 1; i < n; i += 1) {
+      const f = m[i][col] / rowCol[col];
+      if (f === 0) continue;
+      const row = m[i];
+      for (let j = col; j <= n; j += 1) row[j] -= f * rowCol[j];
+    }
+  }
+  const x = new Array<number>(n).fill(0);
+  for (let i = n - 1; i >= 0; i -= 1) {
+    let s = m[i][n];
+    for (let j = i + 1; j < n; j += 1) s -= m[i][j] * x[j];
+    x[i] = s / m[i][i];
+    if (!Number.isFinite(x[i])) return null;
+  }
+  return x;
+}

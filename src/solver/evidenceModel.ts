@@ -146,7 +146,7 @@ function shadowEvidenceOf(o: Observation, i: number): { evidence: ShadowEvidence
   }
 }
 
-const WALL_SHADOW_KINDS = new Set(['rod-shadow', 'overhang-shadow', 'fin-shadow']);
+export const WALL_SHADOW_KINDS: ReadonlySet<string> = new Set(['rod-shadow', 'overhang-shadow', 'fin-shadow']);
 
 /**
  * The evidence model of a scene, leaving out the observations whose ids are in `omit`.

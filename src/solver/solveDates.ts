@@ -28,6 +28,7 @@ import { searchCandidates, type SearchResult } from './search.js';
 import { assumedKind, clockAssumptionLabel, dressCandidate, hhmm, type DressContext } from './candidates.js';
 import { buildFamily, type FamilyMember } from './families.js';
 import { improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
+import { estimatedEntry, estimatedWithoutEach } from './largeScenes.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
 import { jdToCivilDate } from '../calendar/regions.js';
@@ -153,6 +154,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   const model = buildEvidenceModel(scene);
   const win = dayWindowOf(scene);
   const s = solveModel(model, win, opt.chiSquareCutoff, opt.profileScans);
+  let progressSteps = 3; // the search, the consistency test (or the reruns), the answer
   const best = s.kept[0];
   const notes: string[] = [
     'Every candidate is an estimate conditional on the stated assumptions (site, wall azimuths, measurements and their sigmas, what a clock kept); weigh it with the documentary evidence and expert judgement.',
@@ -192,7 +194,17 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     if (status === 'nothing-fits') {
       // Rerun the whole search without each observation (facts and clocks included).
       const entries: LeaveOneOutEntry[] = [];
+      const estimated = estimatedWithoutEach(s, scene, (n, chi, penalty) => penalty <= FACT_PENALTY_LIMIT && chiSquarePValue(chi, n > 2 ? n - 2 : 1) >= NOTHING_FITS_P);
+      progressSteps = 2 + (estimated ? [...estimated.values()].filter((e) => e.rerun).length : scene.observations.length);
+      let done = 1;
+      opt.onProgress?.(done, progressSteps);
       for (const o of scene.observations) {
+        const e = estimated?.get(o.id);
+        if (e && !e.rerun) {
+          entries.push(estimatedEntry(o, e, best.chiSquare, best.objective));
+          continue;
+        }
+        opt.onProgress?.(++done, progressSteps);
         const reduced = buildEvidenceModel(scene, new Set([o.id]));
         const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans);
         const b = sr.kept[0];
@@ -230,6 +242,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         ` The observations in conflict: ${conflictingIds.join(', ')}.` +
         (without.length ? ` ${without.join('; ')}.` : '');
     } else {
+      opt.onProgress?.(1, progressSteps);
       if (opt.consistency && model.measuredCount > 0) {
         const loo = localLeaveOneOut(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
         const entries: LeaveOneOutEntry[] = loo.map((l) => {
@@ -263,6 +276,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
     }
   }
+  opt.onProgress?.(progressSteps - 1, progressSteps);
   const families = familiesOf(s, opt.maxFamilies, opt.perYear);
   const candidates = s.kept.slice(0, opt.maxCandidates).map((raw) => dressed(s, raw));
   return {
