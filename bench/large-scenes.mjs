@@ -11,6 +11,9 @@
  */
 import { largeScene } from './large-scenes-lib.mjs';
 import { solveDates } from '../dist/solver/solveDates.js';
+import { loadavg, cpus } from 'node:os';
+
+console.log(`machine: ${cpus().length} cores, load average ${loadavg()[0].toFixed(1)} at the start (other work on the machine slows every figure below)`);
 
 const sizes = process.argv.slice(2).map(Number).filter((n) => n > 0);
 const ns = sizes.length ? sizes : [10, 100, 1000];

@@ -12,6 +12,9 @@ import { readSceneFile } from '../dist/scene/readScene.js';
 import { rectifyPlane } from '../dist/image/planeInImage.js';
 import { monteCarloPixelObservation } from '../dist/image/pixelObservations.js';
 import { createRandom } from '../dist/math/random.js';
+import { loadavg, cpus } from 'node:os';
+
+console.log(`machine: ${cpus().length} cores, load average ${loadavg()[0].toFixed(1)} at the start (other work on the machine slows every figure below)`);
 
 const root = fileURLToPath(new URL('../', import.meta.url));
 const scene = readSceneFile(`${root}examples/tanners-hall-photo/tanners-hall-photo.yaml`);
