@@ -36,6 +36,7 @@ import { instantOfSolarLongitude, longitudesOfDeclination, lowPrecisionSun, TROP
 import { parabola, solarStateOnTrack, type SunTrack } from './sunModel.js';
 import type { StageAMinimum } from './stageA.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
+import { jdToCivilDate } from '../calendar/regions.js';
 
 /** Years between representative years in a long window. */
 export const REP_SPACING = 50;
@@ -146,8 +147,35 @@ function chooseDay(win: DayWindow, dHat: number, cdd: number): { day: number; fa
     if (best !== null && k > 1 && win.weekday === null) break;
   }
   if (best !== null) return { day: best, far: false };
-  for (let k = Math.ceil(reach) + 1; k <= FAR_SNAP_DAYS; k += 1) {
-    for (const day of [centre - k, centre + k]) if (isDayAllowed(win, day)) return { day, far: true };
+  // The nearest allowed day on each side (the earlier one on a tie, as a day-by-day search would find).
+  const before = farDistance(win, centre, Math.ceil(reach) + 1, -1);
+  const after = farDistance(win, centre, Math.ceil(reach) + 1, 1);
+  if (before === null && after === null) return null;
+  if (after === null || (before !== null && before <= after)) return { day: centre - (before as number), far: true };
+  return { day: centre + after, far: true };
+}
+
+/**
+ * Distance (days, from `from` up to FAR_SNAP_DAYS) of the nearest allowed day on one side of
+ * `centre`, or null. A day in a month the window leaves out is passed over with the rest of its
+ * month at once (the skipped days checked to be of that same month: a civil month is one run of
+ * days, even across a calendar switch), instead of one day at a time.
+ */
+function farDistance(win: DayWindow, centre: number, from: number, side: -1 | 1): number | null {
+  let k = from;
+  while (k <= FAR_SNAP_DAYS) {
+    const day = centre + side * k;
+    if (isDayAllowed(win, day)) return k;
+    let step = 1;
+    if (win.months !== null && day >= win.firstDayJd0 && day <= win.lastDayJd0) {
+      const civil = jdToCivilDate(win.calendar, day + 0.5).civil;
+      if (!win.months.has(civil.month)) {
+        const skip = side < 0 ? civil.day : Math.max(1, 29 - civil.day); // days 1..d, or d..28, are of this month
+        const end = jdToCivilDate(win.calendar, day + side * (skip - 1) + 0.5).civil;
+        if (skip > 1 && end.month === civil.month && end.year === civil.year) step = skip;
+      }
+    }
+    k += step;
   }
   return null;
 }
