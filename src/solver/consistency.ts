@@ -48,6 +48,10 @@ export interface LocalRefit {
  */
 export const EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS = 20;
 
+/** Added to the consistency rule of a large scene, so that the answer says how its figures were found. */
+export const ESTIMATED_RULE_TEXT =
+  `; with more than ${EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS} observations the chi-square without each is estimated from the full fit (its rows taken out of the normal equations, then one Gauss-Newton step on the same day), not refitted`;
+
 /** Chi-square without one observation, estimated at one fitted point. */
 export interface EstimatedWithout {
   /** Chi-square (measured and priors) plus soft penalty without the observation. */

@@ -27,7 +27,7 @@ import { buildEvidenceModel, type EvidenceModel } from './evidenceModel.js';
 import { searchCandidates, type SearchResult } from './search.js';
 import { assumedKind, clockAssumptionLabel, dressCandidate, hhmm, type DressContext } from './candidates.js';
 import { buildFamily, type FamilyMember } from './families.js';
-import { improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
+import { ESTIMATED_RULE_TEXT, EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS, improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
 import { estimatedEntry, estimatedWithoutEach } from './largeScenes.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
@@ -231,7 +231,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       if (conflictingIds.length === 0) {
         conflictingIds = [...entries].sort((a, b) => b.improvement - a.improvement).slice(0, 2).map((e) => e.observationId);
       }
-      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named`, entries, flaggedIds: conflictingIds };
+      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named${estimated ? `${ESTIMATED_RULE_TEXT}; the search is rerun in full only for the observations named` : ''}`, entries, flaggedIds: conflictingIds };
       const violated = bestC.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
       const without = entries
         .filter((e) => conflictingIds.includes(e.observationId) && e.bestWithout)
@@ -263,7 +263,8 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
                 : `${l.observationId} agrees with the rest (leaving it out lowers chi-square by ${Math.max(0, improvement).toFixed(2)}, p = ${pv.toPrecision(2)})`,
           };
         });
-        consistency = { ...consistency, entries, flaggedIds: entries.filter((e) => e.flagged).map((e) => e.observationId) };
+        const estimatedRule = scene.observations.length > EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS ? ESTIMATED_RULE_TEXT : '';
+        consistency = { ...consistency, rule: `${consistency.rule}${estimatedRule}`, entries, flaggedIds: entries.filter((e) => e.flagged).map((e) => e.observationId) };
       }
       // Count families as they are listed (a track split at a calendar switch is two families).
       const trackCount = new Set(s.kept.map((c) => c.trackKey)).size;

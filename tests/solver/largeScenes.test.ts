@@ -94,6 +94,7 @@ describe('the leave-one-out estimate of a large scene', () => {
       expect(answer.consistency.entries.find((e) => e.observationId === id)?.bestWithout).toBeDefined();
     }
     expect(answer.consistency.entries.length).toBe(100);
+    expect(answer.consistency.rule).toContain('estimated from the full fit');
     expect(calls.length).toBeGreaterThan(1);
     calls.forEach(([done, total], i) => {
       expect(done).toBeLessThanOrEqual(total);
