@@ -14,7 +14,7 @@ import { renderSkyChart } from '../charts/skyChart.js';
 import { residualChartData, renderResidualChart } from '../charts/residualChart.js';
 import { checkOutputPath, deliver, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
-import { progressLine } from './progress.js';
+import { progressLine, withProgressLine } from './progress.js';
 import { CHART_KINDS, type ChartKind, type ChartOptions } from './chartSpec.js';
 
 /** The kind option, validated. */
@@ -45,7 +45,7 @@ export async function run(args: readonly string[], options: ChartOptions, io: Cl
   const kind = parseChartKind(options.kind);
   const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
-  const answer = solveDates(scene);
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => solveDates(scene, { onProgress }));
   const progress = progressLine(io, 'drawing the date and hour map');
   let svg: string;
   try {

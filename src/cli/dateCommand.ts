@@ -14,7 +14,7 @@ import { dateAnswerJson, stableJson } from '../report/json.js';
 import { dateAnswerCsv } from '../report/csv.js';
 import { writeOutputFile, type CliIo } from './io.js';
 import type { DateOptions } from './dateSpec.js';
-import { progressLine } from './progress.js';
+import { withProgressLine } from './progress.js';
 
 /** Read the scene file; a message about its content is prefixed with the file's path. */
 export function readSceneForCommand(path: string, io: CliIo, seed?: number): { scene: Scene; fullPath: string } {
@@ -76,13 +76,7 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
   if (options.json && options.csv) throw new InvalidInputError('--csv', '--json --csv', 'one output form: --json or --csv, not both');
   const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
-  const progress = progressLine(io, 'searching the window');
-  let answer;
-  try {
-    answer = inScene(scenePath, () => solveDates(scene, { perYear: options.allYears, onProgress: progress.onProgress }));
-  } finally {
-    progress.finish();
-  }
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { perYear: options.allYears, onProgress })));
   const text = options.json
     ? stableJson(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }))
     : options.csv

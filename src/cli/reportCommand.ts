@@ -12,7 +12,7 @@ import { renderHtmlReport } from '../report/html.js';
 import { drawChart } from './chartCommand.js';
 import { checkOutputPath, deliver, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
-import { progressLine } from './progress.js';
+import { progressLine, withProgressLine } from './progress.js';
 import type { ReportOptions } from './reportSpec.js';
 
 /** A command-line word, quoted when it holds anything but plain path characters. */
@@ -40,7 +40,7 @@ export async function run(args: readonly string[], options: ReportOptions, io: C
   const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   const bytes = readFileSync(fullPath);
-  const answer = solveDates(scene);
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => solveDates(scene, { onProgress }));
   const progress = progressLine(io, 'drawing the date and hour map');
   let charts;
   try {
