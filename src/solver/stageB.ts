@@ -210,7 +210,6 @@ interface FarFit {
   readonly rest: readonly [number, number, number][];
   readonly objective: readonly [number, number, number];
   readonly equationOfTimeMinutes: number;
-  readonly iterations: number;
 }
 
 interface Track {
@@ -320,7 +319,6 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           rest: fits[0].x.slice(1).map((_, i) => [fits[0].x[i + 1], fits[1].x[i + 1], fits[2].x[i + 1]] as [number, number, number]),
           objective: [fits[0].lm.chiSquare, fits[1].lm.chiSquare, fits[2].lm.chiSquare],
           equationOfTimeMinutes: fits[1].point.state.equationOfTimeMinutes,
-          iterations: fits[1].iterations,
         };
         list.push(f);
         farFits.set(rep, list);
