@@ -16,7 +16,7 @@
  * duplicates, points outside the picture) are in planeInImage.ts; the numerical
  * core here only refuses a near-singular system (fitHomography).
  */
-import { smallSvd } from '../math/smallSvd.js';
+import { smallestRightVector, smallSvd } from '../math/smallSvd.js';
 import { InvalidInputError } from '../errors.js';
 
 /** A 3 x 3 projective map, row-major: [h11, h12, h13, h21, ..., h33]. */
@@ -120,11 +120,19 @@ export function fitHomographyDlt(
     a.set([0, 0, 0, -X, -Y, -1, y * X, y * Y, y], 18 * i);
     a.set([X, Y, 1, 0, 0, 0, -x * X, -x * Y, -x], 18 * i + 9);
   }
-  const svd = smallSvd(a, rows, 9); // src/math/smallSvd.ts: QR, then one-sided Jacobi
-  const hTilde = svd.rightVectors[8];
+  // The null vector by inverse iteration on the QR triangle; the singular values (for the
+  // condition number) only when asked, by the full small SVD (src/math/smallSvd.ts).
+  const hTilde = smallestRightVector(a, rows, 9);
   // H&Z Algorithm 4.2 (iii): H = T'^-1 H~ T
   const matrix = normaliseScale(composeHomographies(invertHomography(tPrime), composeHomographies(hTilde, t)));
-  return { matrix, singularValues: svd.singularValues };
+  let singularValues: readonly number[] | undefined;
+  return {
+    matrix,
+    get singularValues(): readonly number[] {
+      singularValues ??= smallSvd(a, rows, 9).singularValues;
+      return singularValues;
+    },
+  };
 }
 
 /** Reprojection residuals of a fit: |H source_i - destination_i|. */

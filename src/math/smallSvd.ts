@@ -29,7 +29,76 @@ export interface SmallSvd {
  * @example smallSvd(Float64Array.from([3, 0, 0, 4]), 2, 2).singularValues // [4, 3]
  */
 export function smallSvd(a: ArrayLike<number>, m: number, n: number): SmallSvd {
-  // Householder QR, column by column; r holds the working copy (row-major m x n).
+  const r = triangularFactor(a, m, n);
+  // Columns of the n x n triangle, column-major for the rotations.
+  const u = new Float64Array(n * n);
+  for (let i = 0; i < n; i += 1) for (let j = i; j < n; j += 1) u[j * n + i] = r[i * n + j];
+  const v = new Float64Array(n * n);
+  for (let j = 0; j < n; j += 1) v[j * n + j] = 1;
+  let frobenius2 = 0;
+  for (let k = 0; k < n * n; k += 1) frobenius2 += u[k] * u[k];
+  // A pair is orthogonal when |gamma| is below 1e-15 of its own scale, or below 1e-30 of the whole
+  // matrix's (columns of a rank-deficient matrix shrink to rounding noise, whose angles never settle).
+  const negligible = 1e-30 * frobenius2;
+  let sweeps = 0;
+  let converged = false;
+  while (sweeps < MAX_SWEEPS && !converged) {
+    sweeps += 1;
+    converged = true;
+    for (let p = 0; p < n - 1; p += 1) {
+      const pn = p * n;
+      for (let q = p + 1; q < n; q += 1) {
+        const qn = q * n;
+        let alpha = 0;
+        let beta = 0;
+        let gamma = 0;
+        for (let i = 0; i < n; i += 1) {
+          const up = u[pn + i];
+          const uq = u[qn + i];
+          alpha += up * up;
+          beta += uq * uq;
+          gamma += up * uq;
+        }
+        if (Math.abs(gamma) <= 1e-15 * Math.sqrt(alpha * beta) || Math.abs(gamma) <= negligible) continue;
+        converged = false;
+        // Rotation that makes columns p and q orthogonal (Golub and Van Loan, Algorithm 8.5.1, sym.schur2).
+        const zeta = (beta - alpha) / (2 * gamma);
+        const t = (zeta >= 0 ? 1 : -1) / (Math.abs(zeta) + Math.sqrt(1 + zeta * zeta));
+        const c = 1 / Math.sqrt(1 + t * t);
+        const s = c * t;
+        for (let i = 0; i < n; i += 1) {
+          const up = u[pn + i];
+          const uq = u[qn + i];
+          u[pn + i] = c * up - s * uq;
+          u[qn + i] = s * up + c * uq;
+          const vp = v[pn + i];
+          const vq = v[qn + i];
+          v[pn + i] = c * vp - s * vq;
+          v[qn + i] = s * vp + c * vq;
+        }
+      }
+    }
+  }
+  const order = Array.from({ length: n }, (_, j) => j);
+  const norms = order.map((j) => {
+    let s = 0;
+    for (let i = 0; i < n; i += 1) s += u[j * n + i] * u[j * n + i];
+    return Math.sqrt(s);
+  });
+  order.sort((x, y) => norms[y] - norms[x]);
+  return {
+    singularValues: order.map((j) => norms[j]),
+    rightVectors: order.map((j) => Array.from(v.subarray(j * n, j * n + n))),
+    converged,
+    sweeps,
+  };
+}
+
+/**
+ * The n x n upper triangle R of A = QR by Householder reflections (Golub and Van Loan, section 5.2),
+ * row-major in an m x n array whose rows below n are zero; `a` (m x n, row-major) is left unchanged.
+ */
+function triangularFactor(a: ArrayLike<number>, m: number, n: number): Float64Array {
   const r = Float64Array.from(a as ArrayLike<number>);
   for (let k = 0; k < n; k += 1) {
     let norm = 0;
@@ -51,64 +120,52 @@ export function smallSvd(a: ArrayLike<number>, m: number, n: number): SmallSvd {
     r[k * n + k] = alpha;
     for (let i = k + 1; i < m; i += 1) r[i * n + k] = 0;
   }
-  // Columns of the n x n triangle, column-major for the rotations.
-  const u = new Float64Array(n * n);
-  for (let i = 0; i < n; i += 1) for (let j = i; j < n; j += 1) u[j * n + i] = r[i * n + j];
-  const v = new Float64Array(n * n);
-  for (let j = 0; j < n; j += 1) v[j * n + j] = 1;
-  let frobenius2 = 0;
-  for (let k = 0; k < n * n; k += 1) frobenius2 += u[k] * u[k];
-  // A pair is orthogonal when |gamma| is below 1e-15 of its own scale, or below 1e-30 of the whole
-  // matrix's (columns of a rank-deficient matrix shrink to rounding noise, whose angles never settle).
-  const negligible = 1e-30 * frobenius2;
-  let sweeps = 0;
-  let converged = false;
-  while (sweeps < MAX_SWEEPS && !converged) {
-    sweeps += 1;
-    converged = true;
-    for (let p = 0; p < n - 1; p += 1) {
-      for (let q = p + 1; q < n; q += 1) {
-        let alpha = 0;
-        let beta = 0;
-        let gamma = 0;
-        for (let i = 0; i < n; i += 1) {
-          const up = u[p * n + i];
-          const uq = u[q * n + i];
-          alpha += up * up;
-          beta += uq * uq;
-          gamma += up * uq;
-        }
-        if (Math.abs(gamma) <= 1e-15 * Math.sqrt(alpha * beta) || Math.abs(gamma) <= negligible) continue;
-        converged = false;
-        // Rotation that makes columns p and q orthogonal (Golub and Van Loan, Algorithm 8.5.1, sym.schur2).
-        const zeta = (beta - alpha) / (2 * gamma);
-        const t = (zeta >= 0 ? 1 : -1) / (Math.abs(zeta) + Math.sqrt(1 + zeta * zeta));
-        const c = 1 / Math.sqrt(1 + t * t);
-        const s = c * t;
-        for (let i = 0; i < n; i += 1) {
-          const up = u[p * n + i];
-          const uq = u[q * n + i];
-          u[p * n + i] = c * up - s * uq;
-          u[q * n + i] = s * up + c * uq;
-          const vp = v[p * n + i];
-          const vq = v[q * n + i];
-          v[p * n + i] = c * vp - s * vq;
-          v[q * n + i] = s * vp + c * vq;
-        }
-      }
+  return r;
+}
+
+/** Most steps of the inverse iteration in smallestRightVector before it gives way to the full SVD. */
+export const MAX_INVERSE_STEPS = 30;
+
+/**
+ * The right singular vector of the smallest singular value of A (m x n, m >= n): the least-squares
+ * null vector, as the normalised DLT needs. Inverse iteration on R^T R with the triangle R of A = QR
+ * (two triangular solves a step; Golub and Van Loan, section 8.2.2; it converges by the squared ratio
+ * of the two smallest singular values a step, in one or two steps for a homography fit). When it has
+ * not settled to 1e-15 in MAX_INVERSE_STEPS steps (two nearly equal smallest singular values) the
+ * vector of smallSvd is returned. Sign: as it comes (callers normalise).
+ */
+export function smallestRightVector(a: ArrayLike<number>, m: number, n: number): number[] {
+  const r = triangularFactor(a, m, n);
+  let scale = 0;
+  for (let i = 0; i < n; i += 1) scale = Math.max(scale, Math.abs(r[i * n + i]));
+  const floor = 1e-300 + 1e-30 * scale; // a zero pivot (an exact null vector) made tiny, not zero
+  const x = new Float64Array(n).fill(1 / Math.sqrt(n));
+  const y = new Float64Array(n);
+  for (let step = 0; step < MAX_INVERSE_STEPS; step += 1) {
+    // R^T y = x (forward), then R z = y (back), z into y.
+    for (let i = 0; i < n; i += 1) {
+      let s = x[i];
+      for (let k = 0; k < i; k += 1) s -= r[k * n + i] * y[k];
+      const d = Math.abs(r[i * n + i]) < floor ? (r[i * n + i] < 0 ? -floor : floor) : r[i * n + i];
+      y[i] = s / d;
     }
+    for (let i = n - 1; i >= 0; i -= 1) {
+      let s = y[i];
+      for (let k = i + 1; k < n; k += 1) s -= r[i * n + k] * y[k];
+      const d = Math.abs(r[i * n + i]) < floor ? (r[i * n + i] < 0 ? -floor : floor) : r[i * n + i];
+      y[i] = s / d;
+    }
+    let norm = 0;
+    for (let i = 0; i < n; i += 1) norm += y[i] * y[i];
+    norm = Math.sqrt(norm);
+    if (!(norm > 0) || !Number.isFinite(norm)) break;
+    let dot = 0;
+    for (let i = 0; i < n; i += 1) {
+      y[i] /= norm;
+      dot += y[i] * x[i];
+    }
+    x.set(y);
+    if (1 - Math.abs(dot) <= 1e-15) return Array.from(x);
   }
-  const order = Array.from({ length: n }, (_, j) => j);
-  const norms = order.map((j) => {
-    let s = 0;
-    for (let i = 0; i < n; i += 1) s += u[j * n + i] * u[j * n + i];
-    return Math.sqrt(s);
-  });
-  order.sort((x, y) => norms[y] - norms[x]);
-  return {
-    singularValues: order.map((j) => norms[j]),
-    rightVectors: order.map((j) => Array.from(v.subarray(j * n, j * n + n))),
-    converged,
-    sweeps,
-  };
+  return [...smallSvd(a, m, n).rightVectors[n - 1]];
 }

@@ -4,7 +4,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import { Matrix, SingularValueDecomposition } from 'ml-matrix';
-import { smallSvd } from '../../src/math/smallSvd.js';
+import { smallestRightVector, smallSvd } from '../../src/math/smallSvd.js';
 import { createRandom } from '../../src/math/random.js';
 import { expectClose } from '../helpers/expectClose.js';
 
@@ -47,6 +47,21 @@ describe('smallSvd', () => {
     for (let i = 0; i < 8; i += 1) {
       const r = s.rightVectors[8].reduce((sum, v, j) => sum + v * a[i * 9 + j], 0);
       expectClose(r, 0, 1e-13, `row ${i} times the null vector`);
+    }
+  });
+
+  it('smallestRightVector agrees with the last right vector of ml-matrix, also with two nearly equal smallest singular values', () => {
+    const rng = createRandom(29);
+    for (let trial = 0; trial < 200; trial += 1) {
+      const m = 9 + Math.floor(rng.uniform() * 12);
+      const a = Array.from({ length: m * 9 }, () => rng.normal());
+      if (trial % 4 === 0) for (let i = 0; i < m; i += 1) a[i * 9 + 8] = a[i * 9] - a[i * 9 + 3]; // rank 8
+      if (trial % 4 === 1) for (let i = 0; i < m; i += 1) for (const j of [7, 8]) a[i * 9 + j] *= 1e-6; // two small, close values
+      const ours = smallestRightVector(a, m, 9);
+      const ref = new SingularValueDecomposition(new Matrix(Array.from({ length: m }, (_, i) => a.slice(i * 9, i * 9 + 9))));
+      const refLast = Array.from({ length: 9 }, (_, i) => ref.rightSingularVectors.get(i, 8));
+      const dot = refLast.reduce((sum, v, i) => sum + v * ours[i], 0);
+      expectClose(Math.abs(dot), 1, 1e-9, `smallest right vector, trial ${trial}`);
     }
   });
 });
