@@ -16,7 +16,7 @@ import { residualChartData, renderResidualChart } from '../charts/residualChart.
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
-import { progressLine } from './progress.js';
+import { progressLine, withProgressLine } from './progress.js';
 import { ALL_CHARTS, CHART_KINDS, type ChartKind, type ChartOptions } from './chartSpec.js';
 
 /** The kind option, validated: one chart, or all three. */
@@ -62,7 +62,7 @@ export async function run(args: readonly string[], options: ChartOptions, io: Cl
     // Every file is checked before any work, so that a refusal leaves nothing written.
     const files = chartFileNames(options.output, scenePath).map((f) => ({ ...f, target: checkOutputPath(f.file, options.force, fullPath, io) }));
     const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
-    const answer = inScene(scenePath, () => solveDates(scene));
+    const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { onProgress })));
     for (const f of files) {
       const progress = progressLine(io, `drawing the ${f.kind} chart`);
       let svg: string;
@@ -78,7 +78,7 @@ export async function run(args: readonly string[], options: ChartOptions, io: Cl
   const target = checkOutputPath(options.output, options.force, fullPath, io);
   // Pixel observations turned into numbers once, as date and check do (src/image/resolvePixels.ts).
   const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
-  const answer = inScene(scenePath, () => solveDates(scene));
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { onProgress })));
   const progress = progressLine(io, 'drawing the date and hour map');
   let svg: string;
   try {

@@ -20,6 +20,7 @@ import { dateAnswerJson, stableJson } from '../report/json.js';
 import { dateAnswerCsv } from '../report/csv.js';
 import { checkOutputTarget, writeOutputFile, type CliIo } from './io.js';
 import type { DateOptions } from './dateSpec.js';
+import { withProgressLine } from './progress.js';
 
 /** Read the scene file; a message about its content is prefixed with the file's path. */
 export function readSceneForCommand(path: string, io: CliIo, seed?: number, deltaT?: DeltaTModel): { scene: Scene; fullPath: string } {
@@ -119,7 +120,7 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
   if (options.json && options.csv) throw new InvalidInputError('--csv', '--json --csv', 'one output form: --json or --csv, not both');
   const { scene, fullPath } = readSceneForCommand(scenePath, io, options.seed, options.deltaT);
   const target = checkOutputPath(options.output, options.force, fullPath, io);
-  const answer = inScene(scenePath, () => solveDates(scene, { perYear: options.allYears }));
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { perYear: options.allYears, onProgress })));
   // A disputed calendar switch in the window: solve under every published reading (src/solver/calendarReadings.ts).
   const readings = inScene(scenePath, () => calendarReadings(scene, answer, (s) => solveDates(s, { perYear: options.allYears })));
   const sameLight = options.sameLightIn === undefined || options.zone === undefined ? null : sameLightOfFamilies(answer, scene, options.sameLightIn, options.zone);

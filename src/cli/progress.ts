@@ -36,3 +36,16 @@ export function progressLine(io: CliIo, label: string): Progress {
     },
   };
 }
+
+/**
+ * Run `work` with a progress line (see progressLine), finished however the work ends.
+ * @example const answer = withProgressLine(io, 'searching the window', (onProgress) => solveDates(scene, { onProgress }));
+ */
+export function withProgressLine<T>(io: CliIo, label: string, work: (onProgress: ((done: number, total: number) => void) | undefined) => T): T {
+  const progress = progressLine(io, label);
+  try {
+    return work(progress.onProgress);
+  } finally {
+    progress.finish();
+  }
+}

@@ -13,7 +13,7 @@ import { drawChart } from './chartCommand.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
-import { progressLine } from './progress.js';
+import { progressLine, withProgressLine } from './progress.js';
 import type { ReportOptions } from './reportSpec.js';
 
 /** A command-line word, quoted when it holds anything but plain path characters. */
@@ -44,7 +44,7 @@ export async function run(args: readonly string[], options: ReportOptions, io: C
   // Pixel observations turned into numbers once, as date and check do (src/image/resolvePixels.ts).
   const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
   const bytes = readFileSync(fullPath);
-  const answer = inScene(scenePath, () => solveDates(scene));
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { onProgress })));
   const progress = progressLine(io, 'drawing the date and hour map');
   let charts;
   try {

@@ -41,6 +41,19 @@ function betaPartials(sun: SunDirection, wallAzimuthDeg: number): PartialsRow {
 }
 
 /**
+ * How far, in degrees, the sun must move for the fact to hold (0 when it holds; see header):
+ * the soft penalty's residual times its tolerance, without partials or labels (for the solver's
+ * inner loop).
+ * @example lightFactViolationDeg('sun-up', { azimuthDeg: 90, altitudeDeg: -1 }) // 1
+ */
+export function lightFactViolationDeg(fact: LightFact, sun: SunDirection, wallAzimuthDeg = 0): number {
+  if (fact === 'sun-up') return Math.max(0, -sun.altitudeDeg);
+  const betaDeg = sunElevationAboveWallDeg(sun, wallAzimuthDeg);
+  const lowest = betaDeg < sun.altitudeDeg ? betaDeg : sun.altitudeDeg;
+  return Math.max(0, (fact === 'wall-lit' ? -1 : 1) * lowest);
+}
+
+/**
  * The soft penalty of a fact (see header); toleranceDeg > 0.
  * @example lightFactResidual('sun-up', { azimuthDeg: 90, altitudeDeg: -1 }).residuals // [2]
  */
@@ -53,16 +66,14 @@ export function lightFactResidual(
   const labels = [`${fact} (soft, tolerance ${toleranceDeg} deg)`];
   const defined = isLightFactTrue(fact, sun, wallAzimuthDeg);
   const note = 'zero when the fact holds';
+  const v = lightFactViolationDeg(fact, sun, wallAzimuthDeg);
   if (fact === 'sun-up') {
-    const v = Math.max(0, -sun.altitudeDeg);
     return { residuals: [v / toleranceDeg], partials: [[0, v > 0 ? -1 / toleranceDeg : 0, 0]], labels, defined, note };
   }
   const betaDeg = sunElevationAboveWallDeg(sun, wallAzimuthDeg);
   const useBeta = betaDeg < sun.altitudeDeg;
-  const lowest = useBeta ? betaDeg : sun.altitudeDeg;
   const dLowest: PartialsRow = useBeta ? betaPartials(sun, wallAzimuthDeg) : [0, 1, 0];
   const sign = fact === 'wall-lit' ? -1 : 1;
-  const v = Math.max(0, sign * lowest);
   const scale = v > 0 ? sign / toleranceDeg : 0;
   return {
     residuals: [v / toleranceDeg],

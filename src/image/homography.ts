@@ -16,7 +16,7 @@
  * duplicates, points outside the picture) are in planeInImage.ts; the numerical
  * core here only refuses a near-singular system (fitHomography).
  */
-import { Matrix, SingularValueDecomposition } from 'ml-matrix';
+import { smallestRightVector, smallSvd } from '../math/smallSvd.js';
 import { InvalidInputError } from '../errors.js';
 
 /** A 3 x 3 projective map, row-major: [h11, h12, h13, h21, ..., h33]. */
@@ -112,21 +112,27 @@ export function fitHomographyDlt(
   // With n = 4 the system is 8 x 9; a zero row makes it square so that the
   // SVD returns all nine right singular vectors (the null vector included).
   const rows = Math.max(2 * n, 9);
-  const a = new Matrix(rows, 9);
+  const a = new Float64Array(rows * 9);
   for (let i = 0; i < n; i++) {
     const [X, Y] = applyHomography(t, source[i]);
     const [x, y] = applyHomography(tPrime, destination[i]);
     // H&Z eq. (4.3) with w = w' = 1: rows [0^T, -x^T, y' x^T] and [x^T, 0^T, -x' x^T]
-    a.setRow(2 * i, [0, 0, 0, -X, -Y, -1, y * X, y * Y, y]);
-    a.setRow(2 * i + 1, [X, Y, 1, 0, 0, 0, -x * X, -x * Y, -x]);
+    a.set([0, 0, 0, -X, -Y, -1, y * X, y * Y, y], 18 * i);
+    a.set([X, Y, 1, 0, 0, 0, -x * X, -x * Y, -x], 18 * i + 9);
   }
-  const svd = new SingularValueDecomposition(a, { computeLeftSingularVectors: false });
-  const v = svd.rightSingularVectors;
-  const hTilde: number[] = [];
-  for (let r = 0; r < 9; r++) hTilde.push(v.get(r, 8));
+  // The null vector by inverse iteration on the QR triangle; the singular values (for the
+  // condition number) only when asked, by the full small SVD (src/math/smallSvd.ts).
+  const hTilde = smallestRightVector(a, rows, 9);
   // H&Z Algorithm 4.2 (iii): H = T'^-1 H~ T
   const matrix = normaliseScale(composeHomographies(invertHomography(tPrime), composeHomographies(hTilde, t)));
-  return { matrix, singularValues: svd.diagonal };
+  let singularValues: readonly number[] | undefined;
+  return {
+    matrix,
+    get singularValues(): readonly number[] {
+      singularValues ??= smallSvd(a, rows, 9).singularValues;
+      return singularValues;
+    },
+  };
 }
 
 /** Reprojection residuals of a fit: |H source_i - destination_i|. */

@@ -7,12 +7,13 @@
  * accept the step if chi2 falls (lambda /= 10), else reject it (lambda *= 10).
  * Bounds by projection of each trial point onto the box (common practice for small
  * problems). Jacobian: the caller's, or central differences (Numerical Recipes 3rd ed.,
- * section 5.7) with the caller's steps. Linear algebra: ml-matrix (LU solve, inverse).
+ * section 5.7) with the caller's steps. Linear algebra: solveSmallSystem below (the LU solve of
+ * JAMA and ml-matrix on plain arrays), ml-matrix for the covariance's inverse.
  * Bounded: at most maxIterations accepted or rejected steps; the result says whether it
  * converged (relative fall of chi2 below `tolerance` on an accepted step with a small step,
  * or no further fall possible with lambda at its ceiling) and how many iterations it took.
  */
-import { Matrix, solve, inverse } from 'ml-matrix';
+import { Matrix, inverse } from 'ml-matrix';
 
 export interface LeastSquaresProblem {
   /** Residuals at x (already divided by their sigmas). */
@@ -120,16 +121,9 @@ export function levenbergMarquardt(
   let converged = false;
   while (iterations < maxIterations) {
     iterations += 1;
-    const a = new Matrix(jtj.map((row, i) => row.map((v, j) => (i === j ? v + lambda * (v > 0 ? v : 1e-12) : v))));
-    let dx: number[];
-    try {
-      dx = solve(a, Matrix.columnVector(jtr.map((v) => -v))).to1DArray();
-    } catch {
-      lambda *= 10;
-      if (lambda > LAMBDA_CEILING) break;
-      continue;
-    }
-    if (dx.some((v) => !Number.isFinite(v))) {
+    const a = jtj.map((row, i) => row.map((v, j) => (i === j ? v + lambda * (v > 0 ? v : 1e-12) : v)));
+    const dx = solveSmallSystem(a, jtr.map((v) => -v));
+    if (dx === null) {
       lambda *= 10;
       if (lambda > LAMBDA_CEILING) break;
       continue;
@@ -182,4 +176,46 @@ export function covarianceFromJacobian(jac: readonly number[][], n: number): num
   } catch {
     return null;
   }
+}
+
+/**
+ * Solution of a small dense linear system A x = b (A n x n given by rows, n up to a few dozen)
+ * by LU decomposition with partial pivoting, in the left-looking (Crout/Doolittle, dot-product)
+ * order of JAMA's LUDecomposition (Hicklin, Moler, Webb et al., NIST and MathWorks 1998), the
+ * order ml-matrix follows, so that the result is the same to the last bit (Press et al.,
+ * Numerical Recipes 3rd ed. 2007, section 2.3 on the method). Plain arrays, no matrix objects.
+ * Null when A is singular (a zero pivot) or the result is not finite. A and b are left unchanged.
+ * @example solveSmallSystem([[2, 0], [0, 4]], [2, 8]) // [1, 2]
+ */
+export function solveSmallSystem(a: readonly (readonly number[])[], b: readonly number[]): number[] | null {
+  const n = b.length;
+  const lu = a.map((row) => row.slice());
+  const piv = Array.from({ length: n }, (_, i) => i);
+  const col = new Array<number>(n);
+  for (let j = 0; j < n; j += 1) {
+    for (let i = 0; i < n; i += 1) col[i] = lu[i][j];
+    for (let i = 0; i < n; i += 1) {
+      const row = lu[i];
+      const kmax = Math.min(i, j);
+      let s = 0;
+      for (let k = 0; k < kmax; k += 1) s += row[k] * col[k];
+      col[i] -= s;
+      row[j] = col[i];
+    }
+    let p = j;
+    for (let i = j + 1; i < n; i += 1) if (Math.abs(col[i]) > Math.abs(col[p])) p = i;
+    if (p !== j) {
+      [lu[p], lu[j]] = [lu[j], lu[p]];
+      [piv[p], piv[j]] = [piv[j], piv[p]];
+    }
+    if (lu[j][j] !== 0) for (let i = j + 1; i < n; i += 1) lu[i][j] /= lu[j][j];
+  }
+  for (let j = 0; j < n; j += 1) if (lu[j][j] === 0) return null;
+  const x = piv.map((i) => b[i]);
+  for (let k = 0; k < n; k += 1) for (let i = k + 1; i < n; i += 1) x[i] -= x[k] * lu[i][k];
+  for (let k = n - 1; k >= 0; k -= 1) {
+    x[k] /= lu[k][k];
+    for (let i = 0; i < k; i += 1) x[i] -= x[k] * lu[i][k];
+  }
+  return x.every(Number.isFinite) ? x : null;
 }

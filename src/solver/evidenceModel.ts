@@ -21,7 +21,7 @@ import { predictHourSystemClock } from './hourSystemPrediction.js';
 import { InvalidInputError } from '../errors.js';
 import type { ClockKind, Observation, Scene } from '../scene/types.js';
 import { evidenceResiduals, predictEvidence, type ShadowEvidence } from '../geometry/observationModels.js';
-import { lightFactResidual, type LightFact } from '../geometry/lightFacts.js';
+import { lightFactViolationDeg, type LightFact } from '../geometry/lightFacts.js';
 import { horizontalShadowAngleDeg } from '../geometry/shadowAngles.js';
 import type { SolverSunDirection } from './sunModel.js';
 
@@ -148,7 +148,7 @@ function shadowEvidenceOf(o: Observation, i: number): { evidence: ShadowEvidence
   }
 }
 
-const WALL_SHADOW_KINDS = new Set(['rod-shadow', 'overhang-shadow', 'fin-shadow']);
+export const WALL_SHADOW_KINDS: ReadonlySet<string> = new Set(['rod-shadow', 'overhang-shadow', 'fin-shadow']);
 
 /**
  * The evidence model of a scene, leaving out the observations whose ids are in `omit`.
@@ -308,7 +308,7 @@ export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationCont
 
 /** Soft residual of one fact (0 when it holds). */
 export function factResidual(model: EvidenceModel, f: FactTerm, ctx: EvaluationContext): number {
-  return lightFactResidual(f.fact, ctx.sun, wallAzimuthOf(model, f.wallId, ctx.nuisances), FACT_TOLERANCE_DEG).residuals[0];
+  return lightFactViolationDeg(f.fact, ctx.sun, wallAzimuthOf(model, f.wallId, ctx.nuisances)) / FACT_TOLERANCE_DEG; // = lightFactResidual(...).residuals[0]
 }
 
 /** Split of a residual vector into chi-square (measured + priors) and the soft penalty (facts). */

@@ -22,6 +22,8 @@ export interface SearchResult {
   readonly fullRefinements: number;
   readonly mappedYears: number;
   readonly evaluations: number;
+  /** Calls of the full ephemeris (sunPosition) made by the search: three per sun track, one per verified candidate. */
+  readonly sunEvaluations: number;
 }
 
 /**
@@ -65,6 +67,7 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchRe
   let fullRefinements = 0;
   let mappedYears = 0;
   let evaluations = 0;
+  let sunEvaluations = 0;
   assumptions.forEach((a, i) => {
     const kind = assumedKind(a);
     let zoneOffset: (zone: string) => number;
@@ -81,8 +84,9 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchRe
     fullRefinements += sb.fullRefinements;
     mappedYears += sb.mappedYears;
     evaluations += sb.ephemerisCalls;
+    sunEvaluations += sb.ephemerisCalls;
     all.push(...sb.candidates);
   });
   all.sort((x, y) => x.objective - y.objective);
-  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations };
+  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations, sunEvaluations };
 }

@@ -34,7 +34,8 @@ import { assumedKind, dressCandidate, hhmm, type DressContext } from './candidat
 import { buildFamily, joinKeepings, type FamilyContext, type FamilyMember } from './families.js';
 import { evidenceFixesDayAndHour, freedomOf, undeterminedVerdict } from './freedom.js';
 import { turnedAzimuthScene, turnedAzimuthWords } from './turnedAzimuths.js';
-import { improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
+import { ESTIMATED_RULE_TEXT, EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS, improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
+import { estimatedEntry, estimatedWithoutEach } from './largeScenes.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
 import { jdToCivilDate } from '../calendar/regions.js';
@@ -188,6 +189,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   const model = buildEvidenceModel(scene);
   const win = dayWindowOf(scene);
   const s = solveModel(model, win, opt.chiSquareCutoff, opt.profileScans);
+  let progressSteps = 3; // the search, the consistency test (or the reruns), the answer
   const best = s.kept[0];
   const notes: string[] = [
     'Every candidate is an estimate conditional on the stated assumptions (site, wall azimuths, measurements and their sigmas, what a clock kept); weigh it with the documentary evidence and expert judgement.',
@@ -232,7 +234,17 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     if (status === 'nothing-fits') {
       // Rerun the whole search without each observation (facts and clocks included).
       const entries: LeaveOneOutEntry[] = [];
+      const estimated = estimatedWithoutEach(s, scene, (n, chi, penalty) => penalty <= FACT_PENALTY_LIMIT && chiSquarePValue(chi, n > 2 ? n - 2 : 1) >= NOTHING_FITS_P);
+      progressSteps = 2 + (estimated ? [...estimated.values()].filter((e) => e.rerun).length : scene.observations.length);
+      let done = 1;
+      opt.onProgress?.(done, progressSteps);
       for (const o of scene.observations) {
+        const e = estimated?.get(o.id);
+        if (e && !e.rerun) {
+          entries.push(estimatedEntry(o, e, best.chiSquare, best.objective));
+          continue;
+        }
+        opt.onProgress?.(++done, progressSteps);
         const reduced = buildEvidenceModel(scene, new Set([o.id]));
         const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans);
         const b = sr.kept[0];
@@ -259,7 +271,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       if (conflictingIds.length === 0) {
         conflictingIds = [...entries].sort((a, b) => b.improvement - a.improvement).slice(0, 2).map((e) => e.observationId);
       }
-      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named`, entries, flaggedIds: conflictingIds };
+      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named${estimated ? `${ESTIMATED_RULE_TEXT}; the search is rerun in full only for the observations named` : ''}`, entries, flaggedIds: conflictingIds };
       const violated = bestC.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
       const without = entries
         .filter((e) => conflictingIds.includes(e.observationId) && e.bestWithout)
@@ -276,6 +288,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       verdict = undeterminedVerdict(freedom, candidates, windowText, model, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
       notes.push('The evidence does not fix the day and the hour: the candidates are examples along a curve of equally good fits, and their families are not separate answers.');
     } else {
+      opt.onProgress?.(1, progressSteps);
       if (opt.consistency && model.measuredCount > 0) {
         const loo = localLeaveOneOut(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
         const entries: LeaveOneOutEntry[] = loo.map((l) => {
@@ -296,7 +309,8 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
                 : `${l.observationId} agrees with the rest (leaving it out lowers chi-square by ${Math.max(0, improvement).toFixed(2)}, p = ${pv.toPrecision(2)})`,
           };
         });
-        consistency = { ...consistency, entries, flaggedIds: entries.filter((e) => e.flagged).map((e) => e.observationId) };
+        const estimatedRule = scene.observations.length > EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS ? ESTIMATED_RULE_TEXT : '';
+        consistency = { ...consistency, rule: `${consistency.rule}${estimatedRule}`, entries, flaggedIds: entries.filter((e) => e.flagged).map((e) => e.observationId) };
       }
       // Count families as they are listed (a light split at a calendar switch is two families).
       const famCount = allFamilies.length;
@@ -320,6 +334,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       }
     }
   }
+  opt.onProgress?.(progressSteps - 1, progressSteps);
   const top = families[0];
   return {
     sceneTitle: scene.title,

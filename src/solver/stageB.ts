@@ -33,9 +33,10 @@ import {
   type DatedPoint,
 } from './fitting.js';
 import { instantOfSolarLongitude, longitudesOfDeclination, lowPrecisionSun, TROPICAL_YEAR_DAYS } from './seasons.js';
-import { solarStateOnTrack, type SunTrack } from './sunModel.js';
+import { parabola, solarStateOnTrack, type SunTrack } from './sunModel.js';
 import type { StageAMinimum } from './stageA.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
+import { jdToCivilDate } from '../calendar/regions.js';
 
 /** Years between representative years in a long window. */
 export const REP_SPACING = 50;
@@ -146,8 +147,35 @@ function chooseDay(win: DayWindow, dHat: number, cdd: number): { day: number; fa
     if (best !== null && k > 1 && win.weekday === null) break;
   }
   if (best !== null) return { day: best, far: false };
-  for (let k = Math.ceil(reach) + 1; k <= FAR_SNAP_DAYS; k += 1) {
-    for (const day of [centre - k, centre + k]) if (isDayAllowed(win, day)) return { day, far: true };
+  // The nearest allowed day on each side (the earlier one on a tie, as a day-by-day search would find).
+  const before = farDistance(win, centre, Math.ceil(reach) + 1, -1);
+  const after = farDistance(win, centre, Math.ceil(reach) + 1, 1);
+  if (before === null && after === null) return null;
+  if (after === null || (before !== null && before <= after)) return { day: centre - (before as number), far: true };
+  return { day: centre + after, far: true };
+}
+
+/**
+ * Distance (days, from `from` up to FAR_SNAP_DAYS) of the nearest allowed day on one side of
+ * `centre`, or null. A day in a month the window leaves out is passed over with the rest of its
+ * month at once (the skipped days checked to be of that same month: a civil month is one run of
+ * days, even across a calendar switch), instead of one day at a time.
+ */
+function farDistance(win: DayWindow, centre: number, from: number, side: -1 | 1): number | null {
+  let k = from;
+  while (k <= FAR_SNAP_DAYS) {
+    const day = centre + side * k;
+    if (isDayAllowed(win, day)) return k;
+    let step = 1;
+    if (win.months !== null && day >= win.firstDayJd0 && day <= win.lastDayJd0) {
+      const civil = jdToCivilDate(win.calendar, day + 0.5).civil;
+      if (!win.months.has(civil.month)) {
+        const skip = side < 0 ? civil.day : Math.max(1, 29 - civil.day); // days 1..d, or d..28, are of this month
+        const end = jdToCivilDate(win.calendar, day + side * (skip - 1) + 0.5).civil;
+        if (skip > 1 && end.month === civil.month && end.year === civil.year) step = skip;
+      }
+    }
+    k += step;
   }
   return null;
 }
@@ -161,6 +189,27 @@ function conditionalRest(x: readonly number[], cov: number[][] | null, day: numb
   // A near-singular fit can predict absurd shifts; then keep the optimum's values.
   if (!moved.every(Number.isFinite) || Math.abs(moved[0] - rest[0]) > 240 || moved.slice(1).some((v, i) => Math.abs(v - rest[i + 1]) > 20)) return rest;
   return moved;
+}
+
+interface Continuous {
+  readonly x: number[];
+  readonly objective: number;
+  /** The representative year whose fit (ellipse, context) the year shares. */
+  readonly rep: RepresentativeFit;
+  readonly mapped: boolean;
+  /** The representative years around the year and the weight of the later one. */
+  readonly lo: RepresentativeFit;
+  readonly hi: RepresentativeFit;
+  readonly w: number;
+}
+
+/** On-day fits of a representative year at three neighbouring far days (offsets centreOffset - 1, centreOffset, centreOffset + 1 from its optimum). */
+interface FarFit {
+  readonly centreOffset: number;
+  /** Each component of (minute, nuisances) at the three days. */
+  readonly rest: readonly [number, number, number][];
+  readonly objective: readonly [number, number, number];
+  readonly equationOfTimeMinutes: number;
 }
 
 interface Track {
@@ -230,9 +279,9 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
       const repList = [...reps.values()].sort((a, b) => a.cycle - b.cycle);
 
       /** Continuous optimum of cycle k: its own fit, or mapped from the representatives around it. */
-      const continuousOf = (k: number): { x: number[]; objective: number; rep: RepresentativeFit; mapped: boolean } => {
+      const continuousOf = (k: number): Continuous => {
         const own = reps.get(k);
-        if (own) return { x: own.fit.x, objective: own.objective, rep: own, mapped: false };
+        if (own) return { x: own.fit.x, objective: own.objective, rep: own, mapped: false, lo: own, hi: own, w: 0 };
         let lo = repList[0];
         let hi = repList[repList.length - 1];
         for (const r of repList) {
@@ -250,7 +299,45 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           return i === 0 ? mixed + k * TROPICAL_YEAR_DAYS : mixed;
         });
         const objective = lo.objective + w * (hi.objective - lo.objective);
-        return { x, objective, rep: w < 0.5 ? lo : hi, mapped: true };
+        return { x, objective, rep: w < 0.5 ? lo : hi, mapped: true, lo, hi, w };
+      };
+
+      // Far days (the restrictions exclude the optimum's neighbourhood) of the representative years,
+      // fitted on three neighbouring days each, once: the far days of the other years are mapped
+      // from them like their optima (one full-ephemeris evaluation each), not refitted one by one.
+      const farFits = new Map<RepresentativeFit, FarFit[]>();
+      const farFitOf = (rep: RepresentativeFit, offset: number): FarFit => {
+        const list = farFits.get(rep) ?? [];
+        const hit = list.find((f) => Math.abs(f.centreOffset - offset) <= 1.5);
+        if (hit) return hit;
+        const centreDay = nearestDayJd0(rep.fit.x[0] + offset);
+        const context = newDatedContext(model, assumed, centreDay + rep.fit.x[1] / 1440);
+        const fits = [centreDay - 1, centreDay, centreDay + 1].map((d) => refineOnDay(context, d, rep.fit.x.slice(1)));
+        ephemerisCalls += context.ephemerisCalls;
+        const f: FarFit = {
+          centreOffset: centreDay - rep.fit.x[0],
+          rest: fits[0].x.slice(1).map((_, i) => [fits[0].x[i + 1], fits[1].x[i + 1], fits[2].x[i + 1]] as [number, number, number]),
+          objective: [fits[0].lm.chiSquare, fits[1].lm.chiSquare, fits[2].lm.chiSquare],
+          equationOfTimeMinutes: fits[1].point.state.equationOfTimeMinutes,
+        };
+        list.push(f);
+        farFits.set(rep, list);
+        return f;
+      };
+      /** A mapped year's far day: (minute, nuisances) and chi-square interpolated from the representative years around it. */
+      const mappedFarDay = (c: Continuous, day: number): { rest: number[]; objective: number; equationOfTimeMinutes: number } => {
+        const offset = day - c.x[0];
+        const at = (f: FarFit) => ({
+          rest: f.rest.map((v) => parabola(v, offset - f.centreOffset)),
+          objective: parabola(f.objective, offset - f.centreOffset),
+        });
+        const lo = at(farFitOf(c.lo, offset));
+        const hi = at(farFitOf(c.hi, offset));
+        return {
+          rest: lo.rest.map((v, i) => v + c.w * (hi.rest[i] - v)),
+          objective: lo.objective + c.w * (hi.objective - lo.objective),
+          equationOfTimeMinutes: farFitOf(c.rep, offset).equationOfTimeMinutes,
+        };
       };
 
       for (const k of cycles) {
@@ -261,13 +348,28 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
         if (chosen === null) continue;
         let day = chosen.day;
         let rest = conditionalRest(c.x, rep.covariance, day);
-        let point: DatedPoint;
-        let sun: SunPosition;
+        let point: DatedPoint | undefined;
+        let sun: SunPosition | undefined;
         let iterations = 0;
         let converged = true;
         let mapped = c.mapped;
         let atWindowEdge = chosen.far;
-        if (!c.mapped || chosen.far) {
+        let farMapped = false;
+        if (c.mapped && chosen.far) {
+          const m = mappedFarDay(c, day);
+          const ex = exactPoint(model, assumed, rep.context.site, day, m.rest[0], m.rest.slice(1), m.equationOfTimeMinutes);
+          ephemerisCalls += 1;
+          // Verified like the other mapped years: kept unless it fits worse than predicted by more than max(2, 20%).
+          if (objectiveOf(model, ex.point.residuals).objective <= m.objective + Math.max(2, 0.2 * m.objective)) {
+            ({ point, sun } = ex);
+            rest = m.rest;
+            farMapped = true;
+            mappedYears += 1;
+          }
+        }
+        if (farMapped) {
+          // mapped from the representative years' far days, verified above
+        } else if (!c.mapped || chosen.far) {
           if (chosen.far) rest = c.x.slice(1);
           const onDay = refineOnDay(rep.context, day, rest);
           iterations = rep.fit.iterations + onDay.iterations;
@@ -300,7 +402,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
             // The mapping did not hold: refine this year in full.
             const own = fitCycle(k, c.x);
             reps.set(k, own);
-            c = { x: own.fit.x, objective: own.objective, rep: own, mapped: false };
+            c = { x: own.fit.x, objective: own.objective, rep: own, mapped: false, lo: own, hi: own, w: 0 };
             rep = own;
             mapped = false;
             mappedYears -= 1;
@@ -316,6 +418,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
             ephemerisCalls += 1;
           }
         }
+        if (!point || !sun) continue; // not reached: every branch above evaluates the candidate
         const o = objectiveOf(model, point.residuals);
         out.push({
           assumptionIndex,
@@ -343,9 +446,15 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
   });
 
   // One candidate per civil day and hour (within 5 minutes) and assumption: keep the best.
+  // Keyed by day, so that each candidate is compared only with those kept on its own day.
   const kept: RawCandidate[] = [];
+  const keptByDay = new Map<number, RawCandidate[]>();
   for (const c of [...out].sort((a, b) => a.objective - b.objective)) {
-    if (!kept.some((k) => k.dayJd0 === c.dayJd0 && Math.abs(k.apparentMinutes - c.apparentMinutes) < 5)) kept.push(c);
+    const sameDay = keptByDay.get(c.dayJd0);
+    if (sameDay?.some((k) => Math.abs(k.apparentMinutes - c.apparentMinutes) < 5)) continue;
+    kept.push(c);
+    if (sameDay) sameDay.push(c);
+    else keptByDay.set(c.dayJd0, [c]);
   }
   return { candidates: kept, fullRefinements, mappedYears, ephemerisCalls };
 }

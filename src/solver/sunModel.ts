@@ -103,7 +103,7 @@ export function pointSunTrack(jdUT: number, site: SunSite, deltaTModel?: DeltaTM
 }
 
 /** Interpolating parabola through three equidistant values at u = -1, 0, 1 (Meeus 1998, eq. 3.3). */
-function parabola(v: readonly [number, number, number], u: number): number {
+export function parabola(v: readonly [number, number, number], u: number): number {
   const a = v[1] - v[0];
   const b = v[2] - v[1];
   return v[1] + (u / 2) * (a + b + u * (b - a));

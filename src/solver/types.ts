@@ -350,6 +350,8 @@ export interface SolveOptions {
    * runs only) leaves `profile` absent; `method` still says 'profile-scan' and `invalidReason` why.
    */
   readonly profileScans?: boolean;
+  /** Called as the work advances (done of total steps: the search, each rerun, the answer); for progress lines. */
+  readonly onProgress?: (done: number, total: number) => void;
 }
 
 /** Diagnostics of the search, for the curious and for the bench. */
