@@ -4,7 +4,7 @@
  * src/scene, src/solver and src/report; the validation of the options is here.
  */
 import { resolve } from 'node:path';
-import { HeliochronError, InvalidInputError } from '../errors.js';
+import { HeliochronError, InvalidInputError, quoteValue } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
 import type { Scene } from '../scene/types.js';
 import { readSceneFile } from '../scene/readScene.js';
@@ -24,7 +24,7 @@ export function readSceneForCommand(path: string, io: CliIo, seed?: number): { s
   } catch (error) {
     if (error instanceof InvalidInputError) {
       // Messages name the path in the file; say which file, as the user wrote its name.
-      const message = error.message.split(fullPath).join(path);
+      const message = error.message.split(quoteValue(fullPath)).join(quoteValue(path)).split(fullPath).join(path);
       throw new HeliochronError('invalid-input', message.startsWith(path) ? message : `${path}: ${message}`);
     }
     throw error;
