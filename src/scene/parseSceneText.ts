@@ -257,11 +257,13 @@ export function parseSceneTextWithLines(text: string, fileName: string): ParsedS
     const offset = INDENT_CODES.has(problem.code) ? misindentedLineStart(body, problem.pos[0]) : problem.pos[0];
     const plain = problem.code === 'MULTIPLE_DOCS' && /^\.\.\.[ \t]*(#.*)?$/m.test(body) ? DOCUMENT_END : PLAIN_WORDS[problem.code];
     const message = problem.message.split('\n')[0].replace(/ at line \d+, column \d+:?$/, '');
+    const noticed = lineColumn(body, problem.pos[0]).replace(/, column \d+$/, '');
+    const moved = noticed !== lineColumn(body, offset).replace(/, column \d+$/, '');
     throw new InvalidInputError(
       `${fileName} (${lineColumn(body, offset)})`,
       lineAt(body, offset),
       plain?.allowed ?? 'well-formed YAML or JSON',
-      plain?.detail ?? `${message}.`,
+      plain?.detail ?? `${message}.${moved ? ` This line is indented unlike any other (the parser noticed the break on ${noticed}).` : ''}`,
     );
   }
 
