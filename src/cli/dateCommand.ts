@@ -8,9 +8,8 @@ import type { SunSite } from '../ephemeris/sunPosition.js';
 import type { DateAnswer } from '../solver/types.js';
 import { calendarReadings, calendarReadingsLines, type CalendarReadings } from '../solver/calendarReadings.js';
 import type { DeltaTModel } from '../time/deltaT.js';
-import { existsSync } from 'node:fs';
-import { dirname, resolve } from 'node:path';
-import { HeliochronError, InvalidInputError, OutputError } from '../errors.js';
+import { resolve } from 'node:path';
+import { HeliochronError, InvalidInputError, quoteValue } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
 import type { Scene } from '../scene/types.js';
 import { readSceneFile } from '../scene/readScene.js';
@@ -32,7 +31,7 @@ export function readSceneForCommand(path: string, io: CliIo, seed?: number, delt
   } catch (error) {
     if (error instanceof InvalidInputError) {
       // Messages name the path in the file; say which file, as the user wrote its name.
-      const message = error.message.split(fullPath).join(path);
+      const message = error.message.split(quoteValue(fullPath)).join(quoteValue(path)).split(fullPath).join(path);
       throw new HeliochronError('invalid-input', message.startsWith(path) ? message : `${path}: ${message}`);
     }
     throw error;

@@ -5,9 +5,8 @@
  * the `yaml` package with the core schema only. Refused, each with a message
  * naming the file: files over MAX_SCENE_BYTES, binary content (NUL and other
  * control characters, undecodable bytes), nesting deeper than MAX_NESTING_DEPTH
- * (measured on the parser's syntax tree before any value is built, so that no deep
- * recursion can start),
- * YAML tags of any kind (`!!js/function`, `!foo`, `!!binary`), keys that are
+ * (measured on the parser's own tokens before any value is built, so that no deep
+ * recursion can start: see tooDeep), YAML tags of any kind (`!!js/function`, `!foo`, `!!binary`), keys that are
  * not plain text, duplicate keys, more than one document, YAML directives, and
  * alias expansion beyond MAX_ALIAS_COUNT (the "billion laughs" pattern).
  */
@@ -225,11 +224,11 @@ export function parseSceneTextWithLines(text: string, fileName: string): ParsedS
   if (body.trim() === '') {
     throw new InvalidInputError(fileName, '', 'a scene: a YAML or JSON map starting with "heliochron: 1"', 'The file is empty.');
   }
-  const estimate = tooDeep(body, MAX_NESTING_DEPTH);
-  if (estimate !== undefined) {
+  const deep = tooDeep(body, MAX_NESTING_DEPTH);
+  if (deep !== undefined) {
     throw new InvalidInputError(
-      `${fileName} (${lineColumn(body, estimate.offset)})`,
-      `nesting ${estimate.depth} levels deep`,
+      `${fileName} (${lineColumn(body, deep.offset)})`,
+      `nesting ${deep.depth} levels deep`,
       `lists and maps nested at most ${MAX_NESTING_DEPTH} levels deep`,
     );
   }
@@ -258,11 +257,13 @@ export function parseSceneTextWithLines(text: string, fileName: string): ParsedS
     const offset = INDENT_CODES.has(problem.code) ? misindentedLineStart(body, problem.pos[0]) : problem.pos[0];
     const plain = problem.code === 'MULTIPLE_DOCS' && /^\.\.\.[ \t]*(#.*)?$/m.test(body) ? DOCUMENT_END : PLAIN_WORDS[problem.code];
     const message = problem.message.split('\n')[0].replace(/ at line \d+, column \d+:?$/, '');
+    const noticed = lineColumn(body, problem.pos[0]).replace(/, column \d+$/, '');
+    const moved = noticed !== lineColumn(body, offset).replace(/, column \d+$/, '');
     throw new InvalidInputError(
       `${fileName} (${lineColumn(body, offset)})`,
       lineAt(body, offset),
       plain?.allowed ?? 'well-formed YAML or JSON',
-      plain?.detail ?? `${message}.`,
+      plain?.detail ?? `${message}.${moved ? ` This line is indented unlike any other (the parser noticed the break on ${noticed}).` : ''}`,
     );
   }
 

@@ -15,9 +15,12 @@ import { sniffPicture } from '../../src/cli/pictureFile.js';
 import { quoteValue } from '../../src/errors.js';
 import { readSceneText } from '../../src/scene/readScene.js';
 import { graphemeLength, shortenText } from '../../src/textUnits.js';
+import { parse } from 'yaml';
+import { schemaViolation } from '../scene/miniSchema.js';
 import { cli, STACK_LINE, tempDir, velmar, writeScene } from './robustHelpers.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+const SCHEMA = JSON.parse(readFileSync(join(ROOT, 'docs/scene.schema.json'), 'utf8'));
 /** Any C0 or C1 control character or DEL except the final line feed of a message. */
 const RAW_CONTROL = /[\u0000-\u0009\u000b-\u001f\u007f-\u009f]/;
 const LONE_SURROGATE = /[\ud800-\udbff](?![\udc00-\udfff])|(?<![\ud800-\udbff])[\udc00-\udfff]/;
@@ -198,8 +201,16 @@ describe("image.file stays in the scene's folder", () => {
     it(`refuses ${JSON.stringify(file)}`, () => {
       const text = `heliochron: 1\ntitle: T\nsite: { latitudeDeg: 47.62, longitudeDeg: 9.35 }\ncalendar: gregorian\nwindow: { fromYear: 1760, toYear: 1770 }\nimage: { widthPx: 100, heightPx: 80, file: ${JSON.stringify(file)} }\nwalls: [{ id: w, azimuthDeg: 135, azimuthSigmaDeg: 1 }]\nobservations: [{ id: b, kind: rod-shadow, wall: w, slopeDeg: 49, side: left, sigmaDeg: 1.5 }]\n`;
       expect(() => readSceneText(text, 'pic.yaml')).toThrow(/image\.file: .* is not allowed; expected a file name relative to the scene file's folder/);
+      expect(schemaViolation(SCHEMA, parse(text))).toMatch(/image\.file/);
     });
   }
+  it('accepts a picture beside the scene or in a folder inside it, as the JSON Schema does', () => {
+    for (const file of ['hall.png', 'pictures/hall.jpg', 'hall..v2.png']) {
+      const text = `heliochron: 1\ntitle: T\nsite: { latitudeDeg: 47.62, longitudeDeg: 9.35 }\ncalendar: gregorian\nwindow: { fromYear: 1760, toYear: 1770 }\nimage: { widthPx: 100, heightPx: 80, file: ${JSON.stringify(file)} }\nwalls: [{ id: w, azimuthDeg: 135, azimuthSigmaDeg: 1 }]\nobservations: [{ id: b, kind: rod-shadow, wall: w, slopeDeg: 49, side: left, sigmaDeg: 1.5 }]\n`;
+      expect(readSceneText(text, 'pic.yaml').image?.file).toBe(file);
+      expect(schemaViolation(SCHEMA, parse(text))).toBeNull();
+    }
+  });
 });
 
 describe('the output path is checked before the work', () => {
