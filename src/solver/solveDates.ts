@@ -31,7 +31,7 @@ import { formatYearBcAd } from '../calendar/format.js';
 import { buildEvidenceModel, type EvidenceModel } from './evidenceModel.js';
 import { searchCandidates, type SearchResult } from './search.js';
 import { assumedKind, dressCandidate, hhmm, type DressContext } from './candidates.js';
-import { buildFamily, joinKeepings, type FamilyContext, type FamilyMember } from './families.js';
+import { buildFamily, joinKeepings, SAME_MINUTES, YEARS_ALIKE_DELTA_CHI2, type FamilyContext, type FamilyMember } from './families.js';
 import { evidenceFixesDayAndHour, freedomOf, undeterminedVerdict } from './freedom.js';
 import { turnedAzimuthScene, turnedAzimuthWords } from './turnedAzimuths.js';
 import { ESTIMATED_RULE_TEXT, EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS, improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
@@ -238,6 +238,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       progressSteps = 2 + (estimated ? [...estimated.values()].filter((e) => e.rerun).length : scene.observations.length);
       let done = 1;
       opt.onProgress?.(done, progressSteps);
+      const withoutWords = new Map<string, string>();
       for (const o of scene.observations) {
         const e = estimated?.get(o.id);
         if (e && !e.rerun) {
@@ -252,6 +253,8 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         const rows = model.measuredCount - reduced.measuredCount;
         const improvement = b ? best.objective - b.objective : 0;
         const bestWithout = b ? dressed(sr, b) : undefined;
+        // In words as the verdict names an answer: the family's days and years, a single year only when singled out.
+        if (bestWithout) withoutWords.set(o.id, `${familiesOf(sr, false)[0].headline} (chi-square ${bestWithout.chiSquare.toFixed(2)}, ${bestWithout.pValue === null ? 'no degrees of freedom left' : `p = ${bestWithout.pValue.toPrecision(2)}`})`);
         entries.push({
           observationId: o.id,
           observationKind: o.kind,
@@ -275,7 +278,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       const violated = bestC.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
       const without = entries
         .filter((e) => conflictingIds.includes(e.observationId) && e.bestWithout)
-        .map((e) => `without ${e.observationId} the best fit is ${describeCandidate(e.bestWithout!)}`);
+        .map((e) => `without ${e.observationId} the best fit is ${withoutWords.get(e.observationId) ?? describeCandidate(e.bestWithout!)}`);
       turnedAzimuths = turnedAzimuthHint(scene, win, opt.chiSquareCutoff);
       verdict =
         `Nothing fits: no date and hour in ${windowText} agree with all the observations` +
@@ -284,6 +287,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         ` The observations in conflict: ${conflictingIds.join(', ')}.` +
         (without.length ? ` ${capitalised(without.join('; '))}.` : '');
     } else if (status === 'undetermined') {
+      opt.onProgress?.(1, progressSteps);
       freedom = freedomOf(model);
       verdict = undeterminedVerdict(freedom, candidates, windowText, model, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
       notes.push('The evidence does not fix the day and the hour: the candidates are examples along a curve of equally good fits, and their families are not separate answers.');
@@ -325,6 +329,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       verdict =
         (status === 'fits' ? 'The evidence fits.' : `The best fit is marginal (p = ${pj.toPrecision(2)}): treat every candidate with caution.`) +
         ` Best: ${top.headline}${top.clockAssumption.kind === 'none' ? '' : `, ${top.clockAssumptionLabel}`}; chi-square ${best.chiSquare.toFixed(2)}, ${pText}.` +
+        sameLightElsewhere(top, families) +
         ` ${famCount} famil${famCount === 1 ? 'y' : 'ies'} of candidates${renamed} in ${windowText}.` +
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
       if (!top.yearsTold.singledOut && top.yearsTold.alikeYears.length > 1) {
@@ -363,6 +368,17 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     },
     seed: scene.seed,
   };
+}
+
+/**
+ * The same light as the best family named in the other calendar (a window across a calendar switch):
+ * families of the other calendar at the same hour (within SAME_MINUTES) that fit as well (within 3.841).
+ */
+function sameLightElsewhere(top: CandidateFamily, families: readonly CandidateFamily[]): string {
+  const same = families.filter(
+    (f) => f !== top && f.calendar !== top.calendar && Math.abs(f.fromLocalApparentMinutes - top.fromLocalApparentMinutes) <= SAME_MINUTES && f.bestChiSquare <= top.bestChiSquare + YEARS_ALIKE_DELTA_CHI2,
+  );
+  return same.length ? ` The same light in the other calendar: ${same.map((f) => f.headline).join('; ')}.` : '';
 }
 
 /** When nothing fits: the best fit with every stated azimuth turned by 180 deg, if that fits. */
