@@ -52,9 +52,12 @@ function proposalText(p: Proposal): string {
     case 'day':
       return p.timeMinutes !== undefined ? `${dayText(p.day)} at ${hhmm(p.timeMinutes)}` : dayText(p.day);
     case 'range':
-      return `${dayText(p.from)} to ${dayText(p.to)}`;
-    case 'season':
-      return `${p.months.map((m) => MONTH_NAMES[m - 1]).join(', ')}${p.fromYear !== undefined ? ` of ${yearSpan(p.fromYear, p.toYear ?? p.fromYear)}` : ''}`;
+      return `A date from ${dayText(p.from)} to ${dayText(p.to)}`;
+    case 'season': {
+      const names = p.months.map((m) => MONTH_NAMES[m - 1]);
+      const months = names.length > 1 ? `${names.slice(0, -1).join(', ')} or ${names[names.length - 1]}` : names[0];
+      return `A date in ${months}${p.fromYear !== undefined ? ` of ${yearSpan(p.fromYear, p.toYear ?? p.fromYear)}` : ''}`;
+    }
   }
 }
 
