@@ -418,6 +418,7 @@ export function checkAnswerJson(answer: CheckAnswer, scene: Scene, version: stri
       : null,
     best: answer.best ? candidateJson(answer.best, scene) : null,
     globalBest: answer.globalBest ? candidateJson(answer.globalBest, scene) : null,
+    globalHeadline: answer.globalHeadline ?? null,
     deltaChiSquareToGlobal: roundOrNull(answer.deltaChiSquareToGlobal, DIGITS.chiSquare),
     assumptions: assumptionsJson(scene, [], answer.best ?? answer.globalBest),
     seed: scene.seed,

@@ -309,6 +309,7 @@ export function renderCheckText(answer: CheckAnswer, scene: Scene): string {
   if (answer.globalBest) {
     out.push(`Best fit anywhere in the window: ${candidateLine(answer.globalBest, scene)}`);
     out.push(`  chi2 ${fixed(answer.globalBest.chiSquare, 2)}, p ${pText(answer.globalBest.pValue)}`);
+    if (answer.globalHeadline) out.push(`  the same light on: ${answer.globalHeadline}`);
   }
   if (answer.overall) out.push(`Fit of the evidence as a whole: ${answer.overall.words}`);
   if (answer.best) {

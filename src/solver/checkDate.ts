@@ -34,7 +34,7 @@ import { lowPrecisionSun } from './seasons.js';
 import { exactPoint, type RawCandidate, type RepresentativeFit } from './stageB.js';
 import { assumedKind, countWords, dressCandidate, hhmm } from './candidates.js';
 import { dayWindowOf, type DayWindow } from './window.js';
-import { candidateDayWords, describeCandidate, judgeFit, solveDates, FACT_PENALTY_LIMIT, NOTHING_FITS_P, MARGINAL_P } from './solveDates.js';
+import { candidateDayWords, judgeFit, solveDates, FACT_PENALTY_LIMIT, NOTHING_FITS_P, MARGINAL_P } from './solveDates.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 
@@ -303,7 +303,10 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
           : ` On its own: chi-square ${absolute.chiSquare.toFixed(2)}, with no degrees of freedom left to judge it.`;
     }
     if (overall && (overall.weak || global.freedom)) verdictText += ` Apart from the proposal: ${overall.words}.`;
-    if (globalBest) verdictText += ` The best fit anywhere in the window: ${describeCandidate(globalBest)}.`;
+    if (globalBest) {
+      const p = globalBest.pValue === null ? 'no degrees of freedom left' : `p = ${globalBest.pValue.toPrecision(2)}`;
+      verdictText += ` The best fit anywhere in the window: ${global.headline ?? candidateDayWords(globalBest)} (chi-square ${globalBest.chiSquare.toFixed(2)}, ${p}).`;
+    }
   }
   return {
     sceneTitle: scene.title,
@@ -315,6 +318,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
     degreesOfFreedom: absolute ? absolute.degreesOfFreedom : Math.max(0, model.measuredCount - fittedInside(proposal)),
     pValue: absolute ? absolute.pValue : null,
     globalBest,
+    globalHeadline: global.headline,
     deltaChiSquareToGlobal: candidate && globalBest ? candidate.chiSquare + candidate.softPenalty - (globalBest.chiSquare + globalBest.softPenalty) : null,
     absolute,
     relative,

@@ -291,6 +291,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       freedom = freedomOf(model);
       verdict = undeterminedVerdict(freedom, candidates, windowText, model, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
       notes.push('The evidence does not fix the day and the hour: the candidates are examples along a curve of equally good fits, and their families are not separate answers.');
+      consistency = { ...consistency, rule: `${consistency.rule}; not run here: the evidence does not fix the day and the hour, so leaving an observation out tests nothing` };
     } else {
       opt.onProgress?.(1, progressSteps);
       if (opt.consistency && model.measuredCount > 0) {

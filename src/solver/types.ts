@@ -473,6 +473,8 @@ export interface CheckAnswer {
   readonly pValue: number | null;
   /** The unrestricted best fit in the scene's window, for comparison. */
   readonly globalBest: Candidate | null;
+  /** The best family in the window in words (its headline: a single year only when the evidence singles it out). */
+  readonly globalHeadline: string | null;
   /** best.chiSquare - globalBest.chiSquare (penalties included). */
   readonly deltaChiSquareToGlobal: number | null;
   /** The proposal's own fit; null without a fit. */

@@ -185,6 +185,7 @@ export function checkAnswer(over: Partial<CheckAnswer> = {}): CheckAnswer {
     degreesOfFreedom: 3,
     pValue: 0.023,
     globalBest,
+    globalHeadline: '29-30 July (Gregorian), any year 1765-1785 (the light alone cannot tell these years apart), 07:59-08:01 local apparent time',
     deltaChiSquareToGlobal: 8.3,
     absolute: { chiSquare: 9.5, degreesOfFreedom: 3, pValue: 0.023, softPenalty: 0 },
     relative: { deltaChiSquare: 8.3, degreesOfFreedom: 2, pValue: 0.0158, likelihoodRatio: 0.0158, region: 'outside-95' },
