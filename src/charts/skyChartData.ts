@@ -13,7 +13,7 @@ import type { DateAnswer } from '../solver/types.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { civilDateToJd, resolveCalendarRule } from '../calendar/regions.js';
 import { formatYearBcAd } from '../calendar/format.js';
-import { normalizeDeg180 } from '../math/angles.js';
+import { normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
 import { buildEvidenceModel, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
@@ -24,6 +24,11 @@ import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
 export interface SkyBand {
   readonly observationId: string;
   readonly label: string;
+  /**
+   * For a pole's shadow azimuth: the band lies at the sun's azimuth, opposite the shadow, and
+   * says so ("the sun stands opposite the shadow: shadow 300 deg, sun 120 deg").
+   */
+  readonly opposite?: { readonly shadowAzimuthDeg: number; readonly sunAzimuthDeg: number };
   /** Grid azimuths (in the chart's unwrapped azimuth), altitudes, and max |normalised residual| values[j][i]. */
   readonly azimuths: readonly number[];
   readonly altitudes: readonly number[];
@@ -158,7 +163,13 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
       }),
     );
     const words = COMPONENT_WORDS[term.observationKind] ?? term.observationKind;
-    return { observationId: term.observationId, label: `${term.observationId} (${words}${term.wallId ? `, wall ${term.wallId}` : ''})`, azimuths, altitudes, values };
+    const e = term.evidence;
+    // A pole's shadow points away from the sun: shadow azimuth = sun azimuth + 180 (groundShadows.ts).
+    const opposite =
+      e.kind === 'pole-shadow' && e.shadowAzimuthDeg !== undefined
+        ? { opposite: { shadowAzimuthDeg: e.shadowAzimuthDeg, sunAzimuthDeg: normalizeDeg360(e.shadowAzimuthDeg + 180) } }
+        : {};
+    return { observationId: term.observationId, label: `${term.observationId} (${words}${term.wallId ? `, wall ${term.wallId}` : ''})`, azimuths, altitudes, values, ...opposite };
   });
 
   const suns: SkySun[] = marked.map(({ label, candidate: c }) => ({
