@@ -44,7 +44,8 @@ export async function run(args: readonly string[], options: ReportOptions, io: C
   // Pixel observations turned into numbers once, as date and check do (src/image/resolvePixels.ts).
   const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
   const bytes = readFileSync(fullPath);
-  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { onProgress })));
+  // perYear: every year of each family, so that the report can name the family of each row of its table
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { perYear: true, onProgress })));
   const progress = progressLine(io, 'drawing the date and hour map');
   let charts;
   try {
