@@ -50,7 +50,7 @@ export interface LabelPlacement {
 /** Width of one character, in em, assumed for every character (an upper bound, see the header). */
 const EM_PER_CHARACTER = 0.67;
 /** Distances from the mark's edge tried, in drawing units, nearest first. */
-const RINGS = [2, 6, 12, 20, 30, 42, 56, 72, 90];
+const RINGS = [4, 8, 14, 22, 32, 44, 58, 74, 92];
 /** Directions tried on each ring, degrees counter-clockwise from "right", upper right first. */
 const DIRECTIONS = [45, 315, 135, 225, 0, 180, 90, 270, 22.5, 337.5, 157.5, 202.5, 67.5, 112.5, 247.5, 292.5];
 /** Clear space kept around every label, drawing units. */
@@ -110,7 +110,7 @@ function labelAt(r: LabelRequest, box: Box): PlacedLabel {
 /**
  * Places labels, in the order given (put the most important first), inside `bounds`, clear of
  * each other and of `obstacles`.
- * @example placeLabels([{ anchor: [50, 50], text: 'F1', fontSize: 10 }], [], { x: 0, y: 0, width: 100, height: 100 }).placed[0].x // 51.4 (up and to the right of the mark)
+ * @example placeLabels([{ anchor: [50, 50], text: 'F1', fontSize: 10 }], [], { x: 0, y: 0, width: 100, height: 100 }).placed[0].x // 52.8 (up and to the right of the mark)
  */
 export function placeLabels(requests: readonly LabelRequest[], obstacles: readonly Box[], bounds: Box): LabelPlacement {
   const placed: PlacedLabel[] = [];
