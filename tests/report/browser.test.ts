@@ -105,10 +105,10 @@ describe('the HTML report in Chromium', () => {
     const page = await browser!.newPage({ viewport: { width: Math.floor(A4_TEXT_WIDTH_PX), height: 1000 } });
     await page.goto(pathToFileURL(SQUARE_REPORT).href, { waitUntil: 'load' });
     await page.emulateMedia({ media: 'print' });
-    const widths = await page.evaluate(() =>
-      [...document.querySelectorAll('table, figure svg, dl')].map((e) => ({ what: e.id || e.tagName, right: e.getBoundingClientRect().right, scroll: e.scrollWidth, client: e.clientWidth })),
-    );
-    const body = await page.evaluate(() => document.body.getBoundingClientRect().right);
+    const widths = await page
+      .locator('table, figure svg, dl')
+      .evaluateAll((all) => all.map((e) => ({ what: e.id || e.tagName, right: e.getBoundingClientRect().right, scroll: e.scrollWidth, client: e.clientWidth })));
+    const body = await page.locator('body').evaluate((b) => b.getBoundingClientRect().right);
     expect(widths.length).toBeGreaterThanOrEqual(8);
     for (const w of widths) {
       expect(w.right, `${w.what} ends within the right margin`).toBeLessThanOrEqual(body + 0.5);
@@ -137,7 +137,7 @@ describe('the HTML report in Chromium', () => {
         const boxes = await page.locator(chart).evaluate((svg, sel) => {
           const root = sel === ':scope' ? svg : svg.querySelector(sel)!;
           return [...root.querySelectorAll('text.hc-mark-label')].map((t) => {
-            const b = (t as SVGGraphicsElement).getBoundingClientRect();
+            const b = t.getBoundingClientRect();
             return { text: t.textContent, x: b.x, y: b.y, w: b.width, h: b.height };
           });
         }, panel);
