@@ -21,7 +21,17 @@ const AREA: PlotArea = { left: 62, top: 60, width: 540, height: 340 };
 const PATH_DASHES = [DASHES.solid, DASHES.dashed, DASHES.dotted] as const;
 const COMPASS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'] as const;
 
-function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale): { under: string; over: string } {
+/** A band whose region is smaller than this across, in drawing units, could hide under a sun's mark: it gets a ring. */
+const SPOT_SIZE = 14;
+
+interface BandMarks {
+  readonly under: string;
+  readonly over: string;
+  /** How the band is shown beyond its fill and outline: a ring around a spot, or nothing drawn at all. */
+  readonly shown: 'band' | 'ring' | 'not drawn';
+}
+
+function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale): BandMarks {
   const style = seriesStyle(index);
   const da = band.azimuths.length > 1 ? band.azimuths[1] - band.azimuths[0] : 1;
   const dh = band.altitudes.length > 1 ? band.altitudes[1] - band.altitudes[0] : 1;
@@ -38,14 +48,31 @@ function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale)
   const outline = isolineSegments({ xs: band.azimuths, ys: band.altitudes, values: band.values }, 1)
     .map(([p, q]) => `M${num(x(p[0]))} ${num(y(p[1]))}L${num(x(q[0]))} ${num(y(q[1]))}`)
     .join('');
+  // A region only a few units across (a pole's shadow with both its direction and its length,
+  // say) would vanish under the sun's mark drawn on it: a ring in the band's colour and line
+  // style, larger than the mark, shows where it lies.
+  let ring = '';
+  if (runs.length > 0) {
+    const xs = runs.flatMap((r) => [x(band.azimuths[r.i0] - da / 2), x(band.azimuths[r.i1 - 1] + da / 2)]);
+    const ys = runs.flatMap((r) => [y(band.altitudes[r.j] + dh / 2), y(band.altitudes[r.j] - dh / 2)]);
+    const w = Math.max(...xs) - Math.min(...xs);
+    const h = Math.max(...ys) - Math.min(...ys);
+    if (w < SPOT_SIZE && h < SPOT_SIZE) {
+      const cx = (Math.max(...xs) + Math.min(...xs)) / 2;
+      const cy = (Math.max(...ys) + Math.min(...ys)) / 2;
+      ring = el('circle', { cx, cy, r: Math.max(10, Math.hypot(w, h) / 2 + 6), fill: 'none', stroke: style.color, 'stroke-width': 1.8, 'stroke-dasharray': style.dash, class: 'hc-sky-band-spot', 'data-observation': band.observationId });
+    }
+  }
   return {
+    shown: runs.length === 0 ? 'not drawn' : ring !== '' ? 'ring' : 'band',
     under: group({ class: 'hc-sky-band', 'data-observation': band.observationId }, [
       fill === '' ? '' : el('path', { d: fill, fill: style.color, 'fill-opacity': 0.16, stroke: 'none' }),
       outline === '' ? '' : el('path', { d: outline, fill: 'none', stroke: style.color, 'stroke-width': 1.6, 'stroke-dasharray': style.dash }),
     ]),
     // The outline once more, thin, above the sun paths and the candidates' suns: a band that
     // passes under the markers stays visible there.
-    over: outline === '' ? '' : el('path', { d: outline, fill: 'none', stroke: style.color, 'stroke-width': 0.9, 'stroke-dasharray': style.dash, class: 'hc-sky-band-over', 'data-observation': band.observationId }),
+    over:
+      (outline === '' ? '' : el('path', { d: outline, fill: 'none', stroke: style.color, 'stroke-width': 0.9, 'stroke-dasharray': style.dash, class: 'hc-sky-band-over', 'data-observation': band.observationId })) + ring,
   };
 }
 
@@ -151,13 +178,17 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
   const noteLines = data.bands
     .filter((b) => b.opposite)
     .map((b) => `${b.observationId}: a pole's shadow points away from the sun, so its band lies at the sun's azimuth, opposite the shadow (${oppositeWords(b.opposite!)}).`);
+  const bandParts = data.bands.map((b, i) => bandMarks(b, i, x, y));
+  const ringed = data.bands.filter((_, i) => bandParts[i].shown === 'ring').map((b) => b.observationId);
+  if (ringed.length > 0) noteLines.push(`${ringed.join(', ')}: smaller than a sun's mark, so ${ringed.length === 1 ? 'a ring in its colour shows where it lies' : 'rings in their colours show where they lie'}.`);
+  const thin = data.bands.filter((_, i) => bandParts[i].shown === 'not drawn').map((b) => b.observationId);
+  if (thin.length > 0) noteLines.push(`Not drawn: ${thin.join(', ')} (narrower than the chart's grid of sun directions, or nowhere in the sky shown).`);
   if (data.notes.length > 0) noteLines.push(`Not drawn: ${data.notes.join('; ')}.`);
   if (placement.unplaced.length > 0) noteLines.push(`Too crowded to label: ${placement.unplaced.map((u) => u.text).join(', ')}.`);
   const key = legend(data);
   const notesTop = Math.max(NOTES_TOP, key.bottom + 24);
   const height = notesTop + 14 * noteLines.length + 8;
   const notes = noteLines.map((line, k) => text(AREA.left, notesTop + 14 * k, line, { class: 'hc-note' }));
-  const bandParts = data.bands.map((b, i) => bandMarks(b, i, x, y));
   return svgDocument({
     width: WIDTH,
     height,

@@ -16,6 +16,7 @@ import { formatYearBcAd } from '../calendar/format.js';
 import { normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
+import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
 import { nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
 import { ellipsePoints, semiAxisVectors } from './ellipse.js';
@@ -127,7 +128,8 @@ const COMPONENT_WORDS: Record<string, string> = {
 
 /** Everything the sky chart draws, from the scene and the solver's answer. */
 export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChartOptions = {}): SkyChartData {
-  const model = options.model ?? buildEvidenceModel(scene);
+  // Observations measured in pixels become numbers first, as the solver takes them (src/image/resolvePixels.ts).
+  const model = options.model ?? buildEvidenceModel(resolvePixelObservations(scene).scene);
   const marked = markedCandidates(answer);
   const best = marked[0]?.candidate;
   const centre = scene.site.latitudeDeg >= 0 ? 180 : 0;

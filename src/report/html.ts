@@ -355,7 +355,7 @@ const SKY_CAPTION =
   '270 west); up: its altitude above the horizon in degrees, with refraction. Each measured shadow allows only certain positions of the sun: its band, ' +
   'in its own colour and outline style (see the key beside the chart), holds the sun positions that agree with it within 1 sigma. A pole\u2019s shadow ' +
   'points away from the sun, so its band is drawn at the sun\u2019s azimuth, opposite the shadow\u2019s, as the note under the chart says. Where the ' +
-  'bands cross, the sun stood; a band that misses the crossing points to a measurement to look at again. The black lines are the sun\u2019s course on the ' +
+  'bands cross, the sun stood; a band that misses the crossing points to a measurement to look at again. A band smaller than a sun\u2019s mark is ringed in its own colour. The black lines are the sun\u2019s course on the ' +
   'best day of each family (solid, dashed, dotted), with a dot at each whole hour of local apparent time. The yellow dots are the sun at F1, F2, ..., ' +
   'each with black ellipses of direction holding 68% (solid) and 95% (dashed); where several lie together, their labels are set beside them with thin ' +
   'grey lines to their own dots. A clock fixes the hour, not the direction of the sun, and facts without numbers (a wall in shade) are not drawn.';

@@ -115,6 +115,23 @@ describe('a band under the markers stays visible', () => {
   });
 });
 
+describe('a scene measured in pixels (examples/tanners-hall-photo, invented)', () => {
+  it('gets its map and sky chart, and the lamp-post\u2019s small patch of sky, hidden under the sun\u2019s mark, is ringed', () => {
+    const photo = readSceneFile('examples/tanners-hall-photo/tanners-hall-photo.yaml');
+    const photoAnswer = solveDates(photo);
+    // the charts take the pixel forms as the solver does (they used to stop at "slopeDeg: nothing is not allowed")
+    expect(renderDateHourMap(dateHourMapData(photo, photoAnswer, { dayStep: 5, minuteStep: 20 }))).toContain('class="hc-band hc-band-0"');
+    const svg = renderSkyChart(skyChartData(photo, photoAnswer, { columns: 241, rows: 121 }));
+    expect(svg).toMatch(/<circle [^>]*class="hc-sky-band-spot" data-observation="lamp-post"/);
+    expect(svg).toContain('lamp-post: smaller than a sun&#39;s mark, so a ring in its colour shows where it lies.');
+    const ring = /<circle cx="([\d.]+)" cy="([\d.]+)" r="([\d.]+)"[^>]*class="hc-sky-band-spot"/.exec(svg)!;
+    const sun = /<g class="hc-candidate-sun">[\s\S]*?<circle cx="([\d.]+)" cy="([\d.]+)" r="([\d.]+)"/.exec(svg)!;
+    // the ring is larger than the sun's mark and drawn after it
+    expect(Number(ring[3])).toBeGreaterThan(Number(sun[3]) + 3);
+    expect(svg.indexOf('hc-sky-band-spot')).toBeGreaterThan(svg.lastIndexOf('hc-candidate-sun'));
+  });
+});
+
 describe('a pole\u2019s band says the sun stands opposite its shadow', () => {
   it('lies at the sun\u2019s azimuth 120 deg for the flagpole shadow entered at 300 deg, and says so', () => {
     const pole = sky.bands.find((b) => b.observationId === 'flagpole')!;
