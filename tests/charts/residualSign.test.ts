@@ -102,6 +102,17 @@ describe('every output writes the same sign', () => {
       expect(html).toContain(`${signed(r.normalised)} sigma`);
     }
   });
+  it('check: the residuals of the best fit inside a proposal carry the same sign', async () => {
+    let out = '';
+    const io: CliIo = { out: (t) => { out += t; }, err: () => undefined, errIsTerminal: false, cwd: ROOT };
+    await main(['check', SQUARE, '--on', '1775-04-02', '--time', '09:15', '--clock', 'mean', '--within', '10'], io);
+    const line = /\n  flagpole\s+pole-shadow\s+shadow-azimuth\s+([\d.]+)\s+([\d.]+)\s+([\d.]+)\s+deg\s+([+-][\d.]+)\n/.exec(out);
+    expect(line, out).not.toBeNull();
+    const [measured, predicted, sigma, printed] = line!.slice(1).map(Number);
+    expect(measured).toBe(300);
+    expect(printed).toBeLessThan(0);
+    expect(printed).toBeCloseTo((measured - predicted) / sigma, 1);
+  });
   it('measure --with-best: the same sign and value as the dating, observation by observation', async () => {
     const run = async (args: string[]): Promise<string> => {
       let out = '';
