@@ -235,11 +235,12 @@ function uncertaintyCell(c: Candidate): string {
     .join(', ');
 }
 
-function candidateRow(c: Candidate, scene: Scene, columns: CandidateColumns, family: string): string {
+/** @param family the row's family label ("F2"), '' when not known, null when the answer has no families (no column) */
+function candidateRow(c: Candidate, scene: Scene, columns: CandidateColumns, family: string | null): string {
   const date = civilDateRendering(c.civilDate, scene);
   const dateText = columns.sharedSuffix !== '' ? date.text.slice(0, -columns.sharedSuffix.length) : date.text;
   const cells: Cell[] = [
-    h(family),
+    ...(family === null ? [] : [h(family)]),
     n(String(c.rank)),
     { nowrap: h(dateText) },
     h(c.weekdayName.slice(0, 3)),
@@ -259,7 +260,7 @@ function candidateRow(c: Candidate, scene: Scene, columns: CandidateColumns, fam
     { wrap: uncertaintyCell(c) },
   );
   if (columns.kept) cells.push(h(keptShort(c)));
-  return row(cells, false, ` data-rank="${c.rank}" data-date="${h(date.iso)}" data-family="${h(family)}"`);
+  return row(cells, false, ` data-rank="${c.rank}" data-date="${h(date.iso)}"${family === null ? '' : ` data-family="${h(family)}"`}`);
 }
 
 /** Rows of the other years shown after the best of each family. */
@@ -283,7 +284,7 @@ function candidatesTable(scene: Scene, answer: DateAnswer): string {
   const shownOthers = (bests.length > 0 ? others : answer.candidates).slice(0, OTHER_YEAR_ROWS);
   const shown = [...bests, ...shownOthers];
   const columns = candidateColumns(shown, scene);
-  const header: Cell[] = ['family', n('rank'), 'date', 'day', n('apparent'), n('mean'), n('UT')];
+  const header: Cell[] = [...(bests.length > 0 ? ['family'] : []), n('rank'), 'date', 'day', n('apparent'), n('mean'), n('UT')];
   if (columns.clock) header.push(n('clock'));
   header.push(n('azimuth'), n('altitude'), n('chi2'), n('p'), n('weight'), n('95%'));
   if (columns.kept) header.push('clock kept');
@@ -295,7 +296,7 @@ function candidatesTable(scene: Scene, answer: DateAnswer): string {
     rows.push(...bests.map((c) => candidateRow(c, scene, columns, familyOf.get(c.id) ?? '')));
     if (shownOthers.length > 0) rows.push(group('Other years, best first'));
   }
-  rows.push(...shownOthers.map((c) => candidateRow(c, scene, columns, familyOf.get(c.id) ?? '')));
+  rows.push(...shownOthers.map((c) => candidateRow(c, scene, columns, bests.length > 0 ? (familyOf.get(c.id) ?? '') : null)));
   const hidden = answer.candidates.length - shownOthers.length - bests.filter((c) => answer.candidates.some((x) => x.id === c.id)).length;
   const dof = answer.candidates[0]?.degreesOfFreedom;
   const parts = [

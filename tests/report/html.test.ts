@@ -101,6 +101,14 @@ describe('HTML report', () => {
       expect(page).toContain('No date fits &lt;at all&gt;.');
       expect(page).toContain('status-no-candidates');
     });
+    it('leaves out the family column when the answer has candidates but no families', () => {
+      const page = reportFor(scene, { ...answer, families: [] });
+      const head = /<table id="candidates"[\s\S]*?<thead>([\s\S]*?)<\/thead>/.exec(page)![1];
+      expect(head).not.toContain('family');
+      expect(head).toMatch(/^<tr><th class="num">rank<\/th>/);
+      expect(page).not.toContain('data-family=');
+      expect(page).toContain('data-rank="1"');
+    });
     it('describes every kind of observation in words', () => {
       const kinds: Observation[] = [
         { id: 'a', kind: 'eave-shadow', wallId: 'w', distanceRatio: 0.5, sigma: 0.05, projectionRatio: 0.1 },
