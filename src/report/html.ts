@@ -14,7 +14,7 @@ import type { Observation, Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '../solver/types.js';
 import { formatDayWords } from '../calendar/format.js';
 import { MONTH_NAMES, WEEKDAY_NAMES } from '../calendar/julianDay.js';
-import { describeClockKind } from '../time/clock.js';
+import { describeClockKind, formatClockKind } from '../time/clock.js';
 import { escapeXml } from '../charts/svg.js';
 import {
   CAUTION,
@@ -216,15 +216,10 @@ function candidateColumns(candidates: readonly Candidate[], scene: Scene): Candi
   };
 }
 
-/** What the clock was assumed to keep, in one or two words for a narrow column. */
+/** What the clock was assumed to keep, in one or two words for a narrow column ("mean", "apparent", "zone:Europe/Vienna"). */
 function keptShort(c: Candidate): string {
   const a = c.clockAssumption;
-  if (a.kind === 'none') return 'no clock';
-  if (a.kind === 'apparent') return 'apparent';
-  if (a.kind === 'mean') return 'mean';
-  if (a.kind === 'ut') return 'UT';
-  if (a.kind === 'meridian') return `meridian ${a.longitudeDeg}`;
-  return `zone ${a.zone}`;
+  return a.kind === 'none' ? 'no clock' : formatClockKind(a);
 }
 
 /** The 95% uncertainty, free to break after its comma, so that the column stays narrow on paper. */
