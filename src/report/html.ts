@@ -58,6 +58,12 @@ export interface HtmlReportInput {
   readonly reproducibility: Reproducibility;
 }
 
+/**
+ * How the answer of a report is solved: with every year of each family listed (perYear), so that
+ * each row of the candidates table can name its family. `heliochron report` and the desk use it.
+ */
+export const REPORT_SOLVE_OPTIONS = { perYear: true } as const;
+
 /** Escaped text. */
 const h = escapeXml;
 
