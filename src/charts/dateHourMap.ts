@@ -12,12 +12,15 @@ import type { DateHourMapData, MapMarker } from './dateHourMapData.js';
 import { CHART_STYLE, FIT_BANDS, INK, OKABE_ITO, OUTSIDE_BANDS_LABEL, fitBandIndex } from './palette.js';
 import { linearScale, niceTicks, type LinearScale } from './scale.js';
 import { el, group, num, pathData, svgDocument, text } from './svg.js';
+import { placeLabels, placedLabelMarks } from './labels.js';
 
 const WIDTH = 820;
 const HEIGHT = 590;
 const OVERVIEW: PlotArea = { left: 66, top: 60, width: 440, height: 360 };
 const CLOSE_UP: PlotArea = { left: 580, top: 60, width: 220, height: 360 };
 const MARK = OKABE_ITO.vermillion;
+/** Index in FIT_BANDS of "poor fit (3 to 5 sigma)", drawn stippled. */
+const POOR_FIT_BAND = 3;
 
 /** "07:00" for minutes of the day (whole hours and minutes). */
 function hourLabel(minutes: number): string {
@@ -33,7 +36,7 @@ interface GridPart {
 }
 
 /** Filled cells, one rectangle per horizontal run of cells in the same band. */
-function bandCells(part: GridPart, x: LinearScale, y: LinearScale): string[] {
+function bandCells(part: GridPart, x: LinearScale, y: LinearScale, prefix: string): string[] {
   const out: string[] = [];
   FIT_BANDS.forEach((band, b) => {
     const runs = cellRuns(part.minutes.length, part.dayOffsets.length, (j, i) => fitBandIndex(part.deltaChiSquare[j][i]) === b);
@@ -47,6 +50,9 @@ function bandCells(part: GridPart, x: LinearScale, y: LinearScale): string[] {
       })
       .join('');
     if (d !== '') out.push(el('path', { d, fill: band.fill, stroke: band.fill, 'stroke-width': 0.3, class: `hc-band hc-band-${b}` }));
+    // The palest band is also stippled, so that "poor fit" differs from "does not fit" (white)
+    // in a grey print and for every reader of colour, not by a faint tint alone.
+    if (d !== '' && b === POOR_FIT_BAND) out.push(el('path', { d, fill: `url(#${prefix}-stipple)`, stroke: 'none', class: 'hc-band-stipple' }));
   });
   return out;
 }
@@ -65,12 +71,20 @@ function bandOutlines(part: GridPart, x: LinearScale, y: LinearScale): string[] 
   });
 }
 
-function markerMarks(markers: readonly MapMarker[], x: LinearScale, y: LinearScale, labels: boolean): string[] {
+const MARK_RADIUS = 3.6;
+const LABEL_SIZE = 10.5;
+
+/**
+ * Ellipses and intervals of the markers. In the whole-year panel (`thin`) only the 95% ellipse is
+ * drawn, with a thin line, so that the shading under it, often only a few pixels across, stays visible.
+ */
+function markerMarks(markers: readonly MapMarker[], x: LinearScale, y: LinearScale, thin: boolean): string[] {
   const out: string[] = [];
   for (const m of markers) {
     for (const e of m.ellipses) {
+      if (thin && e.probability < 0.9) continue;
       const dash = e.probability > 0.9 ? '4 2.5' : undefined;
-      out.push(el('path', { d: pathData(e.points.map(([d, min]) => [x(d), y(min)]), true), fill: 'none', stroke: MARK, 'stroke-width': 1.4, 'stroke-dasharray': dash, class: 'hc-ellipse' }));
+      out.push(el('path', { d: pathData(e.points.map(([d, min]) => [x(d), y(min)]), true), fill: 'none', stroke: MARK, 'stroke-width': thin ? 0.8 : 1.4, 'stroke-dasharray': dash, class: 'hc-ellipse' }));
     }
     if (m.interval) {
       const iv = m.interval;
@@ -80,18 +94,48 @@ function markerMarks(markers: readonly MapMarker[], x: LinearScale, y: LinearSca
       const yc = y(m.minutes);
       const x0 = x(iv.fromDayOffset);
       const x1 = x(iv.toDayOffset);
-      out.push(el('path', { d: `M${num(x0)} ${num(yc)}H${num(x1)}M${num(x0)} ${num(yc - 5)}V${num(yc + 5)}M${num(x1)} ${num(yc - 5)}V${num(yc + 5)}`, fill: 'none', stroke: MARK, 'stroke-width': 2.2, class: 'hc-interval' }));
+      out.push(el('path', { d: `M${num(x0)} ${num(yc)}H${num(x1)}M${num(x0)} ${num(yc - 5)}V${num(yc + 5)}M${num(x1)} ${num(yc - 5)}V${num(yc + 5)}`, fill: 'none', stroke: MARK, 'stroke-width': thin ? 1.2 : 2.2, class: 'hc-interval' }));
     }
+  }
+  // The dots last, so that no ellipse of another family hides one.
+  for (const m of markers) {
     const cx = x(m.dayOffset);
     const cy = y(m.minutes);
+    const r = thin ? 2.4 : m.best ? MARK_RADIUS : 3;
     out.push(
       m.inMapYear
-        ? el('circle', { cx, cy, r: m.best ? 3.6 : 3, fill: MARK, stroke: INK.paper, 'stroke-width': 1, class: 'hc-candidate' })
-        : el('circle', { cx, cy, r: 3, fill: INK.paper, stroke: MARK, 'stroke-width': 1.5, class: 'hc-candidate hc-other-year' }),
+        ? el('circle', { cx, cy, r, fill: MARK, stroke: INK.paper, 'stroke-width': thin ? 0.6 : 1, class: 'hc-candidate' })
+        : el('circle', { cx, cy, r, fill: INK.paper, stroke: MARK, 'stroke-width': thin ? 1.1 : 1.5, class: 'hc-candidate hc-other-year' }),
     );
-    if (labels) out.push(text(cx + 5, cy - 6, m.label, { class: 'hc-legend', 'font-weight': 'bold' }));
   }
   return out;
+}
+
+/** The markers' labels inside a panel, placed so that none overprints another (labels.ts). */
+function markerLabels(markers: readonly MapMarker[], x: LinearScale, y: LinearScale, area: PlotArea): { marks: string[]; unplaced: string[] } {
+  const bounds = { x: area.left, y: area.top, width: area.width, height: area.height };
+  const shown = markers.filter((m) => {
+    const cx = x(m.dayOffset);
+    const cy = y(m.minutes);
+    return cx >= area.left && cx <= area.left + area.width && cy >= area.top && cy <= area.top + area.height;
+  });
+  // Labels keep clear of what the marks enclose (the 95% ellipse or the day interval), so that they
+  // never cover the shading there.
+  const obstacles = shown.flatMap((m) => {
+    const points: (readonly [number, number])[] = [...m.ellipses.filter((e) => e.probability > 0.9).flatMap((e) => e.points)];
+    if (m.interval) points.push([m.interval.fromDayOffset, m.minutes - 1e-9], [m.interval.toDayOffset, m.minutes]);
+    if (points.length === 0) return [];
+    const xs = points.map(([d]) => x(d));
+    const ys = points.map(([, min]) => y(min));
+    const box = { x: Math.min(...xs), y: Math.min(...ys) - (m.interval ? 5 : 0), width: Math.max(...xs) - Math.min(...xs), height: Math.max(...ys) - Math.min(...ys) + (m.interval ? 10 : 0) };
+    return [box];
+  });
+  const placement = placeLabels(
+    shown.map((m) => ({ anchor: [x(m.dayOffset), y(m.minutes)] as const, text: m.label, fontSize: LABEL_SIZE, markRadius: MARK_RADIUS + 1 })),
+    obstacles,
+    bounds,
+  );
+  return { marks: placedLabelMarks(placement.placed), unplaced: placement.unplaced.map((u) => u.text) };
 }
 
 function hourTicks(range: readonly [number, number], approxCount: number): Tick[] {
@@ -100,7 +144,7 @@ function hourTicks(range: readonly [number, number], approxCount: number): Tick[
   return niceTicks(range[0], range[1], approxCount, step).map((v) => ({ value: v, label: hourLabel(v) }));
 }
 
-function overviewPanel(data: DateHourMapData, prefix: string): string {
+function overviewPanel(data: DateHourMapData, prefix: string, unlabelled: string[]): string {
   const area = OVERVIEW;
   const x = linearScale([0, data.dayCount], [area.left, area.left + area.width]);
   const y = linearScale(data.minuteRange, [area.top + area.height, area.top]);
@@ -111,9 +155,11 @@ function overviewPanel(data: DateHourMapData, prefix: string): string {
   const monthTicks: Tick[] = data.months.map((m) => ({ value: m.fromOffset, label: '' }));
   monthTicks.push({ value: data.dayCount, label: '' });
   const monthLabels = data.months.map((m) => text(x((m.fromOffset + m.toOffset) / 2), area.top + area.height + 15, m.name, { class: 'hc-tick', 'text-anchor': 'middle' }));
+  const labels = markerLabels(data.markers, x, y, area);
+  unlabelled.push(...labels.unplaced.map((l) => `${l} (whole year)`));
   return group({ class: 'hc-panel hc-overview' }, [
     el('defs', {}, clipPathFor(clip, area)),
-    group({ 'clip-path': `url(#${clip})` }, [...bandCells(data, x, y), ...bandOutlines(data, x, y), ...excluded, ...markerMarks(data.markers, x, y, true)]),
+    group({ 'clip-path': `url(#${clip})` }, [...bandCells(data, x, y, prefix), ...bandOutlines(data, x, y), ...excluded, ...markerMarks(data.markers, x, y, true), ...labels.marks]),
     bottomAxis(area, { scale: x, ticks: monthTicks, label: `${data.yearLabel}, ${data.calendarLabel} (month boundaries)`, grid: true }),
     ...monthLabels,
     leftAxis(area, { scale: y, ticks: hourTicks(data.minuteRange, 9), label: 'local apparent time (hours)', grid: true }),
@@ -122,16 +168,18 @@ function overviewPanel(data: DateHourMapData, prefix: string): string {
   ]);
 }
 
-function closeUpPanel(data: DateHourMapData, prefix: string): string {
+function closeUpPanel(data: DateHourMapData, prefix: string, unlabelled: string[]): string {
   const c = data.closeUp;
   if (!c) return '';
   const area = CLOSE_UP;
   const x = linearScale(c.dayRange, [area.left, area.left + area.width]);
   const y = linearScale(c.minuteRange, [area.top + area.height, area.top]);
   const clip = `${prefix}-clip-closeup`;
+  const labels = markerLabels(data.markers, x, y, area);
+  unlabelled.push(...labels.unplaced.map((l) => `${l} (close-up)`));
   return group({ class: 'hc-panel hc-closeup' }, [
     el('defs', {}, clipPathFor(clip, area)),
-    group({ 'clip-path': `url(#${clip})` }, [...bandCells(c, x, y), ...bandOutlines(c, x, y), ...markerMarks(data.markers, x, y, true)]),
+    group({ 'clip-path': `url(#${clip})` }, [...bandCells(c, x, y, prefix), ...bandOutlines(c, x, y), ...markerMarks(data.markers, x, y, false), ...labels.marks]),
     bottomAxis(area, { scale: x, ticks: c.dayLabels.map((t) => ({ value: t.offset, label: t.label })), label: `day (${data.yearLabel})`, grid: true }),
     leftAxis(area, { scale: y, ticks: hourTicks(c.minuteRange, 8), label: 'local apparent time (hours)', grid: true }),
     plotFrame(area),
@@ -139,7 +187,7 @@ function closeUpPanel(data: DateHourMapData, prefix: string): string {
   ]);
 }
 
-function legend(data: DateHourMapData): string {
+function legend(data: DateHourMapData, unlabelled: readonly string[], prefix: string): string {
   const top = 470;
   const parts: string[] = [];
   const entries = [...FIT_BANDS.map((b) => ({ fill: b.fill, label: b.label })), { fill: INK.paper, label: OUTSIDE_BANDS_LABEL }];
@@ -147,6 +195,7 @@ function legend(data: DateHourMapData): string {
     const lx = 66 + (k % 3) * 250;
     const ly = top + Math.floor(k / 3) * 17;
     parts.push(el('rect', { x: lx, y: ly - 9, width: 14, height: 10, fill: e.fill, stroke: INK.frame, 'stroke-width': 0.6 }));
+    if (k === POOR_FIT_BAND) parts.push(el('rect', { x: lx, y: ly - 9, width: 14, height: 10, fill: `url(#${prefix}-stipple)`, stroke: 'none' }));
     parts.push(text(lx + 19, ly, e.label, { class: 'hc-legend' }));
   });
   const ly = top + 40;
@@ -161,6 +210,7 @@ function legend(data: DateHourMapData): string {
   const notes: string[] = [];
   if (data.months.some((m) => m.excluded)) notes.push('hatched: months outside the window stated in the scene');
   if (data.fromOtherYears > 0) notes.push(`open circles: best of a family in another year, placed on its day of the year`);
+  if (unlabelled.length > 0) notes.push(`marks too crowded to label: ${unlabelled.join(', ')}; the report's table of families gives their days and hours`);
   parts.push(text(66, ly + 18, `Clock: ${data.clockLabel}.`, { class: 'hc-note' }));
   notes.forEach((note, k) => parts.push(text(66, ly + 32 + 14 * k, `${note[0].toUpperCase()}${note.slice(1)}.`, { class: 'hc-note' })));
   return group({ class: 'hc-legend-block' }, parts);
@@ -171,13 +221,18 @@ function legend(data: DateHourMapData): string {
  * @param idPrefix prefix of the ids inside (several charts can share one HTML page)
  */
 export function renderDateHourMap(data: DateHourMapData, idPrefix = 'hc-map'): string {
+  const unlabelled: string[] = []; // labels for which no free place was found, listed under the chart
+  const stipple = el('pattern', { id: `${idPrefix}-stipple`, width: 4, height: 4, patternUnits: 'userSpaceOnUse' }, [
+    el('circle', { cx: 1, cy: 1, r: 0.75, fill: FIT_BANDS[1].fill }),
+    el('circle', { cx: 3, cy: 3, r: 0.75, fill: FIT_BANDS[1].fill }),
+  ]);
   const hatch = el(
     'pattern',
     { id: `${idPrefix}-hatch`, width: 6, height: 6, patternUnits: 'userSpaceOnUse', patternTransform: 'rotate(45)' },
     [el('rect', { width: 6, height: 6, fill: INK.paper, 'fill-opacity': 0.35 }), el('line', { x1: 0, y1: 0, x2: 0, y2: 6, stroke: INK.frame, 'stroke-width': 1.2 })],
   );
   const title = `When the light fits: day and hour, ${data.titleYears}`;
-  const caption = `Shading: how well each day and hour of ${data.yearLabel} fits the evidence; red: the best dates and hours with their error ellipses.`;
+  const caption = `Shading: how well each day and hour of ${data.yearLabel} fits the evidence; vermilion: the best dates and hours with their error ellipses.`;
   return svgDocument({
     width: WIDTH,
     height: HEIGHT,
@@ -187,11 +242,11 @@ export function renderDateHourMap(data: DateHourMapData, idPrefix = 'hc-map'): s
     idPrefix,
     body: [
       el('rect', { width: WIDTH, height: HEIGHT, fill: INK.paper }),
-      el('defs', {}, hatch),
+      el('defs', {}, [hatch, stipple]),
       titleBlock(OVERVIEW.left, title, caption),
-      overviewPanel(data, idPrefix),
-      closeUpPanel(data, idPrefix),
-      legend(data),
+      overviewPanel(data, idPrefix, unlabelled),
+      closeUpPanel(data, idPrefix, unlabelled),
+      legend(data, unlabelled, idPrefix),
     ],
   });
 }

@@ -9,6 +9,7 @@ import type { Candidate, DateAnswer } from '../solver/types.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { civilDateToJd, jdToCivilDate, resolveCalendarRule, type ResolvedCalendar } from '../calendar/regions.js';
 import { formatYearBcAd } from '../calendar/format.js';
+import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, type EvidenceModel } from '../solver/evidenceModel.js';
 import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
 import { ellipsePoints } from './ellipse.js';
@@ -153,7 +154,8 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
   const minutes: number[] = [];
   for (let m = minuteRange[0]; m <= minuteRange[1] + 1e-9; m += minuteStep) minutes.push(m);
 
-  const model = options.model ?? buildEvidenceModel(scene);
+  // Observations measured in pixels become numbers first, as the solver takes them (src/image/resolvePixels.ts).
+  const model = options.model ?? buildEvidenceModel(resolvePixelObservations(scene).scene);
   const grid = chiSquareOnDayMinuteGrid(model, {
     dayJd0s: dayOffsets.map((d) => jan1 + d),
     minutes,

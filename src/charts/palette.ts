@@ -84,11 +84,11 @@ export const FIT_BANDS: readonly FitBand[] = [
   { maxDeltaChiSquare: 2.2957, fill: '#00507D', label: 'fits within 1 sigma (68%)' },
   { maxDeltaChiSquare: 5.9915, fill: '#3A8FC7', label: 'within 95%' },
   { maxDeltaChiSquare: 11.8290, fill: '#9CC9E6', label: 'within 99.7% (3 sigma)' },
-  { maxDeltaChiSquare: 28.744, fill: '#E3EFF7', label: 'poor fit (3 to 5 sigma)' },
+  { maxDeltaChiSquare: 28.744, fill: '#E3EFF7', label: 'poor fit (3 to 5 sigma), dotted' },
 ];
 
 /** Words for everything beyond the last band. */
-export const OUTSIDE_BANDS_LABEL = 'does not fit';
+export const OUTSIDE_BANDS_LABEL = 'does not fit (left white)';
 
 /** Index of the band a Delta chi-square falls in, or -1 outside all bands. */
 export function fitBandIndex(deltaChiSquare: number): number {
@@ -109,6 +109,7 @@ export const CHART_STYLE = [
   `.hc-secondary{font-size:10px;font-weight:bold;fill:${INK.muted}}`,
   `.hc-legend{font-size:10.5px}`,
   `.hc-note{font-size:10px;fill:${INK.muted}}`,
+  `.hc-mark-label{font-size:10.5px;font-weight:bold;paint-order:stroke;stroke:${INK.paper};stroke-width:3px;stroke-linejoin:round}`,
   `.hc-frame{fill:none;stroke:${INK.frame};stroke-width:1}`,
   `.hc-grid{stroke:${INK.grid};stroke-width:0.6}`,
   `.hc-tickmark{stroke:${INK.frame};stroke-width:1}`,

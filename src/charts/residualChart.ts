@@ -52,11 +52,23 @@ export function residualChartData(answer: DateAnswer): ResidualChartData {
 }
 
 const ROW_HEIGHT = 24;
-const LABEL_WIDTH = 220;
+const PLOT_WIDTH = 330;
+/** Mean width of a character of running text in the charts' sans-serif, in em (mixed case; common practice). */
+const PROSE_EM = 0.5;
+
+function proseWidth(words: string, fontSize: number): number {
+  return words.length * PROSE_EM * fontSize;
+}
 
 function barColour(r: number): string {
   const a = Math.abs(r);
   return a <= 1 ? OKABE_ITO.blue : a <= 2 ? OKABE_ITO.orange : OKABE_ITO.vermillion;
+}
+
+const TITLE = 'How well each measurement fits the best candidate';
+
+function captionOf(data: ResidualChartData): string {
+  return `Each bar: (measured - predicted) / sigma at ${data.candidateLabel}; beyond 2 sigma (dotted) it disagrees.`;
 }
 
 /**
@@ -64,10 +76,22 @@ function barColour(r: number): string {
  * @param idPrefix prefix of the ids inside (several charts can share one HTML page)
  */
 export function renderResidualChart(data: ResidualChartData, idPrefix = 'hc-residuals'): string {
-  const width = 820;
-  const area: PlotArea = { left: LABEL_WIDTH + 20, top: 62, width: 330, height: Math.max(1, data.rows.length) * ROW_HEIGHT };
+  // Sized to its content: the label column to the longest label, the height to the rows and facts.
+  const labelWidth = Math.max(100, ...data.rows.map((r) => proseWidth(r.label, 10.5)));
+  const area: PlotArea = { left: 24 + labelWidth + 8, top: 62, width: PLOT_WIDTH, height: Math.max(1, data.rows.length) * ROW_HEIGHT };
   const factTop = area.top + area.height + 62;
   const height = factTop + data.facts.length * 16 + (data.flaggedIds.length > 0 ? 22 : 0) + 16;
+  const valueWidth = Math.max(...data.rows.map((r) => proseWidth(`+0.00 sigma${r.flagged ? '  FLAGGED (leave-one-out)' : ''}`, 10.5)), 0);
+  const flaggedLine = `Flagged by the leave-one-out test (outlined bars): ${data.flaggedIds.join(', ')}.`;
+  const width = Math.ceil(
+    Math.max(
+      area.left + area.width + 8 + valueWidth + 16,
+      24 + proseWidth(TITLE, 15) + 16,
+      24 + proseWidth(captionOf(data), 11.5) + 16,
+      ...data.facts.map((f) => 70 + proseWidth(f.label, 10.5) + 16),
+      data.flaggedIds.length > 0 ? 24 + proseWidth(flaggedLine, 10) + 16 : 0,
+    ),
+  );
   const largest = data.rows.reduce((m, r) => Math.max(m, Math.abs(r.normalised)), 0);
   const limit = Math.min(6, Math.max(3, Math.ceil(largest + 0.25)));
   const x = linearScale([-limit, limit], [area.left, area.left + area.width]);
@@ -108,17 +132,15 @@ export function renderResidualChart(data: ResidualChartData, idPrefix = 'hc-resi
     factParts.push(text(70, y, f.label, { class: 'hc-legend' }));
   });
   if (data.flaggedIds.length > 0) {
-    factParts.push(text(24, height - 14, `Flagged by the leave-one-out test (outlined bars): ${data.flaggedIds.join(', ')}.`, { class: 'hc-note' }));
+    factParts.push(text(24, height - 14, flaggedLine, { class: 'hc-note' }));
   }
-  const title = 'How well each measurement fits the best candidate';
-  const caption = `Bars: residual in units of its sigma for ${data.candidateLabel}; beyond the dotted lines (2 sigma) a measurement disagrees.`;
   return svgDocument({
     width,
     height,
-    title,
-    description: caption,
+    title: TITLE,
+    description: captionOf(data),
     style: CHART_STYLE,
     idPrefix,
-    body: [el('rect', { width, height, fill: INK.paper }), titleBlock(24, title, caption), ...parts, ...factParts],
+    body: [el('rect', { width, height, fill: INK.paper }), titleBlock(24, TITLE, captionOf(data)), ...parts, ...factParts],
   });
 }

@@ -12,14 +12,26 @@ import { CHART_STYLE, DASHES, INK, OKABE_ITO, seriesStyle } from './palette.js';
 import { linearScale, niceTicks, type LinearScale } from './scale.js';
 import type { SkyBand, SkyChartData } from './skyChartData.js';
 import { el, group, num, pathData, svgDocument, text } from './svg.js';
+import { placeLabels, placedLabelMarks, textWidth } from './labels.js';
 
 const WIDTH = 820;
-const HEIGHT = 500;
+/** Baseline of the first note under the plot; the chart's height follows the number of notes. */
+const NOTES_TOP = 476;
 const AREA: PlotArea = { left: 62, top: 60, width: 540, height: 340 };
 const PATH_DASHES = [DASHES.solid, DASHES.dashed, DASHES.dotted] as const;
 const COMPASS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'] as const;
 
-function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale): string {
+/** A band whose region is smaller than this across, in drawing units, could hide under a sun's mark: it gets a ring. */
+const SPOT_SIZE = 14;
+
+interface BandMarks {
+  readonly under: string;
+  readonly over: string;
+  /** How the band is shown beyond its fill and outline: a ring around a spot, or nothing drawn at all. */
+  readonly shown: 'band' | 'ring' | 'not drawn';
+}
+
+function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale): BandMarks {
   const style = seriesStyle(index);
   const da = band.azimuths.length > 1 ? band.azimuths[1] - band.azimuths[0] : 1;
   const dh = band.altitudes.length > 1 ? band.altitudes[1] - band.altitudes[0] : 1;
@@ -36,10 +48,32 @@ function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale)
   const outline = isolineSegments({ xs: band.azimuths, ys: band.altitudes, values: band.values }, 1)
     .map(([p, q]) => `M${num(x(p[0]))} ${num(y(p[1]))}L${num(x(q[0]))} ${num(y(q[1]))}`)
     .join('');
-  return group({ class: 'hc-sky-band', 'data-observation': band.observationId }, [
-    fill === '' ? '' : el('path', { d: fill, fill: style.color, 'fill-opacity': 0.16, stroke: 'none' }),
-    outline === '' ? '' : el('path', { d: outline, fill: 'none', stroke: style.color, 'stroke-width': 1.6, 'stroke-dasharray': style.dash }),
-  ]);
+  // A region only a few units across (a pole's shadow with both its direction and its length,
+  // say) would vanish under the sun's mark drawn on it: a ring in the band's colour and line
+  // style, larger than the mark, shows where it lies.
+  let ring = '';
+  if (runs.length > 0) {
+    const xs = runs.flatMap((r) => [x(band.azimuths[r.i0] - da / 2), x(band.azimuths[r.i1 - 1] + da / 2)]);
+    const ys = runs.flatMap((r) => [y(band.altitudes[r.j] + dh / 2), y(band.altitudes[r.j] - dh / 2)]);
+    const w = Math.max(...xs) - Math.min(...xs);
+    const h = Math.max(...ys) - Math.min(...ys);
+    if (w < SPOT_SIZE && h < SPOT_SIZE) {
+      const cx = (Math.max(...xs) + Math.min(...xs)) / 2;
+      const cy = (Math.max(...ys) + Math.min(...ys)) / 2;
+      ring = el('circle', { cx, cy, r: Math.max(10, Math.hypot(w, h) / 2 + 6), fill: 'none', stroke: style.color, 'stroke-width': 1.8, 'stroke-dasharray': style.dash, class: 'hc-sky-band-spot', 'data-observation': band.observationId });
+    }
+  }
+  return {
+    shown: runs.length === 0 ? 'not drawn' : ring !== '' ? 'ring' : 'band',
+    under: group({ class: 'hc-sky-band', 'data-observation': band.observationId }, [
+      fill === '' ? '' : el('path', { d: fill, fill: style.color, 'fill-opacity': 0.16, stroke: 'none' }),
+      outline === '' ? '' : el('path', { d: outline, fill: 'none', stroke: style.color, 'stroke-width': 1.6, 'stroke-dasharray': style.dash }),
+    ]),
+    // The outline once more, thin, above the sun paths and the candidates' suns: a band that
+    // passes under the markers stays visible there.
+    over:
+      (outline === '' ? '' : el('path', { d: outline, fill: 'none', stroke: style.color, 'stroke-width': 0.9, 'stroke-dasharray': style.dash, class: 'hc-sky-band-over', 'data-observation': band.observationId })) + ring,
+  };
 }
 
 function azimuthTicks(range: readonly [number, number]): { ticks: Tick[]; compass: Tick[] } {
@@ -50,7 +84,12 @@ function azimuthTicks(range: readonly [number, number]): { ticks: Tick[]; compas
   return { ticks, compass };
 }
 
-function legend(data: SkyChartData): string {
+/** "shadow 300 deg, sun 120 deg". */
+function oppositeWords(o: NonNullable<SkyBand['opposite']>): string {
+  return `shadow ${num(o.shadowAzimuthDeg, 1)} deg, sun ${num(o.sunAzimuthDeg, 1)} deg`;
+}
+
+function legend(data: SkyChartData): { svg: string; bottom: number } {
   const left = AREA.left + AREA.width + 18;
   let y = AREA.top + 4;
   const parts: string[] = [text(left, y, 'Within 1 sigma of', { class: 'hc-legend', 'font-weight': 'bold' })];
@@ -60,6 +99,12 @@ function legend(data: SkyChartData): string {
     parts.push(el('rect', { x: left, y: y - 9, width: 22, height: 10, fill: s.color, 'fill-opacity': 0.16, stroke: s.color, 'stroke-width': 1.6, 'stroke-dasharray': s.dash }));
     parts.push(text(left + 28, y, b.observationId, { class: 'hc-legend' }));
     y += 15;
+    if (b.opposite) {
+      parts.push(text(left + 28, y - 2, 'drawn where the sun stood,', { class: 'hc-note' }));
+      parts.push(text(left + 28, y + 10, 'opposite the shadow:', { class: 'hc-note' }));
+      parts.push(text(left + 28, y + 22, oppositeWords(b.opposite), { class: 'hc-note' }));
+      y += 38;
+    }
   });
   y += 8;
   parts.push(text(left, y, 'Sun path on', { class: 'hc-legend', 'font-weight': 'bold' }));
@@ -80,7 +125,7 @@ function legend(data: SkyChartData): string {
   y += 15;
   parts.push(el('path', { d: `M${left} ${y - 4}h22`, stroke: INK.ink, 'stroke-width': 1.1, 'stroke-dasharray': '4 2.5', fill: 'none' }));
   parts.push(text(left + 28, y, '95% sky ellipse', { class: 'hc-legend' }));
-  return group({ class: 'hc-legend-block' }, parts);
+  return { svg: group({ class: 'hc-legend-block' }, parts), bottom: y };
 }
 
 /**
@@ -103,31 +148,63 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
     group({ class: 'hc-candidate-sun' }, [
       ...s.ellipses.map((e) => el('path', { d: pathData(e.points.map(([az, alt]) => [x(az), y(alt)]), true), fill: 'none', stroke: INK.ink, 'stroke-width': 1.1, 'stroke-dasharray': e.probability > 0.9 ? '4 2.5' : undefined })),
       el('circle', { cx: x(s.azimuthDeg), cy: y(s.altitudeDeg), r: k === 0 ? 4.5 : 3.5, fill: OKABE_ITO.yellow, stroke: INK.ink, 'stroke-width': 1.2 }),
-      // Labels alternate right-below and left-above, so that suns close together stay readable.
-      k % 2 === 0
-        ? text(x(s.azimuthDeg) + 7, y(s.altitudeDeg) + 13, s.label, { class: 'hc-legend', 'font-weight': 'bold' })
-        : text(x(s.azimuthDeg) - 7, y(s.altitudeDeg) - 7, s.label, { class: 'hc-legend', 'font-weight': 'bold', 'text-anchor': 'end' }),
     ]),
+  );
+  // The suns' labels, clear of each other, of the suns and of the hour labels of the first path.
+  const hourLabels = data.paths[0]?.hourMarks ?? [];
+  const hourBoxes = hourLabels.map((h) => {
+    const w = textWidth(h.label, 10);
+    return { x: x(h.azimuthDeg) - w / 2, y: y(h.altitudeDeg) - 6 - 8, width: w, height: 10 };
+  });
+  // ... and clear of the suns' 95% ellipses, so that crowded suns get their labels outside the
+  // crowd, each with a leader line to its own sun.
+  const ellipseBoxes = data.suns.flatMap((s) =>
+    s.ellipses
+      .filter((e) => e.probability > 0.9)
+      .map((e) => {
+        const xs = e.points.map(([az]) => x(az));
+        const ys = e.points.map(([, alt]) => y(alt));
+        return { x: Math.min(...xs), y: Math.min(...ys), width: Math.max(...xs) - Math.min(...xs), height: Math.max(...ys) - Math.min(...ys) };
+      }),
+  );
+  const bounds = { x: AREA.left, y: AREA.top, width: AREA.width, height: AREA.height };
+  const placement = placeLabels(
+    data.suns.map((s, k) => ({ anchor: [x(s.azimuthDeg), y(s.altitudeDeg)] as const, text: s.label, fontSize: 10.5, markRadius: k === 0 ? 5 : 4 })),
+    [...hourBoxes, ...ellipseBoxes],
+    bounds,
   );
   const title = 'Where the sun must have stood';
   const caption = 'Coloured bands: the sun directions within 1 sigma of each measured shadow; black lines: the sun\u2019s path on the best days.';
-  const notes = data.notes.length > 0 ? [text(AREA.left, HEIGHT - 12, `Not drawn: ${data.notes.join('; ')}.`, { class: 'hc-note' })] : [];
+  const noteLines = data.bands
+    .filter((b) => b.opposite)
+    .map((b) => `${b.observationId}: a pole's shadow points away from the sun, so its band lies at the sun's azimuth, opposite the shadow (${oppositeWords(b.opposite!)}).`);
+  const bandParts = data.bands.map((b, i) => bandMarks(b, i, x, y));
+  const ringed = data.bands.filter((_, i) => bandParts[i].shown === 'ring').map((b) => b.observationId);
+  if (ringed.length > 0) noteLines.push(`${ringed.join(', ')}: smaller than a sun's mark, so ${ringed.length === 1 ? 'a ring in its colour shows where it lies' : 'rings in their colours show where they lie'}.`);
+  const thin = data.bands.filter((_, i) => bandParts[i].shown === 'not drawn').map((b) => b.observationId);
+  if (thin.length > 0) noteLines.push(`Not drawn: ${thin.join(', ')} (narrower than the chart's grid of sun directions, or nowhere in the sky shown).`);
+  if (data.notes.length > 0) noteLines.push(`Not drawn: ${data.notes.join('; ')}.`);
+  if (placement.unplaced.length > 0) noteLines.push(`Too crowded to label: ${placement.unplaced.map((u) => u.text).join(', ')}.`);
+  const key = legend(data);
+  const notesTop = Math.max(NOTES_TOP, key.bottom + 24);
+  const height = notesTop + 14 * noteLines.length + 8;
+  const notes = noteLines.map((line, k) => text(AREA.left, notesTop + 14 * k, line, { class: 'hc-note' }));
   return svgDocument({
     width: WIDTH,
-    height: HEIGHT,
+    height,
     title,
     description: caption,
     style: CHART_STYLE,
     idPrefix,
     body: [
-      el('rect', { width: WIDTH, height: HEIGHT, fill: INK.paper }),
+      el('rect', { width: WIDTH, height, fill: INK.paper }),
       el('defs', {}, clipPathFor(clip, AREA)),
       titleBlock(AREA.left, title, caption),
-      group({ 'clip-path': `url(#${clip})` }, [...data.bands.map((b, i) => bandMarks(b, i, x, y)), ...paths, ...suns]),
+      group({ 'clip-path': `url(#${clip})` }, [...bandParts.map((b) => b.under), ...paths, ...suns, ...bandParts.map((b) => b.over), ...placedLabelMarks(placement.placed)]),
       bottomAxis(AREA, { scale: x, ticks, label: 'azimuth (degrees clockwise from true north)', grid: true, secondary: compass }),
       leftAxis(AREA, { scale: y, ticks: niceTicks(data.altitudeRange[0], data.altitudeRange[1], 6).map((v) => ({ value: v, label: num(v, 0) })), label: 'altitude above the horizon (degrees)', grid: true }),
       plotFrame(AREA),
-      legend(data),
+      key.svg,
       ...notes,
     ],
   });

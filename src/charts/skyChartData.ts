@@ -13,9 +13,10 @@ import type { DateAnswer } from '../solver/types.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { civilDateToJd, resolveCalendarRule } from '../calendar/regions.js';
 import { formatYearBcAd } from '../calendar/format.js';
-import { normalizeDeg180 } from '../math/angles.js';
+import { normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
+import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
 import { nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
 import { ellipsePoints, semiAxisVectors } from './ellipse.js';
@@ -24,6 +25,11 @@ import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
 export interface SkyBand {
   readonly observationId: string;
   readonly label: string;
+  /**
+   * For a pole's shadow azimuth: the band lies at the sun's azimuth, opposite the shadow, and
+   * says so ("the sun stands opposite the shadow: shadow 300 deg, sun 120 deg").
+   */
+  readonly opposite?: { readonly shadowAzimuthDeg: number; readonly sunAzimuthDeg: number };
   /** Grid azimuths (in the chart's unwrapped azimuth), altitudes, and max |normalised residual| values[j][i]. */
   readonly azimuths: readonly number[];
   readonly altitudes: readonly number[];
@@ -122,7 +128,8 @@ const COMPONENT_WORDS: Record<string, string> = {
 
 /** Everything the sky chart draws, from the scene and the solver's answer. */
 export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChartOptions = {}): SkyChartData {
-  const model = options.model ?? buildEvidenceModel(scene);
+  // Observations measured in pixels become numbers first, as the solver takes them (src/image/resolvePixels.ts).
+  const model = options.model ?? buildEvidenceModel(resolvePixelObservations(scene).scene);
   const marked = markedCandidates(answer);
   const best = marked[0]?.candidate;
   const centre = scene.site.latitudeDeg >= 0 ? 180 : 0;
@@ -158,7 +165,13 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
       }),
     );
     const words = COMPONENT_WORDS[term.observationKind] ?? term.observationKind;
-    return { observationId: term.observationId, label: `${term.observationId} (${words}${term.wallId ? `, wall ${term.wallId}` : ''})`, azimuths, altitudes, values };
+    const e = term.evidence;
+    // A pole's shadow points away from the sun: shadow azimuth = sun azimuth + 180 (groundShadows.ts).
+    const opposite =
+      e.kind === 'pole-shadow' && e.shadowAzimuthDeg !== undefined
+        ? { opposite: { shadowAzimuthDeg: e.shadowAzimuthDeg, sunAzimuthDeg: normalizeDeg360(e.shadowAzimuthDeg + 180) } }
+        : {};
+    return { observationId: term.observationId, label: `${term.observationId} (${words}${term.wallId ? `, wall ${term.wallId}` : ''})`, azimuths, altitudes, values, ...opposite };
   });
 
   const suns: SkySun[] = marked.map(({ label, candidate: c }) => ({

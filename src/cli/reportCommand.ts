@@ -8,7 +8,7 @@ import { readFileSync } from 'node:fs';
 import { basename } from 'node:path';
 import { InvalidInputError } from '../errors.js';
 import { solveDates } from '../solver/solveDates.js';
-import { renderHtmlReport } from '../report/html.js';
+import { REPORT_SOLVE_OPTIONS, renderHtmlReport } from '../report/html.js';
 import { drawChart } from './chartCommand.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
@@ -44,7 +44,7 @@ export async function run(args: readonly string[], options: ReportOptions, io: C
   // Pixel observations turned into numbers once, as date and check do (src/image/resolvePixels.ts).
   const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
   const bytes = readFileSync(fullPath);
-  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { onProgress })));
+  const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { ...REPORT_SOLVE_OPTIONS, onProgress })));
   const progress = progressLine(io, 'drawing the date and hour map');
   let charts;
   try {

@@ -4,7 +4,7 @@
  * drawChart, checkProposal, renderCheckText), on the desk's document.
  */
 import { readSceneText, sceneFromData } from '../scene/readScene.js';
-import { renderHtmlReport } from '../report/html.js';
+import { REPORT_SOLVE_OPTIONS, renderHtmlReport } from '../report/html.js';
 import { reportCommandLine } from '../cli/reportCommand.js';
 import { solveDates } from '../solver/solveDates.js';
 import { renderCheckText, renderDateText } from '../report/text.js';
@@ -21,7 +21,7 @@ function reply(message: WorkerReply): void {
 /** The HTML report, as reportCommand.ts makes it for `heliochron report <sceneName> -o <output>` run in the scene's folder. */
 function reportHtml(sceneText: string, sceneName: string, sha256: string, output: string): string {
   const scene = readSceneText(sceneText, sceneName);
-  const answer = solveDates(scene);
+  const answer = solveDates(scene, REPORT_SOLVE_OPTIONS);
   const charts = {
     map: drawChart('map', scene, answer, undefined, 'hc-map'),
     sky: drawChart('sky', scene, answer, undefined, 'hc-sky'),

@@ -14,7 +14,7 @@ import type { Observation, Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '../solver/types.js';
 import { formatDayWords } from '../calendar/format.js';
 import { MONTH_NAMES, WEEKDAY_NAMES } from '../calendar/julianDay.js';
-import { describeClockKind } from '../time/clock.js';
+import { describeClockKind, formatClockKind } from '../time/clock.js';
 import { escapeXml } from '../charts/svg.js';
 import {
   CAUTION,
@@ -58,15 +58,25 @@ export interface HtmlReportInput {
   readonly reproducibility: Reproducibility;
 }
 
+/**
+ * How the answer of a report is solved: with every year of each family listed (perYear), so that
+ * each row of the candidates table can name its family. `heliochron report` and the desk use it.
+ */
+export const REPORT_SOLVE_OPTIONS = { perYear: true } as const;
+
 /** Escaped text. */
 const h = escapeXml;
 
-/** A table cell: escaped markup, a number-like cell (right-aligned), or text kept on one line. */
-type Cell = string | { readonly num: string } | { readonly nowrap: string };
+/**
+ * A table cell: escaped markup, a number-like cell (right-aligned), text kept on one line, or
+ * right-aligned text that may break where its markup allows.
+ */
+type Cell = string | { readonly num: string } | { readonly nowrap: string } | { readonly wrap: string };
 
 function cellMarkup(tag: string, c: Cell): string {
   if (typeof c === 'string') return `<${tag}>${c}</${tag}>`;
   if ('num' in c) return `<${tag} class="num">${c.num}</${tag}>`;
+  if ('wrap' in c) return `<${tag} class="num-wrap">${c.wrap}</${tag}>`;
   return `<${tag} class="nowrap">${c.nowrap}</${tag}>`;
 }
 
@@ -197,59 +207,118 @@ function shortUncertainty(c: Candidate): string {
 /** Which optional columns the candidates table needs. */
 interface CandidateColumns {
   readonly clock: boolean;
-  readonly assumption: boolean;
+  readonly kept: boolean;
+  /** A calendar note every date cell shares (" (Gregorian)"), written once in the caption instead. */
+  readonly sharedSuffix: string;
 }
 
-function candidateColumns(candidates: readonly Candidate[]): CandidateColumns {
+function candidateColumns(candidates: readonly Candidate[], scene: Scene): CandidateColumns {
+  const texts = candidates.map((c) => civilDateRendering(c.civilDate, scene).text);
+  const suffix = / \((Julian|Gregorian)\)$/.exec(texts[0] ?? '')?.[0] ?? '';
   return {
     clock: candidates.some((c) => c.times.clock !== undefined),
-    assumption: new Set(candidates.map((c) => c.clockAssumptionLabel)).size > 1,
+    kept: new Set(candidates.map((c) => c.clockAssumptionLabel)).size > 1,
+    sharedSuffix: suffix !== '' && texts.every((t) => t.endsWith(suffix)) ? suffix : '',
   };
 }
 
-function candidateRow(c: Candidate, scene: Scene, columns: CandidateColumns): string {
+/** What the clock was assumed to keep, in one or two words for a narrow column ("mean", "apparent", "zone:Europe/Vienna"). */
+function keptShort(c: Candidate): string {
+  const a = c.clockAssumption;
+  return a.kind === 'none' ? 'no clock' : formatClockKind(a);
+}
+
+/** The 95% uncertainty, free to break after its comma, so that the column stays narrow on paper. */
+function uncertaintyCell(c: Candidate): string {
+  return h(shortUncertainty(c))
+    .split(', ')
+    .map((part) => `<span class="nowrap">${part}</span>`)
+    .join(', ');
+}
+
+/** @param family the row's family label ("F2"), '' when not known, null when the answer has no families (no column) */
+function candidateRow(c: Candidate, scene: Scene, columns: CandidateColumns, family: string | null): string {
   const date = civilDateRendering(c.civilDate, scene);
+  const dateText = columns.sharedSuffix !== '' ? date.text.slice(0, -columns.sharedSuffix.length) : date.text;
   const cells: Cell[] = [
+    ...(family === null ? [] : [h(family)]),
     n(String(c.rank)),
-    { nowrap: h(date.text) },
-    h(c.weekdayName),
+    { nowrap: h(dateText) },
+    h(c.weekdayName.slice(0, 3)),
     n(hhmm(c.times.localApparentMinutes)),
     n(hhmm(c.times.localMeanMinutes)),
     n(hhmm(c.times.utMinutes)),
   ];
-  if (columns.clock) cells.push(n(c.times.clock ? hhmm(c.times.clock.minutes) : '-'));
+  // A clock that kept apparent time showed the apparent time.
+  const shownClock = c.times.clock ? c.times.clock.minutes : c.clockAssumption.kind === 'apparent' ? c.times.localApparentMinutes : null;
+  if (columns.clock) cells.push(n(shownClock === null ? '-' : hhmm(shownClock)));
   cells.push(
     n(fixed(c.sun.azimuthDeg, 1)),
     n(fixed(c.sun.altitudeDeg, 1)),
     n(fixed(c.chiSquare, 2)),
-    n(String(c.degreesOfFreedom)),
     n(h(pText(c.pValue))),
     n(fixed(c.relativeWeight, 3)),
-    { nowrap: h(shortUncertainty(c)) },
+    { wrap: uncertaintyCell(c) },
   );
-  if (columns.assumption) cells.push(h(c.clockAssumptionLabel));
-  return row(cells, false, ` data-rank="${c.rank}" data-date="${h(date.iso)}"`);
+  if (columns.kept) cells.push(h(keptShort(c)));
+  return row(cells, false, ` data-rank="${c.rank}" data-date="${h(date.iso)}"${family === null ? '' : ` data-family="${h(family)}"`}`);
+}
+
+/** Rows of the other years shown after the best of each family. */
+const OTHER_YEAR_ROWS = 10;
+
+/** The family label ("F2") of each candidate the answer can place: every family's best, and its members when listed. */
+function familyOfCandidates(answer: DateAnswer): Map<string, string> {
+  const of = new Map<string, string>();
+  for (const f of answer.families) {
+    for (const m of f.members ?? []) of.set(m.id, `F${f.rank}`);
+    of.set(f.best.id, `F${f.rank}`);
+  }
+  return of;
+}
+
+function candidatesTable(scene: Scene, answer: DateAnswer): string {
+  const familyOf = familyOfCandidates(answer);
+  const bests = answer.families.map((f) => f.best);
+  const bestIds = new Set(bests.map((c) => c.id));
+  const others = answer.candidates.filter((c) => !bestIds.has(c.id));
+  const shownOthers = (bests.length > 0 ? others : answer.candidates).slice(0, OTHER_YEAR_ROWS);
+  const shown = [...bests, ...shownOthers];
+  const columns = candidateColumns(shown, scene);
+  const header: Cell[] = [...(bests.length > 0 ? ['family'] : []), n('rank'), 'date', 'day', n('apparent'), n('mean'), n('UT')];
+  if (columns.clock) header.push(n('clock'));
+  header.push(n('azimuth'), n('altitude'), n('chi2'), n('p'), n('weight'), n('95%'));
+  if (columns.kept) header.push('clock kept');
+  const span = header.length;
+  const group = (words: string): string => `<tr class="group"><th colspan="${span}">${h(words)}</th></tr>`;
+  const rows: string[] = [];
+  if (bests.length > 0) {
+    rows.push(group('The best of each family (F1, F2, ... as in the table above and the charts)'));
+    rows.push(...bests.map((c) => candidateRow(c, scene, columns, familyOf.get(c.id) ?? '')));
+    if (shownOthers.length > 0) rows.push(group('Other years, best first'));
+  }
+  rows.push(...shownOthers.map((c) => candidateRow(c, scene, columns, bests.length > 0 ? (familyOf.get(c.id) ?? '') : null)));
+  const hidden = answer.candidates.length - shownOthers.length - bests.filter((c) => answer.candidates.some((x) => x.id === c.id)).length;
+  const dof = answer.candidates[0]?.degreesOfFreedom;
+  const parts = [
+    'Candidates: times of day in local apparent time, local mean time and UT',
+    columns.clock ? 'clock: the time the clock showed under the row\u2019s assumption' : '',
+    'sun azimuth clockwise from true north and refracted altitude, degrees',
+    dof !== undefined ? `${dof} degree${dof === 1 ? '' : 's'} of freedom in every row` : '',
+    '95%: half-widths of the 95% error ellipse in days and minutes, or the 95% interval of a profile scan',
+    columns.sharedSuffix !== '' ? `dates in the ${columns.sharedSuffix.slice(2, -1)} calendar` : '',
+    !columns.kept && shown.length > 0 ? `every row: ${shown[0].clockAssumptionLabel}` : '',
+    hidden > 0 ? `${hidden} more candidates not shown (heliochron date --all-years lists every year)` : '',
+  ].filter((x) => x !== '');
+  const table = `<table id="candidates" class="candidates"><caption class="muted" style="caption-side:top;text-align:left">${h(parts.join('; '))}.</caption><thead>${row(header.map((c) => (typeof c === 'string' ? h(c) : c)), true)}</thead><tbody>${rows.join('')}</tbody></table>`;
+  return table;
 }
 
 function answerSection(scene: Scene, answer: DateAnswer): string {
   const families = answer.families.length
     ? table('families', 'Families: the same light in several years, best first (F1, F2, ... as marked in the charts)', ['family', 'dates and hours', 'best chi2', 'p', 'weight', 'clock'], answer.families.map(familyRow))
     : '<p>No family of candidates.</p>';
-  const columns = candidateColumns(answer.candidates);
-  const header = ['rank', 'date (site calendar)', 'weekday', 'apparent', 'mean', 'UT'];
-  if (columns.clock) header.push('clock');
-  header.push('azimuth', 'altitude', 'chi2', 'dof', 'p', 'weight', '95% uncertainty');
-  if (columns.assumption) header.push('clock assumption');
-  const shared = !columns.assumption && answer.candidates.length > 0 ? `; every row: ${answer.candidates[0].clockAssumptionLabel}` : '';
-  const clockNote = columns.clock ? '; clock: the time the clock showed under the row\u2019s assumption' : '';
-  const candidates = answer.candidates.length
-    ? table(
-        'candidates',
-        `Best candidates: times of day in local apparent time, local mean time and UT${clockNote}; sun azimuth clockwise from true north and refracted altitude, degrees${shared}`,
-        header,
-        answer.candidates.map((c) => candidateRow(c, scene, columns)),
-      )
-    : '<p id="candidates">No candidate.</p>';
+  const candidates = answer.candidates.length ? candidatesTable(scene, answer) : '<p id="candidates">No candidate.</p>';
   const replaced = answer.candidates.filter((c) => !(c.uncertainty.method === 'ellipse' && ellipse95(c.uncertainty)));
   const replacedList = replaced.length
     ? `<p>Where the error ellipse does not hold, a profile scan of the day gives the 95% interval:</p><ul>${replaced.map((c) => `<li>rank ${c.rank}: ${h(uncertaintyWords(c))}</li>`).join('')}</ul>`
@@ -258,12 +327,62 @@ function answerSection(scene: Scene, answer: DateAnswer): string {
 }
 
 function chartsSection(charts: ReportCharts): string {
-  const figure = (id: string, svg: string, caption: string): string => `<figure id="${id}">${svg}<figcaption>${h(caption)}</figcaption></figure>`;
+  const figure = (id: string, svg: string, caption: string): string => `<figure id="${id}">${svg}<figcaption>${caption}</figcaption></figure>`;
   return `<section id="charts"><h2>Pictures of the answer</h2>
-${figure('figure-map', charts.map, 'Date and hour map. Darker cells fit the evidence better; the candidates are marked with their 68% (solid) and 95% (dashed) error ellipses, or with their 95% day interval when the ellipse does not hold. See docs/pictures.md for how to read it.')}
-${figure('figure-sky', charts.sky, 'Sky chart. Each band holds the sun directions that agree with one measured shadow to within 1 sigma; where the bands cross, the sun stood. The lines are the sun\u2019s paths on the candidate days, with a dot at each whole hour of local apparent time.')}
-${figure('figure-residuals', charts.residuals, 'Residuals at the best candidate. A bar beyond the dotted 2-sigma lines marks a measurement that disagrees with the rest; outlined bars are flagged by the leave-one-out test.')}
-</section>`;
+<p>The three pictures are drawn from the same estimate as the tables. The words in <em>italics</em> are explained in the list that follows them.</p>
+${figure('figure-map', charts.map, MAP_CAPTION)}
+${figure('figure-sky', charts.sky, SKY_CAPTION)}
+${figure('figure-residuals', charts.residuals, RESIDUALS_CAPTION)}
+</section>
+${glossarySection()}`;
+}
+
+/** How to read the date-and-hour map (shades, marks and panels as drawn by src/charts/dateHourMap.ts). */
+const MAP_CAPTION =
+  '<strong>The date-and-hour map.</strong> Across: the days of one civil year at the site, with the month boundaries of the calendar in force; ' +
+  'up: the hour in local apparent time (the time a sundial at the site shows). Each small cell is one day and one hour, shaded by how well the sun of that ' +
+  'day and hour agrees with all the evidence at once (its <em>Delta chi-square</em> above the best fit): darkest blue fits within 1 <em>sigma</em> (68%), ' +
+  'then within 95%, then within 99.7% (3 sigma); the palest blue, dotted, is a poor fit (3 to 5 sigma); white does not fit. Thin black lines follow the ' +
+  'edges of the 68% (solid) and 95% (dashed) regions; hatched months lie outside the months the scene allows. Vermilion dots mark the best date and hour ' +
+  'of each family (F1, F2, ... as in the tables); an open vermilion circle is the best of a family in another year, placed on its day of the year, ' +
+  'since the sun repeats its course almost exactly every year. Around a dot, vermilion <em>error ellipses</em> hold the dates and hours within 68% ' +
+  '(solid) and 95% (dashed); where an ellipse does not hold, a vermilion bar shows the 95% interval of days found by scanning day by day. The left panel ' +
+  'shows the whole year, with the 95% ellipses only, drawn thin so that the shading stays visible; the right panel enlarges the surroundings of F1, ' +
+  'where the ellipses and the shading can be compared: they should agree. A dark cell says that a date is consistent with the light as measured, not that ' +
+  'the picture was made then.';
+
+/** How to read the sky chart (src/charts/skyChart.ts). */
+const SKY_CAPTION =
+  '<strong>The sky chart.</strong> Across: the sun\u2019s azimuth, its compass direction in degrees clockwise from true north (90 east, 180 south, ' +
+  '270 west); up: its altitude above the horizon in degrees, with refraction. Each measured shadow allows only certain positions of the sun: its band, ' +
+  'in its own colour and outline style (see the key beside the chart), holds the sun positions that agree with it within 1 sigma. A pole\u2019s shadow ' +
+  'points away from the sun, so its band is drawn at the sun\u2019s azimuth, opposite the shadow\u2019s, as the note under the chart says. Where the ' +
+  'bands cross, the sun stood; a band that misses the crossing points to a measurement to look at again. A band smaller than a sun\u2019s mark is ringed in its own colour. The black lines are the sun\u2019s course on the ' +
+  'best day of each family (solid, dashed, dotted), with a dot at each whole hour of local apparent time. The yellow dots are the sun at F1, F2, ..., ' +
+  'each with black ellipses of direction holding 68% (solid) and 95% (dashed); where several lie together, their labels are set beside them with thin ' +
+  'grey lines to their own dots. A clock fixes the hour, not the direction of the sun, and facts without numbers (a wall in shade) are not drawn.';
+
+/** How to read the residuals chart (src/charts/residualChart.ts). */
+const RESIDUALS_CAPTION =
+  '<strong>The residuals.</strong> One bar for each measured number at the best candidate: its <em>residual</em>, (measured - predicted) / sigma, ' +
+  'that is how far the measurement lies from what the sun of that date and hour would give, in units of its own uncertainty. A bar to the right: the ' +
+  'measurement is larger than predicted; to the left, smaller. Bars within 1 sigma are blue, within 2 sigma orange, beyond 2 sigma vermilion; the ' +
+  'value is printed beside each bar. About two bars in three should end inside the dashed lines (1 sigma) and nearly all inside the dotted lines ' +
+  '(2 sigma). An outlined bar marked FLAGGED disagrees with the rest by the leave-one-out test (the fit improves beyond chance without it): a prompt to ' +
+  'look again at that part of the picture, not a verdict. Below the bars, the facts without numbers, each with \u201cholds\u201d or \u201cFAILS\u201d.';
+
+/** The few statistical words of the report, in plain terms. */
+function glossarySection(): string {
+  const items: [string, string][] = [
+    ['sigma', 'One standard deviation: the uncertainty stated with each measured number. A shadow angle of 38 deg with sigma 2 deg means that the true value lies between 36 and 40 deg about two times in three. Regions of \u201c1 sigma\u201d hold 68% of the chance, \u201c2 sigma\u201d 95%, \u201c3 sigma\u201d 99.7%.'],
+    ['residual', 'Measured minus predicted, divided by its sigma: how many sigmas a measurement lies from what the sun of a candidate date and hour would give. The same sign in every table and picture: positive when the measurement is larger than predicted.'],
+    ['chi-square (chi2)', 'The sum of the squared residuals of all measured numbers: 0 is a perfect fit. With measurements as uncertain as stated, it is on average about the number of degrees of freedom (the measured numbers less the two unknowns, day and hour). Delta chi-square is how much larger it is at another date and hour than at the best fit; the shades of the map and the error ellipses are drawn at fixed values of it.'],
+    ['p-value (p)', 'The chance that measurements as uncertain as stated would fit at least this badly if the date and hour were right. Below 0.05 the evidence fits poorly there. A large p does not prove a date: it says only that the light does not speak against it.'],
+    ['error ellipse', 'The region of dates and hours (on the map) or of sun directions (on the sky chart) that fit within a stated chance, 68% or 95%, worked out from how fast chi-square grows around the best fit. It is a straight-line approximation; where it fails (often near a solstice, when the sun\u2019s height hardly changes from day to day), a day-by-day scan (profile scan) gives the interval instead.'],
+    ['family', 'Candidates with the same light in several years: the sun repeats its course almost exactly every year, so the light alone rarely tells the years apart.'],
+  ];
+  return `<section id="glossary"><h2>Words used in this report</h2>
+<dl class="facts glossary">${items.map(([k, v]) => `<dt>${h(k)}</dt><dd>${h(v)}</dd>`).join('')}</dl></section>`;
 }
 
 function consistencyRow(e: LeaveOneOutEntry): string {

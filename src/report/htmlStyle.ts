@@ -1,8 +1,9 @@
 /**
  * The stylesheet of the HTML report, inlined into the page (no external fonts or files).
- * Screen: a single readable column. Print (`@media print`): A4 with 18 mm margins, black
- * text, tables and figures kept whole on a page, the URL-free reproducibility block kept
- * with its heading, so that "Print to PDF" from a browser gives a clean document.
+ * Screen: a single readable column. Print (`@media print`): A4 with 18 mm by 16 mm margins,
+ * black text, tables in a smaller type so that the widest (the candidates) fits the 178 mm
+ * between the margins, tables and figures kept whole on a page, charts scaled down to the page
+ * and never up, so that "Print to PDF" from a browser gives a clean document.
  */
 import { FONT_STACK, INK, OKABE_ITO } from '../charts/palette.js';
 
@@ -27,8 +28,12 @@ table { border-collapse: collapse; margin: 0.5rem 0 1rem; font-family: ${FONT_ST
 th, td { text-align: left; vertical-align: top; padding: 0.28rem 0.5rem; border-bottom: 1px solid ${INK.grid}; }
 th { border-bottom: 1.5px solid ${INK.frame}; font-weight: bold; }
 td.num, th.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
-td.nowrap { white-space: nowrap; }
+td.nowrap, span.nowrap { white-space: nowrap; }
+td.num-wrap, th.num-wrap { text-align: right; font-variant-numeric: tabular-nums; }
 tr.flagged td { font-weight: bold; }
+tr.group th { font-weight: bold; font-style: italic; border-bottom: 1px solid ${INK.grid}; padding-top: 0.6rem; }
+table.candidates td, table.candidates th { padding-left: 0.35rem; padding-right: 0.35rem; }
+dl.glossary { grid-template-columns: minmax(8rem, max-content) 1fr; }
 dl.facts { display: grid; grid-template-columns: minmax(10rem, max-content) 1fr; gap: 0.25rem 1rem; margin: 0.5rem 0 1rem; }
 dl.facts dt { font-weight: bold; }
 dl.facts dd { margin: 0; }
@@ -47,7 +52,12 @@ figcaption { font-size: 0.9rem; color: ${INK.muted}; margin-top: 0.4rem; max-wid
   h3 { break-after: avoid; page-break-after: avoid; }
   table, figure, .verdict, .caution, dl.facts { break-inside: avoid; page-break-inside: avoid; }
   thead { display: table-header-group; }
-  figure svg { border: none; width: 100%; }
+  figure svg { border: none; max-width: 100%; height: auto; }
+  table { font-size: 8pt; }
+  th, td { padding: 0.12rem 0.25rem; }
+  table.candidates td, table.candidates th { padding-left: 0.18rem; padding-right: 0.18rem; }
+  figcaption { font-size: 9pt; max-width: none; }
+  p, li { max-width: none; }
   .verdict { background: none; }
   a { color: inherit; text-decoration: none; }
 }

@@ -77,7 +77,8 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
     const values = predictedValuesOf(t, p.sun, wallAzimuthOf(model, t.wallId, raw.nuisances));
     for (let k = 0; k < t.count; k += 1) {
       const v = values[k] ?? { component: `residual-${k + 1}`, measured: NaN, predicted: NaN, unit: '', sigma: NaN };
-      measuredRows.push({ observationId: t.observationId, observationKind: t.observationKind, ...v, normalised: p.residuals[row] });
+      // The solver's residuals are (predicted - measured) / sigma; reports use the opposite sign (docs/conventions.md).
+      measuredRows.push({ observationId: t.observationId, observationKind: t.observationKind, ...v, normalised: -p.residuals[row] });
       row += 1;
     }
   }
@@ -100,7 +101,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
       predicted,
       unit: 'min',
       sigma: c.precisionMinutes,
-      normalised: p.residuals[row],
+      normalised: -p.residuals[row],
     });
     row += 1;
   }

@@ -43,7 +43,7 @@ beforeAll(() => {
 
 describe('HTML report', () => {
   it('has every section, in order', () => {
-    const ids = ['verdict', 'question', 'assumptions', 'walls', 'evidence', 'evidence-table', 'answer', 'families', 'candidates', 'charts', 'figure-map', 'figure-sky', 'figure-residuals', 'consistency', 'cautions', 'reproducibility'];
+    const ids = ['verdict', 'question', 'assumptions', 'walls', 'evidence', 'evidence-table', 'answer', 'families', 'candidates', 'charts', 'figure-map', 'figure-sky', 'figure-residuals', 'glossary', 'consistency', 'cautions', 'reproducibility'];
     let last = -1;
     for (const id of ids) {
       const at = html.indexOf(`id="${id}"`);
@@ -78,7 +78,10 @@ describe('HTML report', () => {
     const first = answer.candidates[0];
     const at = html.indexOf('data-rank="1"');
     expect(at).toBeGreaterThan(0);
-    expect(html.slice(at, at + 400)).toContain(civilDateRendering(first.civilDate, scene).text);
+    // the calendar every row shares is named once in the caption, not in each cell
+    const shared = / \((Julian|Gregorian)\)$/.exec(civilDateRendering(first.civilDate, scene).text)![0];
+    expect(html.slice(at, at + 400)).toContain(civilDateRendering(first.civilDate, scene).text.slice(0, -shared.length));
+    expect(html).toContain(`dates in the ${shared.slice(2, -1)} calendar`);
     expect(html.indexOf('data-rank="2"')).toBeGreaterThan(at);
   });
   it('gives what is needed to reproduce it', () => {
@@ -98,6 +101,14 @@ describe('HTML report', () => {
       expect(page).toContain('No date fits &lt;at all&gt;.');
       expect(page).toContain('status-no-candidates');
     });
+    it('leaves out the family column when the answer has candidates but no families', () => {
+      const page = reportFor(scene, { ...answer, families: [] });
+      const head = /<table id="candidates"[\s\S]*?<thead>([\s\S]*?)<\/thead>/.exec(page)![1];
+      expect(head).not.toContain('family');
+      expect(head).toMatch(/^<tr><th class="num">rank<\/th>/);
+      expect(page).not.toContain('data-family=');
+      expect(page).toContain('data-rank="1"');
+    });
     it('describes every kind of observation in words', () => {
       const kinds: Observation[] = [
         { id: 'a', kind: 'eave-shadow', wallId: 'w', distanceRatio: 0.5, sigma: 0.05, projectionRatio: 0.1 },
@@ -115,6 +126,54 @@ describe('HTML report', () => {
       expect(words[5]).toContain('reads 07:40 on a 12-hour dial');
       expect(words[5]).toContain('hour hand not trusted');
       expect(words[6]).toBe('measured in the picture (pixels)');
+    });
+  });
+
+  describe('the four-family square (tests/report/scenes/four-family-square.yaml, invented)', () => {
+    let square: Scene;
+    let squareAnswer: DateAnswer;
+    let page: string;
+    beforeAll(() => {
+      square = readSceneFile('tests/report/scenes/four-family-square.yaml');
+      // as `heliochron report` solves it: every year of each family listed, so that each row names its family
+      squareAnswer = solveDates(square, { perYear: true });
+      page = reportFor(square, squareAnswer);
+    });
+    it('shows the best of each family first, then the other years, each row naming its family', () => {
+      expect(squareAnswer.families.length).toBeGreaterThanOrEqual(2);
+      const rows = [...page.matchAll(/<tr data-rank="(\d+)" data-date="[^"]*" data-family="(F\d+)?"/g)].map((m) => ({ rank: Number(m[1]), family: m[2] }));
+      const k = squareAnswer.families.length;
+      expect(rows.slice(0, k)).toEqual(squareAnswer.families.map((f) => ({ rank: f.best.rank, family: `F${f.rank}` })));
+      // then the other years in rank order, at most ten, each a member of a family
+      const rest = rows.slice(k);
+      expect(rest.length).toBeGreaterThan(0);
+      expect(rest.length).toBeLessThanOrEqual(10);
+      expect(rest.map((r) => r.rank)).toEqual([...rest.map((r) => r.rank)].sort((a, b) => a - b));
+      for (const r of rest) {
+        const c = squareAnswer.candidates.find((x) => x.rank === r.rank)!;
+        const family = squareAnswer.families.find((f) => `F${f.rank}` === r.family)!;
+        expect(family.members!.map((m) => m.id), `rank ${r.rank}`).toContain(c.id);
+      }
+      // the old table showed 20 rows of the first family and none of the second
+      expect(new Set(rows.map((r) => r.family)).size).toBe(k);
+    });
+    it('explains each chart in the report itself and names the colours as drawn', () => {
+      expect(page).not.toContain('docs/pictures.md');
+      const captions = [...page.matchAll(/<figcaption>([\s\S]*?)<\/figcaption>/g)].map((m) => m[1]);
+      expect(captions).toHaveLength(3);
+      expect(captions[0]).toMatch(/darkest blue[\s\S]*palest blue, dotted, is a poor fit[\s\S]*white does not fit/);
+      expect(captions[0]).toContain('Vermilion dots');
+      expect(captions[1]).toContain('opposite the shadow');
+      expect(captions[1]).toContain('yellow dots');
+      expect(captions[2]).toContain('(measured - predicted) / sigma');
+      expect(captions[2]).toMatch(/blue, within 2 sigma orange, beyond 2 sigma vermilion/);
+      for (const c of captions) expect(c).not.toMatch(/\bred\b/);
+    });
+    it('has a glossary of sigma, chi-square, p-value and error ellipse', () => {
+      const glossary = /<section id="glossary">([\s\S]*?)<\/section>/.exec(page)![1];
+      for (const word of ['sigma', 'residual', 'chi-square (chi2)', 'p-value (p)', 'error ellipse']) expect(glossary).toContain(`<dt>${word}</dt>`);
+      expect(glossary).toContain('68%');
+      expect(glossary).toContain('Measured minus predicted');
     });
   });
 });
