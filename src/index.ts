@@ -1,6 +1,7 @@
 /**
  * heliochron's public API: named re-exports only.
- * The command line (src/cli/) is a thin layer over these.
+ * The command line (src/cli/) is a thin layer over these. Everything here runs unchanged in a
+ * browser (no file access, no Node built-ins); src/node.ts adds the readers of files on disk.
  */
 
 // Errors
@@ -64,7 +65,7 @@ export type { ShadowPairInput, SunFromShadows, SunComparison } from './image/cam
 export { resolveSceneSun, describeSceneSun } from './image/sceneSun.js';
 
 // Scene files
-export { readSceneText, readSceneFile } from './scene/readScene.js';
+export { readSceneText } from './scene/readScene.js';
 export type * from './scene/types.js';
 
 // Solver

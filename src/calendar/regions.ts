@@ -11,7 +11,6 @@
  * Day names that a region skipped at a switch (a "reform gap") are refused with a
  * message naming the neighbouring days. All JDs here are of local civil 0h: no time scale.
  */
-import { readFileSync } from 'node:fs';
 import { InvalidInputError } from '../errors.js';
 import type { CalendarRule, CivilDay, YearStartStyle } from '../scene/types.js';
 import { type CalendarDate, type CalendarKind, calendarDateToJd, jdToCalendarDate } from './julianDay.js';
@@ -25,6 +24,7 @@ import {
   type Reckoning,
 } from './reckoning.js';
 import { formatDayWords, formatIsoDay } from './format.js';
+import { CALENDAR_REFORMS_JSON } from './calendarReformsJson.generated.js';
 
 /** One period of a region's civil reckoning. */
 export interface ReformPeriod {
@@ -90,7 +90,6 @@ export interface ResolvedCalendar {
   readonly reading?: RegionReading;
 }
 
-const TABLE_URL = new URL('../../data/calendar-reforms.json', import.meta.url);
 const RECKONINGS: readonly Reckoning[] = ['julian', 'gregorian', 'swedish'];
 const YEAR_STARTS: readonly YearStartStyle[] = ['jan1', 'mar25-forward', 'mar25-backward', 'mar1', 'dec25'];
 
@@ -142,17 +141,18 @@ function buildPeriods(raw: readonly RawPeriod[], where: string): ReformPeriod[] 
 }
 
 /**
- * Read and check the table of regions (data/calendar-reforms.json). Read afresh on each call:
- * keep the result (or a ResolvedCalendar) when calling in a loop.
+ * Read and check the table of regions (data/calendar-reforms.json, whose text reaches the library
+ * through calendarReformsJson.generated.ts: no file is read). Parsed and checked afresh on each
+ * call: keep the result (or a ResolvedCalendar) when calling in a loop.
  * Throws an Error (a defect of the data file, not of the user's input) when a row is inconsistent.
  */
 export function loadReformTable(): readonly Region[] {
-  return parseReformTable(JSON.parse(readFileSync(TABLE_URL, 'utf8')));
+  return parseReformTable(JSON.parse(CALENDAR_REFORMS_JSON));
 }
 
 /** The regions that left a calendar other than the Julian (data/calendar-reforms.json `outOfScope`). */
 export function loadOutOfScopeRegions(): readonly OutOfScopeRegion[] {
-  const json = JSON.parse(readFileSync(TABLE_URL, 'utf8')) as { outOfScope?: RawOutOfScope[] };
+  const json = JSON.parse(CALENDAR_REFORMS_JSON) as { outOfScope?: RawOutOfScope[] };
   return (json.outOfScope ?? []).map((o) => Object.freeze({ id: o.id, name: o.name, left: o.left, year: o.year }));
 }
 

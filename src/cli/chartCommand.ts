@@ -5,18 +5,12 @@
  */
 import { basename } from 'node:path';
 import { InvalidInputError } from '../errors.js';
-import type { Scene } from '../scene/types.js';
-import type { DateAnswer } from '../solver/types.js';
 import { solveDates } from '../solver/solveDates.js';
-import { dateHourMapData } from '../charts/dateHourMapData.js';
-import { renderDateHourMap } from '../charts/dateHourMap.js';
-import { skyChartData } from '../charts/skyChartData.js';
-import { renderSkyChart } from '../charts/skyChart.js';
-import { residualChartData, renderResidualChart } from '../charts/residualChart.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
 import { progressLine, withProgressLine } from './progress.js';
+import { drawChart } from './drawChart.js';
 import { ALL_CHARTS, CHART_KINDS, type ChartKind, type ChartOptions } from './chartSpec.js';
 
 /** The kind option, validated: one chart, or all three. */
@@ -37,18 +31,6 @@ export function parseChartKind(text: string | undefined): ChartKind | typeof ALL
 export function chartFileNames(output: string | undefined, scenePath: string): { kind: ChartKind; file: string }[] {
   const stem = output === undefined ? basename(scenePath).replace(/\.(ya?ml|json)$/i, '') : output.replace(/\.svg$/i, '');
   return CHART_KINDS.map((kind) => ({ kind, file: `${stem}-${kind}.svg` }));
-}
-
-/** One chart of a solved scene as SVG markup; `onProgress` follows the date-and-hour map's grid. */
-export function drawChart(kind: ChartKind, scene: Scene, answer: DateAnswer, onProgress?: (done: number, total: number) => void, idPrefix?: string): string {
-  switch (kind) {
-    case 'map':
-      return renderDateHourMap(dateHourMapData(scene, answer, { onProgress }), idPrefix);
-    case 'sky':
-      return renderSkyChart(skyChartData(scene, answer), idPrefix);
-    case 'residuals':
-      return renderResidualChart(residualChartData(answer), idPrefix);
-  }
 }
 
 /** Run `heliochron chart`. Bad input throws (the CLI exits with 2, nothing written). */

@@ -12,7 +12,7 @@ import { resolve } from 'node:path';
 import { HeliochronError, InvalidInputError, quoteValue } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
 import type { Scene } from '../scene/types.js';
-import { readSceneFile } from '../scene/readScene.js';
+import { readSceneFile } from './sceneFile.js';
 import { solveDates } from '../solver/solveDates.js';
 import { renderDateText } from '../report/text.js';
 import { dateAnswerJson, stableJson } from '../report/json.js';

@@ -24,7 +24,8 @@ import { checkOutputTarget, writeOutputFile, type CliIo } from './io.js';
 import { inScene, readSceneForCommand } from './dateCommand.js';
 import type { MeasureOptions } from './measureSpec.js';
 import { measureOverlaySvg, observationIndex, planeLabel, planeShortLabel, predictMeasurements, type MeasurementPrediction } from './measureOverlay.js';
-import { readPictureFile, type PictureFile } from './pictureFile.js';
+import type { PictureFile } from './pictureFile.js';
+import { readPictureFile } from './readPictureFile.js';
 
 /** Every plane of the scene rectified: those the measurements used, and any other wall or ground plane given. */
 function allPlanes(scene: Scene, used: ReadonlyMap<string, RectifiedPlane>): Map<string, RectifiedPlane> {

@@ -19,8 +19,9 @@
  * The declared size must be at most MAX_IMAGE_SIDE_PX a side and MAX_PICTURE_PIXELS
  * in all. The picture is not decoded (no decoder is bundled): a file damaged inside
  * its compressed data passes and shows as a broken picture in the overlay.
+ *
+ * Bytes in, no file access (the desk's page uses it too); readPictureFile.ts reads the file.
  */
-import { readFileSync, statSync } from 'node:fs';
 import { InvalidInputError } from '../errors.js';
 import { MAX_IMAGE_SIDE_PX } from '../scene/readImage.js';
 
@@ -151,7 +152,7 @@ function checkPictureSize(size: { w: number; h: number } | string, kind: string,
 /**
  * Recognise picture bytes as JPEG or PNG.
  * @param field the option or scene path named in a refusal (`--image`, `image.file`)
- * @example sniffPicture(readFileSync('hall.png'), '--image', 'hall.png').mimeType // 'image/png'
+ * @example sniffPicture(pngBytes, '--image', 'hall.png').mimeType // 'image/png'
  */
 export function sniffPicture(bytes: Uint8Array, field: string, name: string): PictureFile {
   if (bytes.length >= 8 && PNG_SIGNATURE.every((v, k) => bytes[k] === v)) {
@@ -172,21 +173,4 @@ export function sniffPicture(bytes: Uint8Array, field: string, name: string): Pi
       ? `This file is ${other}; save the picture as PNG or JPEG and give that file`
       : `Its first bytes (${head || 'none: the file is empty'}) are neither JPEG (FF D8 FF) nor PNG (89 50 4E 47 0D 0A 1A 0A)`,
   );
-}
-
-/** Read and recognise a picture file; refusals name `field` and quote the name as given. */
-export function readPictureFile(fullPath: string, field: string, name: string): PictureFile {
-  let size: number;
-  try {
-    const stat = statSync(fullPath);
-    if (!stat.isFile()) throw new InvalidInputError(field, name, 'a JPEG or PNG picture file', 'This is not a regular file');
-    size = stat.size;
-  } catch (error) {
-    if (error instanceof InvalidInputError) throw error;
-    throw new InvalidInputError(field, name, 'a JPEG or PNG picture file', 'There is no file at this path (or it cannot be read)');
-  }
-  if (size > MAX_PICTURE_BYTES) {
-    throw new InvalidInputError(field, name, `a picture of at most ${MAX_PICTURE_BYTES / (1024 * 1024)} MiB`, `It has ${size} bytes`);
-  }
-  return sniffPicture(new Uint8Array(readFileSync(fullPath)), field, name);
 }

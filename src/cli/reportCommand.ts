@@ -9,25 +9,13 @@ import { basename } from 'node:path';
 import { InvalidInputError } from '../errors.js';
 import { solveDates } from '../solver/solveDates.js';
 import { REPORT_SOLVE_OPTIONS, renderHtmlReport } from '../report/html.js';
-import { drawChart } from './chartCommand.js';
+import { drawChart } from './drawChart.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
 import { progressLine, withProgressLine } from './progress.js';
 import type { ReportOptions } from './reportSpec.js';
-
-/** A command-line word, quoted when it holds anything but plain path characters. */
-export function shellWord(word: string): string {
-  return /^[A-Za-z0-9_./:=+-]+$/.test(word) ? word : `'${word.replace(/'/g, `'\\''`)}'`;
-}
-
-/** The command as the user would type it again (paths as given). */
-export function reportCommandLine(scenePath: string, options: ReportOptions): string {
-  const words = ['heliochron', 'report', scenePath];
-  if (options.output !== undefined) words.push('-o', options.output);
-  if (options.force) words.push('--force');
-  return words.map(shellWord).join(' ');
-}
+import { reportCommandLine } from './reportCommandLine.js';
 
 /** SHA-256 of bytes, hexadecimal. */
 export function sha256Hex(bytes: Uint8Array): string {

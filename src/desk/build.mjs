@@ -5,9 +5,9 @@
  * the library modules it imports (never a copy), plus index.html and desk.css. Run by
  * `npm run build` and by `npm ci` (the prepare script); nothing is fetched at run time.
  *
- * Modules the page imports for their pure functions also import node:fs, node:path or
- * node:crypto for file handling the page never runs; those are replaced in the bundle by
- * nodeShim.cjs, which also hands over the bundled data/calendar-reforms.json.
+ * No shim: the library's core and the front-end modules the page imports hold no Node
+ * built-in (the data tables come as generated modules, scripts/build-data-modules.mjs), so a
+ * `node:` import that creeps in fails this build (platform browser) and tests/desk/bundle.test.ts.
  */
 import { build } from 'esbuild';
 import { copyFileSync, mkdirSync, readFileSync } from 'node:fs';
@@ -24,7 +24,6 @@ await build({
   format: 'esm',
   platform: 'browser',
   target: 'es2022',
-  alias: { 'node:fs': './src/desk/nodeShim.cjs', 'node:path': './src/desk/nodeShim.cjs', 'node:crypto': './src/desk/nodeShim.cjs' },
   minify: true,
   sourcemap: false,
   legalComments: 'eof',

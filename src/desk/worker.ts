@@ -5,12 +5,12 @@
  */
 import { readSceneText, sceneFromData } from '../scene/readScene.js';
 import { REPORT_SOLVE_OPTIONS, renderHtmlReport } from '../report/html.js';
-import { reportCommandLine } from '../cli/reportCommand.js';
+import { reportCommandLine } from '../cli/reportCommandLine.js';
 import { solveDates } from '../solver/solveDates.js';
 import { renderCheckText, renderDateText } from '../report/text.js';
-import { drawChart } from '../cli/chartCommand.js';
+import { drawChart } from '../cli/drawChart.js';
 import { checkProposal } from '../solver/checkDate.js';
-import { proposalFromOptions } from '../cli/checkCommand.js';
+import { proposalFromOptions } from '../cli/proposalOptions.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import type { WorkerReply, WorkerRequest } from './workerProtocol.js';
 

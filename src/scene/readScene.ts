@@ -6,8 +6,10 @@
  * what is allowed. Unknown keys are refused with a "did you mean" suggestion,
  * never ignored. The format is described field by field in docs/scene-file.md;
  * its JSON Schema is docs/scene.schema.json.
+ *
+ * Text in, no file access: reading the file from disk is the front end's (readSceneFile in
+ * src/cli/sceneFile.ts), so that this reader runs unchanged in the desk's page.
  */
-import { readFileSync, statSync } from 'node:fs';
 import { STANDARD_AIR } from '../ephemeris/refraction.js';
 import { DELTA_T_MODELS } from '../time/deltaT.js';
 import { InvalidInputError, quoteValue, refusalHead } from '../errors.js';
@@ -263,38 +265,4 @@ export function readSceneText(text: string, fileName: string): Scene {
     const where = `See line ${line} of ${fileName}.`;
     throw new InvalidInputError(error.field, error.value, error.allowed, detail ? `${detail} ${where}` : where);
   }
-}
-
-/**
- * Read a scene file from disk (UTF-8 YAML or JSON).
- * @throws InvalidInputError for a missing file, a folder, a file over MAX_SCENE_BYTES, non-UTF-8 bytes, or any content error
- */
-export function readSceneFile(path: string): Scene {
-  const allowed = 'a scene file (.yaml, .yml or .json)';
-  let size: number;
-  try {
-    const stat = statSync(path);
-    if (stat.isDirectory()) throw new InvalidInputError(path, path, allowed, 'This is a folder, not a file.');
-    if (!stat.isFile()) throw new InvalidInputError(path, path, allowed, 'This is not a regular file.');
-    size = stat.size;
-  } catch (error) {
-    if (error instanceof InvalidInputError) throw error;
-    throw new InvalidInputError(path, path, allowed, 'There is no file at this path (or it cannot be read).');
-  }
-  if (size > MAX_SCENE_BYTES) {
-    throw new InvalidInputError(path, `${size} bytes`, `a scene file of at most ${MAX_SCENE_BYTES} bytes (1 MiB)`, 'Scene files are small; is this the right file?');
-  }
-  let bytes: Buffer;
-  try {
-    bytes = readFileSync(path);
-  } catch {
-    throw new InvalidInputError(path, path, allowed, 'The file cannot be read.');
-  }
-  let text: string;
-  try {
-    text = new TextDecoder('utf-8', { fatal: true }).decode(bytes);
-  } catch {
-    throw new InvalidInputError(path, `${bytes.length} bytes`, 'a text file in UTF-8 (YAML or JSON)', 'The file holds bytes that are not UTF-8 text; is it a picture or a word-processor file?');
-  }
-  return readSceneText(text, path);
 }

@@ -4,9 +4,10 @@
  * compiled with backzone). Node's built-in ICU zone data merges zones that agree since 1970, so
  * before 1970 it gives, for example, Brussels's history for Europe/Amsterdam; after 1970 both agree
  * and luxon (ICU) is used. The file names its tz version; answers name it (`tzDataWords`).
- * The file is read once, on first use, and never changed (the one cache of this module).
+ * Its text reaches the library through tzHistoryJson.generated.ts (no file is read, so this runs
+ * in a browser too); it is parsed once, on first use, and never changed (the one cache of this module).
  */
-import { readFileSync } from 'node:fs';
+import { TZ_HISTORY_JSON } from './tzHistoryJson.generated.js';
 
 /** Unix time (seconds) of 1970-01-01 0h UT, where the file's history ends. */
 export const HISTORY_END_UNIX_SECONDS = 0;
@@ -20,11 +21,10 @@ interface HistoryFile {
   readonly zones: Readonly<Record<string, ZoneHistory>>;
 }
 
-const HISTORY_URL = new URL('../../data/tz-history.json', import.meta.url);
 let cache: HistoryFile | undefined;
 
 function historyFile(): HistoryFile {
-  cache ??= JSON.parse(readFileSync(HISTORY_URL, 'utf8')) as HistoryFile;
+  cache ??= JSON.parse(TZ_HISTORY_JSON) as HistoryFile;
   return cache;
 }
 

@@ -6,7 +6,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { main } from '../../src/cli/main.js';
 import type { CliIo } from '../../src/cli/io.js';
-import { reportCommandLine, shellWord } from '../../src/cli/reportCommand.js';
+import { reportCommandLine, shellWord } from '../../src/cli/reportCommandLine.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const EXAMPLE = 'examples/marktgasse-print.yaml';

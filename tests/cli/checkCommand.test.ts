@@ -9,7 +9,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { main } from '../../src/cli/main.js';
-import { parseSeason } from '../../src/cli/checkCommand.js';
+import { parseSeason } from '../../src/cli/proposalOptions.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const MARKTGASSE = 'examples/marktgasse-print.yaml';

@@ -11,7 +11,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
 import { cli, tempDir } from '../robustness/robustHelpers.js';
-import { proposalFromOptions } from '../../src/cli/checkCommand.js';
+import { proposalFromOptions } from '../../src/cli/proposalOptions.js';
 import { readSceneText } from '../../src/scene/readScene.js';
 
 const EXAMPLE = fileURLToPath(new URL('../../examples/marktgasse-print.yaml', import.meta.url));

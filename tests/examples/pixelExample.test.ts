@@ -23,7 +23,7 @@ import vsop87Dearth from 'astronomia/data/vsop87Dearth';
 import { main } from '../../src/cli/main.js';
 import type { CliIo } from '../../src/cli/io.js';
 import { sniffPicture } from '../../src/cli/pictureFile.js';
-import { readSceneFile } from '../../src/scene/readScene.js';
+import { readSceneFile } from '../../src/cli/sceneFile.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const DIR = join(ROOT, 'examples/tanners-hall-photo');

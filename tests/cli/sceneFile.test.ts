@@ -3,8 +3,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { InvalidInputError } from '../../src/errors.js';
-import { MAX_SCENE_BYTES, readSceneFile } from '../../src/scene/readScene.js';
-import { minimalScene } from './sceneSamples.js';
+import { MAX_SCENE_BYTES } from '../../src/scene/readScene.js';
+import { readSceneFile } from '../../src/cli/sceneFile.js';
+import { minimalScene } from '../scene/sceneSamples.js';
 
 const dir = mkdtempSync(join(tmpdir(), 'heliochron-scene-'));
 afterAll(() => rmSync(dir, { recursive: true, force: true }));
