@@ -10,7 +10,7 @@
  * elapsed time includes waiting for a core).
  */
 import { fileURLToPath } from 'node:url';
-import { readSceneFile } from '../dist/scene/readScene.js';
+import { readSceneFile } from '../dist/cli/sceneFile.js';
 import { rectifyPlane } from '../dist/image/planeInImage.js';
 import { monteCarloPixelObservation } from '../dist/image/pixelObservations.js';
 import { createRandom } from '../dist/math/random.js';

@@ -18,7 +18,7 @@
 import { readdirSync, statSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
-import { readSceneFile } from '../dist/scene/readScene.js';
+import { readSceneFile } from '../dist/cli/sceneFile.js';
 import { withWindow } from './solver-growth-lib.mjs';
 import { buildEvidenceModel } from '../dist/solver/evidenceModel.js';
 import { solveDates, solveModel } from '../dist/solver/solveDates.js';

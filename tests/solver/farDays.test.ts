@@ -6,7 +6,7 @@
  */
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { readSceneFile } from '../../src/scene/readScene.js';
+import { readSceneFile } from '../../src/cli/sceneFile.js';
 import { buildEvidenceModel, splitChiSquare } from '../../src/solver/evidenceModel.js';
 import { solveModel } from '../../src/solver/solveDates.js';
 import { dayWindowOf } from '../../src/solver/window.js';

@@ -7,7 +7,7 @@
  */
 import { fileURLToPath } from 'node:url';
 import { describe, expect, it } from 'vitest';
-import { readSceneFile } from '../../src/scene/readScene.js';
+import { readSceneFile } from '../../src/cli/sceneFile.js';
 import type { Scene } from '../../src/scene/types.js';
 import { solveDates, solveModel } from '../../src/solver/solveDates.js';
 import { buildEvidenceModel } from '../../src/solver/evidenceModel.js';
