@@ -6,22 +6,16 @@
  * entry, src/index.ts, must bundle for the browser (esbuild, platform browser) with no built-in.
  */
 import { readdirSync, readFileSync } from 'node:fs';
-import { builtinModules } from 'node:module';
 import { join, relative } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { build } from 'esbuild';
 import ts from 'typescript';
 import { describe, expect, it } from 'vitest';
+import { bundleForBrowser, isBuiltin, ROOT } from '../helpers/browserBundle.js';
 
-const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const SRC = join(ROOT, 'src');
 /** The front ends, where file access belongs. */
 const FRONT_ENDS = [join(SRC, 'cli'), join(SRC, 'desk'), join(SRC, 'node.ts')];
 const NODE_GLOBALS = new Set(['Buffer', 'process', 'require', '__dirname', '__filename']);
-
-function isBuiltin(specifier: string): boolean {
-  return specifier.startsWith('node:') || builtinModules.includes(specifier) || builtinModules.includes(specifier.split('/')[0]);
-}
 
 function coreFiles(dir: string): string[] {
   return readdirSync(dir, { withFileTypes: true }).flatMap((entry) => {
@@ -84,19 +78,8 @@ describe('the core runs in a browser', () => {
   });
 
   it('the core entry src/index.ts bundles for the browser with no Node built-in', async () => {
-    const result = await build({
-      absWorkingDir: ROOT,
-      entryPoints: ['src/index.ts'],
-      bundle: true,
-      format: 'esm',
-      platform: 'browser',
-      target: 'es2022',
-      write: false,
-      metafile: true,
-      logLevel: 'silent',
-    });
+    const { result, builtins } = await bundleForBrowser({ index: 'src/index.ts' });
     expect(result.errors).toEqual([]);
-    const builtins = Object.entries(result.metafile.inputs).flatMap(([file, input]) => input.imports.filter((i) => isBuiltin(i.path)).map((i) => `${file} -> ${i.path}`));
     expect(builtins).toEqual([]);
     expect(result.outputFiles[0].text).toContain('calendarDateToJd');
   });
