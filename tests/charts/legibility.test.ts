@@ -7,7 +7,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { beforeAll, describe, expect, it } from 'vitest';
-import { readSceneFile } from '../../src/scene/readScene.js';
+import { readSceneFile } from '../../src/cli/sceneFile.js';
 import type { Scene } from '../../src/scene/types.js';
 import type { DateAnswer } from '../../src/solver/types.js';
 import { solveDates } from '../../src/solver/solveDates.js';

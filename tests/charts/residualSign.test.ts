@@ -8,7 +8,7 @@
 import { beforeAll, describe, expect, it } from 'vitest';
 import { fileURLToPath } from 'node:url';
 import { join } from 'node:path';
-import { readSceneFile } from '../../src/scene/readScene.js';
+import { readSceneFile } from '../../src/cli/sceneFile.js';
 import type { Scene } from '../../src/scene/types.js';
 import type { DateAnswer, ResidualEntry } from '../../src/solver/types.js';
 import { solveDates } from '../../src/solver/solveDates.js';
