@@ -4,22 +4,39 @@
  * clicked points, or from the foot lines of two walls: groundFromWalls.ts), each observation's
  * pixels turned into its numeric values (pixelObservations.ts). Errors name
  * the path in the scene file (`walls[1].imagePlane.pointsPx[2]`,
- * `observations[3].wallId`).
+ * `observations[3].wallId`). With a `camera` block, a wall without an
+ * imagePlane, and the ground without a groundPlane, are put into the picture
+ * by the camera (planeFromCamera.ts), known up to scale.
  */
 import { InvalidInputError } from '../errors.js';
 import type { ImageInfo, Scene } from '../scene/types.js';
 import { measurePixelObservation, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
 import { rectifyPlane, type RectifiedPlane } from './planeInImage.js';
 import { rectifyGroundFromWalls } from './groundFromWalls.js';
+import { solveCamera, type CameraSolution } from './camera.js';
+import { planeFromCamera } from './planeFromCamera.js';
+import { cameraInputOf } from './sceneSun.js';
+
+/** The scene's camera, solved once per measuring run (solveCamera is pure; this only avoids solving it twice). */
+function cameraGetter(scene: Scene): () => CameraSolution | undefined {
+  let solved: CameraSolution | undefined;
+  return () => {
+    if (!scene.camera) return undefined;
+    solved ??= solveCamera(cameraInputOf(scene));
+    return solved;
+  };
+}
 
 /** A wall's imagePlane rectified, from the cache `planes` when it is there (and put there). */
-function wallPlaneOf(scene: Scene, index: number, image: ImageInfo, planes: Map<string, RectifiedPlane>): RectifiedPlane {
+function wallPlaneOf(scene: Scene, index: number, image: ImageInfo, planes: Map<string, RectifiedPlane>, camera: () => CameraSolution | undefined = cameraGetter(scene)): RectifiedPlane {
   const field = `walls[${index}].imagePlane`;
   const cached = planes.get(field);
   if (cached) return cached;
-  const wallPlane = scene.walls[index].imagePlane;
-  if (!wallPlane) throw new InvalidInputError(field, undefined, 'the wall clicked in the picture (a rectangle or points on the wall)');
-  const plane = rectifyPlane(wallPlane, image, 'wall', field);
+  const wall = scene.walls[index];
+  const wallPlane = wall.imagePlane;
+  const solved = wallPlane ? undefined : camera();
+  if (!wallPlane && !solved) throw new InvalidInputError(field, undefined, 'the wall clicked in the picture (a rectangle or points on the wall), or a camera block');
+  const plane = wallPlane ? rectifyPlane(wallPlane, image, 'wall', field) : planeFromCamera(solved!, 'wall', image, field, wall);
   planes.set(field, plane);
   return plane;
 }
@@ -29,13 +46,16 @@ function wallPlaneOf(scene: Scene, index: number, image: ImageInfo, planes: Map<
  * (groundFromWalls.ts), whose planes are then rectified too and put into `planes`.
  * @example rectifySceneGround(scene, scene.image!, new Map()).definition // 'rectangle' or 'walls'
  */
-export function rectifySceneGround(scene: Scene, image: ImageInfo, planes: Map<string, RectifiedPlane>): RectifiedPlane {
+export function rectifySceneGround(scene: Scene, image: ImageInfo, planes: Map<string, RectifiedPlane>, camera: () => CameraSolution | undefined = cameraGetter(scene)): RectifiedPlane {
   const ground = scene.groundPlane;
-  if (!ground) throw new InvalidInputError('groundPlane', undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground, or fromWalls)');
   const cached = planes.get('groundPlane');
   if (cached) return cached;
-  const plane = ground.fromWalls
-    ? rectifyGroundFromWalls(ground.fromWalls, scene.walls, image, (index) => wallPlaneOf(scene, index, image, planes), 'groundPlane')
+  const solved = ground ? undefined : camera();
+  if (!ground && !solved) throw new InvalidInputError('groundPlane', undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground, or fromWalls), or a camera block');
+  const plane = !ground
+    ? planeFromCamera(solved!, 'ground', image, 'groundPlane')
+    : ground.fromWalls
+    ? rectifyGroundFromWalls(ground.fromWalls, scene.walls, image, (index) => wallPlaneOf(scene, index, image, planes, camera), 'groundPlane')
     : rectifyPlane(ground, image, 'ground', 'groundPlane');
   planes.set('groundPlane', plane);
   return plane;
@@ -62,6 +82,7 @@ function isPixelObservation(obs: Scene['observations'][number]): obs is PixelObs
 export function measureScenePixels(scene: Scene): SceneMeasurements {
   const planes = new Map<string, RectifiedPlane>();
   const measurements: { field: string; measurement: PixelMeasurement }[] = [];
+  const camera = cameraGetter(scene);
   scene.observations.forEach((obs, k) => {
     if (!isPixelObservation(obs)) return;
     const field = `observations[${k}]`;
@@ -73,8 +94,8 @@ export function measureScenePixels(scene: Scene): SceneMeasurements {
     let plane: RectifiedPlane | undefined;
     if (obs.kind === 'pole-shadow') {
       planeField = 'groundPlane';
-      if (!scene.groundPlane) throw new InvalidInputError(planeField, undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground)', `${field} is a pole shadow in pixels`);
-      plane = rectifySceneGround(scene, image, planes);
+      if (!scene.groundPlane && !scene.camera) throw new InvalidInputError(planeField, undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground), or a camera block', `${field} is a pole shadow in pixels`);
+      plane = rectifySceneGround(scene, image, planes, camera);
     } else {
       const index = scene.walls.findIndex((w) => w.id === obs.wallId);
       if (index < 0) {
@@ -82,8 +103,8 @@ export function measureScenePixels(scene: Scene): SceneMeasurements {
       }
       planeField = `walls[${index}].imagePlane`;
       const wallPlane = scene.walls[index].imagePlane;
-      if (!wallPlane) throw new InvalidInputError(planeField, undefined, 'the wall clicked in the picture (a rectangle or points on the wall)', `${field} is given in pixels on this wall`);
-      plane = wallPlaneOf(scene, index, image, planes);
+      if (!wallPlane && !scene.camera) throw new InvalidInputError(planeField, undefined, 'the wall clicked in the picture (a rectangle or points on the wall), or a camera block', `${field} is given in pixels on this wall`);
+      plane = wallPlaneOf(scene, index, image, planes, camera);
     }
     planes.set(planeField, plane);
     measurements.push({ field, measurement: measurePixelObservation(obs, plane, field) });

@@ -21,6 +21,9 @@
  * projectionM / heightM. For a ground fixed by two walls (groundFromWalls.ts)
  * the plane's inputs are every click of both walls, the corner and the two
  * wall azimuths, the whole chain refitted inside the measurement function.
+ * For a plane from the camera (planeFromCamera.ts) the plane's inputs are
+ * every clicked point of the camera's lines, the camera refitted inside the
+ * measurement function.
  * A Monte Carlo run of the same clicks is given for checking.
  */
 import { InvalidInputError } from '../errors.js';
@@ -37,6 +40,7 @@ import { applyHomography, fitHomographyDlt, homogeneousW, invertHomography, type
 import { checkPixelPoint, toWorkingFrame, type RectifiedPlane, MIN_POINT_SEPARATION_PX } from './planeInImage.js';
 import { groundFromWallsParameterCount, groundFromWallsParameters, groundHomographyOf } from './groundFromWalls.js';
 import { monteCarloSpread, propagateFirstOrder, type MeasurementFunction } from './propagation.js';
+import { cameraPlaneHomographyOf, cameraPlaneParameterCount, cameraPlaneParameters } from './planeFromCamera.js';
 
 /** The pixel-form observations this module measures. */
 export type PixelObservation =
@@ -108,7 +112,10 @@ export function rectificationReport(plane: RectifiedPlane): RectificationReport 
   const fit = plane.fit;
   const worst = Math.max(...fit.residuals);
   const walls = plane.fromWalls?.walls;
-  const note = walls
+  const note = plane.fromCamera
+    ? `from the camera (the camera block's lines) and ${plane.kind === 'wall' ? `wall ${plane.fromCamera.wallId}'s stated azimuth` : 'the vertical'}, no clicked figure: ` +
+      'known only up to scale, so angles in the plane are measured and ratios to lengths in metres are not; the camera lines\' meeting test is the check'
+    : walls
     ? `from the foot lines of walls ${walls[0].id} and ${walls[1].id} meeting at the corner (${walls[0].field}, ${walls[1].field} and groundPlane.fromWalls.cornerPx): ` +
       'two lines through one point fix the ground exactly, so its residual is zero and tells nothing; the residuals of the two walls are the check'
     : fit.exactlyDetermined
@@ -146,6 +153,7 @@ interface Setup {
  */
 function planeParameters(plane: RectifiedPlane): { p0: number[]; sigmas: number[] } {
   if (plane.fromWalls) return groundFromWallsParameters(plane.fromWalls);
+  if (plane.fromCamera) return cameraPlaneParameters(plane.fromCamera);
   const p0: number[] = [];
   const sigmas: number[] = [];
   plane.pixelPoints.forEach((p, i) => {
@@ -157,6 +165,7 @@ function planeParameters(plane: RectifiedPlane): { p0: number[]; sigmas: number[
 
 /** Number of entries planeParameters gives. */
 function planeParameterCount(plane: RectifiedPlane): number {
+  if (plane.fromCamera) return cameraPlaneParameterCount(plane.fromCamera);
   return plane.fromWalls ? groundFromWallsParameterCount(plane.fromWalls) : 2 * plane.pixelPoints.length;
 }
 
@@ -166,6 +175,8 @@ function mapSegment(plane: RectifiedPlane, params: readonly number[]): { from: P
   let h: Homography;
   if (plane.fromWalls) {
     h = groundHomographyOf(plane.fromWalls, params);
+  } else if (plane.fromCamera) {
+    h = cameraPlaneHomographyOf(plane.fromCamera, params);
   } else {
     const px: Point2[] = [];
     for (let i = 0; i < k / 2; i++) px.push([params[2 * i], params[2 * i + 1]]);
@@ -198,6 +209,15 @@ function lengthInputs(
 }
 
 function needsMetric(plane: RectifiedPlane, field: string, what: string): void {
+  if (plane.fromCamera) {
+    const where = plane.kind === 'wall' ? `wall ${plane.fromCamera.wallId} (its imagePlane` : 'the ground (groundPlane';
+    throw new InvalidInputError(
+      `${field}.pixels`,
+      'a plane from the camera only',
+      `a figure of known size on ${where} with widthM and heightM, or planePointsM) for ${field}`,
+      `${what} compares a length in the plane with a length out of it in metres; the camera fixes the ${plane.kind} only up to scale (its distance is unknown)`,
+    );
+  }
   if (!plane.metric) {
     throw new InvalidInputError(
       `${plane.field}.aspect`,
@@ -316,13 +336,15 @@ export function measurePixelObservation(obs: PixelObservation, plane: RectifiedP
   });
   const { from, to } = mapSegment(plane, setup.p0);
   const rectification = rectificationReport(plane);
-  const unit = plane.metric ? 'm' : 'rectangle heights';
-  const how = plane.fromWalls
+  const unit = plane.metric ? 'm' : plane.fromCamera ? "camera's distances to the plane" : 'rectangle heights';
+  const how = plane.fromCamera
+    ? `on ${plane.kind === 'wall' ? `wall ${plane.fromCamera.wallId}` : 'the ground'} put into the picture by the camera (no clicked figure)`
+    : plane.fromWalls
     ? `clicked on ${plane.field} (from the foot lines of walls ${plane.fromWalls.walls[0].id} and ${plane.fromWalls.walls[1].id} meeting at the corner)`
     : `clicked on ${plane.field} (${plane.definition === 'points' ? `${plane.planePoints.length} plane points` : plane.definition === 'rectangle' ? 'rectangle of known size' : 'rectangle of known aspect'}` +
     `${plane.fit.exactlyDetermined ? ', exact 4-point fit' : `, rms ${fmt(plane.fit.rms, 2)} px`})`;
   const sigmaText = (m: MeasuredQuantity, d: number): string =>
-    `sigma ${fmt(m.sigma, d)} by first-order propagation (corners ${fmt(m.sigmaFromPlane, d)}, points ${fmt(m.sigmaFromPoints, d)}` +
+    `sigma ${fmt(m.sigma, d)} by first-order propagation (${plane.fromCamera ? 'camera lines' : 'corners'} ${fmt(m.sigmaFromPlane, d)}, points ${fmt(m.sigmaFromPoints, d)}` +
     `${m.sigmaFromLength > 0 ? `, length ${fmt(m.sigmaFromLength, d)}` : ''})` +
     (m.firstOrderReliable ? '' : ' NOT RELIABLE: the value bends within one clicking error (points far outside the clicked figure or near its horizon line); use the Monte Carlo spread');
   const common = { id: obs.id, rectification, fromPlane: from, toPlane: to };

@@ -24,6 +24,7 @@ import { InvalidInputError } from '../errors.js';
 import type { ImageInfo, PixelPoint, PlaneInImage } from '../scene/types.js';
 import { cosDeg, sinDeg } from '../math/angles.js';
 import type { GroundFromWallsSource } from './groundFromWalls.js';
+import type { CameraPlaneSource } from './planeFromCamera.js';
 import {
   fitHomography,
   invertHomography,
@@ -40,8 +41,11 @@ export interface RectifiedPlane {
   readonly kind: PlaneKind;
   /** Path of the PlaneInImage in the scene file, e.g. `walls[0].imagePlane`. */
   readonly field: string;
-  /** How the plane is fixed: plane points, a rectangle of known size or aspect, or (ground only) the foot lines of two walls (groundFromWalls.ts). */
-  readonly definition: 'points' | 'rectangle' | 'aspect' | 'walls';
+  /**
+   * How the plane is fixed: plane points, a rectangle of known size or aspect, (ground only) the foot lines of
+   * two walls (groundFromWalls.ts), or the camera with the wall's azimuth or the vertical (planeFromCamera.ts).
+   */
+  readonly definition: 'points' | 'rectangle' | 'aspect' | 'walls' | 'camera';
   /** False for an aspect-only rectangle: plane unit = the rectangle's height, not metres. */
   readonly metric: boolean;
   /** Clicked points in the working frame (after the mirror flip). */
@@ -60,6 +64,11 @@ export interface RectifiedPlane {
    * planePoints then hold the derived foot-line correspondences, not clicks.
    */
   readonly fromWalls?: GroundFromWallsSource;
+  /**
+   * From the camera only (no clicked figure): the camera and the plane's axes. pixelPoints and planePoints then
+   * hold one reference point of the plane in front of the camera, not clicks; the unit is the camera's distance to the plane.
+   */
+  readonly fromCamera?: CameraPlaneSource;
 }
 
 /** Smallest distance, px, between two clicked points (common practice: a click is good to about a pixel). */

@@ -149,7 +149,7 @@ export function resolveSceneSun(scene: Scene): SceneSun {
     const label = group ? `group "${group}"` : 'the pairs without a group';
     // a group's sun is named after the group ("group:figures"; a colon never occurs in an id of the file)
     replaced[first.index] = {
-      id: group ? `group:${group}` : first.obs.id, kind: 'sun-direction',
+      id: group ? `group:${group}` : first.obs.id, kind: 'sun-direction', ...(group ? { group } : {}),
       azimuthDeg: sun.azimuthDeg, azimuthSigmaDeg, altitudeDeg: sun.altitudeDeg, altitudeSigmaDeg,
       note: `sun from ${members.length} object-shadow pairs of ${label} through the picture's camera (${members.map((m) => m.obs.id).join(', ')})${first.obs.note ? `; ${first.obs.note}` : ''}`,
     };

@@ -6,6 +6,7 @@
  * which the objects below are written). Julian Days are UT (`jd`), with the renderings
  * beside them (civil date text, hh:mm times) so that a reader needs no calendar code.
  */
+import type { GroupTest } from '../solver/groupConsistency.js';
 import { deltaTModelName } from '../time/deltaT.js';
 import type { Scene } from '../scene/types.js';
 import type {
@@ -273,6 +274,24 @@ function familyJson(f: CandidateFamily, scene: Scene, allYears: boolean) {
   };
 }
 
+function groupTestJson(g: GroupTest) {
+  return {
+    group: g.group,
+    observationIds: [...g.observationIds],
+    restIds: [...g.restIds],
+    residualCount: g.residualCount,
+    chiSquareOneSun: roundTo(g.chiSquareOneSun, DIGITS.chiSquare),
+    chiSquareSeparate: roundTo(g.chiSquareSeparate, DIGITS.chiSquare),
+    ownSun: { azimuthDeg: roundTo(g.ownSun.azimuthDeg, DIGITS.angleDeg), altitudeDeg: roundTo(g.ownSun.altitudeDeg, DIGITS.angleDeg) },
+    deltaChiSquare: roundTo(g.deltaChiSquare, DIGITS.chiSquare),
+    degreesOfFreedom: g.degreesOfFreedom,
+    pValue: roundProbability(g.pValue, DIGITS.probabilitySignificant),
+    pThreshold: g.pThreshold,
+    differs: g.differs,
+    sentence: g.sentence,
+  };
+}
+
 function consistencyJson(c: ConsistencyReport, scene: Scene) {
   return {
     rule: c.rule,
@@ -346,6 +365,7 @@ export function dateAnswerJson(answer: DateAnswer, scene: Scene, version: string
     families: answer.families.map((f) => familyJson(f, scene, options.allYears === true)),
     candidates: answer.candidates.map((c) => candidateJson(c, scene, familyIdOf(answer, c))),
     consistency: consistencyJson(answer.consistency, scene),
+    ...(answer.groupTests ? { groupTests: answer.groupTests.map(groupTestJson) } : {}),
     conflictingIds: [...answer.conflictingIds],
     assumptions: assumptionsJson(scene, answer.clockAssumptions, best),
     notes: [...answer.notes],

@@ -243,6 +243,13 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
     out.push('  no observation is flagged.');
   }
   if (answer.conflictingIds.length > 0) out.push(`  in conflict: ${answer.conflictingIds.join(', ')}`);
+  if (answer.groupTests && answer.groupTests.length > 0) {
+    out.push('', 'Parts of the picture (each group against the rest: one sun for all, or a sun of its own):');
+    for (const g of answer.groupTests) {
+      out.push(`  ${g.differs ? 'DIFFERS' : 'ok     '} ${g.sentence}.`);
+      out.push(`          observations of the group: ${g.observationIds.join(', ')}; the rest: ${g.restIds.join(', ')}; chi2 ${g.chiSquareOneSun.toFixed(2)} with one sun, ${g.chiSquareSeparate.toFixed(2)} with a separate sun for the group`);
+    }
+  }
 
   out.push('', 'Assumptions:');
   out.push(...assumptionLines(scene, answer, best));

@@ -44,7 +44,7 @@ export interface ObservationContext {
 /** Group labels: the same words as ids. */
 const GROUP_WORDS = 'a group label of letters, digits, "-", "_" or ".", starting with a letter or digit, at most 64 characters';
 
-const COMMON = ['id', 'kind', 'note'];
+const COMMON = ['id', 'kind', 'note', 'group'];
 const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'rod-shadow': [...COMMON, 'wall', 'slopeDeg', 'side', 'sigmaDeg', 'pixels'],
   'overhang-shadow': [...COMMON, 'wall', 'depthRatio', 'sigma', 'pixels'],
@@ -57,7 +57,7 @@ const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'wall-shaded': [...COMMON, 'wall'],
   'sun-up': [...COMMON],
   clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
-  'object-shadow': [...COMMON, 'objectPx', 'shadowPx', 'sigmaPx', 'group'],
+  'object-shadow': [...COMMON, 'objectPx', 'shadowPx', 'sigmaPx'],
 };
 
 /** The keys an observation of each kind may hold (for the schema test and the docs). */
@@ -99,16 +99,23 @@ function openPixels(f: Fields, ctx: ObservationContext, extraKeys: readonly stri
   return openFields(raw(f, 'pixels'), path, 'a pixel form', [...SEGMENT_KEYS, ...extraKeys]);
 }
 
-function needImagePlane(wall: Wall, f: Fields): PlaneInImage {
-  if (wall.imagePlane === undefined) {
+/**
+ * A wall for a pixel measurement: its imagePlane, or (when `cameraWill` and the scene has a camera block) the
+ * camera with the wall's azimuth (src/image/planeFromCamera.ts), which gives angles on the wall but no metres.
+ */
+function needImagePlane(wall: Wall, f: Fields, ctx: ObservationContext, cameraWill: boolean): void {
+  if (wall.imagePlane === undefined && !(cameraWill && ctx.camera !== undefined)) {
     throw new InvalidInputError(
       keyPath(f.path, 'pixels'),
       raw(f, 'pixels'),
-      `pixel measurements on wall "${wall.id}" only when that wall has an "imagePlane"`,
-      'Give the wall its imagePlane (4 or more points of known shape on it), or give the measurement as numbers.',
+      cameraWill
+        ? `pixel measurements on wall "${wall.id}" only when that wall has an "imagePlane" or the scene has a "camera" block`
+        : `this pixel measurement on wall "${wall.id}" only when that wall has an "imagePlane" of known size`,
+      cameraWill
+        ? 'Give the wall its imagePlane (4 or more points of known shape on it), or the scene a camera block, or give the measurement as numbers.'
+        : 'It compares a length on the wall with a depth in metres, and a camera fixes the wall only up to scale: give the wall its imagePlane (a figure of known size), or give the measurement as numbers.',
     );
   }
-  return wall.imagePlane;
 }
 
 function readSitePoint(f: Fields, key: string): SitePoint {
@@ -173,13 +180,14 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
   const f = openFields(value, path, `${/^[aeiou]/.test(kind) ? 'an' : 'a'} ${kind} observation`, KEYS[kind]);
   const id = str(f, 'id', ID_WORDS, 64, ID_PATTERN);
   const note = optStr(f, 'note', 'a note', NOTE_MAX);
-  const base = note === undefined ? { id } : { id, note };
+  const group = optStr(f, 'group', GROUP_WORDS, 64, ID_PATTERN);
+  const base = { id, ...(note !== undefined ? { note } : {}), ...(group !== undefined ? { group } : {}) };
 
   switch (kind) {
     case 'rod-shadow': {
       const wall = wallRef(f, ctx);
       if (pixelForm(f, ['slopeDeg', 'side', 'sigmaDeg'], 'numbers (slopeDeg, side, sigmaDeg)')) {
-        needImagePlane(wall, f);
+        needImagePlane(wall, f, ctx, true);
         const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
         const p = openPixels(f, ctx, []);
         return { ...base, kind, wallId: wall.id, pixels: readSegmentPart(p, image) };
@@ -196,7 +204,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       const ratioKey = kind === 'overhang-shadow' ? 'depthRatio' : 'widthRatio';
       const numeric = kind === 'overhang-shadow' ? ['depthRatio', 'sigma'] : ['widthRatio', 'side', 'sigma'];
       if (pixelForm(f, numeric, `numbers (${numeric.join(', ')})`)) {
-        needImagePlane(wall, f);
+        needImagePlane(wall, f, ctx, false);
         const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
         const p = openPixels(f, ctx, ['projectionM', 'projectionSigmaM']);
         const segment = readSegmentPart(p, image);
@@ -214,10 +222,16 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
     case 'pole-shadow': {
       if (pixelForm(f, ['shadowAzimuthDeg', 'shadowAzimuthSigmaDeg', 'lengthRatio', 'lengthRatioSigma'], 'numbers (shadowAzimuthDeg, lengthRatio and their sigmas)')) {
         const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
-        if (ctx.groundPlane === undefined) {
-          throw new InvalidInputError(keyPath(path, 'pixels'), raw(f, 'pixels'), 'pixel measurements of a pole only when the scene has a "groundPlane"');
+        if (ctx.groundPlane === undefined && ctx.camera === undefined) {
+          throw new InvalidInputError(keyPath(path, 'pixels'), raw(f, 'pixels'), 'pixel measurements of a pole only when the scene has a "groundPlane" or a "camera" block');
         }
         const p = openPixels(f, ctx, ['heightM', 'heightSigmaM']);
+        if (ctx.groundPlane === undefined && has(p, 'heightM')) {
+          throw new InvalidInputError(
+            keyPath(p.path, 'heightM'), raw(p, 'heightM'), 'no heightM when the ground comes from the camera alone (no "groundPlane")',
+            'The camera fixes the ground only up to scale, so a shadow length cannot be compared with a height in metres; the shadow azimuth is measured',
+          );
+        }
         const segment = readSegmentPart(p, image);
         if (has(p, 'heightM') !== has(p, 'heightSigmaM')) {
           const k = has(p, 'heightM') ? 'heightSigmaM' : 'heightM';
@@ -299,8 +313,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       const objectPx = readPixelPoint(raw(f, 'objectPx'), keyPath(path, 'objectPx'), image);
       const shadowPx = readPixelPoint(raw(f, 'shadowPx'), keyPath(path, 'shadowPx'), image);
       const sigmaPx = optNum(f, 'sigmaPx', PIXEL_SIGMA);
-      const group = optStr(f, 'group', GROUP_WORDS, 64, ID_PATTERN);
-      return { ...base, kind, objectPx, shadowPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}), ...(group !== undefined ? { group } : {}) };
+      return { ...base, kind, objectPx, shadowPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}) };
     }
   }
 }

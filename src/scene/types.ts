@@ -161,6 +161,11 @@ interface ObservationBase {
   readonly id: string;
   /** The scholar's own words about this observation, carried into the report. */
   readonly note?: string;
+  /**
+   * A part of the picture ("architecture", "figures"): the date answer tests each group against the rest
+   * (src/solver/groupConsistency.ts); object-shadow pairs of one group also share one sun direction.
+   */
+  readonly group?: string;
 }
 
 /** Two image points along a line, for pixel forms. */
@@ -260,8 +265,6 @@ export interface ObjectShadowObservation extends ObservationBase {
   readonly shadowPx: PixelPoint;
   /** Clicking sigma of both points, else the image's pixelSigmaPx. */
   readonly sigmaPx?: number;
-  /** Pairs with the same group are taken as lit by one sun; absent: the picture's own group. */
-  readonly group?: string;
 }
 
 /** 9. A clock in the picture. */

@@ -192,35 +192,51 @@ export function localLeaveOneOut(scene: Scene, model: EvidenceModel, best: RawCa
     return out;
   }
   for (const [id, list] of rows) {
-    const reduced = buildEvidenceModel(scene, new Set([id]));
-    const nuis = reduced.nuisances.map((n) => {
-      const k = model.nuisances.findIndex((m) => m.name === n.name);
-      return k >= 0 ? best.nuisances[k] : n.priorDeg;
-    });
-    const ctx = newDatedContext(reduced, assumed, best.point.jdUT);
-    const fit = refineDated(ctx, [best.continuousDay, best.continuousMinutes, ...nuis]);
-    const centre = nearestDayJd0(fit.x[0]);
-    let bestObjective = Infinity;
-    let bestChi = Infinity;
-    // The candidate's own day (allowed by the window) is always tried too, from the candidate's
-    // minute: the refit without an observation can drift out of the window (with the only
-    // measured observation left out nothing holds it), and chi-square without it is never above.
-    const starts: [number, number[]][] = [centre, centre - 1, centre + 1].map((day) => [day, fit.x.slice(1)]);
-    starts.push([best.dayJd0, [best.apparentMinutes, ...nuis]]);
-    for (const [day, start] of starts) {
-      if (!isDayAllowed(win, day)) continue;
-      const onDay = refineOnDay(ctx, day, start);
-      const exact = exactPoint(reduced, assumed, ctx.site, day, onDay.x[1], onDay.x.slice(2), fit.point.state.equationOfTimeMinutes);
-      const s = splitChiSquare(reduced, exact.point.residuals);
-      if (s.chiSquare + s.penalty < bestObjective) {
-        bestObjective = s.chiSquare + s.penalty;
-        bestChi = s.chiSquare;
-      }
-    }
+    const refit = localRefitWithout(scene, model, best, assumed, win, new Set([id]));
     const kind = scene.observations.find((o) => o.id === id)?.kind ?? 'unknown';
-    out.push({ observationId: id, observationKind: kind, residualCount: list.length, objectiveWithout: bestObjective, chiSquareWithout: bestChi });
+    out.push({ observationId: id, observationKind: kind, residualCount: list.length, objectiveWithout: refit.objective, chiSquareWithout: refit.chiSquare });
   }
   return out;
+}
+
+/**
+ * The fit redone without the observations `omit`, starting from the best candidate: a local refit in
+ * (d, m, nuisances), then the best allowed whole day near it. Objective = chi-square + soft penalty.
+ */
+export function localRefitWithout(
+  scene: Scene,
+  model: EvidenceModel,
+  best: RawCandidate,
+  assumed: ClockKind | null,
+  win: DayWindow,
+  omit: ReadonlySet<string>,
+): { readonly objective: number; readonly chiSquare: number; readonly model: EvidenceModel } {
+  const reduced = buildEvidenceModel(scene, omit);
+  const nuis = reduced.nuisances.map((n) => {
+    const k = model.nuisances.findIndex((m) => m.name === n.name);
+    return k >= 0 ? best.nuisances[k] : n.priorDeg;
+  });
+  const ctx = newDatedContext(reduced, assumed, best.point.jdUT);
+  const fit = refineDated(ctx, [best.continuousDay, best.continuousMinutes, ...nuis]);
+  const centre = nearestDayJd0(fit.x[0]);
+  let bestObjective = Infinity;
+  let bestChi = Infinity;
+  // The candidate's own day (allowed by the window) is always tried too, from the candidate's
+  // minute: the refit without an observation can drift out of the window (with the only
+  // measured observation left out nothing holds it), and chi-square without it is never above.
+  const starts: [number, number[]][] = [centre, centre - 1, centre + 1].map((day) => [day, fit.x.slice(1)]);
+  starts.push([best.dayJd0, [best.apparentMinutes, ...nuis]]);
+  for (const [day, start] of starts) {
+    if (!isDayAllowed(win, day)) continue;
+    const onDay = refineOnDay(ctx, day, start);
+    const exact = exactPoint(reduced, assumed, ctx.site, day, onDay.x[1], onDay.x.slice(2), fit.point.state.equationOfTimeMinutes);
+    const s = splitChiSquare(reduced, exact.point.residuals);
+    if (s.chiSquare + s.penalty < bestObjective) {
+      bestObjective = s.chiSquare + s.penalty;
+      bestChi = s.chiSquare;
+    }
+  }
+  return { objective: bestObjective, chiSquare: bestChi, model: reduced };
 }
 
 /** p-value of a chi-square fall with k degrees of freedom. */

@@ -36,6 +36,7 @@ import { evidenceFixesDayAndHour, freedomOf, undeterminedVerdict } from './freed
 import { turnedAzimuthScene, turnedAzimuthWords } from './turnedAzimuths.js';
 import { ESTIMATED_RULE_TEXT, EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS, improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
 import { estimatedEntry, estimatedWithoutEach } from './largeScenes.js';
+import { groupConsistency, type GroupTest } from './groupConsistency.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
 import { jdToCivilDate } from '../calendar/regions.js';
@@ -213,6 +214,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   let verdict: string;
   let freedom: AnswerFreedom | undefined;
   let turnedAzimuths: TurnedAzimuthsHint | undefined;
+  let groupTests: GroupTest[] = [];
   const allFamilies = familiesOf(s, opt.perYear);
   const families = allFamilies.slice(0, opt.maxFamilies);
   const candidates = s.kept.slice(0, opt.maxCandidates).map((raw) => dressed(s, raw));
@@ -275,6 +277,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         conflictingIds = [...entries].sort((a, b) => b.improvement - a.improvement).slice(0, 2).map((e) => e.observationId);
       }
       consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named${estimated ? `${ESTIMATED_RULE_TEXT}; the search is rerun in full only for the observations named` : ''}`, entries, flaggedIds: conflictingIds };
+      groupTests = groupConsistency(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
       const violated = bestC.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
       const without = entries
         .filter((e) => conflictingIds.includes(e.observationId) && e.bestWithout)
@@ -316,6 +319,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         });
         const estimatedRule = scene.observations.length > EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS ? ESTIMATED_RULE_TEXT : '';
         consistency = { ...consistency, rule: `${consistency.rule}${estimatedRule}`, entries, flaggedIds: entries.filter((e) => e.flagged).map((e) => e.observationId) };
+        groupTests = groupConsistency(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
       }
       // Count families as they are listed (a light split at a calendar switch is two families).
       const famCount = allFamilies.length;
@@ -355,6 +359,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     families,
     candidates,
     consistency,
+    ...(groupTests.length > 0 ? { groupTests } : {}),
     conflictingIds,
     clockAssumptions: s.search.assumptions,
     measuredResiduals: model.measuredCount,

@@ -10,6 +10,7 @@
  *
  * Stability: other parts render these types; they change only by adding fields.
  */
+import type { GroupTest } from './groupConsistency.js';
 import type { CivilDay, ClockKind } from '../scene/types.js';
 
 /** A civil date in a named calendar (structurally the same as CalendarDate of src/calendar/julianDay.ts). */
@@ -388,6 +389,8 @@ export interface DateAnswer {
   /** The best candidates over all years, ranked (at most maxCandidates). */
   readonly candidates: readonly Candidate[];
   readonly consistency: ConsistencyReport;
+  /** Each group of observations (their `group` label) tested against the rest: one sun for all, or its own (groupConsistency.ts). */
+  readonly groupTests?: readonly GroupTest[];
   /** Observations named as conflicting when status is 'nothing-fits'. */
   readonly conflictingIds: readonly string[];
   readonly clockAssumptions: readonly ClockAssumption[];

@@ -1,0 +1,134 @@
+/**
+ * A wall of stated azimuth, or the level ground, put into the picture by the
+ * camera (camera.ts) instead of a clicked figure of known size.
+ *
+ * Geometry (Hartley and Zisserman, *Multiple View Geometry*, 2nd ed. (2003),
+ * sec. 8.1.1, eq. (8.1): the plane X = X0 + a A + b B is imaged by the
+ * homography H = K R [A | B | X0], camera centre at the origin of the site
+ * frame): for a wall, A = its u axis (azimuth normal - 90 deg), B = up and
+ * X0 = -n, the foot of the perpendicular from the camera onto the wall, with
+ * n the outward normal (the camera stands outside the wall); for the ground,
+ * A = east, B = north and X0 = -up (the camera above the ground). The
+ * distance from the camera to the plane is taken as 1: the plane is known up
+ * to scale, like a rectangle of known proportion only, so angles in the plane
+ * (a rod's slope on a wall, a pole shadow's azimuth on the ground) are exact
+ * and ratios to a length in metres (overhang depth, fin width, pole length)
+ * are refused (`metric` false).
+ *
+ * Error propagation: the plane's inputs are every clicked point of the
+ * camera's lines; the measurement function refits the camera (cameraModel.ts,
+ * cameraFromParameters, by the method chosen for the nominal clicks) and
+ * rebuilds H from it, so the first-order sigma and the Monte Carlo spread
+ * carry the camera's uncertainty (src/image/propagation.ts). The stated wall
+ * azimuth is held fixed, as in the camera itself.
+ *
+ * Leaves out: a wall leaning out of plumb, ground not level, every error of
+ * the painter's perspective that the camera's own meeting test does not show.
+ */
+import { InvalidInputError } from '../errors.js';
+import type { ImageInfo } from '../scene/types.js';
+import type { CameraSolution } from './camera.js';
+import { cameraFromParameters, cameraParameters, siteDirectionOf, dot3, type CameraCore, type Vector3 } from './cameraModel.js';
+import { applyHomography, invertHomography, type Homography, type Point2 } from './homography.js';
+import type { PlaneKind, RectifiedPlane } from './planeInImage.js';
+import type { Homogeneous3 } from './vanishingPoint.js';
+
+/** Everything a plane from the camera is built from. */
+export interface CameraPlaneSource {
+  readonly camera: CameraSolution;
+  /** The camera's vanishing points at the nominal clicks, to orient refitted ones alike. */
+  readonly orientLike: readonly Homogeneous3[];
+  /** In-plane axes and origin in the site frame (east, north, up), camera at the origin. */
+  readonly axisA: Vector3;
+  readonly axisB: Vector3;
+  readonly origin: Vector3;
+  /** The wall's id, for a wall. */
+  readonly wallId?: string;
+}
+
+/** H = K R [A | B | X0] for one camera (H&Z sec. 8.1.1, eq. (8.1)), plane -> working pixels. */
+function homographyOfCore(core: CameraCore, source: CameraPlaneSource): Homography {
+  const f = core.focalLengthPx;
+  const [px, py] = core.principalPointPx;
+  const cols = [source.axisA, source.axisB, source.origin].map((d) => {
+    const c = [dot3(core.rotation[0], d), dot3(core.rotation[1], d), dot3(core.rotation[2], d)];
+    return [f * c[0] + px * c[2], f * c[1] + py * c[2], c[2]];
+  });
+  // row-major, like homography.ts
+  return [cols[0][0], cols[1][0], cols[2][0], cols[0][1], cols[1][1], cols[2][1], cols[0][2], cols[1][2], cols[2][2]];
+}
+
+/** Number of parameters of the source: x and y of every clicked camera line point. */
+export function cameraPlaneParameterCount(source: CameraPlaneSource): number {
+  return cameraParameters(source.camera.input).p0.length;
+}
+
+/** The parameter vector (camera clicks) and their sigmas, in the order cameraPlaneHomographyOf reads them. */
+export function cameraPlaneParameters(source: CameraPlaneSource): { p0: number[]; sigmas: number[] } {
+  return cameraParameters(source.camera.input);
+}
+
+/** Plane -> working pixels, with the camera refitted from a parameter vector. */
+export function cameraPlaneHomographyOf(source: CameraPlaneSource, params: readonly number[]): Homography {
+  const core = cameraFromParameters(source.camera.input, source.camera.method, params, source.orientLike);
+  return homographyOfCore(core, source);
+}
+
+/**
+ * A wall (of stated outward azimuth) or the level ground as a RectifiedPlane from the camera.
+ * Throws InvalidInputError naming `field` when the plane cannot be seen by this camera.
+ * @example planeFromCamera(camera, 'wall', image, 'walls[1]', { id: 'hall-east', azimuthDeg: 95 }).definition // 'camera'
+ */
+export function planeFromCamera(
+  camera: CameraSolution,
+  kind: PlaneKind,
+  image: ImageInfo,
+  field: string,
+  wall?: { readonly id: string; readonly azimuthDeg: number },
+): RectifiedPlane {
+  const up: Vector3 = [0, 0, 1];
+  let axisA: Vector3;
+  let axisB: Vector3;
+  let origin: Vector3;
+  if (kind === 'wall') {
+    if (!wall) throw new InvalidInputError(field, undefined, 'a wall with an azimuth');
+    axisA = siteDirectionOf({ kind: 'wall', wallId: wall.id, wallAzimuthDeg: wall.azimuthDeg });
+    axisB = up;
+    origin = [-Math.sin((wall.azimuthDeg * Math.PI) / 180), -Math.cos((wall.azimuthDeg * Math.PI) / 180), 0]; // -n: east = sin, north = cos
+  } else {
+    axisA = [1, 0, 0];
+    axisB = [0, 1, 0];
+    origin = [0, 0, -1];
+  }
+  const source: CameraPlaneSource = {
+    camera, orientLike: camera.core.vanishingPoints.map((v) => v.point), axisA, axisB, origin, ...(wall ? { wallId: wall.id } : {}),
+  };
+  const matrix = homographyOfCore(camera.core, source);
+  // a reference point of the plane in front of the camera: the origin, or far along the view's trace on the plane
+  const forward = camera.rotation[2];
+  const fa = dot3(forward, axisA);
+  const fb = dot3(forward, axisB);
+  const inPlane = Math.hypot(fa, fb);
+  const depth0 = dot3(forward, origin);
+  let reference: Point2 = [0, 0];
+  if (depth0 <= 0.1) {
+    if (inPlane < 1e-6) {
+      throw new InvalidInputError(field, kind === 'wall' ? wall!.azimuthDeg : 'ground', `a ${kind === 'wall' ? 'wall' : 'ground'} this camera can see`, 'The plane lies behind the camera as found from the camera lines; check the wall azimuth and the camera lines');
+    }
+    const length = (1.1 - depth0) / inPlane;
+    reference = [(length * fa) / inPlane, (length * fb) / inPlane];
+  }
+  return {
+    kind,
+    field,
+    definition: 'camera',
+    metric: false,
+    pixelPoints: [applyHomography(matrix, reference)],
+    planePoints: [reference],
+    pointSigmasPx: [0],
+    fit: { matrix, residuals: [], rms: 0, conditionNumber: 1, exactlyDetermined: false },
+    imageToPlane: invertHomography(matrix),
+    image,
+    fromCamera: source,
+  };
+}
