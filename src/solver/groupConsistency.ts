@@ -129,7 +129,7 @@ export function groupConsistency(scene: Scene, model: EvidenceModel, best: RawCa
     const restGroups = [...new Set(restIds.map((id) => groupOf.get(id) ?? ''))].sort();
     const restName = restGroups.length === 1 && restGroups[0] !== '' ? quoted(restGroups[0]) : 'the rest of the picture';
     const differs = p < LOO_P_THRESHOLD;
-    const numbers = `Delta chi-square ${delta.toFixed(1)} for ${dof} degree${dof === 1 ? '' : 's'} of freedom, p = ${p.toPrecision(2)}`;
+    const numbers = `Delta chi-square ${delta.toFixed(1)} for ${dof} degree${dof === 1 ? '' : 's'} of freedom, ${p < 1e-6 ? 'p < 0.000001' : `p = ${p.toPrecision(2)}`}`;
     const sentence = differs
       ? `the shadows of ${quoted(label)} do not share the light of ${restName}: ${numbers}; on their own they point to a sun at azimuth ${sun.azimuthDeg.toFixed(1)} deg, altitude ${sun.altitudeDeg.toFixed(1)} deg ` +
         '(another day or hour, another hand, or a misread shadow: an estimate under the stated assumptions, not a proof)'

@@ -44,6 +44,9 @@ describe('the Kornhaus print: dated from its perspective alone', () => {
     const families: { fromMonthDay: string; bestJd: number }[] = a.families;
     expect(families.map((f) => f.fromMonthDay)).toEqual(['05-14', '07-30']);
     expect(Math.abs(families[0].bestJd - 2404562.168472) * 1440).toBeLessThan(5);
+    // the group test of the answer: posts and figures were rendered under one sun
+    expect(a.groupTests.map((g: { group: string }) => g.group)).toEqual(['figures', 'lamp-posts']);
+    for (const g of a.groupTests) expect(g.differs, g.sentence).toBe(false);
   });
 
   it('the variant: the group test names the groups, and the dating finds that nothing fits', async () => {
@@ -53,5 +56,12 @@ describe('the Kornhaus print: dated from its perspective alone', () => {
     const d = await cli(['date', join(DIR, 'kornplatz-figures-variant.yaml')]);
     expect(d.out).toContain('Nothing fits');
     expect(d.out).toContain('group:figures');
+    // the date answer's group test names the figures, with the sun they were rendered under (azimuth 200.90, altitude 59.63)
+    expect(d.out).toContain('DIFFERS the shadows of "figures" do not share the light of "lamp-posts": Delta chi-square');
+    const j = JSON.parse((await cli(['date', join(DIR, 'kornplatz-figures-variant.yaml'), '--json'])).out);
+    const figures = j.groupTests.find((g: { group: string }) => g.group === 'figures');
+    expect(figures.pValue).toBeLessThan(0.001);
+    expect(Math.abs(figures.ownSun.azimuthDeg - 200.9)).toBeLessThan(2);
+    expect(Math.abs(figures.ownSun.altitudeDeg - 59.63)).toBeLessThan(2);
   });
 });
