@@ -126,6 +126,7 @@ function observationRecord(scene: Scene, m: ResolvedMeasurement) {
     kind: meas.kind,
     ...(wallId !== undefined ? { wallId } : {}),
     plane: meas.rectification.field,
+    ...(meas.rectification.definition === 'camera' ? { planeFromCamera: true } : {}),
     ...(meas.kind === 'rod-shadow' || meas.kind === 'fin-shadow' ? { side: meas.side } : {}),
     values,
     ...(m.monteCarlo ? { monteCarlo: m.monteCarlo } : {}),
@@ -189,8 +190,8 @@ function renderText(
   out.push('Planes straightened (rectification; residuals in pixels, clicked point to where the fit puts it)');
   if (planes.length === 0) out.push('  none');
   for (const p of planes) {
-    out.push(`  ${p.field} (${p.kind === 'wall' ? `wall ${p.label}` : 'the ground'}): ${p.definition === 'walls' ? `from the foot lines of walls ${p.fromWalls?.join(' and ')} meeting at the corner` : p.definition === 'points' ? `${p.points} points of known position` : p.definition === 'rectangle' ? 'a rectangle of known size' : 'a rectangle of known proportion only'}`);
-    out.push(`    residuals ${p.residualsPx.map((r) => r.toFixed(2)).join(', ')} px; rms ${p.rmsPx.toFixed(2)} px; condition number ${p.conditionNumber.toPrecision(3)}`);
+    out.push(`  ${p.field} (${p.kind === 'wall' ? `wall ${p.label}` : 'the ground'}): ${p.definition === 'camera' ? "from the camera and the plane's stated direction, no clicked figure (known up to scale)" : p.definition === 'walls' ? `from the foot lines of walls ${p.fromWalls?.join(' and ')} meeting at the corner` : p.definition === 'points' ? `${p.points} points of known position` : p.definition === 'rectangle' ? 'a rectangle of known size' : 'a rectangle of known proportion only'}`);
+    if (p.definition !== 'camera') out.push(`    residuals ${p.residualsPx.map((r) => r.toFixed(2)).join(', ')} px; rms ${p.rmsPx.toFixed(2)} px; condition number ${p.conditionNumber.toPrecision(3)}`);
     out.push(`    ${p.note}`);
     if (p.warning) out.push(`    WARNING: ${p.warning}`);
   }
@@ -210,7 +211,7 @@ function renderText(
       const unit = w.unit ? ` ${w.unit}` : '';
       const length = v.sigmaParts.statedLength > 0 ? `, stated length ${v.sigmaParts.statedLength.toFixed(w.digits)}${unit}` : '';
       out.push(
-        `      sigma parts (first order): clicked figure ${v.sigmaParts.clickedFigure.toFixed(w.digits)}${unit}, ` +
+        `      sigma parts (first order): ${o.planeFromCamera ? 'camera lines' : 'clicked figure'} ${v.sigmaParts.clickedFigure.toFixed(w.digits)}${unit}, ` +
           `shadow points ${v.sigmaParts.shadowPoints.toFixed(w.digits)}${unit}${length}; ` +
           `first order ${v.firstOrderReliable ? 'reliable' : 'NOT reliable'} (nonlinearity ${v.nonlinearity.toFixed(2)}, limit ${LINEARITY_TOLERANCE})`,
       );

@@ -215,7 +215,9 @@ export function measureOverlaySvg(input: MeasureOverlayInput): string {
   // key, top left, scaled to the picture
   const size = Math.max(12, Math.round(input.image.widthPx / 100));
   const keyLines: { text: string; colour?: string; dash?: string }[] = [...input.planes].map(([field, plane]) => ({
-    text: plane.fromWalls
+    text: plane.fromCamera
+      ? `${field === 'groundPlane' ? 'the ground' : `wall ${planeLabel(input.scene, field)}`}: put into the picture by the camera (no clicked figure)`
+      : plane.fromWalls
       ? `${planeShortLabel(field)} corner: where walls ${plane.fromWalls.walls[0].id} and ${plane.fromWalls.walls[1].id} meet the ground (groundPlane.fromWalls.cornerPx); grey: the ground straightened from their foot lines`
       : `${planeShortLabel(field)} 1-${plane.pixelPoints.length}: points clicked on ${field === 'groundPlane' ? 'the ground (groundPlane)' : `wall ${planeLabel(input.scene, field)} (${field})`}; grey: its straightened grid`,
   }));

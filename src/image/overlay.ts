@@ -144,10 +144,13 @@ export function renderOverlaySvg(input: OverlayInput): string {
   }
   for (const { label, plane, shadows } of input.planes) {
     parts.push(`<g class="plane" data-label="${escapeXml(label)}">`);
-    parts.push(`<g class="grid">${gridLines(plane).join('')}</g>`);
+    // a plane from the camera has no clicked figure to draw a grid over, nor points of its own
+    parts.push(`<g class="grid">${plane.fromCamera ? '' : gridLines(plane).join('')}</g>`);
     parts.push(`<g class="measured">${(shadows ?? []).flatMap((s) => shadowMarks(plane, s)).join('')}</g>`);
     // a ground from two walls has one click of its own, the corner; its other points are derived, not clicked
-    const corners = plane.fromWalls
+    const corners = plane.fromCamera
+      ? []
+      : plane.fromWalls
       ? [pointMark(toPictureFrame(plane.fromWalls.cornerPx, plane.image), `${label} corner`)]
       : plane.pixelPoints.map((p, i) => pointMark(toPictureFrame(p, plane.image), `${label} ${i + 1}`));
     parts.push(`<g class="points">${corners.join('')}</g>`);

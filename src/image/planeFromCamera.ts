@@ -126,7 +126,8 @@ export function planeFromCamera(
     pixelPoints: [applyHomography(matrix, reference)],
     planePoints: [reference],
     pointSigmasPx: [0],
-    fit: { matrix, residuals: [], rms: 0, conditionNumber: 1, exactlyDetermined: false },
+    // no clicks to fit: the map is fixed by the camera, and its residuals tell nothing (the camera's meeting test does)
+    fit: { matrix, residuals: [], rms: 0, conditionNumber: 1, exactlyDetermined: true },
     imageToPlane: invertHomography(matrix),
     image,
     fromCamera: source,

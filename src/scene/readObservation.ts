@@ -229,7 +229,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
         if (ctx.groundPlane === undefined && has(p, 'heightM')) {
           throw new InvalidInputError(
             keyPath(p.path, 'heightM'), raw(p, 'heightM'), 'no heightM when the ground comes from the camera alone (no "groundPlane")',
-            'The camera fixes the ground only up to scale, so a shadow length cannot be compared with a height in metres; the shadow azimuth is measured',
+            'The camera fixes the ground only up to scale, so a shadow length cannot be compared with a height in metres; the shadow azimuth is measured.',
           );
         }
         const segment = readSegmentPart(p, image);

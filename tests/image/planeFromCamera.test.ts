@@ -16,7 +16,11 @@ import { rectifyPlane, type RectifiedPlane } from '../../src/image/planeInImage.
 import { measurePixelObservation, monteCarloPixelObservation } from '../../src/image/pixelObservations.js';
 import { createRandom, type RandomSource } from '../../src/math/random.js';
 import type { ImageInfo, PoleShadowObservation, RodShadowObservation } from '../../src/scene/types.js';
-import { cameraInputOf, randomBoxPicture, type BoxPicture } from './boxScene.js';
+import { cameraInputOf, randomBoxPicture, sceneOfPicture, type BoxPicture } from './boxScene.js';
+import { resolvePixelObservations } from '../../src/image/resolvePixels.js';
+import { readSceneText } from '../../src/scene/readScene.js';
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
 import { add, clicker, dot, horizontal, project, scale, type Vec3 } from './syntheticCamera.js';
 
 const CASES = 200;
@@ -149,7 +153,37 @@ describe('a plane from the camera, 1 px clicking noise: first-order sigma agains
   }, 900_000); // a generous watchdog, not a timing assertion
 });
 
+describe('a scene with a camera block and no figure on the wall', () => {
+  test('a rod shadow in pixels on a wall without imagePlane is measured through the camera', () => {
+    const { pics, rng } = pictures(13, 1);
+    const pic = pics[0];
+    const c = caseOf(pic, rng, 0);
+    const base = { formatVersion: 1 as const, title: 'box', site: { latitudeDeg: 47.62, longitudeDeg: 9.35, elevationM: 410, latitudeSigmaDeg: 0, longitudeSigmaDeg: 0 }, calendar: { kind: 'gregorian' as const }, yearStart: 'jan1' as const, window: { fromYear: 1850, toYear: 1850 }, mapNorthCorrectionDeg: 0, seed: 1 };
+    const scene = sceneOfPicture(pic, rng, 0, 1, base as never);
+    const resolved = resolvePixelObservations({ ...scene, observations: [c.rod] });
+    const fig = measurePixelObservation(c.rod, c.figWall, 'observations[0]');
+    const rod = resolved.scene.observations[0];
+    if (rod.kind !== 'rod-shadow' || fig.kind !== 'rod-shadow') throw new Error('wrong kind');
+    expect(Math.abs(rod.slopeDeg! - fig.slopeDeg.value)).toBeLessThan(1e-6);
+    expect(resolved.planes.get('walls[0].imagePlane')?.definition).toBe('camera');
+  });
+});
+
 describe('edge cases', () => {
+  const KORNPLATZ = readFileSync(fileURLToPath(new URL('../../examples/kornplatz-figures/kornplatz-figures.yaml', import.meta.url)), 'utf8');
+  const withObservation = (line: string): string => KORNPLATZ.replace(/\nseed:/, `\n  ${line}\nseed:`);
+  test('the reader accepts a rod shadow in pixels on a wall without imagePlane when the scene has a camera', () => {
+    const scene = readSceneText(withObservation('- { id: bracket, kind: rod-shadow, wall: kornhaus-front, pixels: { fromPx: [1000, 700], toPx: [1060, 790] } }'), 'k.yaml');
+    expect(scene.observations.some((o) => o.id === 'bracket')).toBe(true);
+  });
+  test('the reader refuses an overhang in pixels on a wall known only through the camera, naming the field', () => {
+    expect(() => readSceneText(withObservation('- { id: hood, kind: overhang-shadow, wall: kornhaus-front, pixels: { fromPx: [1000, 700], toPx: [1000, 790], projectionM: 0.5, projectionSigmaM: 0.02 } }'), 'k.yaml'))
+      .toThrow(/observations\[\d+\]\.pixels.*imagePlane" of known size/);
+  });
+  test('the reader refuses a pole height when the ground comes from the camera alone', () => {
+    expect(() => readSceneText(withObservation('- { id: post, kind: pole-shadow, pixels: { fromPx: [1292, 1200], toPx: [1500, 1260], heightM: 3, heightSigmaM: 0.1 } }'), 'k.yaml'))
+      .toThrow(/observations\[\d+\]\.pixels\.heightM/);
+  });
   test('a ratio to a length in metres is refused on a plane from the camera, naming the field', () => {
     const { pics, rng } = pictures(11, 1);
     const c = caseOf(pics[0], rng, 0);
