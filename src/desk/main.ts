@@ -97,7 +97,8 @@ function removeAt(label: string, path: DraftPath): void {
 
 function deletePoint(p: DraftPoint): void {
   const [head] = p.owner;
-  if (head === 'observations' || p.path[p.path.length - 1] === 'cornerPx') {
+  // a shadow, a walls' corner or a clicked camera line goes as a whole (a line of one point is no line)
+  if (head === 'observations' || head === 'camera' || p.path[p.path.length - 1] === 'cornerPx') {
     removeAt(`delete ${pathText(p.owner)}`, p.owner);
     return;
   }
