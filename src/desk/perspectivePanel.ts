@@ -26,7 +26,8 @@ function refusalNote(message: string): HTMLElement {
 function valueRow(name: string, label: string, v: ValueWithSigma, unit: string, digits: number, extra = ''): HTMLElement {
   return h('div', { class: 'value', 'data-value': name, 'data-number': String(v.value), 'data-sigma': String(v.sigma) }, [
     h('span', { class: 'value-name', text: label }),
-    h('span', { class: 'value-number', text: `${v.value.toFixed(digits)}${unit}` }),
+    // no "-0.00": a value that rounds to zero is shown as zero
+    h('span', { class: 'value-number', text: `${(Math.abs(v.value) < 0.5 * 10 ** -digits ? 0 : v.value).toFixed(digits)}${unit}` }),
     h('span', { class: 'value-sigma', text: `sigma ${v.sigma.toFixed(digits)}${unit}${extra}` }),
   ]);
 }
@@ -55,7 +56,7 @@ function cameraItems(ctx: PerspectiveContext): HTMLElement[] {
     body.push(valueRow('principalYPx', 'principal point, y', c.principalPointPx[1], ' px', 1, c.principalPointAssumed ? ' (assumed)' : ''));
     if (c.principalPointAssumed) body.push(h('p', { class: 'warning', 'data-note': 'principal-point-assumed' }, [h('strong', { text: 'Note: ' }), "the principal point is assumed at the picture's centre, not measured; a cropped picture or a shifted lens moves it, and that error is not in the sigmas."]));
     body.push(valueRow('viewAzimuthDeg', 'looking towards azimuth (from true north)', c.viewAzimuthDeg, ' deg', 2));
-    body.push(valueRow('viewAltitudeDeg', `tilted ${c.viewAltitudeDeg.value >= 0 ? 'up' : 'down'} (view altitude)`, c.viewAltitudeDeg, ' deg', 2));
+    body.push(valueRow('viewAltitudeDeg', `view altitude: tilted ${c.viewAltitudeDeg.value >= 0 ? 'up' : 'down'} by ${Math.abs(c.viewAltitudeDeg.value).toFixed(2)} deg`, c.viewAltitudeDeg, ' deg', 2));
     body.push(valueRow('rollDeg', 'rolled', c.rollDeg, ' deg', 2));
     if (!c.firstOrderReliable) body.push(h('p', { class: 'warning' }, [h('strong', { text: 'Warning: ' }), 'the first-order sigmas of the camera are not reliable (they bend within the clicking error).']));
     for (const n of c.notes.slice(1 + c.vanishingPoints.length)) body.push(h('p', { class: 'warning' }, [h('strong', { text: 'Warning: ' }), n]));

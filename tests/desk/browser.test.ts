@@ -503,9 +503,11 @@ describe('the measuring desk in Chromium', () => {
       expect(await page.locator('li[data-item^="observations"][data-id]').count()).toBe(pairs.length);
 
       await page.locator('#zoom-select').selectOption('fit');
-      await page.locator('.panels').evaluate((el) => { el.scrollTop = el.scrollHeight; });
+      await page.locator('[data-item="camera"]').evaluate((el) => el.scrollIntoView({ block: 'start' }));
       await page.mouse.move(10, 990);
       await page.screenshot({ path: join(OUT_DIR, '6-perspective.png') });
+      await page.locator('[data-group="figures"]').evaluate((el) => el.scrollIntoView({ block: 'start' }));
+      await page.screenshot({ path: join(OUT_DIR, '7-suns.png') });
 
       // Save; the command line dates the saved file with the example's first candidate
       await page.locator('#save-name').fill('kornplatz-desk.yaml');
@@ -516,6 +518,13 @@ describe('the measuring desk in Chromium', () => {
         return `${d.candidates[0].date.text}, ${d.candidates[0].times.localApparent}`;
       };
       expect(first(cli(['date', 'kornplatz-desk.yaml', '--json'], kornFolder))).toBe(first(cli(['date', join(dir, 'kornplatz-figures.yaml'), '--json'])));
+      // the overlay written from the page (vanishing lines, shadow lines, ellipses) is the command line's, byte for byte
+      await page.locator('#export-overlay').click();
+      await page.waitForFunction(() => (document.getElementById('notice')!.textContent ?? '').startsWith('Written'));
+      cli(['measure', 'kornplatz-desk.yaml', '--overlay', 'cli-overlay.svg'], kornFolder);
+      const fromPage = readFileSync(join(kornFolder, 'kornplatz-desk-overlay.svg'));
+      expect(fromPage.includes('class="light-group"')).toBe(true);
+      expect(fromPage.equals(readFileSync(join(kornFolder, 'cli-overlay.svg')))).toBe(true);
 
       expect(watched.errors).toEqual([]);
       expect(watched.offMachine).toEqual([]);
