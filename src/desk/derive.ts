@@ -18,6 +18,7 @@ import { rectifySceneGround } from '../image/measureScene.js';
 import { resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
 import { getAt, pathText, type Draft, type DraftValue } from './draft.js';
 import { refusalOf, type Refusal } from './refusal.js';
+import { neutralCopy, standIn } from './neutralCopy.js';
 import { derivePerspective, type Perspective } from './derivePerspective.js';
 
 export const PIXEL_KINDS = ['rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow'] as const;
@@ -54,10 +55,6 @@ export function ownerOf(field: string): string {
   return field;
 }
 
-function standIn(k: number): DraftValue {
-  return { id: `desk-stand-in-${k + 1}`, kind: 'sun-up' };
-}
-
 /** The copy of the document that measuring needs, with neutral stand-ins for the rest. */
 function measuringCopy(draft: Draft): Draft {
   const walls = (Array.isArray(draft.walls) ? draft.walls : []).map((w) =>
@@ -65,21 +62,8 @@ function measuringCopy(draft: Draft): Draft {
       ? { ...w, azimuthDeg: 0 }
       : w,
   );
-  const observations = (Array.isArray(draft.observations) ? draft.observations : []).map((o, k) =>
-    PIXEL_KINDS.includes(String(getAt(o, ['kind'])) as (typeof PIXEL_KINDS)[number]) && getAt(o, ['pixels']) !== undefined ? o : standIn(k),
-  );
-  if (observations.length === 0) observations.push(standIn(0));
-  const copy: Draft = {
-    heliochron: 1,
-    title: 'measuring',
-    site: { latitudeDeg: 0, longitudeDeg: 0 },
-    calendar: 'gregorian',
-    window: { fromYear: 1900, toYear: 1900 },
-    walls,
-    observations,
-  };
-  for (const key of ['image', 'groundPlane', 'mapNorthCorrectionDeg', 'seed'] as const) if (draft[key] !== undefined) copy[key] = draft[key];
-  return copy;
+  const pixelForm = (o: DraftValue): boolean => PIXEL_KINDS.includes(String(getAt(o, ['kind'])) as (typeof PIXEL_KINDS)[number]) && getAt(o, ['pixels']) !== undefined;
+  return neutralCopy(draft, 'measuring', walls, pixelForm, ['image', 'groundPlane', 'mapNorthCorrectionDeg', 'seed']);
 }
 
 /** Replace the observations that stand on a left-out plane by stand-ins, saying why beside each. */

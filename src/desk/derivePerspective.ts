@@ -17,6 +17,7 @@ import { solveCamera, type CameraSolution } from '../image/camera.js';
 import { cameraInputOf, hasObjectShadows, resolveSceneSun, type SceneSun } from '../image/sceneSun.js';
 import { getAt, type Draft, type DraftValue } from './draft.js';
 import { refusalOf, type Refusal } from './refusal.js';
+import { neutralCopy, standIn } from './neutralCopy.js';
 
 export interface Perspective {
   /** The camera, when its lines give one. */
@@ -33,25 +34,9 @@ export interface Perspective {
 
 const isPair = (o: DraftValue | undefined): boolean => getAt(o, ['kind']) === 'object-shadow';
 
-function standIn(k: number): DraftValue {
-  return { id: `desk-stand-in-${k + 1}`, kind: 'sun-up' };
-}
-
 /** The copy of the document the camera and the suns need, with neutral stand-ins for the rest. */
 function perspectiveCopy(draft: Draft): Draft {
-  const observations = (Array.isArray(draft.observations) ? draft.observations : []).map((o, k) => (isPair(o) ? o : standIn(k)));
-  if (observations.length === 0) observations.push(standIn(0));
-  const copy: Draft = {
-    heliochron: 1,
-    title: 'perspective',
-    site: { latitudeDeg: 0, longitudeDeg: 0 },
-    calendar: 'gregorian',
-    window: { fromYear: 1900, toYear: 1900 },
-    walls: Array.isArray(draft.walls) ? draft.walls : [],
-    observations,
-  };
-  for (const key of ['image', 'camera', 'mapNorthCorrectionDeg', 'seed'] as const) if (draft[key] !== undefined) copy[key] = draft[key];
-  return copy;
+  return neutralCopy(draft, 'perspective', Array.isArray(draft.walls) ? draft.walls : [], isPair, ['image', 'camera', 'mapNorthCorrectionDeg', 'seed']);
 }
 
 /** Leave out the pair a refusal names; false when it names no pair still in the copy. */
