@@ -132,7 +132,7 @@ function marks(): Mark[] {
     label: p.label,
     kind: state.selection && pathText(state.selection) === pathText(p.path)
       ? 'selected'
-      : state.derived.itemRefusals.has(pathText(p.owner)) ? 'refused' : 'point',
+      : state.derived.itemRefusals.has(pathText(p.owner)) || state.derived.perspective?.pairRefusals.has(pathText(p.owner)) ? 'refused' : 'point',
   }));
   state.clicks.forEach((c, k) => out.push({ xy: c, label: String(k + 1), kind: 'pending' }));
   if (state.cross && state.toolId) out.push({ xy: state.cross, label: '+', kind: 'pending' });
