@@ -515,9 +515,18 @@ describe('the measuring desk in Chromium', () => {
       await page.waitForFunction(() => document.getElementById('unsaved')!.textContent === '');
       const first = (answer: string): string => {
         const d = JSON.parse(answer) as { candidates: { date: { text: string }; times: { localApparent: string } }[] };
-        return `${d.candidates[0].date.text}, ${d.candidates[0].times.localApparent}`;
+        return `${d.candidates[0].date.text}, ${d.candidates[0].times.localApparent} local apparent time`;
       };
-      expect(first(cli(['date', 'kornplatz-desk.yaml', '--json'], kornFolder))).toBe(first(cli(['date', join(dir, 'kornplatz-figures.yaml'), '--json'])));
+      const firstOfExample = first(cli(['date', join(dir, 'kornplatz-figures.yaml'), '--json']));
+      expect(first(cli(['date', 'kornplatz-desk.yaml', '--json'], kornFolder))).toBe(firstOfExample);
+      // and "Date it" in the page gives it too
+      await page.locator('#date-it').click();
+      await page.waitForFunction(
+        () => (document.getElementById('answer-area')!.dataset.firstCandidate ?? '') !== '' || /^Not /.test(document.getElementById('progress')!.textContent ?? ''),
+        undefined,
+        { timeout: 200_000 },
+      );
+      expect(await page.locator('#answer-area').getAttribute('data-first-candidate')).toBe(firstOfExample);
       // the overlay written from the page (vanishing lines, shadow lines, ellipses) is the command line's, byte for byte
       await page.locator('#export-overlay').click();
       await page.waitForFunction(() => (document.getElementById('notice')!.textContent ?? '').startsWith('Written'));
