@@ -11,21 +11,19 @@
  * An item that the reader or the rectification refuses gets the message and is left out of
  * the copy, and measuring goes on for the others (at most once per item: bounded).
  */
-import { HeliochronError, InvalidInputError } from '../errors.js';
 import { sceneFromData } from '../scene/readScene.js';
 import type { Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectifySceneGround } from '../image/measureScene.js';
 import { resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
 import { getAt, pathText, type Draft, type DraftValue } from './draft.js';
+import { refusalOf, type Refusal } from './refusal.js';
+import { neutralCopy, standIn } from './neutralCopy.js';
+import { derivePerspective, type Perspective } from './derivePerspective.js';
 
 export const PIXEL_KINDS = ['rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow'] as const;
 
-export interface Refusal {
-  /** The field the library named (`walls[0].imagePlane.pointsPx`), or '' for the file as a whole. */
-  readonly field: string;
-  readonly message: string;
-}
+export type { Refusal };
 
 export interface Derived {
   /** The validated scene, when the reader takes the whole document. */
@@ -39,13 +37,10 @@ export interface Derived {
   readonly measurements: readonly ResolvedMeasurement[];
   /** Refusals of single items, by the item's path text (`observations[2]`, `walls[0].imagePlane`, `groundPlane`). */
   readonly itemRefusals: ReadonlyMap<string, string>;
+  /** The picture's camera and the groups' suns, when the document has a camera block or object-shadow pairs. */
+  readonly perspective: Perspective | null;
 }
 
-function refusalOf(error: unknown): Refusal {
-  if (error instanceof InvalidInputError) return { field: error.field, message: error.message };
-  if (error instanceof HeliochronError) return { field: '', message: error.message };
-  return { field: '', message: error instanceof Error ? error.message : String(error) };
-}
 
 /** The item a field belongs to: `observations[2].pixels.toPx` -> `observations[2]`; planes by their own path. */
 export function ownerOf(field: string): string {
@@ -60,10 +55,6 @@ export function ownerOf(field: string): string {
   return field;
 }
 
-function standIn(k: number): DraftValue {
-  return { id: `desk-stand-in-${k + 1}`, kind: 'sun-up' };
-}
-
 /** The copy of the document that measuring needs, with neutral stand-ins for the rest. */
 function measuringCopy(draft: Draft): Draft {
   const walls = (Array.isArray(draft.walls) ? draft.walls : []).map((w) =>
@@ -71,21 +62,8 @@ function measuringCopy(draft: Draft): Draft {
       ? { ...w, azimuthDeg: 0 }
       : w,
   );
-  const observations = (Array.isArray(draft.observations) ? draft.observations : []).map((o, k) =>
-    PIXEL_KINDS.includes(String(getAt(o, ['kind'])) as (typeof PIXEL_KINDS)[number]) && getAt(o, ['pixels']) !== undefined ? o : standIn(k),
-  );
-  if (observations.length === 0) observations.push(standIn(0));
-  const copy: Draft = {
-    heliochron: 1,
-    title: 'measuring',
-    site: { latitudeDeg: 0, longitudeDeg: 0 },
-    calendar: 'gregorian',
-    window: { fromYear: 1900, toYear: 1900 },
-    walls,
-    observations,
-  };
-  for (const key of ['image', 'groundPlane', 'mapNorthCorrectionDeg', 'seed'] as const) if (draft[key] !== undefined) copy[key] = draft[key];
-  return copy;
+  const pixelForm = (o: DraftValue): boolean => PIXEL_KINDS.includes(String(getAt(o, ['kind'])) as (typeof PIXEL_KINDS)[number]) && getAt(o, ['pixels']) !== undefined;
+  return neutralCopy(draft, 'measuring', walls, pixelForm, ['image', 'groundPlane', 'mapNorthCorrectionDeg', 'seed']);
 }
 
 /** Replace the observations that stand on a left-out plane by stand-ins, saying why beside each. */
@@ -179,7 +157,7 @@ export function derive(draft: Draft): Derived {
       }
     }
   }
-  return { scene, refusal, measuringScene, planes, measurements, itemRefusals };
+  return { scene, refusal, measuringScene, planes, measurements, itemRefusals, perspective: derivePerspective(draft) };
 }
 
 export { pathText };

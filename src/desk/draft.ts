@@ -81,16 +81,41 @@ function planePoints(plane: DraftValue | undefined, owner: DraftPath, short: str
   if (isPoint(corner)) out.push({ path: [...owner, 'fromWalls', 'cornerPx'], xy: corner, label: `${short} corner`, owner });
 }
 
+/** Points of one clicked line: each labelled with the line's short name, owned by the line. */
+function linePoints(line: DraftValue | undefined, owner: DraftPath, short: string, out: DraftPoint[]): void {
+  if (Array.isArray(line)) line.forEach((p, j) => isPoint(p) && out.push({ path: [...owner, j], xy: p, label: short, owner }));
+}
+
+/** The camera's lines: V1, V2 ... along vertical edges; H1.1, H1.2 ... along the courses of the first wall listed. */
+function cameraPoints(draft: Draft, out: DraftPoint[]): void {
+  const vertical = getAt(draft, ['camera', 'verticalLines']);
+  if (Array.isArray(vertical)) vertical.forEach((line, k) => linePoints(line, ['camera', 'verticalLines', k], `V${k + 1}`, out));
+  const walls = getAt(draft, ['camera', 'wallLines']);
+  if (!Array.isArray(walls)) return;
+  walls.forEach((entry, i) => {
+    const lines = getAt(entry, ['lines']);
+    if (Array.isArray(lines)) lines.forEach((line, k) => linePoints(line, ['camera', 'wallLines', i, 'lines', k], `H${i + 1}.${k + 1}`, out));
+  });
+}
+
 /** Every clicked point of the draft, in file order. */
 export function draftPoints(draft: Draft): DraftPoint[] {
   const out: DraftPoint[] = [];
   planePoints(draft.groundPlane, ['groundPlane'], 'G', out);
   const walls = Array.isArray(draft.walls) ? draft.walls : [];
   walls.forEach((w, i) => planePoints(getAt(w, ['imagePlane']), ['walls', i, 'imagePlane'], `W${i + 1}`, out));
+  cameraPoints(draft, out);
   const observations = Array.isArray(draft.observations) ? draft.observations : [];
   observations.forEach((o, k) => {
     const words = SEGMENT_WORDS[String(getAt(o, ['kind']))];
     const id = String(getAt(o, ['id']) ?? `#${k + 1}`);
+    if (getAt(o, ['kind']) === 'object-shadow') {
+      for (const [key, word] of [['objectPx', 'object'], ['shadowPx', 'shadow']] as const) {
+        const p = getAt(o, [key]);
+        if (isPoint(p)) out.push({ path: ['observations', k, key], xy: p, label: `${id} ${word}`, owner: ['observations', k] });
+      }
+      return;
+    }
     if (!words) return;
     for (const [key, word] of [['fromPx', words[0]], ['toPx', words[1]]] as const) {
       const p = getAt(o, ['pixels', key]);

@@ -15,10 +15,16 @@ export interface ChosenPrediction {
   readonly predictions: readonly MeasurementPrediction[];
 }
 
-/** The overlay SVG of the measured planes and shadows (and a candidate's predicted shadows), or null when nothing is straightened yet. */
-export function overlayFor(derived: Derived, best: ChosenPrediction | null, picture?: PictureFile | null): string | null {
+/**
+ * The overlay SVG of the measured planes and shadows, the camera's lines and the groups' light
+ * (and a candidate's predicted shadows), or null when there is nothing to draw yet. On the page
+ * the camera is drawn as soon as it is found; the file written out has what `heliochron measure`
+ * draws (the camera and its suns only when every pair is accepted).
+ */
+export function overlayFor(derived: Derived, best: ChosenPrediction | null, picture?: PictureFile | null, forFile = false): string | null {
   const scene = derived.measuringScene;
-  if (!scene?.image || derived.planes.size === 0) return null;
+  const sceneSun = forFile ? derived.perspective?.sceneSun : derived.perspective?.drawing;
+  if (!scene?.image || (derived.planes.size === 0 && !sceneSun)) return null;
   return measureOverlaySvg({
     scene,
     image: scene.image,
@@ -26,6 +32,7 @@ export function overlayFor(derived: Derived, best: ChosenPrediction | null, pict
     measurements: derived.measurements,
     ...(picture ? { picture } : {}),
     ...(best ? { best } : {}),
+    ...(sceneSun ? { sceneSun } : {}),
   });
 }
 
@@ -46,9 +53,9 @@ export async function exportOverlaySvg(derived: Derived, picture: PictureFile | 
     notice(`The overlay is written for a complete scene; the scene reader does not take it yet: ${derived.refusal?.message ?? ''}`, 'error');
     return;
   }
-  const svg = overlayFor(derived, null, picture);
+  const svg = overlayFor(derived, null, picture, true);
   if (!svg) {
-    notice('Nothing to draw yet: click a wall figure or a ground figure first.', 'error');
+    notice('Nothing to draw yet: click a wall figure, a ground figure or the camera lines first.', 'error');
     return;
   }
   try {

@@ -97,7 +97,8 @@ function removeAt(label: string, path: DraftPath): void {
 
 function deletePoint(p: DraftPoint): void {
   const [head] = p.owner;
-  if (head === 'observations' || p.path[p.path.length - 1] === 'cornerPx') {
+  // a shadow, a walls' corner or a clicked camera line goes as a whole (a line of one point is no line)
+  if (head === 'observations' || head === 'camera' || p.path[p.path.length - 1] === 'cornerPx') {
     removeAt(`delete ${pathText(p.owner)}`, p.owner);
     return;
   }
@@ -131,7 +132,7 @@ function marks(): Mark[] {
     label: p.label,
     kind: state.selection && pathText(state.selection) === pathText(p.path)
       ? 'selected'
-      : state.derived.itemRefusals.has(pathText(p.owner)) ? 'refused' : 'point',
+      : state.derived.itemRefusals.has(pathText(p.owner)) || state.derived.perspective?.pairRefusals.has(pathText(p.owner)) ? 'refused' : 'point',
   }));
   state.clicks.forEach((c, k) => out.push({ xy: c, label: String(k + 1), kind: 'pending' }));
   if (state.cross && state.toolId) out.push({ xy: state.cross, label: '+', kind: 'pending' });

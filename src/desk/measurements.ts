@@ -8,6 +8,7 @@ import { measuredQuantities } from '../image/resolvePixels.js';
 import { h } from './dom.js';
 import { getAt, type Draft, type DraftPath } from './draft.js';
 import type { Derived } from './derive.js';
+import { renderPerspective } from './perspectivePanel.js';
 
 const VALUE_WORDS: Readonly<Record<string, { label: string; unit: string; digits: number }>> = {
   slopeDeg: { label: 'slope below horizontal', unit: ' deg', digits: 2 },
@@ -118,5 +119,6 @@ export function renderMeasurements(ctx: MeasurementsContext): HTMLElement[] {
     planes.length ? h('ul', { class: 'items' }, planes) : h('p', { class: 'small', text: 'None yet: click a wall figure or a ground figure.' }),
     h('h3', { text: 'Shadows measured' }),
     shadows.length ? h('ul', { class: 'items' }, shadows) : h('p', { class: 'small', text: 'None yet: pick a shadow tool and click its two points.' }),
+    ...renderPerspective({ draft: ctx.draft, perspective: ctx.derived.perspective, remove: ctx.remove }),
   ];
 }

@@ -6,7 +6,7 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import { parse } from 'yaml';
+import { parse, stringify } from 'yaml';
 import { tiffFile } from './tiffFile.js';
 
 // The measuring desk in a real browser (issue 10, "What it must show"): Debian's Chromium through
@@ -376,6 +376,173 @@ describe('the measuring desk in Chromium', () => {
       rmSync(reportFolder, { recursive: true, force: true });
     }
   }, 300_000);
+
+  it('measures a picture with no sizes in metres from its own perspective: camera lines and object-shadow pairs clicked at 50%, the camera and the groups\' suns as `heliochron measure` finds them, saved and dated as the command line dates the example', async () => {
+    // examples/kornplatz-figures: the invented print of Velmar with no size in metres anywhere. The
+    // desk opens a copy of its scene file with the camera block and the object-shadow pairs taken out;
+    // every camera line and pair of the example is then placed by simulated clicks.
+    const dir = join(ROOT, 'examples', 'kornplatz-figures');
+    const source = parse(readFileSync(join(dir, 'kornplatz-figures.yaml'), 'utf8')) as {
+      camera: { verticalLines: [number, number][][]; wallLines: { wall: string; lines: [number, number][][] }[] };
+      observations: { id: string; kind: string; group?: string; objectPx?: [number, number]; shadowPx?: [number, number] }[];
+    };
+    const pairs = source.observations.filter((o) => o.kind === 'object-shadow');
+    const start: Record<string, unknown> = { ...source, observations: source.observations.filter((o) => o.kind !== 'object-shadow') };
+    delete start.camera;
+    const kornFolder = mkdtempSync(join(tmpdir(), 'heliochron-desk-perspective-'));
+    copyFileSync(join(dir, 'kornplatz-figures.png'), join(kornFolder, 'kornplatz-figures.png'));
+    writeFileSync(join(kornFolder, 'kornplatz-figures.yaml'), stringify(start));
+    const started = await startDesk(kornFolder, 'kornplatz-figures.yaml');
+    try {
+      const context = await browser!.newContext({ viewport: { width: 1500, height: 1000 } });
+      const page = await context.newPage();
+      const watched = watch(page, started.url);
+      await page.goto(started.url);
+      await page.waitForSelector('body[data-ready="true"]');
+      expect(await page.locator('[data-item="camera"]').count()).toBe(0); // an empty camera
+      await page.locator('#zoom-select').selectOption('0.5');
+      expect(Number(await page.locator('#viewer').getAttribute('data-zoom'))).toBe(0.5);
+
+      // the vertical edges, picked by their key; one instruction per click
+      await page.locator('#viewer').focus();
+      await page.keyboard.press('v');
+      expect(await page.locator('#instruction').textContent()).toContain('Vertical edges, click 1 of 2: Click one end of an edge that is vertical');
+      for (const line of source.camera.verticalLines) for (const p of line) await clickPixel(page, p);
+      // one direction only: the scene reader's own message stands beside the camera
+      expect(await page.locator('[data-item="camera"] .message').textContent()).toBe(
+        'Not accepted: camera.wallLines is missing; expected lines along the horizontal edges of one or more walls: [{ wall: <wall id>, lines: [...] }]. The camera block needs "wallLines".');
+
+      await page.keyboard.press('h');
+      const [front, side] = source.camera.wallLines;
+      await toolField(page, 'wall', front.wall, true);
+      expect(await page.locator('#instruction').textContent()).toContain(`Wall courses, click 1 of 2: Click one end of an edge that is horizontal on wall ${front.wall}`);
+      for (const p of front.lines[0]) await clickPixel(page, p);
+      // one line along a wall is no family either
+      expect(await page.locator('[data-item="camera"] .message').textContent()).toContain('camera.wallLines[0].lines: ');
+      for (const line of front.lines.slice(1)) for (const p of line) await clickPixel(page, p);
+      // the vertical and one wall: a camera, with the principal point assumed at the centre and said so
+      expect(await page.locator('[data-item="camera"] .message').count()).toBe(0);
+      expect(await page.locator('[data-note="principal-point-assumed"]').count()).toBe(1);
+      expect(await page.locator('[data-item="camera"] [data-value="principalXPx"]').getAttribute('data-number')).toBe('1200');
+      await toolField(page, 'wall', side.wall, true);
+      for (const line of side.lines) for (const p of line) await clickPixel(page, p);
+      expect(await page.locator('[data-item="camera"] .message').count()).toBe(0);
+      await page.keyboard.press('Escape');
+      await page.locator('#zoom-select').selectOption('fit');
+      await page.mouse.move(10, 990);
+      await page.screenshot({ path: join(OUT_DIR, '5-camera.png') });
+
+      // the pairs, with their group typed in a field
+      await page.locator('#zoom-select').selectOption('0.5');
+      await page.keyboard.press('s');
+      for (const o of pairs) {
+        await toolField(page, 'id', o.id);
+        await toolField(page, 'group', o.group ?? '');
+        expect(await page.locator('#instruction').textContent()).toContain('Object and shadow, click 1 of 2: Click the object point');
+        await clickPixel(page, o.objectPx!);
+        expect(await page.locator('#instruction').textContent()).toContain('click 2 of 2: Click the shadow of that same point');
+        await clickPixel(page, o.shadowPx!);
+      }
+      await page.keyboard.press('Escape');
+
+      // every clicked point is where the example has it (the mapping at 50%)
+      const stored = JSON.parse((await page.evaluate(() => localStorage.getItem('heliochron-desk:kornplatz-figures.yaml')))!) as { draft: typeof source };
+      expect(stored.draft.camera).toEqual(source.camera);
+      expect(stored.draft.observations.filter((o) => o.kind === 'object-shadow').map((o) => [o.id, o.group, o.objectPx, o.shadowPx]))
+        .toEqual(pairs.map((o) => [o.id, o.group, o.objectPx, o.shadowPx]));
+
+      // the camera and the groups' suns shown are those of `heliochron measure --json` on the example
+      const measured = JSON.parse(cli(['measure', join(dir, 'kornplatz-figures.yaml'), '--json'])) as {
+        camera: {
+          focalLengthPx: { value: number; sigma: number }; principalPointPx: { value: number }[]; principalPointAssumed: boolean;
+          viewAzimuthDeg: { value: number; sigma: number }; viewAltitudeDeg: { value: number; sigma: number };
+          vanishingPoints: { field: string; note: string }[];
+          groups: { group: string; azimuthDeg: number; altitudeDeg: number; written: { azimuthSigmaDeg: number; altitudeSigmaDeg: number }; againstRest: { sentence: string } | null }[];
+        };
+      };
+      const cam = measured.camera;
+      const shown = async (scope: string, name: string): Promise<{ value: number; sigma: number }> => {
+        const cell = page.locator(`${scope} [data-value="${name}"]`);
+        return { value: Number(await cell.getAttribute('data-number')), sigma: Number(await cell.getAttribute('data-sigma')) };
+      };
+      const focal = await shown('[data-item="camera"]', 'focalLengthPx');
+      expect(Math.abs(focal.value / cam.focalLengthPx.value - 1)).toBeLessThanOrEqual(0.001); // 0.1% (issue 11)
+      expect(Math.abs(focal.sigma / cam.focalLengthPx.sigma - 1)).toBeLessThanOrEqual(0.001);
+      expect(Math.abs((await shown('[data-item="camera"]', 'principalXPx')).value - cam.principalPointPx[0].value)).toBeLessThanOrEqual(0.1);
+      expect(Math.abs((await shown('[data-item="camera"]', 'principalYPx')).value - cam.principalPointPx[1].value)).toBeLessThanOrEqual(0.1);
+      for (const name of ['viewAzimuthDeg', 'viewAltitudeDeg'] as const) {
+        const v = await shown('[data-item="camera"]', name);
+        expect(Math.abs(v.value - cam[name].value), name).toBeLessThanOrEqual(0.01);
+        expect(Math.abs(v.sigma - cam[name].sigma), `${name} sigma`).toBeLessThanOrEqual(0.01);
+      }
+      expect(cam.principalPointAssumed).toBe(false); // three square directions: the orthocentre, no note
+      expect(await page.locator('[data-note="principal-point-assumed"]').count()).toBe(0);
+      // how closely each family meets: the library's sentence beside it
+      for (const v of cam.vanishingPoints) expect(await page.locator(`[data-item="${v.field}"]`).textContent()).toContain(v.note);
+      expect(cam.groups.length).toBe(2);
+      for (const g of cam.groups) {
+        const scope = `[data-group="${g.group}"]`;
+        const az = await shown(scope, 'azimuthDeg');
+        const alt = await shown(scope, 'altitudeDeg');
+        expect(Math.abs(az.value - g.azimuthDeg), `${g.group} azimuth`).toBeLessThanOrEqual(0.01);
+        expect(Math.abs(alt.value - g.altitudeDeg), `${g.group} altitude`).toBeLessThanOrEqual(0.01);
+        expect(Math.abs(az.sigma - g.written.azimuthSigmaDeg), `${g.group} azimuth sigma`).toBeLessThanOrEqual(0.01);
+        expect(Math.abs(alt.sigma - g.written.altitudeSigmaDeg), `${g.group} altitude sigma`).toBeLessThanOrEqual(0.01);
+        expect(await page.locator(`${scope} [data-group-test]`).textContent()).toBe(g.againstRest!.sentence);
+      }
+      // drawn over the picture: the vanishing lines, each group's shadow lines and the ellipse where they meet
+      expect(await page.locator('#overlay g.perspective line').count()).toBe(2 * (6 + 4 + 4));
+      expect(await page.locator('#overlay g.light-group').count()).toBe(2);
+      expect(await page.locator('#overlay g.light-group ellipse').count()).toBe(2);
+      expect(await page.locator('#overlay g.light-group line').count()).toBe(2 * pairs.length);
+
+      // undo and redo through the log: the last pair taken back, then put again
+      await page.keyboard.press('Control+z');
+      expect(await page.locator('li[data-item^="observations"][data-id]').count()).toBe(pairs.length - 1);
+      await page.keyboard.press('Control+Shift+z');
+      expect(await page.locator('li[data-item^="observations"][data-id]').count()).toBe(pairs.length);
+
+      await page.locator('#zoom-select').selectOption('fit');
+      await page.locator('[data-item="camera"]').evaluate((el) => el.scrollIntoView({ block: 'start' }));
+      await page.mouse.move(10, 990);
+      await page.screenshot({ path: join(OUT_DIR, '6-perspective.png') });
+      await page.locator('[data-group="figures"]').evaluate((el) => el.scrollIntoView({ block: 'start' }));
+      await page.screenshot({ path: join(OUT_DIR, '7-suns.png') });
+
+      // Save; the command line dates the saved file with the example's first candidate
+      await page.locator('#save-name').fill('kornplatz-desk.yaml');
+      await page.locator('#save').click();
+      await page.waitForFunction(() => document.getElementById('unsaved')!.textContent === '');
+      const first = (answer: string): string => {
+        const d = JSON.parse(answer) as { candidates: { date: { text: string }; times: { localApparent: string } }[] };
+        return `${d.candidates[0].date.text}, ${d.candidates[0].times.localApparent} local apparent time`;
+      };
+      const firstOfExample = first(cli(['date', join(dir, 'kornplatz-figures.yaml'), '--json']));
+      expect(first(cli(['date', 'kornplatz-desk.yaml', '--json'], kornFolder))).toBe(firstOfExample);
+      // and "Date it" in the page gives it too
+      await page.locator('#date-it').click();
+      await page.waitForFunction(
+        () => (document.getElementById('answer-area')!.dataset.firstCandidate ?? '') !== '' || /^Not /.test(document.getElementById('progress')!.textContent ?? ''),
+        undefined,
+        { timeout: 200_000 },
+      );
+      expect(await page.locator('#answer-area').getAttribute('data-first-candidate')).toBe(firstOfExample);
+      // the overlay written from the page (vanishing lines, shadow lines, ellipses) is the command line's, byte for byte
+      await page.locator('#export-overlay').click();
+      await page.waitForFunction(() => (document.getElementById('notice')!.textContent ?? '').startsWith('Written'));
+      cli(['measure', 'kornplatz-desk.yaml', '--overlay', 'cli-overlay.svg'], kornFolder);
+      const fromPage = readFileSync(join(kornFolder, 'kornplatz-desk-overlay.svg'));
+      expect(fromPage.includes('class="light-group"')).toBe(true);
+      expect(fromPage.equals(readFileSync(join(kornFolder, 'cli-overlay.svg')))).toBe(true);
+
+      expect(watched.errors).toEqual([]);
+      expect(watched.offMachine).toEqual([]);
+      await context.close();
+    } finally {
+      started.child.kill('SIGINT');
+      rmSync(kornFolder, { recursive: true, force: true });
+    }
+  }, 400_000);
 
   it('opens a TIFF scan: its size read from the file, drawn without errors', async () => {
     const tiffFolder = mkdtempSync(join(tmpdir(), 'heliochron-desk-tiff-'));

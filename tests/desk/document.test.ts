@@ -9,6 +9,8 @@ import { commit, isUnsaved, markSaved, redo, startHistory, undo } from '../../sr
 import { derive } from '../../src/desk/derive.js';
 import { sceneYamlText } from '../../src/desk/sceneYaml.js';
 import { TOOLS } from '../../src/desk/tools/registry.js';
+import { derivePerspective } from '../../src/desk/derivePerspective.js';
+import { resolveSceneSun } from '../../src/image/sceneSun.js';
 
 // The desk's document is the scene file's own data (src/desk/draft.ts): what it saves is read by the
 // scene reader into the same Scene as the file it came from; its measurements are the library's.
@@ -112,5 +114,61 @@ describe('the tools', () => {
     expect(corner.finish(twoWalls, [[1, 1]], { wallA: 'west', wallB: 'west' })).toMatch(/two different walls/);
     const wallFigure = TOOLS.find((t) => t.id === 'wall-figure')!;
     expect(wallFigure.finish(emptyDraft(null, null, null), [[0, 0], [1, 0], [1, 1], [0, 1]], { wall: 'none', form: 'rectangle' })).toMatch(/Choose the wall/);
+  });
+});
+
+describe("the picture's own perspective on the desk", () => {
+  const KORN = fileURLToPath(new URL('../../examples/kornplatz-figures/kornplatz-figures.yaml', import.meta.url));
+  const korn = parse(readFileSync(KORN, 'utf8')) as Draft;
+
+  it('finds the camera and the groups\' suns of the example as `heliochron measure` does (resolveSceneSun on the file itself)', () => {
+    const p = derivePerspective(korn)!;
+    const direct = resolveSceneSun(readSceneText(readFileSync(KORN, 'utf8'), KORN));
+    expect(p.cameraRefusal).toBeNull();
+    expect(p.sceneSun!.camera.focalLengthPx).toEqual(direct.camera.focalLengthPx);
+    expect(p.sceneSun!.groups.map((g) => [g.group, g.sun.azimuthDeg, g.sun.altitudeDeg, g.azimuthSigmaDeg, g.altitudeSigmaDeg]))
+      .toEqual(direct.groups.map((g) => [g.group, g.sun.azimuthDeg, g.sun.altitudeDeg, g.azimuthSigmaDeg, g.altitudeSigmaDeg]));
+    // the camera's lines and the pairs are points of the document, labelled and owned by their line or pair
+    const points = draftPoints(korn);
+    expect(points.filter((q) => q.path[0] === 'camera').length).toBe(2 * (6 + 4 + 4));
+    expect(points.find((q) => q.label === 'figure-2 shadow')!.owner).toEqual(['observations', 4]);
+  });
+
+  it('refuses a group of one pair beside that pair and goes on with the others; a camera of one direction is refused beside the camera', () => {
+    const oneFigure = structuredClone(korn);
+    (oneFigure.observations as Draft[]).splice(4); // front-lit, post-1, post-2, figure-1
+    const p = derivePerspective(oneFigure)!;
+    expect([...p.pairRefusals.keys()]).toEqual(['observations[3]']);
+    expect(p.pairRefusals.get('observations[3]')).toContain('two or more object-shadow pairs in group "figures"');
+    expect(p.sceneSun).toBeNull(); // not what the command line would accept
+    expect(p.drawing!.groups.map((g) => g.group)).toEqual(['lamp-posts']);
+
+    const vertical = structuredClone(korn);
+    delete (vertical.camera as Draft).wallLines;
+    const q = derivePerspective(vertical)!;
+    expect(q.camera).toBeNull();
+    expect(q.cameraRefusal!.field).toBe('camera.wallLines');
+  });
+
+  it('adds lines and pairs through the tools as transactions that undo', () => {
+    const start = { ...structuredClone(korn), observations: [{ id: 'front-lit', kind: 'wall-lit', wall: 'kornhaus-front' }] } as Draft;
+    delete start.camera;
+    let h = startHistory(start, null);
+    const tool = (id: string) => TOOLS.find((t) => t.id === id)!;
+    const apply = (id: string, clicks: [number, number][], values: Record<string, string>) => {
+      const r = tool(id).finish(h.draft, clicks, values);
+      if (typeof r === 'string') throw new Error(r);
+      h = commit(h, r.label, r.change);
+    };
+    apply('vertical-edges', [[794, 1174], [762, 343]], { points: '2' });
+    apply('wall-courses', [[809, 1120], [1776, 959]], { wall: 'kornhaus-front', points: '2' });
+    apply('wall-courses', [[797, 791], [1788, 717]], { wall: 'kornhaus-front', points: '2' });
+    apply('object-shadow', [[2042, 796], [2142, 959]], { id: 'post-1', group: 'lamp-posts', note: '' });
+    expect(h.draft.camera).toEqual({ verticalLines: [[[794, 1174], [762, 343]]], wallLines: [{ wall: 'kornhaus-front', lines: [[[809, 1120], [1776, 959]], [[797, 791], [1788, 717]]] }] });
+    expect((h.draft.observations as Draft[])[1]).toEqual({ id: 'post-1', kind: 'object-shadow', group: 'lamp-posts', objectPx: [2042, 796], shadowPx: [2142, 959] });
+    expect(tool('wall-courses').finish(h.draft, [[1, 1], [9, 9]], { wall: 'no-such-wall' })).toContain('Choose the wall');
+    expect(tool('vertical-edges').clicks({ points: '3' }, h.draft).length).toBe(3);
+    h = undo(undo(h));
+    expect(getAt(h.draft, ['camera', 'wallLines', 0, 'lines'])).toEqual([[[809, 1120], [1776, 959]]]);
   });
 });

@@ -1,7 +1,7 @@
 /**
- * The desk's measuring tools, in the order of their buttons. One line per tool; the tools that
- * the picture's perspective will bring (vanishing lines, shadow pairs on any surface) are added
- * here the same way.
+ * The desk's measuring tools, in the order of their buttons. One line per tool: the figures of
+ * known size and their shadows, then the picture's own perspective (vertical edges, wall
+ * courses) and object-shadow pairs on any surface.
  */
 import type { DeskTool } from './tool.js';
 import { groundFigureTool } from './groundFigure.js';
@@ -11,6 +11,9 @@ import { rodShadowTool } from './rodShadow.js';
 import { overhangShadowTool } from './overhangShadow.js';
 import { finShadowTool } from './finShadow.js';
 import { poleShadowTool } from './poleShadow.js';
+import { verticalEdgesTool } from './verticalEdges.js';
+import { wallCoursesTool } from './wallCourses.js';
+import { objectShadowTool } from './objectShadow.js';
 
 export const TOOLS: readonly DeskTool[] = [
   wallFigureTool,
@@ -20,4 +23,7 @@ export const TOOLS: readonly DeskTool[] = [
   overhangShadowTool,
   finShadowTool,
   poleShadowTool,
+  verticalEdgesTool,
+  wallCoursesTool,
+  objectShadowTool,
 ];
