@@ -105,7 +105,7 @@ describe('the tools', () => {
     result.change(after);
     expect(after.observations).toEqual([{ id: 'bracket', kind: 'rod-shadow', wall: 'west', pixels: { fromPx: [800, 515], toPx: [764, 569] } }]);
     const corner = TOOLS.find((t) => t.id === 'walls-corner')!;
-    const twoWalls = { ...draft, walls: [{ id: 'west', azimuthDeg: 268.5 }, { id: 'south', azimuthDeg: 178.5 }] };
+    const twoWalls: Draft = { ...draft, walls: [{ id: 'west', azimuthDeg: 268.5 }, { id: 'south', azimuthDeg: 178.5 }] };
     const ground = corner.finish(twoWalls, [[1231.5, 954]], { wallA: 'west', wallB: 'south' });
     if (typeof ground === 'string') throw new Error(ground);
     const withGround = structuredClone(twoWalls);
