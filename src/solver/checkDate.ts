@@ -206,7 +206,7 @@ function civilDay(scene: Scene, day: CivilDay, field: string): number {
 /**
  * Judge a proposed date, range or season against the scene's evidence.
  * @example checkProposal(scene, { kind: 'day', day: { year: 1650, month: 9, day: 12 } }).verdictText
- *   // "12 September 1650 is consistent with the evidence: best there 09:04 local apparent time ..."
+ *   // "12 September 1650 is consistent with the evidence: best within the proposal 09:04 local apparent time ..."
  */
 export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   scene = resolvePixelObservations(scene).scene; // pixel forms -> numbers (src/image/resolvePixels.ts)
@@ -277,7 +277,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   let verdictText: string;
   if (!candidate) verdictText = `${what}: no instant there can be judged (no fit was found).`;
   else {
-    const where = `best there ${candidateDayWords(candidate)}`;
+    const where = `best within the proposal ${candidateDayWords(candidate)}`;
     const failing = candidate.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
     const worst = [...candidate.residuals].sort((a, b) => Math.abs(b.normalised) - Math.abs(a.normalised))[0];
     const against = relative

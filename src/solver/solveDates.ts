@@ -335,7 +335,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         (status === 'fits' ? 'The evidence fits.' : `The best fit is marginal (p = ${pj.toPrecision(2)}): treat every candidate with caution.`) +
         ` Best: ${top.headline}${top.clockAssumption.kind === 'none' ? '' : `, ${top.clockAssumptionLabel}`}; chi-square ${best.chiSquare.toFixed(2)}, ${pText}.` +
         sameLightElsewhere(top, families) +
-        ` ${famCount} famil${famCount === 1 ? 'y' : 'ies'} of candidates${renamed} in ${windowText}.` +
+        ` ${famCount} famil${famCount === 1 ? 'y' : 'ies'} of candidates${renamed} (days searched: ${windowText}).` +
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
       if (!top.yearsTold.singledOut && top.yearsTold.alikeYears.length > 1) {
         notes.push(

@@ -186,7 +186,7 @@ describe('families (issue 9, point 5)', () => {
     expect(spring.fromMonthDay.month).toBe(4);
     expect(autumn.fromMonthDay.month).toBe(9);
     expect(spring.clockAssumptionLabel).toMatch(/^clock kept local mean time \(best chi2 3\.\d\d\) or local apparent \(sundial\) time \(best chi2 4\.\d\d\); tried: the scene does not say$/);
-    expect(squareAnswer.verdict).toContain('2 families of candidates in 1760-1790');
+    expect(squareAnswer.verdict).toContain('2 families of candidates (days searched: 1760-1790)');
   });
 });
 
