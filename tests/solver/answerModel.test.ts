@@ -250,7 +250,7 @@ describe('wording (issue 9, point 14)', () => {
     const oneYear = scene('orlau-square.yaml', (t) => t.replace('fromYear: 1760, toYear: 1790', 'fromYear: 1775, toYear: 1775'));
     const a = solveDates(oneYear, { consistency: false });
     expect(renderDateText(a, oneYear).split('\n')[1]).toMatch(/^Year searched: 1775; 3 measured values/);
-    expect(a.verdict).toContain(' in 1775.');
+    expect(a.verdict).toContain(' (days searched: 1775).');
     expect(a.verdict).not.toContain('1775-1775');
     const r = checkProposal(square, { kind: 'season', months: [3, 4], fromYear: 1775, toYear: 1775 });
     expect(r.verdictText).toMatch(/^A date in March or April of 1775 is consistent/);
