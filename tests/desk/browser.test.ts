@@ -5,7 +5,8 @@ import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync,
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import type { Browser, Page } from 'playwright-core';
+import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
 import { parse, stringify } from 'yaml';
 import { tiffFile } from './tiffFile.js';
 
@@ -16,7 +17,6 @@ import { tiffFile } from './tiffFile.js';
 // the screen-to-picture mapping is exercised), the other fields through the forms. The values the
 // page shows are compared with what `heliochron measure` prints for the example file, its first
 // candidate with `heliochron date`'s, and the file it saves is dated again by the command line.
-const CHROMIUM = '/usr/bin/chromium';
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const CLI = join(ROOT, 'dist', 'cli', 'main.js');
 const OUT_DIR = join(ROOT, 'test-output', 'desk');
@@ -70,11 +70,7 @@ beforeAll(async () => {
   folder = mkdtempSync(join(tmpdir(), 'heliochron-desk-browser-'));
   copyFileSync(join(EXAMPLE_DIR, PICTURE), join(folder, PICTURE));
   ({ child: desk, url: deskUrl } = await startDesk(folder, PICTURE));
-  browser = await chromium.launch({
-    executablePath: CHROMIUM,
-    headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
-  });
+  browser = await launchChromium();
 });
 
 afterAll(async () => {

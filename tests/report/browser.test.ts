@@ -2,14 +2,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { existsSync, mkdirSync, readFileSync, statSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
-import { chromium, type Browser } from 'playwright-core';
+import type { Browser } from 'playwright-core';
+import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
 import { main } from '../../src/cli/main.js';
 import type { CliIo } from '../../src/cli/io.js';
 
 // The report of the bundled example opened in a real browser: Debian's Chromium, driven by
 // playwright-core. The CI script installs it (apt-get install chromium); without it this test
 // fails with a message saying so, it does not pass silently.
-const CHROMIUM = '/usr/bin/chromium';
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const OUT_DIR = join(ROOT, 'test-output', 'browser');
 const REPORT = join(OUT_DIR, 'marktgasse-print-report.html');
@@ -35,11 +35,7 @@ beforeAll(async () => {
     const code = await main(['report', scene, '-o', out, '--force'], io);
     if (code !== 0) throw new Error(`heliochron report exited with ${code} for ${scene}`);
   }
-  browser = await chromium.launch({
-    executablePath: CHROMIUM,
-    headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run', '--disable-quic'],
-  });
+  browser = await launchChromium();
 });
 
 afterAll(async () => {
