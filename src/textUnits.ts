@@ -59,3 +59,14 @@ export function escapeControls(text: string): string {
     return `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`;
   });
 }
+
+/**
+ * A number with its sign always written and `digits` decimals, never "-0.00": a value that
+ * rounds to zero is written "+0.00" (a reader would otherwise take the minus for a direction).
+ * @example signedFixed(-0.001, 2) // "+0.00"; signedFixed(-0.26, 1) // "-0.3"
+ */
+export function signedFixed(x: number, digits: number): string {
+  const text = x.toFixed(digits);
+  if (Number(text) === 0) return `+${(0).toFixed(digits)}`;
+  return x > 0 ? `+${text}` : text;
+}

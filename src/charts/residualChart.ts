@@ -4,6 +4,7 @@
  * +/-2 sigma, so that an outlier stands out; observations flagged by the leave-one-out test
  * are marked. The facts without numbers follow as "holds" / "fails" rows.
  */
+import { signedFixed } from '../textUnits.js';
 import type { DateAnswer } from '../solver/types.js';
 import { bottomAxis, plotFrame, titleBlock, type PlotArea } from './axes.js';
 import { CHART_STYLE, DASHES, INK, OKABE_ITO } from './palette.js';
@@ -111,7 +112,7 @@ export function renderResidualChart(data: ResidualChartData, idPrefix = 'hc-resi
     const rowParts = [
       text(area.left - 8, yc + 3.5, r.label, { class: 'hc-legend', 'text-anchor': 'end', 'font-weight': r.flagged ? 'bold' : undefined }),
       el('rect', { x: x0, y: yc - 7, width: Math.max(w, 0.8), height: 14, fill: barColour(r.normalised), stroke: r.flagged ? INK.ink : 'none', 'stroke-width': r.flagged ? 1.6 : undefined }),
-      text(area.left + area.width + 8, yc + 3.5, `${r.normalised >= 0 ? '+' : ''}${r.normalised.toFixed(2)} sigma${r.flagged ? '  FLAGGED (leave-one-out)' : ''}`, { class: 'hc-legend', 'font-weight': r.flagged ? 'bold' : undefined }),
+      text(area.left + area.width + 8, yc + 3.5, `${signedFixed(r.normalised, 2)} sigma${r.flagged ? '  FLAGGED (leave-one-out)' : ''}`, { class: 'hc-legend', 'font-weight': r.flagged ? 'bold' : undefined }),
       el('title', {}, escapeXml(`${r.label}: ${r.detail}`)),
     ];
     if (Math.abs(r.normalised) > limit) {

@@ -7,6 +7,7 @@
  * the options is here. Everything is computed before anything is written or printed, so a
  * refusal (exit 2) leaves nothing behind.
  */
+import { signedFixed } from '../textUnits.js';
 import { existsSync } from 'node:fs';
 import { dirname, relative, resolve } from 'node:path';
 import { InvalidInputError } from '../errors.js';
@@ -233,7 +234,7 @@ function renderText(
           continue;
         }
         for (const v of p.values) {
-          out.push(`    ${p.id} ${v.name}: measured ${fmtValue(v.name, v.measured)}, predicted ${fmtValue(v.name, v.predicted)} (${v.normalised >= 0 ? '+' : ''}${v.normalised.toFixed(2)} sigma)`);
+          out.push(`    ${p.id} ${v.name}: measured ${fmtValue(v.name, v.measured)}, predicted ${fmtValue(v.name, v.predicted)} (${signedFixed(v.normalised, 2)} sigma)`);
         }
       }
     } else {

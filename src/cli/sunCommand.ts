@@ -3,6 +3,7 @@
  * with --day the whole day between sunrise and sunset. A thin layer over src/ephemeris,
  * src/time and src/calendar; all validation of the options is here.
  */
+import { signedFixed } from '../textUnits.js';
 import { sunAccuracyWordsFrom } from '../report/formatTimes.js';
 import { DEFAULT_DELTA_T_MODEL, deltaTModelName, parseDeltaTModel, type DeltaTModel } from '../time/deltaT.js';
 import { InvalidInputError, UnsupportedError } from '../errors.js';
@@ -85,7 +86,7 @@ function readInputs(options: SunOptions): Inputs {
 }
 
 const f = (x: number, digits: number): string => x.toFixed(digits);
-const signed = (x: number, digits: number): string => (x >= 0 ? '+' : '') + x.toFixed(digits);
+const signed = signedFixed;
 
 function clockText(jdUT: number, clock: ClockKind, site: SunSite): string {
   return formatMinutes(jdUTToClockMinutes(jdUT, clock, site).minutesOfDay);

@@ -8,6 +8,7 @@
  * those years documents of the site itself use either style (common practice of historians to
  * give both).
  */
+import { signedFixed } from '../textUnits.js';
 import type { CalendarRule, Scene, YearStartStyle } from '../scene/types.js';
 import type { Candidate, CandidateUncertainty, ClockAssumption, DateAnswer, SolverCalendarDate } from '../solver/types.js';
 import { calendarDateToJd, jdToCalendarDate } from '../calendar/julianDay.js';
@@ -206,7 +207,7 @@ export function uncertaintyWords(c: Candidate): string {
 }
 
 function signedDays(d: number): string {
-  return (d >= 0 ? '+' : '') + d.toFixed(1);
+  return signedFixed(d, 1);
 }
 
 /** Delta T at the candidate and its sigma, naming the scene's Delta T model (through src/time). */

@@ -9,6 +9,7 @@
  * Every piece of text from the scene file is escaped (escapeXml). Pure function of its
  * input: no clock (the page carries no time of making), no console.
  */
+import { consistencyMark, consistencyMarkNotes } from './consistencyWords.js';
 import { deltaTModelName } from '../time/deltaT.js';
 import type { Observation, Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '../solver/types.js';
@@ -316,7 +317,8 @@ function candidatesTable(scene: Scene, answer: DateAnswer): string {
 
 function answerSection(scene: Scene, answer: DateAnswer): string {
   const families = answer.families.length
-    ? table('families', 'Families: the same light in several years, best first (F1, F2, ... as marked in the charts)', ['family', 'dates and hours', 'best chi2', 'p', 'weight', 'clock'], answer.families.map(familyRow))
+    ? table('families', 'Families: the same light in several years, best first (F1, F2, ... as marked in the charts)', ['family', 'dates and hours', 'best chi2', 'p', 'weight', 'clock'], answer.families.map(familyRow)) +
+      (answer.status === 'nothing-fits' ? '<p>The weights compare these poor fits with one another only; none of them fits the evidence.</p>' : '')
     : '<p>No family of candidates.</p>';
   const candidates = answer.candidates.length ? candidatesTable(scene, answer) : '<p id="candidates">No candidate.</p>';
   const replaced = answer.candidates.filter((c) => !(c.uncertainty.method === 'ellipse' && ellipse95(c.uncertainty)));
@@ -385,9 +387,9 @@ function glossarySection(): string {
 <dl class="facts glossary">${items.map(([k, v]) => `<dt>${h(k)}</dt><dd>${h(v)}</dd>`).join('')}</dl></section>`;
 }
 
-function consistencyRow(e: LeaveOneOutEntry): string {
+function consistencyRow(e: LeaveOneOutEntry, pThreshold: number, conflictIds: readonly string[]): string {
   return row(
-    [h(e.observationId), h(e.observationKind), n(String(e.residualCount)), n(fixed(e.chiSquareAll, 2)), n(fixed(e.chiSquareWithout, 2)), n(fixed(e.improvement, 2)), n(h(pText(e.pValue))), h(e.flagged ? 'FLAGGED' : 'ok'), h(e.note)],
+    [h(e.observationId), h(e.observationKind), n(String(e.residualCount)), n(fixed(e.chiSquareAll, 2)), n(fixed(e.chiSquareWithout, 2)), n(fixed(e.improvement, 2)), n(h(pText(e.pValue))), h(consistencyMark(e, pThreshold, conflictIds)), h(e.note)],
     false,
     e.flagged ? ' class="flagged"' : '',
   );
@@ -396,10 +398,11 @@ function consistencyRow(e: LeaveOneOutEntry): string {
 function consistencySection(answer: DateAnswer): string {
   const c = answer.consistency;
   const body = c.entries.length
-    ? table('consistency-table', 'Each observation left out in turn', ['observation', 'kind', 'numbers', 'chi2 all', 'chi2 without', 'improvement', 'p', 'test', 'note'], c.entries.map(consistencyRow))
+    ? table('consistency-table', 'Each observation left out in turn', ['observation', 'kind', 'numbers', 'chi2 all', 'chi2 without', 'improvement', 'p', 'test', 'note'], c.entries.map((e) => consistencyRow(e, c.pThreshold, answer.conflictingIds)))
     : '<p>The test was not run.</p>';
+  const strains = consistencyMarkNotes(c.entries, c.pThreshold, answer.conflictingIds).map((t) => `<p>${h(t)}</p>`).join('');
   const flagged = c.flaggedIds.length
-    ? `<p><strong>Flagged: ${h(c.flaggedIds.join(', '))}.</strong> These do not agree with the rest; check how they were measured, or whether they show other light.</p>`
+    ? `${strains}<p><strong>Flagged: ${h(c.flaggedIds.join(', '))}.</strong> These do not agree with the rest; check how they were measured, or whether they show other light.</p>`
     : c.entries.length
       ? '<p>No observation is flagged.</p>'
       : '';

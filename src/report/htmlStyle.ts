@@ -22,6 +22,7 @@ p, li { max-width: 46rem; }
 .subtitle { color: ${INK.muted}; margin: 0 0 1.2rem; }
 .verdict { border-left: 5px solid ${OKABE_ITO.blue}; background: #F2F7FB; padding: 0.7rem 1rem; margin: 1rem 0; }
 .verdict.status-marginal { border-left-color: ${OKABE_ITO.orange}; background: #FDF6E8; }
+.verdict.status-undetermined { border-left-style: dashed; border-left-color: ${INK.muted}; background: #F5F5F3; }
 .verdict.status-nothing-fits, .verdict.status-no-candidates { border-left-color: ${OKABE_ITO.vermillion}; background: #FBEFE8; }
 .status { font-family: ${FONT_STACK}; font-size: 0.8rem; font-weight: bold; text-transform: uppercase; letter-spacing: 0.04em; }
 table { border-collapse: collapse; margin: 0.5rem 0 1rem; font-family: ${FONT_STACK}; font-size: 0.82rem; width: 100%; }

@@ -6,6 +6,8 @@
  * Pure functions of the answer and the scene: no clock, no console; the caller prints.
  * Times are rounded to the minute, angles to 0.1 deg, chi-square to 0.01.
  */
+import { signedFixed } from '../textUnits.js';
+import { consistencyMark, consistencyMarkNotes } from './consistencyWords.js';
 import type { Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, CheckAnswer, DateAnswer, Proposal, ResidualEntry } from '../solver/types.js';
 import { formatDayWords, formatYearBcAd } from '../calendar/format.js';
@@ -124,7 +126,7 @@ function residualTable(residuals: readonly ResidualEntry[]): string[] {
     const digits = r.unit === 'ratio' ? 3 : r.unit === 'm' ? 2 : 1;
     // A clock reading reads best as a time of day: minutes after midnight to hh:mm.m.
     const value = (x: number): string => (r.unit === 'min' && r.component === 'reading' ? clockText(x) : fixed(x, digits));
-    rows.push([r.observationId, r.observationKind, r.component, value(r.measured), value(r.predicted), fixed(r.sigma, digits), r.unit, (r.normalised >= 0 ? '+' : '') + r.normalised.toFixed(2)]);
+    rows.push([r.observationId, r.observationKind, r.component, value(r.measured), value(r.predicted), fixed(r.sigma, digits), r.unit, signedFixed(r.normalised, 2)]);
   }
   return textTable(rows, [3, 4, 5, 7]);
 }
@@ -183,6 +185,7 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
         : 'Families of dates (the same light in several years and clock keepings), best first:',
     );
     for (const f of answer.families) out.push(familyLine(f));
+    if (answer.status === 'nothing-fits') out.push('  (weights compare these poor fits with one another only; none of them fits the evidence)');
     if (options.allYears) {
       out.push('');
       for (const f of answer.families) out.push(...membersLines(f, scene));
@@ -233,10 +236,11 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
       ? `; without it the best is ${civilDateRendering(e.bestWithout.civilDate, scene).text} ${hhmm(e.bestWithout.times.localApparentMinutes)} apparent`
       : '';
     out.push(
-      `  ${e.flagged ? 'FLAGGED' : 'ok     '} ${e.observationId} (${e.observationKind}): chi2 ${e.chiSquareAll.toFixed(2)} -> ${e.chiSquareWithout.toFixed(2)} without it, ` +
+      `  ${consistencyMark(e, answer.consistency.pThreshold, answer.conflictingIds).padEnd(7)} ${e.observationId} (${e.observationKind}): chi2 ${e.chiSquareAll.toFixed(2)} -> ${e.chiSquareWithout.toFixed(2)} without it, ` +
         `improvement ${e.improvement.toFixed(2)} (p ${pText(e.pValue)})${without}`,
     );
   }
+  for (const words of consistencyMarkNotes(answer.consistency.entries, answer.consistency.pThreshold, answer.conflictingIds)) out.push(`  ${words}`);
   if (answer.consistency.flaggedIds.length > 0) {
     out.push(`  flagged: ${answer.consistency.flaggedIds.join(', ')} - these do not agree with the rest; check how they were measured, or whether they show other light.`);
   } else if (answer.consistency.entries.length > 0) {

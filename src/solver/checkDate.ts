@@ -23,7 +23,8 @@ import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { InvalidInputError } from '../errors.js';
 import { chiSquarePValue } from '../math/chiSquare.js';
 import { covarianceFromJacobian, levenbergMarquardt } from '../math/leastSquares.js';
-import { civilDateToJd } from '../calendar/regions.js';
+import { civilDateToJd, jdToCivilDate } from '../calendar/regions.js';
+import { YEARS_ALIKE_DELTA_CHI2 } from './families.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { clockToJdUT } from '../time/clock.js';
 import { buildEvidenceModel, longitudeOf, splitChiSquare, type EvidenceModel } from './evidenceModel.js';
@@ -214,6 +215,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   const unrestricted: Scene = { ...scene, window: { fromYear: scene.window.fromYear, toYear: scene.window.toYear } };
   let win: DayWindow;
   let best: RawCandidate | null = null;
+  let foundInProposal: readonly RawCandidate[] = [];
   const notes: string[] = ['The proposal is judged on the light alone: the scene\'s own documentary restrictions (bounds, months, weekday) are not applied to it.'];
   if (proposal.kind === 'day') {
     const dayJd0 = civilDay(scene, proposal.day, 'proposal.day');
@@ -257,6 +259,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
     }
     const found = searchCandidates(model, win).candidates;
     best = found.length ? found[0] : null;
+    foundInProposal = found;
     for (const day of edges) {
       if (best && best.objective < 1e-6) break;
       const f = fitOnDay(model, day);
@@ -277,7 +280,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   let verdictText: string;
   if (!candidate) verdictText = `${what}: no instant there can be judged (no fit was found).`;
   else {
-    const where = `best within the proposal ${candidateDayWords(candidate)}`;
+    const where = `best within the proposal ${candidateDayWords(candidate)}${alikeYearsWords(foundInProposal, best, win)}`;
     const failing = candidate.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
     const worst = [...candidate.residuals].sort((a, b) => Math.abs(b.normalised) - Math.abs(a.normalised))[0];
     const against = relative
@@ -325,4 +328,21 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
     overall,
     notes,
   };
+}
+
+/**
+ * When a proposal spans several years and the light fits several of them alike (within
+ * YEARS_ALIKE_DELTA_CHI2 of the best, as families count years: src/solver/families.ts), the best
+ * within the proposal names one year only as an example; say so, with the years.
+ */
+function alikeYearsWords(found: readonly RawCandidate[], best: RawCandidate | null, win: DayWindow): string {
+  if (!best || found.length < 2) return '';
+  const years = new Set<number>();
+  for (const c of found) {
+    if (c.objective <= best.objective + YEARS_ALIKE_DELTA_CHI2) years.add(jdToCivilDate(win.calendar, c.dayJd0 + 0.5).civil.year);
+  }
+  if (years.size < 2) return '';
+  const sorted = [...years].sort((a, b) => a - b);
+  const span = sorted[sorted.length - 1] - sorted[0] + 1 === sorted.length ? `${formatYearBcAd(sorted[0])}-${formatYearBcAd(sorted[sorted.length - 1])}` : sorted.map((y) => formatYearBcAd(y)).join(', ');
+  return ` (the year is an example: ${sorted.length} years of the proposal fit alike, ${span}; the light alone cannot tell them apart)`;
 }

@@ -68,6 +68,14 @@ describe('heliochron check', () => {
     expect(loose.chiSquare).toBeLessThan(fixed.chiSquare - 5);
     expect(loose.best?.times.localMean).toBe('08:06');
   });
+  it('a season over many years names its best year only as an example, with the years that fit alike', async () => {
+    const r = await cli(['check', MARKTGASSE, '--season', 'jul-aug']);
+    expect(r.code).toBe(0);
+    // The shadows and the clock repeat every year: examples/README.md (a), "every year of the window fits alike".
+    expect(r.out).toContain('(the year is an example: 21 years of the proposal fit alike, 1765-1785; the light alone cannot tell them apart)');
+    const oneYear = await cli(['check', MARKTGASSE, '--between', '1771-07-01', '1771-08-31']);
+    expect(oneYear.out).not.toContain('the year is an example');
+  });
   it('--json is byte-identical on two runs', async () => {
     const args = ['check', MARKTGASSE, '--season', '7', '--json'];
     expect((await cli(args)).out).toBe((await cli(args)).out);

@@ -92,6 +92,22 @@ describe('salt-house-sketch.yaml: one shadow painted under other light', () => {
     expect(Math.abs(without.civilDate.day - 12)).toBeLessThanOrEqual(3);
     expectClose(without.times.localApparentMinutes, SALT_HOUSE.truth.apparentMinutes, 5, 'local apparent time, minutes');
   });
+  it('marks no line "ok" whose p is below the stated 0.01 rule: the others are "pulled" by the figure, and the answer says why', () => {
+    const { scene } = solve(SALT_HOUSE);
+    const text = renderDateText(answer, scene);
+    const lines = text.split('\n').filter((l) => /^ {2}(ok|pulled|strains|FLAGGED) /.test(l));
+    expect(lines.length).toBe(answer.consistency.entries.length);
+    for (const e of answer.consistency.entries) {
+      const line = lines.find((l) => l.includes(` ${e.observationId} (`)) as string;
+      if (e.pValue < answer.consistency.pThreshold) expect(line.trimStart().startsWith('ok')).toBe(false);
+      if (!e.flagged && e.pValue < answer.consistency.pThreshold) expect(line.trimStart().startsWith('pulled')).toBe(true);
+    }
+    expect(text).toContain('pulled: its fall of chi-square passes the rule only because the fit with every observation is dragged by figure-shadow');
+  });
+  it('says that the families\' weights compare poor fits only', () => {
+    const { scene } = solve(SALT_HOUSE);
+    expect(renderDateText(answer, scene)).toContain('none of them fits the evidence');
+  });
 });
 
 describe('upper-gate-drawing.yaml: the window spans Velmar\'s switch of 1700', () => {
