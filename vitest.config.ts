@@ -7,5 +7,7 @@ export default defineConfig({
     hookTimeout: 120_000,
     reporters: ['default'],
     pool: 'forks',
+    // The command line is bundled into dist/bin from the current sources before the tests run.
+    globalSetup: ['tests/helpers/buildCli.ts'],
   },
 });

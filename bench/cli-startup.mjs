@@ -1,46 +1,76 @@
 #!/usr/bin/env node
 /**
- * Start-up time of `heliochron sun` against a bare `node -e 0`, measured side by side in
- * one run (median of N runs each, interleaved). Build first: npx tsc -p tsconfig.json.
- * Target: the sun command answers in well under half a second.
+ * Start-up of the command line against a bare `node -e 0`, measured side by side in one run
+ * (median of N runs each, interleaved, so that other work on the machine hits every case alike).
+ * Each command runs twice: as the package's `bin` runs it (dist/bin/heliochron.js, the bundle of
+ * src/cli/build.mjs) and as tsc's modules (dist/cli/main.js), to show what the bundle saves.
+ * Build first: npm run build (or npx tsc -p tsconfig.json && node src/cli/build.mjs).
+ * Targets (issue: speed), as ratios to `node -e 0`: `date` on the bundled example at most 2.5x,
+ * `report` at most 4x, `sun` at most 1.4x. Every process loads bench/cpu-at-exit.cjs, which
+ * prints its CPU time (user + system, start-up included) when it ends; on a shared machine the CPU
+ * ratio is the steadier figure, the elapsed one includes waiting for a core.
  * Usage: node bench/cli-startup.mjs [runs]
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { tmpdir, loadavg, cpus } from 'node:os';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
 
 const root = fileURLToPath(new URL('../', import.meta.url));
-const cli = `${root}dist/cli/main.js`;
-if (!existsSync(cli)) {
-  console.error('bench/cli-startup.mjs: dist/cli/main.js is missing; run npx tsc -p tsconfig.json first');
-  process.exit(1);
+const bin = `${root}dist/bin/heliochron.js`;
+const modules = `${root}dist/cli/main.js`;
+for (const file of [bin, modules]) {
+  if (!existsSync(file)) {
+    console.error(`bench/cli-startup.mjs: ${file.slice(root.length)} is missing; run npm run build first`);
+    process.exit(1);
+  }
 }
 const runs = Number(process.argv[2] ?? 10);
-const sunArgs = [cli, 'sun', '--lat', '47.62', '--lon', '9.35', '--elevation', '410', '--date', '1650-03-10', '--time', '10:30', '--clock', 'apparent'];
+const out = mkdtempSync(join(tmpdir(), 'heliochron-startup-'));
+const example = `${root}examples/marktgasse-print.yaml`;
+const commands = [
+  { name: 'sun', args: ['sun', '--lat', '47.62', '--lon', '9.35', '--elevation', '410', '--date', '1650-03-10', '--time', '10:30', '--clock', 'apparent'], target: 1.4 },
+  { name: 'calendar', args: ['calendar', '1752-09-14', '--calendar', 'great-britain'] },
+  { name: '--help', args: ['--help'] },
+  { name: 'date (example)', args: ['date', example], target: 2.5 },
+  { name: 'report (example)', args: ['report', example, '-o', join(out, 'report.html'), '--force'], target: 4 },
+];
 const cases = [
   { name: 'node -e 0', args: ['-e', '0'] },
-  { name: 'heliochron sun ...', args: sunArgs },
-  { name: 'heliochron --help', args: [cli, '--help'] },
+  ...commands.flatMap((c) => [
+    { name: `${c.name} (bin)`, args: [bin, ...c.args], target: c.target },
+    { name: `${c.name} (tsc modules)`, args: [modules, ...c.args] },
+  ]),
 ];
+const cpuAtExit = `${root}bench/cpu-at-exit.cjs`;
 
 function once(args) {
   const t0 = performance.now();
-  const r = spawnSync(process.execPath, args, { cwd: root, encoding: 'utf8' });
+  const r = spawnSync(process.execPath, ['--require', cpuAtExit, ...args], { cwd: root, encoding: 'utf8' });
   const ms = performance.now() - t0;
   if (r.status !== 0) throw new Error(`${args.join(' ')} exited ${r.status}: ${r.stderr}`);
-  return ms;
+  const cpu = /cpu-at-exit (\d+(?:\.\d+)?)/.exec(r.stderr);
+  return { ms, cpuMs: cpu === null ? NaN : Number(cpu[1]) };
 }
 const median = (xs) => {
   const s = [...xs].sort((a, b) => a - b);
   return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
 };
 
+console.log(`machine: ${cpus().length} cores, load average ${loadavg()[0].toFixed(1)} at the start (other work on the machine slows every figure below)`);
 const times = cases.map(() => []);
 for (let i = 0; i < runs; i += 1) cases.forEach((c, k) => times[k].push(once(c.args))); // interleaved
-const base = median(times[0]);
-console.log(`median of ${runs} runs each, interleaved`);
+rmSync(out, { recursive: true, force: true });
+const base = median(times[0].map((t) => t.ms));
+const baseCpu = median(times[0].map((t) => t.cpuMs));
+console.log(`median of ${runs} runs each, interleaved; ratios to node -e 0 (elapsed ${base.toFixed(1)} ms, CPU ${baseCpu.toFixed(1)} ms)`);
 for (const [k, c] of cases.entries()) {
-  const m = median(times[k]);
-  console.log(`${c.name.padEnd(22)} ${m.toFixed(1).padStart(8)} ms   x${(m / base).toFixed(2)} of node -e 0   +${(m - base).toFixed(1)} ms`);
+  const m = median(times[k].map((t) => t.ms));
+  const cpu = median(times[k].map((t) => t.cpuMs));
+  const ratio = m / base;
+  const cpuRatio = cpu / baseCpu;
+  const verdict = c.target === undefined ? '' : `   target <= ${c.target}x   ${ratio <= c.target ? 'met' : cpuRatio <= c.target ? 'met in CPU time, not elapsed' : 'NOT met'}`;
+  console.log(`${c.name.padEnd(26)} ${m.toFixed(1).padStart(7)} ms  x${ratio.toFixed(2).padEnd(5)}  CPU ${cpu.toFixed(1).padStart(6)} ms  x${cpuRatio.toFixed(2).padEnd(5)}${verdict}`);
 }

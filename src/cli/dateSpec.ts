@@ -5,7 +5,6 @@ import type { Command } from 'commander';
 import type { CliIo } from './io.js';
 import { outputForm } from './outputFormat.js';
 import { InvalidInputError } from '../errors.js';
-import { parseClockKind } from '../time/clock.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 import type { DeltaTModel } from '../time/deltaT.js';
 import { DELTA_T_FLAGS, DELTA_T_HELP, parseDeltaTOption } from './deltaTOption.js';
@@ -73,14 +72,17 @@ export function registerDate(program: Command, io: CliIo): void {
         force: options.force === true,
         seed: parseSeedOption(options.seed),
         deltaT: parseDeltaTOption(options.deltaT),
-        ...sameLightOptions(options.sameLightIn, options.zone),
+        ...(await sameLightOptions(options.sameLightIn, options.zone)),
         version: String(command.parent?.version() ?? ''),
       }, io);
     });
 }
 
-/** --same-light-in and --zone, checked: a whole year 1970-3000 (default this year) and a valid IANA zone. */
-function sameLightOptions(year: unknown, zone: unknown): { sameLightIn?: number; zone?: string } {
+/**
+ * --same-light-in and --zone, checked: a whole year 1970-3000 (default this year) and a valid IANA zone.
+ * The clock module (and the zone data behind it) is loaded only when a zone is given.
+ */
+async function sameLightOptions(year: unknown, zone: unknown): Promise<{ sameLightIn?: number; zone?: string }> {
   if (year === undefined) {
     if (zone !== undefined) throw new InvalidInputError('--zone', zone, 'a zone only together with --same-light-in');
     return {};
@@ -89,6 +91,7 @@ function sameLightOptions(year: unknown, zone: unknown): { sameLightIn?: number;
   const y = year === true ? new Date().getUTCFullYear() : /^\d{4}$/.test(String(year)) ? Number(year) : NaN;
   if (!Number.isInteger(y) || y < 1970 || y > 3000) throw new InvalidInputError('--same-light-in', year, 'a year from 1970 to 3000 (default: this year)');
   if (zone === undefined) throw new InvalidInputError('--zone', undefined, "the site's present IANA time zone, e.g. --zone Europe/Zurich (needed by --same-light-in)");
+  const { parseClockKind } = await import('../time/clock.js');
   const clock = parseClockKind(`zone:${String(zone)}`, '--zone');
   return { sameLightIn: y, zone: clock.kind === 'zone' ? clock.zone : String(zone) };
 }

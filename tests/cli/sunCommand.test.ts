@@ -1,15 +1,16 @@
 /**
- * The `sun` command end to end, through the compiled CLI when dist/ is built
- * (npx tsc -p tsconfig.json), else through main() imported from src/cli/main.ts.
+ * The `sun` command end to end, through the package's `bin` (the bundled command line, built before
+ * the tests by tests/helpers/buildCli.ts), else through main() imported from src/cli/main.ts.
  */
 import { describe, expect, it } from 'vitest';
 import { spawnSync } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
+import { BIN } from '../helpers/runCli.js';
 import { expectClose } from '../helpers/expectClose.js';
 
 const root = fileURLToPath(new URL('../../', import.meta.url));
-const compiled = `${root}dist/cli/main.js`;
+const compiled = BIN;
 
 interface Ran { code: number; out: string; err: string }
 

@@ -7,6 +7,7 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
+import { BIN } from '../helpers/runCli.js';
 import { parse, stringify } from 'yaml';
 import { tiffFile } from './tiffFile.js';
 
@@ -18,7 +19,7 @@ import { tiffFile } from './tiffFile.js';
 // page shows are compared with what `heliochron measure` prints for the example file, its first
 // candidate with `heliochron date`'s, and the file it saves is dated again by the command line.
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const CLI = join(ROOT, 'dist', 'cli', 'main.js');
+const CLI = BIN;
 const OUT_DIR = join(ROOT, 'test-output', 'desk');
 const EXAMPLE_DIR = join(ROOT, 'examples', 'tanners-hall-photo');
 const EXAMPLE = join(EXAMPLE_DIR, 'tanners-hall-photo.yaml');
@@ -62,7 +63,7 @@ beforeAll(async () => {
   if (!existsSync(CHROMIUM)) {
     throw new Error(`Chromium was not found at ${CHROMIUM}: install the Debian package "chromium" (apt-get install chromium) to run the browser test of the desk`);
   }
-  if (!existsSync(CLI)) throw new Error('dist/cli/main.js is missing: run npx tsc -p tsconfig.json first');
+  if (!existsSync(CLI)) throw new Error(`${CLI} is missing: the tests' global set-up bundles it (tests/helpers/buildCli.ts)`);
   // the page is built as `npm ci` builds it
   const build = spawnSync(process.execPath, [join(ROOT, 'src', 'desk', 'build.mjs')], { cwd: ROOT, encoding: 'utf8' });
   if (build.status !== 0) throw new Error(`building the desk page failed: ${build.stderr}`);

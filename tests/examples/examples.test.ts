@@ -18,6 +18,7 @@ import { calendarDateToJd, jdToCalendarDate } from '../../src/calendar/julianDay
 import { civilDateToJd } from '../../src/calendar/regions.js';
 import type { Candidate, CandidateFamily } from '../../src/solver/types.js';
 import { expectClose } from '../helpers/expectClose.js';
+import { BIN } from '../helpers/runCli.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 const fileOf = (spec: ExampleSpec): string => `${ROOT}examples/${spec.file}`;
@@ -153,10 +154,9 @@ describe('upper-gate-drawing.yaml: the window spans Velmar\'s switch of 1700', (
 });
 
 describe('one example through the compiled command line', () => {
-  it('node dist/cli/main.js date examples/upper-gate-drawing.yaml --json gives the same best candidate as the library', () => {
-    const compiled = `${ROOT}dist/cli/main.js`;
-    expect(existsSync(`${ROOT}dist/cli/dateCommand.js`), 'build first: npx tsc -p tsconfig.json').toBe(true);
-    const r = spawnSync(process.execPath, [compiled, 'date', 'examples/upper-gate-drawing.yaml', '--json'], { encoding: 'utf8', cwd: ROOT });
+  it('the installed program (the bundle the bin names) dates examples/upper-gate-drawing.yaml --json with the same best candidate as the library', () => {
+    expect(existsSync(BIN), 'the bundle is built before the tests (tests/helpers/buildCli.ts)').toBe(true);
+    const r = spawnSync(process.execPath, [BIN, 'date', 'examples/upper-gate-drawing.yaml', '--json'], { encoding: 'utf8', cwd: ROOT });
     expect(r.stderr).toBe('');
     expect(r.status).toBe(0);
     const j = JSON.parse(r.stdout) as { candidates: { jd: number; date: { oldStyle?: string; newStyle?: string } }[] };

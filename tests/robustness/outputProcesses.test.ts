@@ -1,5 +1,5 @@
 /**
- * The command line as separate processes (dist/cli/main.js, built by `npm test`): a full disk,
+ * The command line as separate processes (the package's bin, dist/bin/heliochron.js, bundled before the tests): a full disk,
  * system errors, two writers racing, signals, a reader that closes the pipe. Each run must end
  * with one plain line and exit 2, or succeed whole; never a partial file, a temporary file left
  * behind, or a stack trace. Mounting a small file system and mknod need root (the CI runs as root);
@@ -12,9 +12,10 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { STACK_LINE, tempDir } from './robustHelpers.js';
+import { BIN } from '../helpers/runCli.js';
 
 const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const MAIN = join(ROOT, 'dist/cli/main.js');
+const MAIN = BIN;
 const IO_MODULE = join(ROOT, 'dist/cli/io.js');
 const SCENE = join(ROOT, 'examples/upper-gate-drawing.yaml');
 const PICTURE_SCENE = join(ROOT, 'examples/tanners-hall-photo/tanners-hall-photo.yaml');
