@@ -18,8 +18,8 @@
  * never from a JavaScript Date.
  */
 import { AstroTime, SetDeltaTFunction } from 'astronomy-engine';
-import { DEFAULT_DELTA_T_MODEL, type DeltaTModel } from '../time/deltaT.js';
-import { SECONDS_PER_DAY, deltaTAtJdUT } from '../time/timeScales.js';
+import { DEFAULT_DELTA_T_MODEL, deltaTSeconds as modelDeltaTSeconds, type DeltaTModel } from '../time/deltaT.js';
+import { SECONDS_PER_DAY, jdToDecimalYear } from '../time/timeScales.js';
 
 /** JD of J2000.0 (2000 January 1.5). */
 export const J2000_JD = 2451545.0;
@@ -29,9 +29,9 @@ export type DeltaTChoice = DeltaTModel | number;
 
 let inForce: DeltaTChoice = DEFAULT_DELTA_T_MODEL;
 
-/** Delta T in seconds at a UT Julian Day by the model (or fixed value) in force. */
+/** Delta T in seconds at a UT Julian Day by the model (or fixed value) in force (its sigma is not needed here). */
 function deltaTInForce(jdUT: number): number {
-  return typeof inForce === 'number' ? inForce : deltaTAtJdUT(jdUT, inForce).seconds;
+  return typeof inForce === 'number' ? inForce : modelDeltaTSeconds(jdToDecimalYear(jdUT), inForce);
 }
 
 SetDeltaTFunction((ut: number) => deltaTInForce(ut + J2000_JD));

@@ -344,6 +344,33 @@ export function residualRowsByObservation(model: EvidenceModel): Map<string, num
   return rows;
 }
 
+/**
+ * For each residual row of `reduced` (the model of the same scene with observations left out), the
+ * row of `full` that computes the same number at any sun and clock assumption with the nuisances
+ * at their priors: a shadow's or clock's rows by observation, a fact by what it states (the implicit
+ * "sun up" or "wall lit" moves to another observation when its first one is left out), and -1 for
+ * a prior (zero there). Null when a row has no such source (then nothing is reused).
+ */
+export function rowSourcesIn(reduced: EvidenceModel, full: EvidenceModel): Int32Array | null {
+  const fullRows = residualRowsByObservation(full);
+  const factStart = full.measuredCount + full.nuisances.length;
+  const sources = new Int32Array(reduced.measuredCount + reduced.nuisances.length + reduced.facts.length);
+  let i = 0;
+  for (const [id, rows] of residualRowsByObservation(reduced)) {
+    const there = fullRows.get(id);
+    if (there === undefined || there.length !== rows.length) return null;
+    for (let k = 0; k < rows.length; k += 1) sources[rows[k]] = there[k];
+    i += rows.length;
+  }
+  for (let k = 0; k < reduced.nuisances.length; k += 1) sources[i++] = -1;
+  for (const f of reduced.facts) {
+    const k = full.facts.findIndex((g) => g.fact === f.fact && g.wallId === f.wallId);
+    if (k < 0) return null;
+    sources[i++] = factStart + k;
+  }
+  return sources;
+}
+
 /** Predicted values in the observation's own units, for reports. */
 export function predictedValuesOf(term: ShadowTerm, sun: SolverSunDirection, wallAzimuthDeg: number): { component: string; measured: number; predicted: number; unit: string; sigma: number }[] {
   const e = term.evidence;

@@ -152,7 +152,11 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const toYear = sorted[sorted.length - 1].year;
 
   const byKeeping = new Map<number, FamilyMember[]>();
-  for (const m of members) byKeeping.set(m.assumptionIndex, [...(byKeeping.get(m.assumptionIndex) ?? []), m]);
+  for (const m of members) {
+    const list = byKeeping.get(m.assumptionIndex);
+    if (list) list.push(m);
+    else byKeeping.set(m.assumptionIndex, [m]);
+  }
   const keepings: FamilyKeeping[] = [...byKeeping.values()]
     .map((list) => {
       const b = list.reduce((x, y) => (y.objective < x.objective ? y : x));

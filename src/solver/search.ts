@@ -5,11 +5,11 @@
  */
 import type { ClockAssumption } from './types.js';
 import type { ClockKind } from '../scene/types.js';
-import type { EvidenceModel } from './evidenceModel.js';
+import { rowSourcesIn, type EvidenceModel } from './evidenceModel.js';
 import { zoneOffsetsAt } from './fitting.js';
 import { zoneReading } from '../time/clock.js';
 import { lowPrecisionSun } from './seasons.js';
-import { stageA } from './stageA.js';
+import { stageA, type StageAGrid } from './stageA.js';
 import { stageB, type RawCandidate } from './stageB.js';
 import type { DayWindow } from './window.js';
 import { assumedKind } from './candidates.js';
@@ -24,7 +24,18 @@ export interface SearchResult {
   readonly evaluations: number;
   /** Calls of the full ephemeris (sunPosition) made by the search: three per sun track, one per verified candidate. */
   readonly sunEvaluations: number;
+  /** Stage A's grids, by clock assumption (stageAGridKey), for reruns with observations left out. */
+  readonly stageAGrids: StageAGrids;
 }
+
+/** The stage-A grids of one model, by clock assumption (stageAGridKey). */
+export interface StageAGrids {
+  readonly model: EvidenceModel;
+  readonly byAssumption: ReadonlyMap<string, StageAGrid>;
+}
+
+/** The key of a clock assumption among the kept grids. */
+const stageAGridKey = (kind: ClockKind | null): string => JSON.stringify(kind);
 
 /**
  * The clock assumptions to try: none without a clock; the stated kind when every clock says
@@ -54,7 +65,7 @@ export function clockAssumptionsOf(model: EvidenceModel): ClockAssumption[] {
  * @throws UnsupportedError (from src/time/clock.ts) for a zone clock in a window that starts
  *   before zone time existed (1847), unless the zone's entry there is local mean time.
  */
-export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchResult {
+export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: StageAGrids): SearchResult {
   const assumptions = clockAssumptionsOf(model);
   model.clocks.forEach((c) => {
     if (c.kept && c.kept.kind === 'zone') zoneReading(c.kept.zone, win.firstDayJd0 + 0.5, `clock ${c.observationId}`);
@@ -68,6 +79,8 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchRe
   let mappedYears = 0;
   let evaluations = 0;
   let sunEvaluations = 0;
+  const grids = new Map<string, StageAGrid>();
+  const sources = reuse === undefined ? null : rowSourcesIn(model, reuse.model);
   assumptions.forEach((a, i) => {
     const kind = assumedKind(a);
     let zoneOffset: (zone: string) => number;
@@ -76,7 +89,9 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchRe
     } catch {
       zoneOffset = () => 0;
     }
-    const sa = stageA(model, kind, zoneOffset, obliquityDeg);
+    const kept = sources === null ? undefined : reuse?.byAssumption.get(stageAGridKey(kind));
+    const sa = stageA(model, kind, zoneOffset, obliquityDeg, kept === undefined || sources === null ? undefined : { grid: kept, sources });
+    if (sa.grid !== null) grids.set(stageAGridKey(kind), sa.grid);
     stageAGridPoints += sa.gridPoints;
     stageAMinima += sa.minima.length;
     evaluations += sa.evaluations;
@@ -88,5 +103,5 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow): SearchRe
     all.push(...sb.candidates);
   });
   all.sort((x, y) => x.objective - y.objective);
-  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations, sunEvaluations };
+  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations, sunEvaluations, stageAGrids: { model, byAssumption: grids } };
 }

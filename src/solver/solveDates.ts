@@ -29,7 +29,7 @@ import { chiSquarePValue } from '../math/chiSquare.js';
 import { MONTH_NAMES, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import { buildEvidenceModel, type EvidenceModel } from './evidenceModel.js';
-import { searchCandidates, type SearchResult } from './search.js';
+import { searchCandidates, type SearchResult, type StageAGrids } from './search.js';
 import { assumedKind, dressCandidate, hhmm, type DressContext } from './candidates.js';
 import { buildFamily, joinKeepings, SAME_MINUTES, YEARS_ALIKE_DELTA_CHI2, type FamilyContext, type FamilyMember } from './families.js';
 import { evidenceFixesDayAndHour, freedomOf, undeterminedVerdict } from './freedom.js';
@@ -72,8 +72,12 @@ export interface Solved {
  */
 export const EDGE_CANDIDATE_DELTA_CHI2 = -2 * Math.log(1 - 0.9973);
 
-export function solveModel(model: EvidenceModel, win: DayWindow, cutoff: number, profileScans = true): Solved {
-  const search = searchCandidates(model, win);
+/**
+ * One search over a model and window, its candidates kept within `cutoff` and weighed.
+ * @param reuse stage A's grids of a model of the same scene with more observations (a rerun without some)
+ */
+export function solveModel(model: EvidenceModel, win: DayWindow, cutoff: number, profileScans = true, reuse?: StageAGrids): Solved {
+  const search = searchCandidates(model, win, reuse);
   const best = search.candidates.length ? search.candidates[0].objective : 0;
   const withinCutoff = search.candidates.filter((c) => c.objective <= best + cutoff);
   const kept = withinCutoff.filter((c) => c === search.candidates[0] || !c.atWindowEdge || c.objective <= best + EDGE_CANDIDATE_DELTA_CHI2);
@@ -169,7 +173,9 @@ function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
       assumptionIndex: raw.assumptionIndex,
       assumption: s.search.assumptions[raw.assumptionIndex],
     };
-    groups.set(key, [...(groups.get(key) ?? []), member]);
+    const group = groups.get(key);
+    if (group) group.push(member);
+    else groups.set(key, [member]);
   }
   const ctx: FamilyContext = {
     fromYear: s.win.fromYear,
@@ -249,7 +255,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         }
         opt.onProgress?.(++done, progressSteps);
         const reduced = buildEvidenceModel(scene, new Set([o.id]));
-        const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans);
+        const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans, s.search.stageAGrids);
         const b = sr.kept[0];
         const fits = fitsWell(reduced, b);
         const rows = model.measuredCount - reduced.measuredCount;

@@ -6,6 +6,13 @@
  * epoch's obliquity, Meeus 1998 eq. 22.2) and hour angle (-180, 180], every local minimum of
  * the grid kept (8-neighbour test, wrapping in hour angle), each refined by Levenberg-Marquardt,
  * duplicates merged. Cheap: about 1,700 evaluations of spherical astronomy and the residuals.
+ *
+ * The grid keeps every residual row at every point (`StageAGrid`), so that a rerun of the search
+ * with observations left out (nothing fits: the search without each observation) sums the rows it
+ * still has instead of evaluating the grid again: each row is a function of the sun's direction,
+ * the nuisances at their priors and the clock assumption alone, so its value is the same number
+ * in the reduced model, and the sums are taken in the reduced model's own row order (the same
+ * numbers, bit for bit, as evaluating the grid afresh).
  */
 import type { ClockKind } from '../scene/types.js';
 import type { EvidenceModel } from './evidenceModel.js';
@@ -25,7 +32,28 @@ export interface StageAResult {
   readonly minima: readonly StageAMinimum[];
   readonly gridPoints: number;
   readonly evaluations: number;
+  /** The grid with its rows, for reruns with observations left out; null when too large to keep, or summed from another. */
+  readonly grid: StageAGrid | null;
+  /** True when the grid was summed from a kept grid instead of evaluated. */
+  readonly gridSummed: boolean;
 }
+
+/** The stage-A grid of one model and clock assumption with every residual row kept. */
+export interface StageAGrid {
+  readonly obliquityDeg: number;
+  readonly rowCount: number;
+  /** Residual row `row` at grid point `point` (declination-major order): values[point * rowCount + row]. */
+  readonly values: Float64Array;
+}
+
+/** A grid to sum instead of evaluating: the grid of a larger model and, for each row of this model, its row there (-1: a prior, 0 on the grid). */
+export interface StageAGridReuse {
+  readonly grid: StageAGrid;
+  readonly sources: Int32Array;
+}
+
+/** Grids with more residual rows than this are not kept (1,728 points x 256 rows = 3.5 MB). */
+export const MAX_KEPT_GRID_ROWS = 256;
 
 /** Grid steps: declination 2 deg, hour angle 5 deg (20 minutes). */
 const DEC_STEP_DEG = 2;
@@ -44,14 +72,20 @@ function sumSquares(r: readonly number[]): number {
  * Every local minimum of the year-independent chi-square, refined and ranked.
  * @param obliquityDeg the obliquity of the epoch (bounds of the declination grid)
  */
-export function stageA(model: EvidenceModel, assumed: ClockKind | null, zoneOffset: (zone: string) => number, obliquityDeg: number): StageAResult {
+export function stageA(
+  model: EvidenceModel,
+  assumed: ClockKind | null,
+  zoneOffset: (zone: string) => number,
+  obliquityDeg: number,
+  reuse?: StageAGridReuse,
+): StageAResult {
   const c: StageAContext = { model, assumed, zoneOffset };
   const prior = model.nuisances.map((n) => n.priorDeg);
   const nDec = Math.floor((2 * obliquityDeg) / DEC_STEP_DEG) + 1;
   const decs = Array.from({ length: nDec }, (_, i) => -obliquityDeg + (i * 2 * obliquityDeg) / (nDec - 1));
   const nHa = Math.round(360 / HA_STEP_DEG);
   const has = Array.from({ length: nHa }, (_, j) => -180 + HA_STEP_DEG / 2 + j * HA_STEP_DEG);
-  const grid: number[][] = decs.map((dec) => has.map((ha) => sumSquares(stageAResiduals(c, [dec, ha, ...prior]))));
+  const { grid, kept, summed } = gridValues(c, decs, has, prior, obliquityDeg, reuse);
   let evaluations = nDec * nHa;
   const seeds: { i: number; j: number; v: number }[] = [];
   for (let i = 0; i < nDec; i += 1) {
@@ -94,5 +128,54 @@ export function stageA(model: EvidenceModel, assumed: ClockKind | null, zoneOffs
   refined.sort((a, b) => a.objective - b.objective);
   const best = refined.length > 0 ? refined[0].objective : 0;
   const minima = refined.filter((m) => m.objective <= best + STAGE_A_CUTOFF).slice(0, MAX_STAGE_A_MINIMA);
-  return { minima, gridPoints: nDec * nHa, evaluations };
+  return { minima, gridPoints: nDec * nHa, evaluations, grid: kept, gridSummed: summed };
+}
+
+/**
+ * Chi-square plus penalty at every grid point: summed from a kept grid when one is given, else
+ * evaluated (and its rows kept when there are at most MAX_KEPT_GRID_ROWS).
+ */
+function gridValues(
+  c: StageAContext,
+  decs: readonly number[],
+  has: readonly number[],
+  prior: readonly number[],
+  obliquityDeg: number,
+  reuse: StageAGridReuse | undefined,
+): { grid: Float64Array[]; kept: StageAGrid | null; summed: boolean } {
+  const nHa = has.length;
+  const grid = decs.map(() => new Float64Array(nHa));
+  if (reuse !== undefined && reuse.grid.obliquityDeg === obliquityDeg) {
+    const { values, rowCount } = reuse.grid;
+    const sources = reuse.sources;
+    for (let i = 0; i < decs.length; i += 1) {
+      for (let j = 0; j < nHa; j += 1) {
+        const base = (i * nHa + j) * rowCount;
+        let sum = 0;
+        for (let k = 0; k < sources.length; k += 1) {
+          const v = sources[k] < 0 ? 0 : values[base + sources[k]];
+          sum += v * v;
+        }
+        grid[i][j] = sum;
+      }
+    }
+    return { grid, kept: null, summed: true };
+  }
+  let values: Float64Array | null = null;
+  let rowCount = 0;
+  const x = [0, 0, ...prior];
+  for (let i = 0; i < decs.length; i += 1) {
+    for (let j = 0; j < nHa; j += 1) {
+      x[0] = decs[i];
+      x[1] = has[j];
+      const r = stageAResiduals(c, x);
+      if (values === null && r.length <= MAX_KEPT_GRID_ROWS) {
+        rowCount = r.length;
+        values = new Float64Array(decs.length * nHa * rowCount);
+      }
+      if (values !== null) values.set(r, (i * nHa + j) * rowCount);
+      grid[i][j] = sumSquares(r);
+    }
+  }
+  return { grid, kept: values === null ? null : { obliquityDeg, rowCount, values }, summed: false };
 }
