@@ -17,6 +17,8 @@ import { sunPosition, type SunPosition, type SunSite } from '../ephemeris/sunPos
 import { sunEvents } from '../ephemeris/riseSet.js';
 import { deltaTAtJdUT, jdUTToJdTT } from '../time/timeScales.js';
 import { clockToJdUT, describeClockKind, formatClockKind, formatMinutes, jdUTToClockMinutes, parseClockKind, zoneReading } from '../time/clock.js';
+import { dayFrameOf } from '../time/hourSystemClock.js';
+import { hourSystemReading, type DayFrame, type HourSystem } from '../time/hourSystems.js';
 import type { CliIo } from './io.js';
 import type { SunOptions } from './sunSpec.js';
 
@@ -92,15 +94,27 @@ function clockText(jdUT: number, clock: ClockKind, site: SunSite): string {
   return formatMinutes(jdUTToClockMinutes(jdUT, clock, site).minutesOfDay);
 }
 
-/** The reading in an hour system tied to sunrise and sunset, or null on a day without sunrise or sunset. */
-function hourSystemText(jdUT: number, clock: ClockKind, site: SunSite): string | null {
+/**
+ * The readings in the three hour systems tied to sunrise and sunset, or nulls on a day without
+ * sunrise or sunset. One day frame serves all three (src/time/hourSystemClock.ts: Italian hours
+ * from sunset with no offset count from the same sunset as the others), so the sunrises and
+ * sunsets around the day are found once, not once per system: the same readings as
+ * jdUTToClockMinutes gives for each.
+ */
+function hourSystemTexts(jdUT: number, site: SunSite): { italian: string | null; babylonian: string | null; unequal: string | null } {
+  const apparent = jdUTToClockMinutes(jdUT, { kind: 'apparent' }, site);
+  let frame: DayFrame;
   try {
-    return clockText(jdUT, clock, site);
+    frame = dayFrameOf(ITALIAN_FROM_SUNSET, apparent.dayJd0, site);
   } catch (error) {
-    if (error instanceof UnsupportedError) return null;
+    if (error instanceof UnsupportedError) return { italian: null, babylonian: null, unequal: null };
     throw error;
   }
+  const text = (system: HourSystem): string => formatMinutes(hourSystemReading(system, apparent.minutesOfDay, frame));
+  return { italian: text(ITALIAN_FROM_SUNSET), babylonian: text({ kind: 'babylonian' }), unequal: text({ kind: 'unequal' }) };
 }
+
+const ITALIAN_FROM_SUNSET: HourSystem = { kind: 'italian', origin: 'sunset', offsetMinutes: 0 };
 
 /** Everything the answer reports about one moment, as plain data (also the JSON form). */
 function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
@@ -126,9 +140,7 @@ function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
       apparent: clockText(jdUT, { kind: 'apparent' }, site),
       mean: clockText(jdUT, { kind: 'mean' }, site),
       // Hour systems tied to sunrise and sunset (src/time/hourSystems.ts); null on a day without sunrise or sunset.
-      italian: hourSystemText(jdUT, { kind: 'italian', origin: 'sunset', offsetMinutes: 0 }, site),
-      babylonian: hourSystemText(jdUT, { kind: 'babylonian' }, site),
-      unequal: hourSystemText(jdUT, { kind: 'unequal' }, site),
+      ...hourSystemTexts(jdUT, site),
       clock: clockText(jdUT, clock, site),
       clockKind: formatClockKind(clock),
       ...(zone

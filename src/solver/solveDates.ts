@@ -169,7 +169,10 @@ function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
       weight: s.weights.get(raw) ?? 0,
       chiSquare: raw.chiSquare,
       penalty: raw.penalty,
-      pValue: pOf(s.model, raw.chiSquare),
+      // Taken only for the members a family names (its best, each keeping's best): a p-value costs an incomplete gamma function.
+      get pValue() {
+        return pOf(s.model, raw.chiSquare);
+      },
       assumptionIndex: raw.assumptionIndex,
       assumption: s.search.assumptions[raw.assumptionIndex],
     };
