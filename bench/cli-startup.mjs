@@ -9,7 +9,9 @@
  * `report` at most 4x, `sun` at most 1.4x. Every process loads bench/cpu-at-exit.cjs, which
  * prints its CPU time (user + system, start-up included) when it ends; on a shared machine the CPU
  * ratio is the steadier figure, the elapsed one includes waiting for a core.
- * Usage: node bench/cli-startup.mjs [runs]
+ * Usage: node bench/cli-startup.mjs [runs] [--before <checkout>]
+ *   --before: also run another checkout's tsc build (<checkout>/dist/cli/main.js), e.g. the main
+ *   branch before a change, in the same interleaved runs.
  */
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, rmSync } from 'node:fs';
@@ -27,7 +29,14 @@ for (const file of [bin, modules]) {
     process.exit(1);
   }
 }
-const runs = Number(process.argv[2] ?? 10);
+const positional = process.argv.slice(2).filter((a, i, all) => !a.startsWith('--') && all[i - 1] !== '--before');
+const runs = Number(positional[0] ?? 10);
+const beforeAt = process.argv.indexOf('--before');
+const before = beforeAt > 0 ? `${process.argv[beforeAt + 1].replace(/\/$/, '')}/dist/cli/main.js` : null;
+if (before !== null && !existsSync(before)) {
+  console.error(`bench/cli-startup.mjs: ${before} is missing; build that checkout first`);
+  process.exit(1);
+}
 const out = mkdtempSync(join(tmpdir(), 'heliochron-startup-'));
 const example = `${root}examples/marktgasse-print.yaml`;
 const commands = [
@@ -42,6 +51,7 @@ const cases = [
   ...commands.flatMap((c) => [
     { name: `${c.name} (bin)`, args: [bin, ...c.args], target: c.target },
     { name: `${c.name} (tsc modules)`, args: [modules, ...c.args] },
+    ...(before === null ? [] : [{ name: `${c.name} (before)`, args: [before, ...c.args] }]),
   ]),
 ];
 const cpuAtExit = `${root}bench/cpu-at-exit.cjs`;
@@ -72,5 +82,5 @@ for (const [k, c] of cases.entries()) {
   const ratio = m / base;
   const cpuRatio = cpu / baseCpu;
   const verdict = c.target === undefined ? '' : `   target <= ${c.target}x   ${ratio <= c.target ? 'met' : cpuRatio <= c.target ? 'met in CPU time, not elapsed' : 'NOT met'}`;
-  console.log(`${c.name.padEnd(26)} ${m.toFixed(1).padStart(7)} ms  x${ratio.toFixed(2).padEnd(5)}  CPU ${cpu.toFixed(1).padStart(6)} ms  x${cpuRatio.toFixed(2).padEnd(5)}${verdict}`);
+  console.log(`${c.name.padEnd(28)} ${m.toFixed(1).padStart(7)} ms  x${ratio.toFixed(2).padEnd(5)}  CPU ${cpu.toFixed(1).padStart(6)} ms  x${cpuRatio.toFixed(2).padEnd(5)}${verdict}`);
 }
