@@ -15,6 +15,9 @@
  * Targets (issue: speed): warm solve at most 20 ms; at least 10^4 times faster than the scaled scan;
  * the same best candidate within a minute. The minimum of the 7 solves is printed too: on a
  * machine shared with other work it is the figure least disturbed by them.
+ * Usage: node bench/solver-window.mjs [--before <checkout>]
+ *   --before: also time another checkout's build of the solver (<checkout>/dist, e.g. the main
+ *   branch before a change) on the same scene, interleaved with this one's, and print the ratio.
  */
 import { solveDates } from '../dist/solver/solveDates.js';
 import { buildEvidenceModel, evidenceResidualVector, splitChiSquare } from '../dist/solver/evidenceModel.js';
@@ -30,6 +33,30 @@ const scene = benchScene;
 function median(xs) {
   const s = [...xs].sort((a, b) => a - b);
   return s[Math.floor(s.length / 2)];
+}
+
+// 0. before and after, interleaved (with --before)
+const beforeAt = process.argv.indexOf('--before');
+if (beforeAt > 0) {
+  const dir = process.argv[beforeAt + 1].replace(/\/$/, '');
+  const { solveDates: solveBefore } = await import(`${dir}/dist/solver/solveDates.js`);
+  const cpu = (f) => {
+    const c0 = process.cpuUsage();
+    f();
+    const c = process.cpuUsage(c0);
+    return (c.user + c.system) / 1000;
+  };
+  for (let i = 0; i < 3; i += 1) {
+    solveDates(scene, { consistency: false });
+    solveBefore(scene, { consistency: false });
+  }
+  const now = [];
+  const then = [];
+  for (let i = 0; i < 9; i += 1) {
+    now.push(cpu(() => solveDates(scene, { consistency: false })));
+    then.push(cpu(() => solveBefore(scene, { consistency: false })));
+  }
+  console.log(`before/after, CPU time of the warm solve (median of 9 interleaved): this build ${median(now).toFixed(1)} ms, ${dir} ${median(then).toFixed(1)} ms: ${(median(then) / median(now)).toFixed(2)}x faster`);
 }
 
 // 1. the solver
