@@ -21,10 +21,14 @@ const root = fileURLToPath(new URL('../../', import.meta.url));
 export const BIN_DIR = 'dist/bin';
 export const BIN_FILE = `${BIN_DIR}/heliochron.js`;
 
-/** Bundle the command line into dist/bin; returns esbuild's result (its metafile when asked). */
-export async function buildCli({ metafile = false } = {}) {
-  rmSync(`${root}${BIN_DIR}`, { recursive: true, force: true });
+/**
+ * Bundle the command line into dist/bin; returns esbuild's result (its metafile when asked).
+ * With `write: false` nothing is written or removed (the files are in the result).
+ */
+export async function buildCli({ metafile = false, write = true } = {}) {
+  if (write) rmSync(`${root}${BIN_DIR}`, { recursive: true, force: true });
   return build({
+    write,
     absWorkingDir: root,
     entryPoints: { heliochron: 'src/cli/main.ts' },
     outdir: BIN_DIR,
