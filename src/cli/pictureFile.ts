@@ -132,8 +132,8 @@ function jpegSize(b: Uint8Array): { w: number; h: number } | string {
   return frame ? 'it ends before its image data (SOS): a cut or damaged file' : 'it has no frame header (SOF) giving its size: a damaged file';
 }
 
-/** Largest picture in pixels decoded for an overlay (common practice: 200 megapixels is beyond any scan measured by hand). */
-export const MAX_PICTURE_PIXELS = 200_000_000;
+/** Largest picture in pixels (museum scans reach 20,000 pixels a side: 400 megapixels is a square of that side; the desk shows them tiled). */
+export const MAX_PICTURE_PIXELS = 400_000_000;
 
 /** Check a declared size against the limits, or throw. */
 function checkPictureSize(size: { w: number; h: number } | string, kind: string, field: string, name: string): { w: number; h: number } {

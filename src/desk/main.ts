@@ -19,7 +19,8 @@ import { sceneYamlText } from './sceneYaml.js';
 import { fetchSession, readFolderFile, saveAskingFirst, type Session } from './files.js';
 import { overlayFor, exportOverlaySvg, exportHtmlReport } from './exports.js';
 import { AnswerPanel } from './answerPanel.js';
-import { decodeTiff, isTiff } from './tiffPicture.js';
+import { loadTiledPicture } from './pictureSource.js';
+import type { TiledPicture } from './tiles.js';
 
 const $ = <T extends HTMLElement>(id: string): T => document.getElementById(id) as T;
 
@@ -40,7 +41,7 @@ interface DeskState {
 }
 
 let session: Session = { opened: null, kind: null };
-let picture: ImageBitmap | null = null;
+let picture: TiledPicture | null = null;
 /** The picture file's bytes and name as read (JPEG, PNG or TIFF), for its size and for the overlay export. */
 let pictureBytes: Uint8Array | null = null;
 let pictureName = '';
@@ -589,13 +590,8 @@ async function loadPicture(name: string): Promise<void> {
     const bytes = await readFolderFile(name);
     pictureBytes = bytes;
     pictureName = name;
-    if (isTiff(bytes)) {
-      const decoded = decodeTiff(bytes, name);
-      picture = await createImageBitmap(new ImageData(decoded.rgba as Uint8ClampedArray<ArrayBuffer>, decoded.widthPx, decoded.heightPx));
-    } else {
-      const file = sniffPicture(bytes, 'image.file', name);
-      picture = await createImageBitmap(new Blob([bytes as BlobPart], { type: file.mimeType }));
-    }
+    picture = await loadTiledPicture(bytes, name, (done, total) => { $('instruction').textContent = `Preparing ${name} for zooming: ${Math.floor((100 * done) / total)}%`; });
+    picture.onTileReady = drawSoon;
   } catch (error) {
     picture = null;
     pictureBytes = null;

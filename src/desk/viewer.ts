@@ -1,5 +1,6 @@
 /**
- * The picture on the desk: drawn on a canvas at any zoom, with the library's overlay (the
+ * The picture on the desk: drawn on a canvas at any zoom from its pyramid of tiles (tiles.ts:
+ * only the visible tiles of the level that matches the zoom, over the finest level held in full), with the library's overlay (the
  * straightened grids, the measured and predicted shadows: measureOverlaySvg, in picture pixels)
  * laid over it by one CSS transform, and the clicked points drawn at a constant screen size.
  * Points live in picture pixels (x right, y down, origin at the top-left corner of the
@@ -7,6 +8,7 @@
  *   screen = pan + zoom * picture.
  */
 import type { PixelPoint } from '../scene/types.js';
+import type { TiledPicture } from './tiles.js';
 
 export interface ViewTransform {
   readonly zoom: number;
@@ -54,8 +56,20 @@ const MARK_STYLE = {
   refused: { fill: '#D55E00', ring: '#FFFFFF' },
 } as const;
 
+/**
+ * The tiles of the picture rectangle [x0, x1) x [y0, y1) on a context whose transform maps
+ * picture pixels: the finest level held in full beneath (never blank, no seams), the level
+ * `level` above it where its tiles are decoded.
+ */
+function drawTiles(ctx: CanvasRenderingContext2D, picture: TiledPicture, level: number, x0: number, y0: number, x1: number, y1: number): void {
+  const under = Math.max(level + 1, picture.finestKept());
+  for (const l of under < picture.levels.length ? [under, level] : [level]) {
+    for (const t of picture.tilesIn(l, x0, y0, x1, y1)) ctx.drawImage(t.bitmap, t.x, t.y, t.w, t.h);
+  }
+}
+
 /** Draw the picture and the marks. The canvas is sized to its box times the device pixel ratio. */
-export function drawView(canvas: HTMLCanvasElement, picture: CanvasImageSource | null, picW: number, picH: number, view: ViewTransform, marks: readonly Mark[], lines: readonly (readonly [PixelPoint, PixelPoint])[]): void {
+export function drawView(canvas: HTMLCanvasElement, picture: TiledPicture | null, picW: number, picH: number, view: ViewTransform, marks: readonly Mark[], lines: readonly (readonly [PixelPoint, PixelPoint])[]): void {
   const ratio = window.devicePixelRatio || 1;
   const w = canvas.clientWidth;
   const h = canvas.clientHeight;
@@ -72,7 +86,10 @@ export function drawView(canvas: HTMLCanvasElement, picture: CanvasImageSource |
     ctx.setTransform(ratio * view.zoom, 0, 0, ratio * view.zoom, ratio * view.panX, ratio * view.panY);
     // beyond 4x the pixels themselves are shown, for sub-pixel clicking
     ctx.imageSmoothingEnabled = view.zoom < 4;
-    ctx.drawImage(picture, 0, 0, picW, picH);
+    picture.beginFrame();
+    const [x0, y0] = screenToPicture(view, 0, 0);
+    const [x1, y1] = screenToPicture(view, w, h);
+    drawTiles(ctx, picture, picture.levelFor(view.zoom * ratio), Math.max(0, x0), Math.max(0, y0), Math.min(picW, x1), Math.min(picH, y1));
     ctx.restore();
   }
   ctx.lineWidth = 1.5;
@@ -117,8 +134,8 @@ export function drawView(canvas: HTMLCanvasElement, picture: CanvasImageSource |
   }
 }
 
-/** The magnifier: the picture around `at` at 10 screen pixels per picture pixel, with a cross hair on the exact point. */
-export function drawMagnifier(canvas: HTMLCanvasElement, picture: CanvasImageSource | null, at: PixelPoint, marks: readonly Mark[]): void {
+/** The magnifier: the picture's own pixels (level 0) around `at` at 10 screen pixels per picture pixel, with a cross hair on the exact point. */
+export function drawMagnifier(canvas: HTMLCanvasElement, picture: TiledPicture | null, at: PixelPoint, marks: readonly Mark[]): void {
   const size = canvas.width;
   const scale = 10;
   const ctx = canvas.getContext('2d')!;
@@ -128,7 +145,8 @@ export function drawMagnifier(canvas: HTMLCanvasElement, picture: CanvasImageSou
   if (picture) {
     ctx.imageSmoothingEnabled = false;
     ctx.setTransform(scale, 0, 0, scale, size / 2 - scale * at[0], size / 2 - scale * at[1]);
-    ctx.drawImage(picture, 0, 0);
+    const half = size / 2 / scale + 1;
+    drawTiles(ctx, picture, 0, at[0] - half, at[1] - half, at[0] + half, at[1] + half);
     ctx.setTransform(1, 0, 0, 1, 0, 0);
   }
   for (const m of marks) {
