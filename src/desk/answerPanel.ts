@@ -86,6 +86,7 @@ export class AnswerPanel {
     window.clearInterval(this.ticker);
     ($('cancel') as HTMLButtonElement).disabled = true;
     ($('date-it') as HTMLButtonElement).disabled = false;
+    $('progress-bar').hidden = true;
     $('progress').textContent = text;
   }
 
@@ -101,14 +102,22 @@ export class AnswerPanel {
     ($('date-it') as HTMLButtonElement).disabled = true;
     const started = performance.now();
     let stage = 'starting the solver';
+    let fraction: number | null = null;
+    const bar = $('progress-bar') as HTMLProgressElement;
+    bar.hidden = false;
+    bar.removeAttribute('value'); // no fraction yet: the bar shows that work goes on
     const show = (): void => {
-      $('progress').textContent = `${stage} (${((performance.now() - started) / 1000).toFixed(1)} s)`;
+      const percent = fraction === null ? '' : `: ${Math.floor(fraction * 100)}%`;
+      $('progress').textContent = `${stage}${percent} (${((performance.now() - started) / 1000).toFixed(1)} s)`;
+      if (fraction !== null) bar.value = fraction;
+      else bar.removeAttribute('value');
     };
     window.clearInterval(this.ticker);
     this.ticker = window.setInterval(show, 250);
     show();
-    const reply = await runInWorker({ kind: 'date', draft: this.host.draft(), charts: withCharts || this.answer === null }, (s, fraction) => {
-      stage = fraction === null ? s : `${s}, ${Math.round(fraction * 100)}%`;
+    const reply = await runInWorker({ kind: 'date', draft: this.host.draft(), charts: withCharts || this.answer === null }, (s, f) => {
+      stage = s;
+      fraction = f;
       show();
     });
     if (reply.kind === 'error') {

@@ -57,9 +57,19 @@ function handle(request: WorkerRequest): void {
       reply({ id, kind: 'check', answer, text: renderCheckText(answer, scene) });
       return;
     }
-    reply({ id, kind: 'progress', stage: 'searching the window', fraction: null });
+    reply({ id, kind: 'progress', stage: 'searching the window', fraction: 0 });
     const started = performance.now();
-    const answer = solveDates(scene);
+    // the solver's own progress, passed on at each new percent or stage (not at every grid row)
+    let shown = '';
+    const answer = solveDates(scene, {
+      onProgress: (done, total, stage = 'searching the window') => {
+        const fraction = Math.min(1, done / total);
+        const key = `${stage} ${Math.floor(fraction * 100)}`;
+        if (key === shown) return;
+        shown = key;
+        reply({ id, kind: 'progress', stage, fraction });
+      },
+    });
     const solveMs = performance.now() - started;
     const text = renderDateText(answer, scene);
     let charts = null;

@@ -60,12 +60,22 @@ export function clockAssumptionsOf(model: EvidenceModel): ClockAssumption[] {
   return tried.map((k) => ({ ...k, stated: false }));
 }
 
+/** Share of one clock assumption's search taken by stage A's grid (the rest: stage B), for progress (an estimate, not a measurement: the bar tells how far the search is, not how long it will take). */
+const STAGE_A_SHARE = 0.4;
+
+/** The search's stages in words, for progress shown to the user. */
+export const SEARCH_STAGE_WORDS = {
+  grid: "searching the sky for the sun's possible places",
+  dating: 'dating each place in every year of the window',
+} as const;
+
 /**
  * Every local best fit in the window, under every clock assumption.
+ * @param onProgress called as the search advances: the fraction done (0 to 1) and the stage in words
  * @throws UnsupportedError (from src/time/clock.ts) for a zone clock in a window that starts
  *   before zone time existed (1847), unless the zone's entry there is local mean time.
  */
-export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: StageAGrids): SearchResult {
+export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: StageAGrids, onProgress?: (fraction: number, stage: string) => void): SearchResult {
   const assumptions = clockAssumptionsOf(model);
   model.clocks.forEach((c) => {
     if (c.kept && c.kept.kind === 'zone') zoneReading(c.kept.zone, win.firstDayJd0 + 0.5, `clock ${c.observationId}`);
@@ -89,13 +99,15 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: S
     } catch {
       zoneOffset = () => 0;
     }
+    const which = assumptions.length > 1 ? ` (clock assumption ${i + 1} of ${assumptions.length})` : '';
+    const report = (share0: number, share: number, words: string) => onProgress && ((done: number, total: number) => onProgress((i + share0 + (share * done) / total) / assumptions.length, `${words}${which}`));
     const kept = sources === null ? undefined : reuse?.byAssumption.get(stageAGridKey(kind));
-    const sa = stageA(model, kind, zoneOffset, obliquityDeg, kept === undefined || sources === null ? undefined : { grid: kept, sources });
+    const sa = stageA(model, kind, zoneOffset, obliquityDeg, kept === undefined || sources === null ? undefined : { grid: kept, sources }, report(0, STAGE_A_SHARE, SEARCH_STAGE_WORDS.grid));
     if (sa.grid !== null) grids.set(stageAGridKey(kind), sa.grid);
     stageAGridPoints += sa.gridPoints;
     stageAMinima += sa.minima.length;
     evaluations += sa.evaluations;
-    const sb = stageB(model, kind, i, sa.minima, win);
+    const sb = stageB(model, kind, i, sa.minima, win, report(STAGE_A_SHARE, 1 - STAGE_A_SHARE, SEARCH_STAGE_WORDS.dating));
     fullRefinements += sb.fullRefinements;
     mappedYears += sb.mappedYears;
     evaluations += sb.ephemerisCalls;

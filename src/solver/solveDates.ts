@@ -75,9 +75,10 @@ export const EDGE_CANDIDATE_DELTA_CHI2 = -2 * Math.log(1 - 0.9973);
 /**
  * One search over a model and window, its candidates kept within `cutoff` and weighed.
  * @param reuse stage A's grids of a model of the same scene with more observations (a rerun without some)
+ * @param onProgress called as the search advances: the fraction done (0 to 1) and the stage in words
  */
-export function solveModel(model: EvidenceModel, win: DayWindow, cutoff: number, profileScans = true, reuse?: StageAGrids): Solved {
-  const search = searchCandidates(model, win, reuse);
+export function solveModel(model: EvidenceModel, win: DayWindow, cutoff: number, profileScans = true, reuse?: StageAGrids, onProgress?: (fraction: number, stage: string) => void): Solved {
+  const search = searchCandidates(model, win, reuse, onProgress);
   const best = search.candidates.length ? search.candidates[0].objective : 0;
   const withinCutoff = search.candidates.filter((c) => c.objective <= best + cutoff);
   const kept = withinCutoff.filter((c) => c === search.candidates[0] || !c.atWindowEdge || c.objective <= best + EDGE_CANDIDATE_DELTA_CHI2);
@@ -189,6 +190,13 @@ function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
   return joinKeepings([...groups.values()]).map((list, i) => buildFamily(`f${i + 1}`, i + 1, list, ctx, perYear));
 }
 
+/** The solver's later stages in words, for progress shown to the user (the search's own: SEARCH_STAGE_WORDS). */
+export const SOLVE_STAGE_WORDS = {
+  consistency: 'testing each observation against the rest',
+  rerun: 'searching again without',
+  answer: 'writing the answer',
+} as const;
+
 /**
  * The dates and hours at which the scene's light could have fallen, ranked.
  * @example solveDates(scene).families[0].summary // "any year 1640-1690: 10-16 September (Gregorian), 07:35-07:50 local apparent time; no clock"
@@ -198,8 +206,10 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   const opt = { ...DEFAULTS, ...options };
   const model = buildEvidenceModel(scene);
   const win = dayWindowOf(scene);
-  const s = solveModel(model, win, opt.chiSquareCutoff, opt.profileScans);
-  let progressSteps = 3; // the search, the consistency test (or the reruns), the answer
+  // Progress in 3 steps: the search (0 to 1), the consistency test or the reruns (1 to 2, the reruns
+  // sharing it evenly), the answer; so that what is done never goes back.
+  const progressSteps = 3;
+  const s = solveModel(model, win, opt.chiSquareCutoff, opt.profileScans, undefined, opt.onProgress && ((fraction, stage) => opt.onProgress!(fraction, progressSteps, stage)));
   const best = s.kept[0];
   const notes: string[] = [
     'Every candidate is an estimate conditional on the stated assumptions (site, wall azimuths, measurements and their sigmas, what a clock kept); weigh it with the documentary evidence and expert judgement.',
@@ -246,9 +256,9 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       // Rerun the whole search without each observation (facts and clocks included).
       const entries: LeaveOneOutEntry[] = [];
       const estimated = estimatedWithoutEach(s, scene, (n, chi, penalty) => penalty <= FACT_PENALTY_LIMIT && chiSquarePValue(chi, n > 2 ? n - 2 : 1) >= NOTHING_FITS_P);
-      progressSteps = 2 + (estimated ? [...estimated.values()].filter((e) => e.rerun).length : scene.observations.length);
-      let done = 1;
-      opt.onProgress?.(done, progressSteps);
+      const reruns = estimated ? [...estimated.values()].filter((e) => e.rerun).length : scene.observations.length;
+      let rerun = 0;
+      opt.onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.consistency);
       const withoutWords = new Map<string, string>();
       for (const o of scene.observations) {
         const e = estimated?.get(o.id);
@@ -256,9 +266,12 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
           entries.push(estimatedEntry(o, e, best.chiSquare, best.objective));
           continue;
         }
-        opt.onProgress?.(++done, progressSteps);
+        const rerunStage = `${SOLVE_STAGE_WORDS.rerun} ${o.id} (${rerun + 1} of ${reruns})`;
+        const rerunFrom = 1 + rerun / reruns;
+        opt.onProgress?.(rerunFrom, progressSteps, rerunStage);
+        rerun += 1;
         const reduced = buildEvidenceModel(scene, new Set([o.id]));
-        const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans, s.search.stageAGrids);
+        const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans, s.search.stageAGrids, opt.onProgress && ((fraction) => opt.onProgress!(rerunFrom + fraction / reruns, progressSteps, rerunStage)));
         const b = sr.kept[0];
         const fits = fitsWell(reduced, b);
         const rows = model.measuredCount - reduced.measuredCount;
@@ -299,13 +312,13 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         ` The observations in conflict: ${conflictingIds.join(', ')}.` +
         (without.length ? ` ${capitalised(without.join('; '))}.` : '');
     } else if (status === 'undetermined') {
-      opt.onProgress?.(1, progressSteps);
+      opt.onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.answer);
       freedom = freedomOf(model);
       verdict = undeterminedVerdict(freedom, candidates, windowText, model, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
       notes.push('The evidence does not fix the day and the hour: the candidates are examples along a curve of equally good fits, and their families are not separate answers.');
       consistency = { ...consistency, rule: `${consistency.rule}; not run here: the evidence does not fix the day and the hour, so leaving an observation out tests nothing` };
     } else {
-      opt.onProgress?.(1, progressSteps);
+      opt.onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.consistency);
       if (opt.consistency && model.measuredCount > 0) {
         const loo = localLeaveOneOut(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
         const entries: LeaveOneOutEntry[] = loo.map((l) => {
@@ -353,7 +366,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       }
     }
   }
-  opt.onProgress?.(progressSteps - 1, progressSteps);
+  opt.onProgress?.(progressSteps - 1, progressSteps, SOLVE_STAGE_WORDS.answer);
   const top = families[0];
   return {
     sceneTitle: scene.title,

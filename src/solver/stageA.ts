@@ -71,6 +71,7 @@ function sumSquares(r: readonly number[]): number {
 /**
  * Every local minimum of the year-independent chi-square, refined and ranked.
  * @param obliquityDeg the obliquity of the epoch (bounds of the declination grid)
+ * @param onProgress called after each declination row of the grid (done of total rows)
  */
 export function stageA(
   model: EvidenceModel,
@@ -78,6 +79,7 @@ export function stageA(
   zoneOffset: (zone: string) => number,
   obliquityDeg: number,
   reuse?: StageAGridReuse,
+  onProgress?: (done: number, total: number) => void,
 ): StageAResult {
   const c: StageAContext = { model, assumed, zoneOffset };
   const prior = model.nuisances.map((n) => n.priorDeg);
@@ -85,7 +87,7 @@ export function stageA(
   const decs = Array.from({ length: nDec }, (_, i) => -obliquityDeg + (i * 2 * obliquityDeg) / (nDec - 1));
   const nHa = Math.round(360 / HA_STEP_DEG);
   const has = Array.from({ length: nHa }, (_, j) => -180 + HA_STEP_DEG / 2 + j * HA_STEP_DEG);
-  const { grid, kept, summed } = gridValues(c, decs, has, prior, obliquityDeg, reuse);
+  const { grid, kept, summed } = gridValues(c, decs, has, prior, obliquityDeg, reuse, onProgress);
   let evaluations = nDec * nHa;
   const seeds: { i: number; j: number; v: number }[] = [];
   for (let i = 0; i < nDec; i += 1) {
@@ -142,6 +144,7 @@ function gridValues(
   prior: readonly number[],
   obliquityDeg: number,
   reuse: StageAGridReuse | undefined,
+  onProgress?: (done: number, total: number) => void,
 ): { grid: Float64Array[]; kept: StageAGrid | null; summed: boolean } {
   const nHa = has.length;
   const grid = decs.map(() => new Float64Array(nHa));
@@ -158,6 +161,7 @@ function gridValues(
         }
         grid[i][j] = sum;
       }
+      onProgress?.(i + 1, decs.length);
     }
     return { grid, kept: null, summed: true };
   }
@@ -176,6 +180,7 @@ function gridValues(
       if (values !== null) values.set(r, (i * nHa + j) * rowCount);
       grid[i][j] = sumSquares(r);
     }
+    onProgress?.(i + 1, decs.length);
   }
   return { grid, kept: values === null ? null : { obliquityDeg, rowCount, values }, summed: false };
 }

@@ -220,8 +220,9 @@ interface Track {
 
 /**
  * Dated candidates for one clock assumption from the stage-A minima.
+ * @param onProgress called as the minima's sun tracks are taken in turn (done of total minima, fractional)
  */
-export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumptionIndex: number, minima: readonly StageAMinimum[], win: DayWindow): StageBResult {
+export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumptionIndex: number, minima: readonly StageAMinimum[], win: DayWindow, onProgress?: (done: number, total: number) => void): StageBResult {
   const out: RawCandidate[] = [];
   let fullRefinements = 0;
   let mappedYears = 0;
@@ -235,7 +236,8 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
       branch: l.branch,
       longitudeDeg: l.longitudeDeg,
     }));
-    for (const track of tracks) {
+    for (const [t, track] of tracks.entries()) {
+      onProgress?.(seedIndex + t / tracks.length, minima.length);
       // Crossing instants: the first within half a year of the window start, then every tropical year.
       let t0 = instantOfSolarLongitude(track.longitudeDeg, win.firstDayJd0 + TROPICAL_YEAR_DAYS / 2);
       while (t0 - TROPICAL_YEAR_DAYS > win.firstDayJd0 - 30) t0 -= TROPICAL_YEAR_DAYS;
@@ -444,6 +446,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
       for (const r of reps.values()) ephemerisCalls += r.context.ephemerisCalls;
     }
   });
+  onProgress?.(minima.length, minima.length);
 
   // One candidate per civil day and hour (within 5 minutes) and assumption: keep the best.
   // Keyed by day, so that each candidate is compared only with those kept on its own day.

@@ -351,8 +351,13 @@ export interface SolveOptions {
    * runs only) leaves `profile` absent; `method` still says 'profile-scan' and `invalidReason` why.
    */
   readonly profileScans?: boolean;
-  /** Called as the work advances (done of total steps: the search, each rerun, the answer); for progress lines. */
-  readonly onProgress?: (done: number, total: number) => void;
+  /**
+   * Called as the work advances: done of total steps (the search, the consistency test or each
+   * rerun without one observation, the answer; `done` moves in fractions inside the search and each
+   * rerun: stage A's grid rows, stage B's minima) and the stage in plain words
+   * (SEARCH_STAGE_WORDS, SOLVE_STAGE_WORDS). For progress lines and bars; the core never writes.
+   */
+  readonly onProgress?: (done: number, total: number, stage?: string) => void;
 }
 
 /** Diagnostics of the search, for the curious and for the bench. */
