@@ -197,6 +197,15 @@ export const SOLVE_STAGE_WORDS = {
   answer: 'writing the answer',
 } as const;
 
+/** A progress callback that never goes back (where stages join, rounding could move it back by a hair). */
+function forwardOnly(report: (done: number, total: number, stage?: string) => void): (done: number, total: number, stage?: string) => void {
+  let most = 0;
+  return (done, total, stage) => {
+    most = Math.max(most, done);
+    report(most, total, stage);
+  };
+}
+
 /**
  * The dates and hours at which the scene's light could have fallen, ranked.
  * @example solveDates(scene).families[0].summary // "any year 1640-1690: 10-16 September (Gregorian), 07:35-07:50 local apparent time; no clock"
@@ -209,7 +218,8 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   // Progress in 3 steps: the search (0 to 1), the consistency test or the reruns (1 to 2, the reruns
   // sharing it evenly), the answer; so that what is done never goes back.
   const progressSteps = 3;
-  const s = solveModel(model, win, opt.chiSquareCutoff, opt.profileScans, undefined, opt.onProgress && ((fraction, stage) => opt.onProgress!(fraction, progressSteps, stage)));
+  const onProgress = opt.onProgress && forwardOnly(opt.onProgress);
+  const s = solveModel(model, win, opt.chiSquareCutoff, opt.profileScans, undefined, onProgress && ((fraction, stage) => onProgress!(fraction, progressSteps, stage)));
   const best = s.kept[0];
   const notes: string[] = [
     'Every candidate is an estimate conditional on the stated assumptions (site, wall azimuths, measurements and their sigmas, what a clock kept); weigh it with the documentary evidence and expert judgement.',
@@ -258,7 +268,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       const estimated = estimatedWithoutEach(s, scene, (n, chi, penalty) => penalty <= FACT_PENALTY_LIMIT && chiSquarePValue(chi, n > 2 ? n - 2 : 1) >= NOTHING_FITS_P);
       const reruns = estimated ? [...estimated.values()].filter((e) => e.rerun).length : scene.observations.length;
       let rerun = 0;
-      opt.onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.consistency);
+      onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.consistency);
       const withoutWords = new Map<string, string>();
       for (const o of scene.observations) {
         const e = estimated?.get(o.id);
@@ -268,10 +278,10 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         }
         const rerunStage = `${SOLVE_STAGE_WORDS.rerun} ${o.id} (${rerun + 1} of ${reruns})`;
         const rerunFrom = 1 + rerun / reruns;
-        opt.onProgress?.(rerunFrom, progressSteps, rerunStage);
+        onProgress?.(rerunFrom, progressSteps, rerunStage);
         rerun += 1;
         const reduced = buildEvidenceModel(scene, new Set([o.id]));
-        const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans, s.search.stageAGrids, opt.onProgress && ((fraction) => opt.onProgress!(rerunFrom + fraction / reruns, progressSteps, rerunStage)));
+        const sr = solveModel(reduced, win, opt.chiSquareCutoff, opt.profileScans, s.search.stageAGrids, onProgress && ((fraction) => onProgress!(rerunFrom + fraction / reruns, progressSteps, rerunStage)));
         const b = sr.kept[0];
         const fits = fitsWell(reduced, b);
         const rows = model.measuredCount - reduced.measuredCount;
@@ -312,13 +322,13 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         ` The observations in conflict: ${conflictingIds.join(', ')}.` +
         (without.length ? ` ${capitalised(without.join('; '))}.` : '');
     } else if (status === 'undetermined') {
-      opt.onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.answer);
+      onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.answer);
       freedom = freedomOf(model);
       verdict = undeterminedVerdict(freedom, candidates, windowText, model, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
       notes.push('The evidence does not fix the day and the hour: the candidates are examples along a curve of equally good fits, and their families are not separate answers.');
       consistency = { ...consistency, rule: `${consistency.rule}; not run here: the evidence does not fix the day and the hour, so leaving an observation out tests nothing` };
     } else {
-      opt.onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.consistency);
+      onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.consistency);
       if (opt.consistency && model.measuredCount > 0) {
         const loo = localLeaveOneOut(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
         const entries: LeaveOneOutEntry[] = loo.map((l) => {
@@ -366,7 +376,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       }
     }
   }
-  opt.onProgress?.(progressSteps - 1, progressSteps, SOLVE_STAGE_WORDS.answer);
+  onProgress?.(progressSteps - 1, progressSteps, SOLVE_STAGE_WORDS.answer);
   const top = families[0];
   return {
     sceneTitle: scene.title,

@@ -168,9 +168,16 @@ describe('a 20,000 x 12,000 px scan on the desk', () => {
       const mx = (p: readonly [number, number]): [number, number] => [88 + 10 * (p[0] - at[0]), 88 + 10 * (p[1] - at[1])];
       await expect.poll(() => canvasPixel(page, 'magnifier', ...mx(centre)), { timeout: 30_000 }).toEqual(BLACK);
       expect(await canvasPixel(page, 'magnifier', ...mx([tx + 3.5, ty + 3.5]))).toEqual(ORANGE);
-      if (tx === TARGETS[TARGETS.length - 1][0]) await page.screenshot({ path: join(OUT_DIR, 'large-2-at-400.png') });
       await page.mouse.click(box.x + sx, box.y + sy);
     }
+
+    // for the docs: the last target at 400%, its corner placed, the magnifier beside the pointer
+    await page.evaluate(() => window.scrollTo(0, 0));
+    const box = (await page.locator('#viewer').boundingBox())!;
+    const view = await readView(page);
+    const last = TARGETS[TARGETS.length - 1];
+    await page.mouse.move(box.x + view.panX + view.zoom * (last[0] + 3.5), box.y + view.panY + view.zoom * (last[1] + 2.5));
+    await page.screenshot({ path: join(OUT_DIR, 'large-2-at-400.png') });
 
     const stored = JSON.parse((await page.evaluate(() => localStorage.getItem('heliochron-desk:large-scan.png')))!) as { draft: { groundPlane: { pointsPx: [number, number][] } } };
     const placed = stored.draft.groundPlane.pointsPx;
