@@ -81,7 +81,7 @@ export function pngStripLayout(bytes: Uint8Array): PngLayout | null {
 }
 
 /** The Paeth predictor (PNG 2nd ed., 9.4). */
-function paeth(a: number, b: number, c: number): number {
+export function paeth(a: number, b: number, c: number): number {
   const p = a + b - c;
   const pa = Math.abs(p - a);
   const pb = Math.abs(p - b);

@@ -1,6 +1,6 @@
 /// <reference lib="dom" />
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { spawnSync, type ChildProcess } from 'node:child_process';
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -10,6 +10,7 @@ import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
 import { BIN } from '../helpers/runCli.js';
 import { parse, stringify } from 'yaml';
 import { tiffFile } from './tiffFile.js';
+import { startDesk, watch } from './deskSession.js';
 
 // The measuring desk in a real browser (issue 10, "What it must show"): Debian's Chromium through
 // playwright-core, as tests/report/browser.test.ts does. The desk is started by the command line on
@@ -44,21 +45,6 @@ function cli(args: readonly string[], cwd = ROOT): string {
   return run.stdout;
 }
 
-/** Start `heliochron desk FILE` in a folder; resolves with the address it prints first. */
-async function startDesk(cwd: string, file: string): Promise<{ child: ChildProcess; url: string }> {
-  const child = spawn(process.execPath, [CLI, 'desk', file], { cwd, stdio: ['ignore', 'pipe', 'pipe'] });
-  const url = await new Promise<string>((resolve, reject) => {
-    let text = '';
-    child.stdout!.on('data', (d: Buffer) => {
-      text += d.toString('utf8');
-      if (text.includes('\n')) resolve(text.split('\n')[0]);
-    });
-    child.on('exit', (code) => reject(new Error(`heliochron desk exited with ${code}`)));
-  });
-  expect(url).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/[A-Za-z0-9_-]{22}\/$/);
-  return { child, url };
-}
-
 beforeAll(async () => {
   if (!existsSync(CHROMIUM)) {
     throw new Error(`Chromium was not found at ${CHROMIUM}: install the Debian package "chromium" (apt-get install chromium) to run the browser test of the desk`);
@@ -79,24 +65,6 @@ afterAll(async () => {
   desk?.kill('SIGINT');
   if (folder) rmSync(folder, { recursive: true, force: true });
 });
-
-/** Watch a page: console errors, page errors and every request that is not to the desk's own address. */
-function watch(page: Page, address = deskUrl): { errors: string[]; offMachine: string[] } {
-  const errors: string[] = [];
-  const offMachine: string[] = [];
-  const origin = new URL(address).origin;
-  page.on('console', (m) => {
-    if (m.type() === 'error') errors.push(m.text());
-  });
-  page.on('pageerror', (e) => errors.push(String(e)));
-  void page.context().route('**/*', (route) => {
-    const url = route.request().url();
-    if (url.startsWith(`${origin}/`) || url.startsWith('data:') || url.startsWith('blob:')) return route.continue();
-    offMachine.push(url);
-    return route.abort();
-  });
-  return { errors, offMachine };
-}
 
 /** Click a picture pixel: the picture is moved (middle-button drag) until the point is well inside the view. */
 async function clickPixel(page: Page, p: readonly [number, number]): Promise<void> {
@@ -151,7 +119,7 @@ describe('the measuring desk in Chromium', () => {
   it('measures the Tanners\' Hall picture by clicks, dates it as the command line does, saves a file the command line dates the same, and restores the work after a reload', async () => {
     const context = await browser!.newContext({ viewport: { width: 1500, height: 1000 } });
     const page = await context.newPage();
-    const watched = watch(page);
+    const watched = watch(page, deskUrl);
     await page.goto(deskUrl);
     await page.waitForSelector('body[data-ready="true"]');
     expect(await page.locator('[data-field="image.widthPx"]').inputValue()).toBe('1600');

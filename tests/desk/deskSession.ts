@@ -2,14 +2,27 @@
  * The desk as the browser tests start and watch it: `heliochron desk FILE` started by the command
  * line in a folder, and a page watched for console errors and requests off the machine.
  */
-import { spawn, type ChildProcess } from 'node:child_process';
+import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { existsSync, mkdirSync } from 'node:fs';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
+import { CHROMIUM } from '../helpers/chromium.js';
 import { expect } from 'vitest';
 
 export const ROOT = fileURLToPath(new URL('../../', import.meta.url));
 export const CLI = join(ROOT, 'dist', 'cli', 'main.js');
+/** Where the browser tests of the desk put their screenshots. */
+export const OUT_DIR = join(ROOT, 'test-output', 'desk');
+
+/** Before a browser test of the desk: Chromium and the command line are there, the page is built as `npm ci` builds it, the screenshot folder exists. */
+export function prepareDeskTest(): void {
+  if (!existsSync(CHROMIUM)) throw new Error(`Chromium was not found at ${CHROMIUM}: install the Debian package "chromium" (apt-get install chromium) to run the browser tests of the desk`);
+  if (!existsSync(CLI)) throw new Error('dist/cli/main.js is missing: run npx tsc -p tsconfig.json first');
+  const build = spawnSync(process.execPath, [join(ROOT, 'src', 'desk', 'build.mjs')], { cwd: ROOT, encoding: 'utf8' });
+  if (build.status !== 0) throw new Error(`building the desk page failed: ${build.stderr}`);
+  mkdirSync(OUT_DIR, { recursive: true });
+}
 
 /** Start `heliochron desk FILE` in a folder; resolves with the address it prints first. */
 export async function startDesk(cwd: string, file: string): Promise<{ child: ChildProcess; url: string }> {

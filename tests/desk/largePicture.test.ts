@@ -1,20 +1,19 @@
 /// <reference lib="dom" />
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync, type ChildProcess } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, rmSync } from 'node:fs';
+import type { ChildProcess } from 'node:child_process';
+import { mkdtempSync, rmSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser, Page } from 'playwright-core';
-import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
+import { launchChromium } from '../helpers/chromium.js';
 import { writeRgbPng } from './pngFile.js';
-import { CLI, ROOT, readView, startDesk, watch } from './deskSession.js';
+import { OUT_DIR, prepareDeskTest, readView, startDesk, watch } from './deskSession.js';
 
 // A museum-sized scan on the desk (issue 10, "Large pictures"): a 20,000 x 12,000 px PNG generated
 // here (a chequer of 1000 px squares, a disc, four small targets whose single black centre pixel is
 // known), opened by `heliochron desk`, shown whole, zoomed with the wheel at each target to 400%,
 // its own pixels checked on the screen and in the magnifier, and a ground figure clicked on the four
 // centre pixels. The pixel mapping is the view's (screen = pan + zoom * picture, docs/conventions.md).
-const OUT_DIR = join(ROOT, 'test-output', 'desk');
 const WIDTH = 20_000;
 const HEIGHT = 12_000;
 const PAPER = [230, 220, 200];
@@ -70,11 +69,7 @@ let deskUrl = '';
 let fileBytes = 0;
 
 beforeAll(async () => {
-  if (!existsSync(CHROMIUM)) throw new Error(`Chromium was not found at ${CHROMIUM}: install the Debian package "chromium" to run the browser tests of the desk`);
-  if (!existsSync(CLI)) throw new Error('dist/cli/main.js is missing: run npx tsc -p tsconfig.json first');
-  const build = spawnSync(process.execPath, [join(ROOT, 'src', 'desk', 'build.mjs')], { cwd: ROOT, encoding: 'utf8' });
-  if (build.status !== 0) throw new Error(`building the desk page failed: ${build.stderr}`);
-  mkdirSync(OUT_DIR, { recursive: true });
+  prepareDeskTest();
   folder = mkdtempSync(join(tmpdir(), 'heliochron-desk-large-'));
   fileBytes = await writeRgbPng(join(folder, 'large-scan.png'), WIDTH, HEIGHT, rowOf);
   ({ child: desk, url: deskUrl } = await startDesk(folder, 'large-scan.png'));
@@ -124,9 +119,10 @@ describe('a 20,000 x 12,000 px scan on the desk', () => {
     await page.screenshot({ path: join(OUT_DIR, 'large-1-whole.png') });
 
     await page.keyboard.press('g');
-    await page.locator('#tool-fields [data-tool-field="widthM"]').fill('14');
-    await page.locator('#tool-fields [data-tool-field="heightM"]').fill('7');
-    await page.locator('#tool-fields [data-tool-field="heightM"]').dispatchEvent('change');
+    for (const [field, value] of [['widthM', '14'], ['heightM', '7'], ['firstEdgeAzimuthDeg', '90']]) {
+      await page.locator(`#tool-fields [data-tool-field="${field}"]`).fill(value);
+      await page.locator(`#tool-fields [data-tool-field="${field}"]`).dispatchEvent('change');
+    }
     for (const [tx, ty] of TARGETS) {
       await page.locator('#viewer').focus();
       await page.keyboard.press('0');

@@ -7,6 +7,7 @@
  */
 import { createDeflate } from 'node:zlib';
 import { writeFileSync } from 'node:fs';
+import { paeth } from '../../src/desk/pngStrips.js';
 
 const CRC_TABLE = Array.from({ length: 256 }, (_, n) => {
   let c = n;
@@ -27,14 +28,6 @@ function chunk(type: string, data: Uint8Array): Buffer {
   Buffer.from(data.buffer, data.byteOffset, data.length).copy(out, 8);
   out.writeUInt32BE(crc32(out.subarray(4, 8 + data.length)), 8 + data.length);
   return out;
-}
-
-function paeth(a: number, b: number, c: number): number {
-  const p = a + b - c;
-  const pa = Math.abs(p - a);
-  const pb = Math.abs(p - b);
-  const pc = Math.abs(p - c);
-  return pa <= pb && pa <= pc ? a : pb <= pc ? b : c;
 }
 
 /** Filter one RGB row (3 bytes a pixel) with filter `type` against the previous raw row into `out` (filter byte first). */

@@ -1,13 +1,13 @@
 /// <reference lib="dom" />
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawnSync, type ChildProcess } from 'node:child_process';
-import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
+import type { ChildProcess } from 'node:child_process';
+import { copyFileSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import type { Browser } from 'playwright-core';
 import { parse, stringify } from 'yaml';
-import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
-import { CLI, ROOT, startDesk, watch } from './deskSession.js';
+import { launchChromium } from '../helpers/chromium.js';
+import { OUT_DIR, ROOT, prepareDeskTest, startDesk, watch } from './deskSession.js';
 
 // "Date it" shows the solver's own progress (issue 10: "shows progress, can cancel"): the Tanners'
 // Hall example with its window widened to 1000-1900 and a fifth shadow that contradicts the lamp
@@ -15,7 +15,6 @@ import { CLI, ROOT, startDesk, watch } from './deskSession.js';
 // each observation: long enough to watch. The page's progress bar and words are recorded as they
 // change; Cancel must stop the solve (no answer arrives afterwards), and a new "Date it" must then
 // run to its answer.
-const OUT_DIR = join(ROOT, 'test-output', 'desk');
 const EXAMPLE_DIR = join(ROOT, 'examples', 'tanners-hall-photo');
 
 let browser: Browser | undefined;
@@ -24,11 +23,7 @@ let folder = '';
 let deskUrl = '';
 
 beforeAll(async () => {
-  if (!existsSync(CHROMIUM)) throw new Error(`Chromium was not found at ${CHROMIUM}: install the Debian package "chromium" to run the browser tests of the desk`);
-  if (!existsSync(CLI)) throw new Error('dist/cli/main.js is missing: run npx tsc -p tsconfig.json first');
-  const build = spawnSync(process.execPath, [join(ROOT, 'src', 'desk', 'build.mjs')], { cwd: ROOT, encoding: 'utf8' });
-  if (build.status !== 0) throw new Error(`building the desk page failed: ${build.stderr}`);
-  mkdirSync(OUT_DIR, { recursive: true });
+  prepareDeskTest();
   folder = mkdtempSync(join(tmpdir(), 'heliochron-desk-progress-'));
   copyFileSync(join(EXAMPLE_DIR, 'tanners-hall-photo.png'), join(folder, 'tanners-hall-photo.png'));
   const scene = parse(readFileSync(join(EXAMPLE_DIR, 'tanners-hall-photo.yaml'), 'utf8'));
@@ -72,7 +67,7 @@ describe('progress of "Date it"', () => {
 
     await page.locator('#date-it').click();
     // the reruns without each observation: the solver's own stage, with a fraction
-    await expect.poll(async () => (await log()).some((s) => s.text.startsWith('searching again without')), { timeout: 120_000, intervals: [50] }).toBe(true);
+    await expect.poll(async () => (await log()).some((s) => s.text.startsWith('searching again without')), { timeout: 120_000, interval: 50 }).toBe(true);
     await page.locator('#answer-area').screenshot({ path: join(OUT_DIR, 'progress-1-running.png') });
     await page.locator('#cancel').click();
     await expect(page.locator('#progress').textContent()).resolves.toBe('Cancelled.');
