@@ -9,8 +9,9 @@
  *
  * The pictures (a chequer of 1000 px squares with a disc, 5:3) are encoded by Chromium itself in a
  * first browser, which is then closed; each is opened by `heliochron desk` in a fresh headless
- * Chromium (Debian's), whose processes' resident memory (Linux /proc, summed over the browser's
- * process tree) is sampled every 100 ms until the page is ready.
+ * Chromium (Debian's), whose processes' resident memory (Linux /proc, summed over the Chromium
+ * processes this script started) is sampled every 100 ms until the page is ready. Resident
+ * memory counts shared pages once per process: an upper bound.
  */
 import { spawn } from 'node:child_process';
 import { mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -48,27 +49,29 @@ async function encode(page, w, h, type) {
   return Buffer.from(base64, 'base64');
 }
 
-/** Resident memory of a process and all its descendants, bytes (Linux). */
-function treeRss(rootPid) {
+/** Resident memory of the Chromium processes started by this script (descendants of it named chrom...), bytes (Linux /proc). */
+function chromiumRss() {
   const children = new Map();
   const rss = new Map();
+  const names = new Map();
   for (const name of readdirSync('/proc')) {
     if (!/^\d+$/.test(name)) continue;
     try {
       const stat = readFileSync(`/proc/${name}/stat`, 'utf8');
       const fields = stat.slice(stat.lastIndexOf(')') + 2).split(' ');
-      const ppid = Number(fields[1]);
-      rss.set(Number(name), Number(fields[21]) * 4096);
-      children.set(ppid, [...(children.get(ppid) ?? []), Number(name)]);
+      const pid = Number(name);
+      rss.set(pid, Number(fields[21]) * 4096);
+      names.set(pid, stat.slice(stat.indexOf('(') + 1, stat.lastIndexOf(')')));
+      children.set(Number(fields[1]), [...(children.get(Number(fields[1])) ?? []), pid]);
     } catch {
       // the process ended meanwhile
     }
   }
   let total = 0;
-  const stack = [rootPid];
+  const stack = [process.pid];
   while (stack.length) {
     const pid = stack.pop();
-    total += rss.get(pid) ?? 0;
+    if (pid !== process.pid && names.get(pid)?.startsWith('chrom')) total += rss.get(pid) ?? 0;
     stack.push(...(children.get(pid) ?? []));
   }
   return total;
@@ -106,9 +109,8 @@ try {
   for (const f of files) {
     const desk = await startDesk(f.name);
     const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', headless: true, args: ARGS });
-    const pid = browser.process()?.pid;
     let most = 0;
-    const sampler = setInterval(() => { if (pid) most = Math.max(most, treeRss(pid)); }, 100);
+    const sampler = setInterval(() => { most = Math.max(most, chromiumRss()); }, 100);
     const page = await browser.newPage({ viewport: { width: 1500, height: 1000 } });
     const errors = [];
     page.on('console', (m) => { if (m.type() === 'error') errors.push(m.text()); });

@@ -590,6 +590,7 @@ async function loadPicture(name: string): Promise<void> {
     const bytes = await readFolderFile(name);
     pictureBytes = bytes;
     pictureName = name;
+    picture?.dispose();
     picture = await loadTiledPicture(bytes, name, (done, total) => { $('instruction').textContent = `Preparing ${name} for zooming: ${Math.floor((100 * done) / total)}%`; });
     picture.onTileReady = drawSoon;
   } catch (error) {

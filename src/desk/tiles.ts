@@ -69,6 +69,18 @@ export class TiledPicture {
     return Math.min(this.levels.length - 1, Math.max(0, level));
   }
 
+  /** Let go of every decoded tile and stop asking for more (the picture is replaced by another). */
+  dispose(): void {
+    this.onTileReady = null;
+    for (const l of this.levels) {
+      for (const t of l.tiles) {
+        t.bitmap?.close();
+        t.bitmap = null;
+        t.png = null;
+      }
+    }
+  }
+
   /** Start drawing a new frame: tiles drawn in it are not dropped from the cache while it lasts. */
   beginFrame(): void {
     this.clock += 1;
