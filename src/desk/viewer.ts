@@ -1,8 +1,9 @@
 /**
  * The picture on the desk: drawn on a canvas at any zoom from its pyramid of tiles (tiles.ts:
- * only the visible tiles of the level that matches the zoom, over the finest level held in full), with the library's overlay (the
- * straightened grids, the measured and predicted shadows: measureOverlaySvg, in picture pixels)
- * laid over it by one CSS transform, and the clicked points drawn at a constant screen size.
+ * only the visible tiles of the level that matches the zoom, over the finest level held in
+ * full), with the library's overlay (the straightened grids, the measured and predicted
+ * shadows: measureOverlaySvg, in picture pixels) laid over it by one CSS transform, and the
+ * clicked points drawn at a constant screen size.
  * Points live in picture pixels (x right, y down, origin at the top-left corner of the
  * top-left pixel, docs/conventions.md); only this module converts to and from the screen:
  *   screen = pan + zoom * picture.

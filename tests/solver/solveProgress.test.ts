@@ -31,7 +31,7 @@ describe('the progress of solveDates', () => {
     });
     const inSearch = calls.filter((c) => c.done < 1);
     expect(new Set(inSearch.map((c) => c.done)).size).toBeGreaterThan(10); // stage A's grid has more than ten declination rows
-    const stages = [...new Set(calls.map((c) => c.stage?.replace(/ \(clock reading \d+ of \d+\)$/, '')))];
+    const stages = [...new Set(calls.map((c) => c.stage?.replace(/ \(clock assumption \d+ of \d+\)$/, '')))];
     expect(stages[0]).toBe(SEARCH_STAGE_WORDS.grid);
     expect(stages).toContain(SEARCH_STAGE_WORDS.dating);
     expect(stages[stages.length - 1]).toBe(SOLVE_STAGE_WORDS.answer);
