@@ -12,7 +12,7 @@ import { existsSync } from 'node:fs';
 import { dirname, relative, resolve } from 'node:path';
 import { InvalidInputError } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
-import type { Scene } from '../scene/types.js';
+import type { Observation, Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservations.js';
 import { rectifySceneGround } from '../image/measureScene.js';
@@ -45,6 +45,8 @@ const KIND_WORDS: Record<string, string> = {
   'overhang-shadow': 'overhang shadow',
   'fin-shadow': 'fin shadow',
   'pole-shadow': 'pole shadow',
+  'eave-shadow': "eave's shadow line",
+  'shadow-points': 'caster and shadow point',
 };
 
 const VALUE_WORDS: Record<string, { label: string; unit: string; digits: number }> = {
@@ -53,6 +55,9 @@ const VALUE_WORDS: Record<string, { label: string; unit: string; digits: number 
   widthRatio: { label: 'width ratio (shadow width / fin depth)', unit: '', digits: 4 },
   shadowAzimuthDeg: { label: 'shadow azimuth (foot to tip, from true north)', unit: 'deg', digits: 2 },
   lengthRatio: { label: 'length ratio (shadow length / height)', unit: '', digits: 4 },
+  distanceRatio: { label: "distance ratio (shadow line's distance from the wall foot / eave height)", unit: '', digits: 4 },
+  sunAzimuthDeg: { label: 'sun azimuth the pair gives (shadow point to caster, from true north)', unit: 'deg', digits: 2 },
+  sunAltitudeDeg: { label: 'sun altitude the pair gives (shadow point to caster)', unit: 'deg', digits: 2 },
 };
 
 interface PlaneRecord {
@@ -94,7 +99,8 @@ function planeRecord(scene: Scene, field: string, plane: RectifiedPlane): PlaneR
   };
 }
 
-function observationRecord(scene: Scene, m: ResolvedMeasurement) {
+/** @param written the observation's numeric form as the dating reads it (resolvePixelObservations) */
+function observationRecord(scene: Scene, m: ResolvedMeasurement, written: Observation) {
   const meas = m.measurement;
   const quantities = measuredQuantities(meas);
   const obs = scene.observations[observationIndex(m.field)];
@@ -114,13 +120,16 @@ function observationRecord(scene: Scene, m: ResolvedMeasurement) {
       sigma: roundTo(used.sigma, 6),
       sigmaSource: used.sigmaSource,
       firstOrderSigma: roundTo(q.sigma, 6),
-      sigmaParts: { clickedFigure: roundTo(q.sigmaFromPlane, 6), shadowPoints: roundTo(q.sigmaFromPoints, 6), statedLength: roundTo(q.sigmaFromLength, 6) },
+      sigmaParts: {
+        clickedFigure: roundTo(q.sigmaFromPlane, 6), shadowPoints: roundTo(q.sigmaFromPoints, 6), statedLength: roundTo(q.sigmaFromLength, 6),
+        ...(q.sigmaFromAzimuth > 0 ? { wallAzimuth: roundTo(q.sigmaFromAzimuth, 6) } : {}),
+      },
       firstOrderReliable: q.firstOrderReliable,
       nonlinearity: roundTo(q.nonlinearity, 4),
       ...(used.monteCarloSigma !== undefined ? { monteCarloSigma: roundTo(used.monteCarloSigma, 6) } : {}),
     };
   });
-  const wallId = 'wallId' in obs ? obs.wallId : undefined;
+  const wallId = 'wallId' in obs ? obs.wallId : obs.kind === 'shadow-points' ? obs.pixels?.wallId : undefined;
   return {
     field: m.field,
     id: meas.id,
@@ -129,6 +138,10 @@ function observationRecord(scene: Scene, m: ResolvedMeasurement) {
     plane: meas.rectification.field,
     ...(meas.rectification.definition === 'camera' ? { planeFromCamera: true } : {}),
     ...(meas.kind === 'rod-shadow' || meas.kind === 'fin-shadow' ? { side: meas.side } : {}),
+    ...(meas.kind === 'eave-shadow' ? { projectionRatio: roundTo(meas.projectionRatio, 6) } : {}),
+    ...(written.kind === 'shadow-points'
+      ? { caster: written.caster!.map((v) => roundTo(v, 6)), shadow: written.shadow!.map((v) => roundTo(v, 6)), sigmaM: roundTo(written.sigmaM!, 6) }
+      : {}),
     values,
     ...(m.monteCarlo ? { monteCarlo: m.monteCarlo } : {}),
     obtained: meas.note,
@@ -204,13 +217,14 @@ function renderText(
       : '  none: no observation of this scene is given in pixels');
   }
   for (const o of observations) {
-    out.push(`  ${o.field} ${JSON.stringify(o.id)}: ${KIND_WORDS[o.kind]}${o.wallId ? ` on wall ${o.wallId}` : ' on the ground'}`);
+    out.push(`  ${o.field} ${JSON.stringify(o.id)}: ${KIND_WORDS[o.kind]}${o.kind === 'eave-shadow' ? ` of wall ${o.wallId}, on the ground` : o.wallId ? ` on wall ${o.wallId}` : ' on the ground'}`);
     for (const v of o.values) {
       const w = VALUE_WORDS[v.name];
       const side = v.name === 'slopeDeg' || v.name === 'widthRatio' ? (o.side ? `, to the ${o.side}` : '') : '';
       out.push(`    ${v.name} = ${fmtValue(v.name, v.value)}${side}, sigma ${fmtValue(v.name, v.sigma)}${v.sigmaSource === 'monte-carlo' ? ' (Monte Carlo spread)' : ''}   [${w.label}]`);
       const unit = w.unit ? ` ${w.unit}` : '';
-      const length = v.sigmaParts.statedLength > 0 ? `, stated length ${v.sigmaParts.statedLength.toFixed(w.digits)}${unit}` : '';
+      const length = (v.sigmaParts.statedLength > 0 ? `, stated length ${v.sigmaParts.statedLength.toFixed(w.digits)}${unit}` : '') +
+        (v.sigmaParts.wallAzimuth !== undefined ? `, wall azimuth ${v.sigmaParts.wallAzimuth.toFixed(w.digits)}${unit}` : '');
       out.push(
         `      sigma parts (first order): ${o.planeFromCamera ? 'camera lines' : 'clicked figure'} ${v.sigmaParts.clickedFigure.toFixed(w.digits)}${unit}, ` +
           `shadow points ${v.sigmaParts.shadowPoints.toFixed(w.digits)}${unit}${length}; ` +
@@ -218,7 +232,11 @@ function renderText(
       );
     }
     const clicked = /clicked on [^;]*\)/.exec(o.obtained);
-    out.push(`    how: ${clicked ? `${clicked[0]}; sigma by first-order propagation of the clicking precision${o.values.some((v) => v.sigmaParts.statedLength > 0) ? ' and of the stated length' : ''}${o.monteCarlo ? `, checked by a Monte Carlo run of ${o.monteCarlo.samples} samples (seed ${o.monteCarlo.seed})` : ''}` : o.obtained}`);
+    out.push(`    how: ${clicked ? `${clicked[0]}; sigma by first-order propagation of the clicking precision${o.values.some((v) => v.sigmaParts.statedLength > 0) ? ' and of the stated length' : ''}${o.values.some((v) => v.sigmaParts.wallAzimuth !== undefined) ? " and of the wall's stated azimuth" : ''}${o.monteCarlo ? `, checked by a Monte Carlo run of ${o.monteCarlo.samples} samples (seed ${o.monteCarlo.seed})` : ''}` : o.obtained}`);
+    if (o.projectionRatio !== undefined) out.push(`    written as distanceRatio with projectionRatio ${o.projectionRatio.toFixed(4)} (eave projection / height, held as stated; its sigma is in the distance ratio's)`);
+    if (o.caster !== undefined && o.shadow !== undefined) {
+      out.push(`    written as caster [${o.caster.join(', ')}] and shadow [${o.shadow.join(', ')}]${o.planeFromCamera ? " (site axes, in units of the camera's distance to the plane)" : ' m (site axes east, north, up)'}, sigmaM ${o.sigmaM}`);
+    }
     for (const w of o.warnings) out.push(`    WARNING: ${w}`);
   }
   if (best) {
@@ -328,7 +346,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
   }
 
   const planeRecords = [...planes].map(([field, plane]) => planeRecord(scene, field, plane));
-  const observationRecords = resolved.measurements.map((m) => observationRecord(scene, m));
+  const observationRecords = resolved.measurements.map((m) => observationRecord(scene, m, resolved.scene.observations[observationIndex(m.field)]));
 
   let svg: string | undefined;
   if (options.overlay !== undefined) {
