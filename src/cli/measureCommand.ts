@@ -18,6 +18,8 @@ import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservat
 import { rectifySceneGround } from '../image/measureScene.js';
 import { measuredQuantities, resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
 import { describeSceneSun, sceneSunRecord } from '../image/sceneSun.js';
+import { MEASURED_VALUE_WORDS, PIXEL_KIND_WORDS } from '../image/measuredValueWords.js';
+import { annotationsText, sceneAnnotations } from '../report/annotations.js';
 import { formatCalendarDate } from '../calendar/format.js';
 import { hhmm, roundTo } from '../report/formatTimes.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
@@ -40,25 +42,8 @@ function allPlanes(scene: Scene, used: ReadonlyMap<string, RectifiedPlane>): Map
   return planes;
 }
 
-const KIND_WORDS: Record<string, string> = {
-  'rod-shadow': 'rod shadow',
-  'overhang-shadow': 'overhang shadow',
-  'fin-shadow': 'fin shadow',
-  'pole-shadow': 'pole shadow',
-  'eave-shadow': "eave's shadow line",
-  'shadow-points': 'caster and shadow point',
-};
-
-const VALUE_WORDS: Record<string, { label: string; unit: string; digits: number }> = {
-  slopeDeg: { label: 'slope below horizontal', unit: 'deg', digits: 2 },
-  depthRatio: { label: 'depth ratio (shadow depth / projection)', unit: '', digits: 4 },
-  widthRatio: { label: 'width ratio (shadow width / fin depth)', unit: '', digits: 4 },
-  shadowAzimuthDeg: { label: 'shadow azimuth (foot to tip, from true north)', unit: 'deg', digits: 2 },
-  lengthRatio: { label: 'length ratio (shadow length / height)', unit: '', digits: 4 },
-  distanceRatio: { label: "distance ratio (shadow line's distance from the wall foot / eave height)", unit: '', digits: 4 },
-  sunAzimuthDeg: { label: 'sun azimuth the pair gives (shadow point to caster, from true north)', unit: 'deg', digits: 2 },
-  sunAltitudeDeg: { label: 'sun altitude the pair gives (shadow point to caster)', unit: 'deg', digits: 2 },
-};
+const KIND_WORDS = PIXEL_KIND_WORDS;
+const VALUE_WORDS = MEASURED_VALUE_WORDS;
 
 interface PlaneRecord {
   readonly field: string;
@@ -300,11 +285,20 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
   if (options.overlay !== undefined && !/\.svg$/i.test(options.overlay)) {
     throw new InvalidInputError('--overlay', options.overlay, 'a file name ending .svg (the overlay is an SVG drawing)');
   }
+  if (options.annotations !== undefined && !/\.(jsonld|json)$/i.test(options.annotations)) {
+    throw new InvalidInputError('--annotations', options.annotations, 'a file name ending .jsonld or .json (the annotations are a JSON-LD document)');
+  }
   if (options.image !== undefined && options.overlay === undefined) {
     throw new InvalidInputError('--image', options.image, 'a picture only together with --overlay <file.svg>, which it is embedded in');
   }
   const { scene } = readSceneForCommand(scenePath, io, options.seed);
   const overlayTarget = checkOverlayPath(options, fullPath, io);
+  const annotationsTarget = options.annotations === undefined
+    ? undefined
+    : checkOutputTarget(options.annotations, { force: options.force, inputs: [fullPath], cwd: io.cwd }).path;
+  if (annotationsTarget !== undefined && scene.image?.file === undefined) {
+    throw new InvalidInputError('image.file', undefined, 'the picture the points were clicked on, in the scene file, for --annotations (the annotations point into it)');
+  }
   const resolved = inScene(scenePath, () => resolvePixelObservations(scene));
   const planes = inScene(scenePath, () => allPlanes(scene, resolved.planes));
   const notes: string[] = [];
@@ -361,6 +355,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
     });
   }
 
+  const annotations = annotationsTarget ? sceneAnnotations(scene, scene.image!.file!) : undefined;
   const text = options.json
     ? `${JSON.stringify({
         scene: scene.title,
@@ -370,14 +365,19 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
         camera: resolved.sceneSun ? sceneSunRecord(resolved.sceneSun) : null,
         best,
         overlay: overlayTarget ? { file: options.overlay, picture: picturePath ? (options.image ?? scene.image?.file ?? null) : null } : null,
+        annotations: annotationsTarget ? { file: options.annotations, items: annotations!.total } : null,
         notes,
       }, null, 2)}\n`
     : renderText(scene, planeRecords, observationRecords, best, notes) +
       (resolved.sceneSun ? `\n${describeSceneSun(resolved.sceneSun).map(escapeControls).join('\n')}\n` : '') +
+      (annotationsTarget ? `Annotations (W3C Web Annotation, JSON-LD) of ${annotations!.total} clicked items written to ${escapeControls(options.annotations!)}.\n` : '') +
       (overlayTarget ? `Overlay written to ${escapeControls(options.overlay!)}${picture && picturePath ? ` (with the picture ${escapeControls(shownPath(picturePath, io.cwd))} embedded)` : ''}.\n` : '');
 
   if (svg !== undefined && overlayTarget !== undefined) {
     writeOutputFile(options.overlay!, svg, { force: options.force, inputs: [fullPath, ...(picturePath ? [picturePath] : [])], cwd: io.cwd });
+  }
+  if (annotations !== undefined) {
+    writeOutputFile(options.annotations!, annotationsText(scene, scene.image!.file!), { force: options.force, inputs: [fullPath], cwd: io.cwd });
   }
   io.out(text);
 }
