@@ -1,15 +1,14 @@
 /// <reference lib="dom" />
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
+import { spawnSync, type ChildProcess } from 'node:child_process';
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
-import { BIN } from '../helpers/runCli.js';
 import { parse, stringify } from 'yaml';
 import { tiffFile } from './tiffFile.js';
+import { CLI, OUT_DIR, ROOT, clickPixel, cli, fillField, pickTool, startDesk, toolField, watch as watchPage } from './deskPage.js';
 
 // The measuring desk in a real browser (issue 10, "What it must show"): Debian's Chromium through
 // playwright-core, as tests/report/browser.test.ts does. The desk is started by the command line on
@@ -18,9 +17,6 @@ import { tiffFile } from './tiffFile.js';
 // the screen-to-picture mapping is exercised), the other fields through the forms. The values the
 // page shows are compared with what `heliochron measure` prints for the example file, its first
 // candidate with `heliochron date`'s, and the file it saves is dated again by the command line.
-const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const CLI = BIN;
-const OUT_DIR = join(ROOT, 'test-output', 'desk');
 const EXAMPLE_DIR = join(ROOT, 'examples', 'tanners-hall-photo');
 const EXAMPLE = join(EXAMPLE_DIR, 'tanners-hall-photo.yaml');
 const PICTURE = 'tanners-hall-photo.png';
@@ -37,27 +33,6 @@ let desk: ChildProcess | undefined;
 let deskUrl = '';
 let folder = '';
 const example = parse(readFileSync(EXAMPLE, 'utf8')) as Example;
-
-function cli(args: readonly string[], cwd = ROOT): string {
-  const run = spawnSync(process.execPath, [CLI, ...args], { cwd, encoding: 'utf8' });
-  if (run.status !== 0) throw new Error(`heliochron ${args.join(' ')} exited with ${run.status}: ${run.stderr}`);
-  return run.stdout;
-}
-
-/** Start `heliochron desk FILE` in a folder; resolves with the address it prints first. */
-async function startDesk(cwd: string, file: string): Promise<{ child: ChildProcess; url: string }> {
-  const child = spawn(process.execPath, [CLI, 'desk', file], { cwd, stdio: ['ignore', 'pipe', 'pipe'] });
-  const url = await new Promise<string>((resolve, reject) => {
-    let text = '';
-    child.stdout!.on('data', (d: Buffer) => {
-      text += d.toString('utf8');
-      if (text.includes('\n')) resolve(text.split('\n')[0]);
-    });
-    child.on('exit', (code) => reject(new Error(`heliochron desk exited with ${code}`)));
-  });
-  expect(url).toMatch(/^http:\/\/127\.0\.0\.1:\d+\/[A-Za-z0-9_-]{22}\/$/);
-  return { child, url };
-}
 
 beforeAll(async () => {
   if (!existsSync(CHROMIUM)) {
@@ -80,71 +55,9 @@ afterAll(async () => {
   if (folder) rmSync(folder, { recursive: true, force: true });
 });
 
-/** Watch a page: console errors, page errors and every request that is not to the desk's own address. */
-function watch(page: Page, address = deskUrl): { errors: string[]; offMachine: string[] } {
-  const errors: string[] = [];
-  const offMachine: string[] = [];
-  const origin = new URL(address).origin;
-  page.on('console', (m) => {
-    if (m.type() === 'error') errors.push(m.text());
-  });
-  page.on('pageerror', (e) => errors.push(String(e)));
-  void page.context().route('**/*', (route) => {
-    const url = route.request().url();
-    if (url.startsWith(`${origin}/`) || url.startsWith('data:') || url.startsWith('blob:')) return route.continue();
-    offMachine.push(url);
-    return route.abort();
-  });
-  return { errors, offMachine };
-}
-
-/** Click a picture pixel: the picture is moved (middle-button drag) until the point is well inside the view. */
-async function clickPixel(page: Page, p: readonly [number, number]): Promise<void> {
-  const viewer = page.locator('#viewer');
-  const box = (await viewer.boundingBox())!;
-  const read = async () => ({
-    zoom: Number(await viewer.getAttribute('data-zoom')),
-    panX: Number(await viewer.getAttribute('data-pan-x')),
-    panY: Number(await viewer.getAttribute('data-pan-y')),
-  });
-  let view = await read();
-  let sx = view.panX + view.zoom * p[0];
-  let sy = view.panY + view.zoom * p[1];
-  if (sx < 220 || sy < 40 || sx > box.width - 40 || sy > box.height - 40) {
-    const cx = Math.round(box.width / 2);
-    const cy = Math.round(box.height / 2);
-    const dx = Math.round(cx - sx);
-    const dy = Math.round(cy - sy);
-    await page.mouse.move(box.x + cx, box.y + cy);
-    await page.mouse.down({ button: 'middle' });
-    await page.mouse.move(box.x + cx + dx / 2, box.y + cy + dy / 2);
-    await page.mouse.move(box.x + cx + dx, box.y + cy + dy);
-    await page.mouse.up({ button: 'middle' });
-    view = await read();
-    sx = view.panX + view.zoom * p[0];
-    sy = view.panY + view.zoom * p[1];
-  }
-  const now = (await viewer.boundingBox())!; // the box itself, read again just before the click
-  await page.mouse.click(now.x + sx, now.y + sy);
-}
-
-async function fillField(page: Page, field: string, value: string): Promise<void> {
-  const input = page.locator(`[data-field="${field}"]`);
-  await input.fill(value);
-  await input.press('Tab');
-}
-
-async function toolField(page: Page, name: string, value: string, select = false): Promise<void> {
-  const input = page.locator(`#tool-fields [data-tool-field="${name}"]`);
-  if (select) await input.selectOption(value);
-  else {
-    await input.fill(value);
-    await input.dispatchEvent('change');
-  }
-}
-
-async function pickTool(page: Page, id: string): Promise<void> {
-  await page.locator(`#tool-buttons [data-tool="${id}"]`).click();
+/** Watch a page (deskPage.ts), by default at the address of the desk started above. */
+function watch(page: Page, address = deskUrl): ReturnType<typeof watchPage> {
+  return watchPage(page, address);
 }
 
 describe('the measuring desk in Chromium', () => {

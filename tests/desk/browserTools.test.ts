@@ -130,7 +130,9 @@ describe('the eave line and caster tools of the desk in Chromium', () => {
     await page.locator('#save').click();
     await page.waitForFunction(() => document.getElementById('unsaved')!.textContent === '');
     await page.locator('#export-annotations').click();
-    await page.waitForFunction(() => (document.getElementById('notice')!.textContent ?? '').startsWith('Written'));
+    await page.waitForFunction(() => (document.getElementById('notice')!.textContent ?? '').startsWith('Written')).catch(async (e: unknown) => {
+      throw new Error(`${String(e)}; the notice: ${await page.locator('#notice').textContent()}; unsaved: ${await page.locator('#unsaved').textContent()}`);
+    });
     cli(['measure', 'desk-tools.yaml', '--annotations', 'cli-annotations.jsonld'], folder);
     const fromPage = readFileSync(join(folder, 'desk-tools-annotations.jsonld'));
     expect(fromPage.equals(readFileSync(join(folder, 'cli-annotations.jsonld')))).toBe(true);

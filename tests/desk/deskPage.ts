@@ -9,9 +9,11 @@ import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
 import { expect } from 'vitest';
+import { BIN } from '../helpers/runCli.js';
 
 export const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-export const CLI = join(ROOT, 'dist', 'cli', 'main.js');
+/** The command line as the package's `bin` names it (the bundle the tests' global set-up builds). */
+export const CLI = BIN;
 export const OUT_DIR = join(ROOT, 'test-output', 'desk');
 
 /** Run the command line in a folder; its standard output, or an error with its standard error. */
