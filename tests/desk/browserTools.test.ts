@@ -25,7 +25,8 @@ const EAVE = {
   id: 'arcade-eave', kind: 'eave-shadow', wall: 'tanners-hall-west',
   pixels: { fromPx: [500, 870], alongPx: [1000, 872], toPx: [700, 930], heightM: 5, heightSigmaM: 0.05, projectionM: 1.5, projectionSigmaM: 0.05 },
 };
-const BOLLARD = { id: 'bollard', kind: 'shadow-points', pixels: { fromPx: [300, 950], toPx: [200.5, 930], heightM: 0.9, heightSigmaM: 0.02 } };
+// the top of the square's lamp post (3.20 m, the example's pole) and the tip of its shadow: the same clicks as the example's pole
+const BOLLARD = { id: 'lamp-post-top', kind: 'shadow-points', pixels: { fromPx: [1231, 954], toPx: [905, 867], heightM: 3.2, heightSigmaM: 0.05 } };
 const SIGN = { id: 'sign-tip', kind: 'shadow-points', pixels: { wall: 'tanners-hall-west', fromPx: [640, 500], toPx: [610, 540], heightM: 0.5, heightSigmaM: 0.02 } };
 
 let browser: Browser | undefined;
@@ -96,6 +97,7 @@ describe('the eave line and caster tools of the desk in Chromium', () => {
     await toolField(page, 'on', 'wall', true);
     await toolField(page, 'wall', SIGN.pixels.wall, true);
     await toolField(page, 'heightM', String(SIGN.pixels.heightM));
+    await toolField(page, 'heightSigmaM', String(SIGN.pixels.heightSigmaM));
     expect(await page.locator('#instruction').textContent()).toContain('the point of the wall straight behind');
     await clickPixel(page, SIGN.pixels.fromPx as [number, number]);
     await clickPixel(page, SIGN.pixels.toPx as [number, number]);
@@ -124,6 +126,13 @@ describe('the eave line and caster tools of the desk in Chromium', () => {
       }
     }
     expect(await page.locator('.message').count()).toBe(0);
+    // the lamp post's top and its shadow give the sun that the example's pole shadow gives (same clicks, same height):
+    // azimuth = shadow azimuth + 180, altitude = atan(1 / length ratio) (common practice, src/geometry/groundShadows.ts)
+    const example = JSON.parse(cli(['measure', join(EXAMPLE_DIR, 'tanners-hall-photo.yaml'), '--json'])) as typeof measured;
+    const pole = example.observations.find((o) => o.id === 'lamp-post')!.values;
+    const pair = measured.observations.find((o) => o.id === BOLLARD.id)!.values;
+    expect(Math.abs(pair[0].value - ((pole[0].value + 180) % 360))).toBeLessThan(1e-3);
+    expect(Math.abs(pair[1].value - (Math.atan2(1, pole[1].value) * 180) / Math.PI)).toBeLessThan(1e-3);
 
     // save, write the annotations from the page, and compare with the command line's for the saved file
     await page.locator('#save-name').fill('desk-tools.yaml');
