@@ -11,6 +11,8 @@
  *   depth in metres (tan |HSA|), side from the sign.
  * - pole-shadow: foot -> tip on the ground (east, north); azimuth
  *   atan2(dE, dN) clockwise from north; length over heightM.
+ * - eave-shadow and shadow-points: measured in pointPixels.ts, on the same
+ *   parameter vectors (pixelSetup.ts).
  * A ratio of a length in the plane to a depth out of it (overhang, fin, pole
  * length) needs the plane in metres: an aspect-only rectangle fixes the plane
  * only up to scale, and those ratios are refused there.

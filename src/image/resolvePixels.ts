@@ -6,7 +6,8 @@
  * observation given in pixels is measured (measureScene.ts); the observation
  * is then replaced by its numeric form (slopeDeg and side with sigmaDeg,
  * depthRatio with sigma, widthRatio and side with sigma, shadowAzimuthDeg and
- * lengthRatio with their sigmas), its `pixels` left out. Observations already
+ * lengthRatio with their sigmas, distanceRatio with sigma and projectionRatio,
+ * caster and shadow with sigmaM), its `pixels` left out. Observations already
  * numeric, walls, planes and everything else are kept as they are, so the
  * function is idempotent.
  *

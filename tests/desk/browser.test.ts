@@ -8,7 +8,7 @@ import type { Browser, Page } from 'playwright-core';
 import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
 import { parse, stringify } from 'yaml';
 import { tiffFile } from './tiffFile.js';
-import { CLI, OUT_DIR, ROOT, clickPixel, cli, fillField, pickTool, startDesk, toolField, watch as watchPage } from './deskPage.js';
+import { CLI, OUT_DIR, ROOT, clickPixel, cli, expectShownAsMeasured, fillField, pickTool, startDesk, toolField, watch as watchPage } from './deskPage.js';
 
 // The measuring desk in a real browser (issue 10, "What it must show"): Debian's Chromium through
 // playwright-core, as tests/report/browser.test.ts does. The desk is started by the command line on
@@ -144,16 +144,7 @@ describe('the measuring desk in Chromium', () => {
     // the values shown equal `heliochron measure`'s for the example file
     const measured = JSON.parse(cli(['measure', EXAMPLE, '--json'])) as { observations: { id: string; values: { name: string; value: number; sigma: number }[] }[] };
     expect(measured.observations.length).toBe(3);
-    for (const o of measured.observations) {
-      for (const v of o.values) {
-        const cell = page.locator(`li[data-id="${o.id}"] [data-value="${v.name}"]`);
-        const shown = Number(await cell.getAttribute('data-number'));
-        const sigma = Number(await cell.getAttribute('data-sigma'));
-        const tolerance = v.name.endsWith('Deg') ? 0.01 : 0.001; // issue 10: 0.01 deg, 0.001 in a ratio
-        expect(Math.abs(shown - v.value), `${o.id} ${v.name}`).toBeLessThanOrEqual(tolerance);
-        expect(Math.abs(sigma - v.sigma), `${o.id} ${v.name} sigma`).toBeLessThanOrEqual(tolerance);
-      }
-    }
+    await expectShownAsMeasured(page, measured);
     expect(await page.locator('.message').count()).toBe(0); // the reader takes the whole scene
 
     // "Date it" gives the command line's first candidate

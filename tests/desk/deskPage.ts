@@ -106,3 +106,22 @@ export async function toolField(page: Page, name: string, value: string, select 
 export async function pickTool(page: Page, id: string): Promise<void> {
   await page.locator(`#tool-buttons [data-tool="${id}"]`).click();
 }
+
+/** What `heliochron measure --json` prints of the observations measured from pixels. */
+export interface MeasuredJson {
+  readonly observations: readonly { readonly id: string; readonly values: readonly { readonly name: string; readonly value: number; readonly sigma: number }[] }[];
+}
+
+/** Every value and sigma the page shows equals the command line's (issue 10: within 0.01 deg, 0.001 in a ratio). */
+export async function expectShownAsMeasured(page: Page, measured: MeasuredJson): Promise<void> {
+  for (const o of measured.observations) {
+    for (const v of o.values) {
+      const cell = page.locator(`li[data-id="${o.id}"] [data-value="${v.name}"]`);
+      const shown = Number(await cell.getAttribute('data-number'));
+      const sigma = Number(await cell.getAttribute('data-sigma'));
+      const tolerance = v.name.endsWith('Deg') ? 0.01 : 0.001;
+      expect(Math.abs(shown - v.value), `${o.id} ${v.name}`).toBeLessThanOrEqual(tolerance);
+      expect(Math.abs(sigma - v.sigma), `${o.id} ${v.name} sigma`).toBeLessThanOrEqual(tolerance);
+    }
+  }
+}

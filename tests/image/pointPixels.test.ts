@@ -15,11 +15,11 @@ import { rectifyPlane, type RectifiedPlane } from '../../src/image/planeInImage.
 import { resolvePixelObservations } from '../../src/image/resolvePixels.js';
 import { calendarDateToJd } from '../../src/calendar/julianDay.js';
 import { sunPosition } from '../../src/ephemeris/sunPosition.js';
-import { createRandom, type RandomSource } from '../../src/math/random.js';
+import type { RandomSource } from '../../src/math/random.js';
 import { readSceneText } from '../../src/scene/readScene.js';
 import { solveDates } from '../../src/solver/solveDates.js';
 import type { EaveShadowObservation, ImageInfo, Observation, Scene, ShadowPointsObservation } from '../../src/scene/types.js';
-import { cameraInputOf, randomBoxPicture, type BoxPicture } from './boxScene.js';
+import { boxPictures, cameraInputOf, type BoxPicture } from './boxScene.js';
 import { add, clicker, dot, horizontal, project, scale, shadowOnPlane, sunVector, sub, type Vec3 } from './syntheticCamera.js';
 import { VELMAR } from '../solver/syntheticScene.js';
 
@@ -89,13 +89,7 @@ function points3(pic: BoxPicture): Points3 | null {
 }
 
 function pictures(seed: number, count: number, sun?: { azimuthDeg: number; altitudeDeg: number }): { pics: BoxPicture[]; rng: RandomSource } {
-  const rng = createRandom(seed);
-  const pics: BoxPicture[] = [];
-  while (pics.length < count) {
-    const pic = randomBoxPicture(rng, { pairs: 2, ...(sun ? { sun } : {}) });
-    if (pic && points3(pic)) pics.push(pic);
-  }
-  return { pics, rng };
+  return boxPictures(seed, count, (pic) => points3(pic) !== null, { pairs: 2, ...(sun ? { sun } : {}) });
 }
 
 interface Case {
