@@ -233,7 +233,10 @@ function renderText(
       out.push('  What it predicts for each measured shadow (measured - predicted, in sigmas):');
       for (const p of best.predictions) {
         if (!p.defined) {
-          out.push(`    ${p.id}: no such shadow at this candidate (its wall is in shade or the sun is down)`);
+          const kind = scene.observations[observationIndex(p.field)].kind;
+          out.push(`    ${p.id}: no such shadow at this candidate (${kind === 'eave-shadow'
+            ? "the eave's shadow line does not reach the ground in front of the wall, or the sun is down"
+            : kind === 'shadow-points' ? 'the sun is down or behind the plane the shadow falls on' : 'its wall is in shade or the sun is down'})`);
           continue;
         }
         for (const v of p.values) {
