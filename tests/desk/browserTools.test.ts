@@ -37,7 +37,7 @@ let base: Record<string, unknown>;
 
 beforeAll(async () => {
   if (!existsSync(CHROMIUM)) throw new Error(`Chromium was not found at ${CHROMIUM}: install the Debian package "chromium" to run the desk's browser tests`);
-  if (!existsSync(CLI)) throw new Error('dist/cli/main.js is missing: run npx tsc -p tsconfig.json first');
+  if (!existsSync(CLI)) throw new Error(`${CLI} is missing: the tests' global set-up bundles it (tests/helpers/buildCli.ts)`);
   const build = spawnSync(process.execPath, [join(ROOT, 'src', 'desk', 'build.mjs')], { cwd: ROOT, encoding: 'utf8' });
   if (build.status !== 0) throw new Error(`building the desk page failed: ${build.stderr}`);
   mkdirSync(OUT_DIR, { recursive: true });

@@ -6,12 +6,12 @@
  */
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import type { Page } from 'playwright-core';
 import { expect } from 'vitest';
-import { BIN } from '../helpers/runCli.js';
+import { BIN, ROOT } from '../helpers/runCli.js';
 
-export const ROOT = fileURLToPath(new URL('../../', import.meta.url));
+export { ROOT };
+
 /** The command line as the package's `bin` names it (the bundle the tests' global set-up builds). */
 export const CLI = BIN;
 export const OUT_DIR = join(ROOT, 'test-output', 'desk');
