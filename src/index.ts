@@ -63,6 +63,8 @@ export type { CameraInput, LineFamily, ClickedLine, FamilyDirection } from './im
 export { sunFromShadowPairs, compareShadowSets } from './image/cameraSun.js';
 export type { ShadowPairInput, SunFromShadows, SunComparison } from './image/cameraSun.js';
 export { resolveSceneSun, describeSceneSun } from './image/sceneSun.js';
+export { sceneAnnotations, annotationsText } from './report/annotations.js';
+export type { AnnotationCollection, Annotation } from './report/annotations.js';
 
 // Scene files
 export { readSceneText } from './scene/readScene.js';

@@ -18,7 +18,7 @@
  *   GET  /TOKEN/page/NAME        a file of the page (desk.js, desk.css, worker.js)
  *   GET  /TOKEN/session          JSON: the opened file's name and kind
  *   GET  /TOKEN/files/PATH       a file of the folder
- *   PUT  /TOKEN/files/PATH       save a file (.yaml .yml .json .svg .html); `?replace=1` after the user confirmed
+ *   PUT  /TOKEN/files/PATH       save a file (.yaml .yml .json .svg .html .jsonld); `?replace=1` after the user confirmed
  */
 import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
 import { existsSync, lstatSync, readFileSync, realpathSync, statSync } from 'node:fs';
@@ -43,6 +43,7 @@ const SAVE_LIMITS: Readonly<Record<string, number>> = {
   '.json': MAX_SCENE_BODY_BYTES,
   '.svg': MAX_EXPORT_BODY_BYTES,
   '.html': MAX_EXPORT_BODY_BYTES,
+  '.jsonld': MAX_SCENE_BODY_BYTES, // the clicked points as Web Annotations: text of the size of a scene file
 };
 
 const CONTENT_TYPES: Readonly<Record<string, string>> = {
@@ -50,6 +51,7 @@ const CONTENT_TYPES: Readonly<Record<string, string>> = {
   '.js': 'text/javascript; charset=utf-8',
   '.css': 'text/css; charset=utf-8',
   '.json': 'application/json; charset=utf-8',
+  '.jsonld': 'application/ld+json; charset=utf-8',
   '.yaml': 'text/plain; charset=utf-8',
   '.yml': 'text/plain; charset=utf-8',
   '.svg': 'image/svg+xml',

@@ -12,12 +12,14 @@ import { existsSync } from 'node:fs';
 import { dirname, relative, resolve } from 'node:path';
 import { InvalidInputError } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
-import type { Scene } from '../scene/types.js';
+import type { Observation, Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservations.js';
 import { rectifySceneGround } from '../image/measureScene.js';
 import { measuredQuantities, resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
 import { describeSceneSun, sceneSunRecord } from '../image/sceneSun.js';
+import { MEASURED_VALUE_WORDS, PIXEL_KIND_WORDS } from '../image/measuredValueWords.js';
+import { annotationsText, sceneAnnotations } from '../report/annotations.js';
 import { formatCalendarDate } from '../calendar/format.js';
 import { hhmm, roundTo } from '../report/formatTimes.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
@@ -40,20 +42,8 @@ function allPlanes(scene: Scene, used: ReadonlyMap<string, RectifiedPlane>): Map
   return planes;
 }
 
-const KIND_WORDS: Record<string, string> = {
-  'rod-shadow': 'rod shadow',
-  'overhang-shadow': 'overhang shadow',
-  'fin-shadow': 'fin shadow',
-  'pole-shadow': 'pole shadow',
-};
-
-const VALUE_WORDS: Record<string, { label: string; unit: string; digits: number }> = {
-  slopeDeg: { label: 'slope below horizontal', unit: 'deg', digits: 2 },
-  depthRatio: { label: 'depth ratio (shadow depth / projection)', unit: '', digits: 4 },
-  widthRatio: { label: 'width ratio (shadow width / fin depth)', unit: '', digits: 4 },
-  shadowAzimuthDeg: { label: 'shadow azimuth (foot to tip, from true north)', unit: 'deg', digits: 2 },
-  lengthRatio: { label: 'length ratio (shadow length / height)', unit: '', digits: 4 },
-};
+const KIND_WORDS = PIXEL_KIND_WORDS;
+const VALUE_WORDS = MEASURED_VALUE_WORDS;
 
 interface PlaneRecord {
   readonly field: string;
@@ -94,7 +84,8 @@ function planeRecord(scene: Scene, field: string, plane: RectifiedPlane): PlaneR
   };
 }
 
-function observationRecord(scene: Scene, m: ResolvedMeasurement) {
+/** @param written the observation's numeric form as the dating reads it (resolvePixelObservations) */
+function observationRecord(scene: Scene, m: ResolvedMeasurement, written: Observation) {
   const meas = m.measurement;
   const quantities = measuredQuantities(meas);
   const obs = scene.observations[observationIndex(m.field)];
@@ -114,13 +105,16 @@ function observationRecord(scene: Scene, m: ResolvedMeasurement) {
       sigma: roundTo(used.sigma, 6),
       sigmaSource: used.sigmaSource,
       firstOrderSigma: roundTo(q.sigma, 6),
-      sigmaParts: { clickedFigure: roundTo(q.sigmaFromPlane, 6), shadowPoints: roundTo(q.sigmaFromPoints, 6), statedLength: roundTo(q.sigmaFromLength, 6) },
+      sigmaParts: {
+        clickedFigure: roundTo(q.sigmaFromPlane, 6), shadowPoints: roundTo(q.sigmaFromPoints, 6), statedLength: roundTo(q.sigmaFromLength, 6),
+        ...(q.sigmaFromAzimuth > 0 ? { wallAzimuth: roundTo(q.sigmaFromAzimuth, 6) } : {}),
+      },
       firstOrderReliable: q.firstOrderReliable,
       nonlinearity: roundTo(q.nonlinearity, 4),
       ...(used.monteCarloSigma !== undefined ? { monteCarloSigma: roundTo(used.monteCarloSigma, 6) } : {}),
     };
   });
-  const wallId = 'wallId' in obs ? obs.wallId : undefined;
+  const wallId = 'wallId' in obs ? obs.wallId : obs.kind === 'shadow-points' ? obs.pixels?.wallId : undefined;
   return {
     field: m.field,
     id: meas.id,
@@ -129,6 +123,10 @@ function observationRecord(scene: Scene, m: ResolvedMeasurement) {
     plane: meas.rectification.field,
     ...(meas.rectification.definition === 'camera' ? { planeFromCamera: true } : {}),
     ...(meas.kind === 'rod-shadow' || meas.kind === 'fin-shadow' ? { side: meas.side } : {}),
+    ...(meas.kind === 'eave-shadow' ? { projectionRatio: roundTo(meas.projectionRatio, 6) } : {}),
+    ...(written.kind === 'shadow-points'
+      ? { caster: written.caster!.map((v) => roundTo(v, 6)), shadow: written.shadow!.map((v) => roundTo(v, 6)), sigmaM: roundTo(written.sigmaM!, 6) }
+      : {}),
     values,
     ...(m.monteCarlo ? { monteCarlo: m.monteCarlo } : {}),
     obtained: meas.note,
@@ -204,13 +202,14 @@ function renderText(
       : '  none: no observation of this scene is given in pixels');
   }
   for (const o of observations) {
-    out.push(`  ${o.field} ${JSON.stringify(o.id)}: ${KIND_WORDS[o.kind]}${o.wallId ? ` on wall ${o.wallId}` : ' on the ground'}`);
+    out.push(`  ${o.field} ${JSON.stringify(o.id)}: ${KIND_WORDS[o.kind]}${o.kind === 'eave-shadow' ? ` of wall ${o.wallId}, on the ground` : o.wallId ? ` on wall ${o.wallId}` : ' on the ground'}`);
     for (const v of o.values) {
       const w = VALUE_WORDS[v.name];
       const side = v.name === 'slopeDeg' || v.name === 'widthRatio' ? (o.side ? `, to the ${o.side}` : '') : '';
       out.push(`    ${v.name} = ${fmtValue(v.name, v.value)}${side}, sigma ${fmtValue(v.name, v.sigma)}${v.sigmaSource === 'monte-carlo' ? ' (Monte Carlo spread)' : ''}   [${w.label}]`);
       const unit = w.unit ? ` ${w.unit}` : '';
-      const length = v.sigmaParts.statedLength > 0 ? `, stated length ${v.sigmaParts.statedLength.toFixed(w.digits)}${unit}` : '';
+      const length = (v.sigmaParts.statedLength > 0 ? `, stated length ${v.sigmaParts.statedLength.toFixed(w.digits)}${unit}` : '') +
+        (v.sigmaParts.wallAzimuth !== undefined ? `, wall azimuth ${v.sigmaParts.wallAzimuth.toFixed(w.digits)}${unit}` : '');
       out.push(
         `      sigma parts (first order): ${o.planeFromCamera ? 'camera lines' : 'clicked figure'} ${v.sigmaParts.clickedFigure.toFixed(w.digits)}${unit}, ` +
           `shadow points ${v.sigmaParts.shadowPoints.toFixed(w.digits)}${unit}${length}; ` +
@@ -218,7 +217,11 @@ function renderText(
       );
     }
     const clicked = /clicked on [^;]*\)/.exec(o.obtained);
-    out.push(`    how: ${clicked ? `${clicked[0]}; sigma by first-order propagation of the clicking precision${o.values.some((v) => v.sigmaParts.statedLength > 0) ? ' and of the stated length' : ''}${o.monteCarlo ? `, checked by a Monte Carlo run of ${o.monteCarlo.samples} samples (seed ${o.monteCarlo.seed})` : ''}` : o.obtained}`);
+    out.push(`    how: ${clicked ? `${clicked[0]}; sigma by first-order propagation of the clicking precision${o.values.some((v) => v.sigmaParts.statedLength > 0) ? ' and of the stated length' : ''}${o.values.some((v) => v.sigmaParts.wallAzimuth !== undefined) ? " and of the wall's stated azimuth" : ''}${o.monteCarlo ? `, checked by a Monte Carlo run of ${o.monteCarlo.samples} samples (seed ${o.monteCarlo.seed})` : ''}` : o.obtained}`);
+    if (o.projectionRatio !== undefined) out.push(`    written as distanceRatio with projectionRatio ${o.projectionRatio.toFixed(4)} (eave projection / height, held as stated; its sigma is in the distance ratio's)`);
+    if (o.caster !== undefined && o.shadow !== undefined) {
+      out.push(`    written as caster [${o.caster.join(', ')}] and shadow [${o.shadow.join(', ')}]${o.planeFromCamera ? " (site axes, in units of the camera's distance to the plane)" : ' m (site axes east, north, up)'}, sigmaM ${o.sigmaM}`);
+    }
     for (const w of o.warnings) out.push(`    WARNING: ${w}`);
   }
   if (best) {
@@ -230,7 +233,10 @@ function renderText(
       out.push('  What it predicts for each measured shadow (measured - predicted, in sigmas):');
       for (const p of best.predictions) {
         if (!p.defined) {
-          out.push(`    ${p.id}: no such shadow at this candidate (its wall is in shade or the sun is down)`);
+          const kind = scene.observations[observationIndex(p.field)].kind;
+          out.push(`    ${p.id}: no such shadow at this candidate (${kind === 'eave-shadow'
+            ? "the eave's shadow line does not reach the ground in front of the wall, or the sun is down"
+            : kind === 'shadow-points' ? 'the sun is down or behind the plane the shadow falls on' : 'its wall is in shade or the sun is down'})`);
           continue;
         }
         for (const v of p.values) {
@@ -282,11 +288,20 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
   if (options.overlay !== undefined && !/\.svg$/i.test(options.overlay)) {
     throw new InvalidInputError('--overlay', options.overlay, 'a file name ending .svg (the overlay is an SVG drawing)');
   }
+  if (options.annotations !== undefined && !/\.(jsonld|json)$/i.test(options.annotations)) {
+    throw new InvalidInputError('--annotations', options.annotations, 'a file name ending .jsonld or .json (the annotations are a JSON-LD document)');
+  }
   if (options.image !== undefined && options.overlay === undefined) {
     throw new InvalidInputError('--image', options.image, 'a picture only together with --overlay <file.svg>, which it is embedded in');
   }
   const { scene } = readSceneForCommand(scenePath, io, options.seed);
   const overlayTarget = checkOverlayPath(options, fullPath, io);
+  const annotationsTarget = options.annotations === undefined
+    ? undefined
+    : checkOutputTarget(options.annotations, { force: options.force, inputs: [fullPath], cwd: io.cwd }).path;
+  if (annotationsTarget !== undefined && scene.image?.file === undefined) {
+    throw new InvalidInputError('image.file', undefined, 'the picture the points were clicked on, in the scene file, for --annotations (the annotations point into it)');
+  }
   const resolved = inScene(scenePath, () => resolvePixelObservations(scene));
   const planes = inScene(scenePath, () => allPlanes(scene, resolved.planes));
   const notes: string[] = [];
@@ -328,7 +343,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
   }
 
   const planeRecords = [...planes].map(([field, plane]) => planeRecord(scene, field, plane));
-  const observationRecords = resolved.measurements.map((m) => observationRecord(scene, m));
+  const observationRecords = resolved.measurements.map((m) => observationRecord(scene, m, resolved.scene.observations[observationIndex(m.field)]));
 
   let svg: string | undefined;
   if (options.overlay !== undefined) {
@@ -343,6 +358,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
     });
   }
 
+  const annotations = annotationsTarget ? sceneAnnotations(scene, scene.image!.file!) : undefined;
   const text = options.json
     ? `${JSON.stringify({
         scene: scene.title,
@@ -352,14 +368,19 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
         camera: resolved.sceneSun ? sceneSunRecord(resolved.sceneSun) : null,
         best,
         overlay: overlayTarget ? { file: options.overlay, picture: picturePath ? (options.image ?? scene.image?.file ?? null) : null } : null,
+        annotations: annotationsTarget ? { file: options.annotations, items: annotations!.total } : null,
         notes,
       }, null, 2)}\n`
     : renderText(scene, planeRecords, observationRecords, best, notes) +
       (resolved.sceneSun ? `\n${describeSceneSun(resolved.sceneSun).map(escapeControls).join('\n')}\n` : '') +
+      (annotationsTarget ? `Annotations (W3C Web Annotation, JSON-LD) of ${annotations!.total} clicked items written to ${escapeControls(options.annotations!)}.\n` : '') +
       (overlayTarget ? `Overlay written to ${escapeControls(options.overlay!)}${picture && picturePath ? ` (with the picture ${escapeControls(shownPath(picturePath, io.cwd))} embedded)` : ''}.\n` : '');
 
   if (svg !== undefined && overlayTarget !== undefined) {
     writeOutputFile(options.overlay!, svg, { force: options.force, inputs: [fullPath, ...(picturePath ? [picturePath] : [])], cwd: io.cwd });
+  }
+  if (annotations !== undefined) {
+    writeOutputFile(options.annotations!, annotationsText(scene, scene.image!.file!), { force: options.force, inputs: [fullPath], cwd: io.cwd });
   }
   io.out(text);
 }

@@ -17,7 +17,8 @@
  * mapped through the wall's rectification).
  */
 import { angleDiffDeg, cosDeg, sinDeg } from '../math/angles.js';
-import { predictFinShadow, predictOverhangShadow, predictPoleShadow, predictRodShadow } from '../geometry/index.js';
+import { predictEaveShadow, predictFinShadow, predictOverhangShadow, predictPoleShadow, predictRodShadow } from '../geometry/index.js';
+import { sunUnitVector } from '../geometry/sunVector.js';
 import type { SunDirection } from '../geometry/sunVector.js';
 import { applyHomography, homogeneousW, type Point2 } from '../image/homography.js';
 import { OVERLAY_COLOURS, renderOverlaySvg, type OverlayPlane, type OverlayShadow } from '../image/overlay.js';
@@ -125,8 +126,54 @@ export function predictMeasurements(
           direction: [sinDeg(p.shadowAzimuthDeg), cosDeg(p.shadowAzimuthDeg)] as const, // east, north
         };
       }
+      case 'eave-shadow': {
+        const az = wallAzimuth(m.observation.wallId);
+        const p = predictEaveShadow(sun, az, m.projectionRatio);
+        const ratio = m.distanceRatio.value;
+        // the predicted shadow line: parallel to the foot line, at the predicted distance on the side of the clicked one
+        const heightM = original.kind === 'eave-shadow' && original.pixels ? original.pixels.heightM : NaN;
+        const [f, along] = [from, m.alongPlane];
+        const ex = along[0] - f[0];
+        const ey = along[1] - f[1];
+        const len = Math.hypot(ex, ey);
+        const t = [ex / len, ey / len];
+        const side = Math.sign(t[0] * (to[1] - f[1]) - t[1] * (to[0] - f[0])) || 1;
+        const n = [-t[1] * side, t[0] * side];
+        const dM = p.distanceRatio * heightM;
+        const reach = Math.max(0.5, len);
+        const line: [Point2, Point2] = [
+          [from[0] + n[0] * dM - t[0] * reach, from[1] + n[1] * dM - t[1] * reach],
+          [from[0] + n[0] * dM + t[0] * reach, from[1] + n[1] * dM + t[1] * reach],
+        ];
+        return {
+          ...base, defined: p.defined && Number.isFinite(dM), wallAzimuthDeg: az,
+          values: [value('distanceRatio', ratio, p.distanceRatio, sigma('distanceRatio'))],
+          line,
+        };
+      }
+      case 'shadow-points': {
+        const wallId = original.kind === 'shadow-points' ? original.pixels?.wallId : undefined;
+        const az = wallId !== undefined ? wallAzimuth(wallId) : undefined;
+        const s = sunUnitVector(sun.azimuthDeg, sun.altitudeDeg);
+        // the caster's predicted shadow runs from its foot along the anti-sun direction projected on the plane
+        const [a, b, n] = wallId !== undefined ? wallAxes(az!) : [[1, 0, 0], [0, 1, 0], [0, 0, 1]] as const;
+        const dot = (u: readonly number[]): number => u[0] * s[0] + u[1] * s[1] + u[2] * s[2];
+        return {
+          ...base, defined: sun.altitudeDeg > 0 && dot(n) > 0, ...(az !== undefined ? { wallAzimuthDeg: az } : {}),
+          values: [
+            value('sunAzimuthDeg', m.sunAzimuthDeg.value, sun.azimuthDeg, sigma('sunAzimuthDeg'), true),
+            value('sunAltitudeDeg', m.sunAltitudeDeg.value, sun.altitudeDeg, sigma('sunAltitudeDeg')),
+          ],
+          direction: [-dot(a), -dot(b)] as const,
+        };
+      }
     }
   });
+}
+
+/** Wall axes (u, up, outward normal) in the site frame for a wall azimuth, docs/conventions.md. */
+function wallAxes(azimuthDeg: number): readonly [readonly number[], readonly number[], readonly number[]] {
+  return [[sinDeg(azimuthDeg - 90), cosDeg(azimuthDeg - 90), 0], [0, 0, 1], [sinDeg(azimuthDeg), cosDeg(azimuthDeg), 0]];
 }
 
 /** Short label of a plane's points in the overlay: W1, W2 ... for walls in scene order, G for the ground. */

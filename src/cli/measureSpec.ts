@@ -12,6 +12,8 @@ export interface MeasureOptions {
   readonly overlay?: string;
   /** JPEG or PNG picture to embed under the overlay (else the scene's image.file, if present). */
   readonly image?: string;
+  /** JSON-LD file to write the clicked points and lines to, as W3C Web Annotations. */
+  readonly annotations?: string;
   /** Run the date solver and draw the shadows its best candidate predicts. */
   readonly withBest: boolean;
   readonly force: boolean;
@@ -36,15 +38,17 @@ export function registerMeasure(program: Command, io: CliIo): void {
     .option('--json', 'print one JSON object instead of text')
     .option('--overlay <file.svg>', 'write the overlay drawing to this SVG file')
     .option('--image <picture>', "embed this JPEG or PNG picture under the overlay (default: the scene's image.file, if given)")
+    .option('--annotations <file.jsonld>', 'write the clicked points and lines as W3C Web Annotations (JSON-LD), to share them with image platforms')
     .option('--with-best', 'also date the scene and draw, dashed, the shadows the best candidate predicts')
-    .option('--force', 'replace the overlay file if it exists')
+    .option('--force', 'replace the overlay or annotations file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
     .addHelpText(
       'after',
       '\nExamples (the bundled example is a picture of the fictional town of Velmar):\n' +
         '  heliochron measure examples/tanners-hall-photo/tanners-hall-photo.yaml\n' +
         '  heliochron measure examples/tanners-hall-photo/tanners-hall-photo.yaml --overlay overlay.svg\n' +
-        '  heliochron measure examples/tanners-hall-photo/tanners-hall-photo.yaml --with-best --overlay check.svg --force\n',
+        '  heliochron measure examples/tanners-hall-photo/tanners-hall-photo.yaml --with-best --overlay check.svg --force\n' +
+        '  heliochron measure examples/tanners-hall-photo/tanners-hall-photo.yaml --annotations marks.jsonld\n',
     )
     .action(async (scene: string, options: Record<string, unknown>) => {
       const { run } = await import('./measureCommand.js');
@@ -52,6 +56,7 @@ export function registerMeasure(program: Command, io: CliIo): void {
         json: options.json === true,
         overlay: options.overlay === undefined ? undefined : String(options.overlay),
         image: options.image === undefined ? undefined : String(options.image),
+        annotations: options.annotations === undefined ? undefined : String(options.annotations),
         withBest: options.withBest === true,
         force: options.force === true,
         seed: parseSeedOption(options.seed),

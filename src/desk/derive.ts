@@ -14,14 +14,13 @@
 import { sceneFromData } from '../scene/readScene.js';
 import type { Scene } from '../scene/types.js';
 import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
-import { rectifySceneGround } from '../image/measureScene.js';
+import { PLANE_PIXEL_KINDS, rectifySceneGround } from '../image/measureScene.js';
 import { resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
 import { getAt, pathText, type Draft, type DraftValue } from './draft.js';
 import { refusalOf, type Refusal } from './refusal.js';
 import { neutralCopy, standIn } from './neutralCopy.js';
 import { derivePerspective, type Perspective } from './derivePerspective.js';
 
-export const PIXEL_KINDS = ['rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow'] as const;
 
 export type { Refusal };
 
@@ -62,8 +61,14 @@ function measuringCopy(draft: Draft): Draft {
       ? { ...w, azimuthDeg: 0 }
       : w,
   );
-  const pixelForm = (o: DraftValue): boolean => PIXEL_KINDS.includes(String(getAt(o, ['kind'])) as (typeof PIXEL_KINDS)[number]) && getAt(o, ['pixels']) !== undefined;
+  const pixelForm = (o: DraftValue): boolean => PLANE_PIXEL_KINDS.has(String(getAt(o, ['kind']))) && getAt(o, ['pixels']) !== undefined;
   return neutralCopy(draft, 'measuring', walls, pixelForm, ['image', 'groundPlane', 'mapNorthCorrectionDeg', 'seed']);
+}
+
+/** True for a pixel-form observation measured on the ground (pole, eave line, point pair without a wall). */
+function onGround(o: DraftValue): boolean {
+  const kind = getAt(o, ['kind']);
+  return kind === 'pole-shadow' || kind === 'eave-shadow' || (kind === 'shadow-points' && getAt(o, ['pixels', 'wall']) === undefined);
 }
 
 /** Replace the observations that stand on a left-out plane by stand-ins, saying why beside each. */
@@ -91,12 +96,12 @@ function leaveOut(copy: Draft, owner: string, refusals: Map<string, string>): bo
     const w = (copy.walls as DraftValue[])[Number(wall[1])] as Record<string, DraftValue>;
     if (!w || w.imagePlane === undefined) return false;
     delete w.imagePlane;
-    leaveOutDependents(copy, (o) => getAt(o, ['wall']) === w.id, `it is measured on wall ${String(w.id)}, whose figure is not accepted (see that figure)`, refusals);
+    leaveOutDependents(copy, (o) => getAt(o, ['kind']) !== 'eave-shadow' && (getAt(o, ['wall']) ?? getAt(o, ['pixels', 'wall'])) === w.id, `it is measured on wall ${String(w.id)}, whose figure is not accepted (see that figure)`, refusals);
     return true;
   }
   if (owner === 'groundPlane' && copy.groundPlane !== undefined) {
     delete copy.groundPlane;
-    leaveOutDependents(copy, (o) => getAt(o, ['kind']) === 'pole-shadow', 'it is measured on the ground, whose figure is not accepted (see the ground)', refusals);
+    leaveOutDependents(copy, onGround, 'it is measured on the ground, whose figure is not accepted (see the ground)', refusals);
     return true;
   }
   return false;

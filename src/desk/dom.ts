@@ -24,3 +24,8 @@ export function h<K extends keyof HTMLElementTagNameMap>(
 export function fill(el: Element, children: readonly Child[]): void {
   el.replaceChildren(...children.filter((c): c is Node | string => c !== null && c !== undefined && c !== false));
 }
+
+/** The page element with this id (the page's fixed elements, src/desk/index.html). */
+export function byId<T extends HTMLElement>(id: string): T {
+  return document.getElementById(id) as T;
+}

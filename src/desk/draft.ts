@@ -67,11 +67,14 @@ function isPoint(v: DraftValue | undefined): v is [number, number] {
   return Array.isArray(v) && v.length === 2 && typeof v[0] === 'number' && typeof v[1] === 'number';
 }
 
-const SEGMENT_WORDS: Readonly<Record<string, readonly [string, string]>> = {
-  'rod-shadow': ['root', 'shadow'],
-  'overhang-shadow': ['edge', 'shadow'],
-  'fin-shadow': ['edge', 'shadow'],
-  'pole-shadow': ['foot', 'tip'],
+/** The clicked points of each pixel form, by key under `pixels`, with the word drawn beside each. */
+const PIXEL_POINT_WORDS: Readonly<Record<string, readonly (readonly [key: string, word: string])[]>> = {
+  'rod-shadow': [['fromPx', 'root'], ['toPx', 'shadow']],
+  'overhang-shadow': [['fromPx', 'edge'], ['toPx', 'shadow']],
+  'fin-shadow': [['fromPx', 'edge'], ['toPx', 'shadow']],
+  'pole-shadow': [['fromPx', 'foot'], ['toPx', 'tip']],
+  'eave-shadow': [['fromPx', 'foot'], ['alongPx', 'foot 2'], ['toPx', 'shadow line']],
+  'shadow-points': [['fromPx', 'foot'], ['toPx', 'shadow'], ['objectPx', 'caster']],
 };
 
 function planePoints(plane: DraftValue | undefined, owner: DraftPath, short: string, out: DraftPoint[]): void {
@@ -107,7 +110,7 @@ export function draftPoints(draft: Draft): DraftPoint[] {
   cameraPoints(draft, out);
   const observations = Array.isArray(draft.observations) ? draft.observations : [];
   observations.forEach((o, k) => {
-    const words = SEGMENT_WORDS[String(getAt(o, ['kind']))];
+    const words = PIXEL_POINT_WORDS[String(getAt(o, ['kind']))];
     const id = String(getAt(o, ['id']) ?? `#${k + 1}`);
     if (getAt(o, ['kind']) === 'object-shadow') {
       for (const [key, word] of [['objectPx', 'object'], ['shadowPx', 'shadow']] as const) {
@@ -117,7 +120,7 @@ export function draftPoints(draft: Draft): DraftPoint[] {
       return;
     }
     if (!words) return;
-    for (const [key, word] of [['fromPx', words[0]], ['toPx', words[1]]] as const) {
+    for (const [key, word] of words) {
       const p = getAt(o, ['pixels', key]);
       if (isPoint(p)) out.push({ path: ['observations', k, 'pixels', key], xy: p, label: `${id} ${word}`, owner: ['observations', k] });
     }

@@ -1,7 +1,8 @@
 /**
- * The overlay drawn on the desk and written out, and the HTML report written out: the same
- * functions as `heliochron measure --overlay` (measureOverlaySvg) and `heliochron report`
- * (run in the worker, worker.ts), so that the files are byte for byte the command line's.
+ * The overlay drawn on the desk and written out, the HTML report and the Web Annotations written
+ * out: the same functions as `heliochron measure --overlay` (measureOverlaySvg), `heliochron report`
+ * (run in the worker, worker.ts) and `heliochron measure --annotations` (annotationsText), so that
+ * the files are byte for byte the command line's.
  */
 import { measureOverlaySvg, type MeasurementPrediction } from '../cli/measureOverlay.js';
 import type { PictureFile } from '../cli/pictureFile.js';
@@ -9,6 +10,7 @@ import type { Derived } from './derive.js';
 import type { Draft } from './draft.js';
 import { readFolderFile, saveAskingFirst } from './files.js';
 import { runInWorker } from './workerClient.js';
+import { annotationsText } from '../report/annotations.js';
 
 export interface ChosenPrediction {
   readonly caption: string;
@@ -60,6 +62,27 @@ export async function exportOverlaySvg(derived: Derived, picture: PictureFile | 
   }
   try {
     await writeFile(`${baseOf(sceneName)}-overlay.svg`, svg, notice);
+  } catch (error) {
+    notice(error instanceof Error ? error.message : String(error), 'error');
+  }
+}
+
+/**
+ * Write `<scene>-annotations.jsonld`: the clicked points and lines as W3C Web Annotations, what
+ * `heliochron measure <scene> --annotations <scene>-annotations.jsonld` writes (src/report/annotations.ts).
+ */
+export async function exportAnnotations(derived: Derived, sceneName: string, notice: Notice): Promise<void> {
+  const scene = derived.scene;
+  if (!scene) {
+    notice(`The annotations are written for a complete scene; the scene reader does not take it yet: ${derived.refusal?.message ?? ''}`, 'error');
+    return;
+  }
+  if (!scene.image?.file) {
+    notice('The annotations point into the picture: the scene needs its picture (image.file) first.', 'error');
+    return;
+  }
+  try {
+    await writeFile(`${baseOf(sceneName)}-annotations.jsonld`, annotationsText(scene, scene.image.file), notice);
   } catch (error) {
     notice(error instanceof Error ? error.message : String(error), 'error');
   }

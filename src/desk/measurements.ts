@@ -5,25 +5,13 @@
  */
 import { LINEARITY_TOLERANCE, rectificationReport } from '../image/pixelObservations.js';
 import { measuredQuantities } from '../image/resolvePixels.js';
+import { MEASURED_VALUE_WORDS, PIXEL_KIND_WORDS } from '../image/measuredValueWords.js';
 import { h } from './dom.js';
 import { getAt, type Draft, type DraftPath } from './draft.js';
 import type { Derived } from './derive.js';
 import { renderPerspective } from './perspectivePanel.js';
 
-const VALUE_WORDS: Readonly<Record<string, { label: string; unit: string; digits: number }>> = {
-  slopeDeg: { label: 'slope below horizontal', unit: ' deg', digits: 2 },
-  depthRatio: { label: 'depth ratio (shadow depth / projection)', unit: '', digits: 4 },
-  widthRatio: { label: 'width ratio (shadow width / fin depth)', unit: '', digits: 4 },
-  shadowAzimuthDeg: { label: 'shadow azimuth (foot to tip, from true north)', unit: ' deg', digits: 2 },
-  lengthRatio: { label: 'length ratio (shadow length / height)', unit: '', digits: 4 },
-};
-
-const KIND_WORDS: Readonly<Record<string, string>> = {
-  'rod-shadow': 'rod shadow',
-  'overhang-shadow': 'overhang shadow',
-  'fin-shadow': 'fin shadow',
-  'pole-shadow': 'pole shadow',
-};
+const KIND_WORDS = PIXEL_KIND_WORDS;
 
 export interface MeasurementsContext {
   readonly draft: Draft;
@@ -76,7 +64,7 @@ function observationItems(ctx: MeasurementsContext): HTMLElement[] {
     if (!KIND_WORDS[kind] || getAt(o, ['pixels']) === undefined) return;
     const field = `observations[${k}]`;
     const id = String(getAt(o, ['id']));
-    const wall = getAt(o, ['wall']);
+    const wall = getAt(o, ['wall']) ?? getAt(o, ['pixels', 'wall']);
     const m = ctx.derived.measurements.find((x) => x.field === field);
     const refusal = ctx.derived.itemRefusals.get(field);
     const rows: HTMLElement[] = [];
@@ -84,13 +72,14 @@ function observationItems(ctx: MeasurementsContext): HTMLElement[] {
       const quantities = measuredQuantities(m.measurement);
       quantities.forEach(({ name, quantity: q }, j) => {
         const used = m.values[j];
-        const w = VALUE_WORDS[name];
+        const words = MEASURED_VALUE_WORDS[name];
+        const w = { ...words, unit: words.unit ? ` ${words.unit}` : '' };
         const side = (name === 'slopeDeg' || name === 'widthRatio') && 'side' in m.measurement ? `, to the ${m.measurement.side}` : '';
         rows.push(h('div', { class: 'value', 'data-value': name, 'data-number': String(q.value), 'data-sigma': String(used.sigma) }, [
           h('span', { class: 'value-name', text: w.label }),
           h('span', { class: 'value-number', text: `${q.value.toFixed(w.digits)}${w.unit}${side}` }),
           h('span', { class: 'value-sigma', text: `sigma ${used.sigma.toFixed(w.digits)}${w.unit}${used.sigmaSource === 'monte-carlo' ? ' (Monte Carlo spread)' : ''}` }),
-          h('span', { class: 'small', text: `parts: clicked figure ${q.sigmaFromPlane.toFixed(w.digits)}, shadow points ${q.sigmaFromPoints.toFixed(w.digits)}${q.sigmaFromLength > 0 ? `, stated length ${q.sigmaFromLength.toFixed(w.digits)}` : ''}` }),
+          h('span', { class: 'small', text: `parts: clicked figure ${q.sigmaFromPlane.toFixed(w.digits)}, shadow points ${q.sigmaFromPoints.toFixed(w.digits)}${q.sigmaFromLength > 0 ? `, stated length ${q.sigmaFromLength.toFixed(w.digits)}` : ''}${q.sigmaFromAzimuth > 0 ? `, wall azimuth ${q.sigmaFromAzimuth.toFixed(w.digits)}` : ''}` }),
         ]));
         if (!q.firstOrderReliable) {
           rows.push(h('p', { class: 'warning' }, [h('strong', { text: 'Warning: ' }),
@@ -101,7 +90,7 @@ function observationItems(ctx: MeasurementsContext): HTMLElement[] {
     const remove = h('button', { type: 'button', class: 'quiet', text: 'Delete', 'aria-label': `delete ${id}` });
     remove.addEventListener('click', () => ctx.remove(`delete ${id}`, ['observations', k]));
     items.push(h('li', { class: 'item', 'data-item': field, 'data-id': id }, [
-      h('h4', { text: `${id}: ${KIND_WORDS[kind]}${typeof wall === 'string' ? ` on wall ${wall}` : kind === 'pole-shadow' ? ' on the ground' : ''}` }),
+      h('h4', { text: `${id}: ${KIND_WORDS[kind]}${kind === 'eave-shadow' ? ` of wall ${String(wall)}, on the ground` : typeof wall === 'string' ? ` on wall ${wall}` : ' on the ground'}` }),
       ...rows,
       refusal ? refusalNote(refusal) : null,
       getAt(o, ['note']) !== undefined ? h('p', { class: 'note', text: String(getAt(o, ['note'])) }) : null,

@@ -10,7 +10,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import type { ImageInfo, Scene } from '../scene/types.js';
-import { measurePixelObservation, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
+import { measurePixelObservation, type MeasureContext, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
 import { rectifyPlane, type RectifiedPlane } from './planeInImage.js';
 import { rectifyGroundFromWalls } from './groundFromWalls.js';
 import { solveCamera, type CameraSolution } from './camera.js';
@@ -68,11 +68,25 @@ export interface SceneMeasurements {
   readonly measurements: readonly { readonly field: string; readonly measurement: PixelMeasurement }[];
 }
 
-function isPixelObservation(obs: Scene['observations'][number]): obs is PixelObservation {
-  return (
-    (obs.kind === 'rod-shadow' || obs.kind === 'overhang-shadow' || obs.kind === 'fin-shadow' || obs.kind === 'pole-shadow') &&
-    obs.pixels !== undefined
-  );
+/** The kinds that have a pixel form measured on a plane (object-shadow pairs go through the camera: sceneSun.ts). */
+export const PLANE_PIXEL_KINDS: ReadonlySet<string> = new Set(['rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points']);
+
+/** True for an observation given in pixels on a plane. */
+export function isPixelObservation(obs: Scene['observations'][number]): obs is PixelObservation {
+  return PLANE_PIXEL_KINDS.has(obs.kind) && (obs as { pixels?: unknown }).pixels !== undefined;
+}
+
+/** The wall a pixel observation is measured on, or undefined for the ground. */
+export function pixelWallId(obs: PixelObservation): string | undefined {
+  if (obs.kind === 'pole-shadow' || obs.kind === 'eave-shadow') return undefined;
+  if (obs.kind === 'shadow-points') return obs.pixels?.wallId;
+  return obs.wallId;
+}
+
+/** The stated azimuth of the wall a pixel observation lies on (empty for the ground or an unknown wall). */
+export function measureContextOf(scene: Scene, obs: PixelObservation): MeasureContext {
+  const wall = scene.walls.find((w) => w.id === pixelWallId(obs));
+  return wall ? { wallAzimuthDeg: wall.azimuthDeg, wallAzimuthSigmaDeg: wall.azimuthSigmaDeg } : {};
 }
 
 /**
@@ -92,22 +106,25 @@ export function measureScenePixels(scene: Scene): SceneMeasurements {
     }
     let planeField: string;
     let plane: RectifiedPlane | undefined;
-    if (obs.kind === 'pole-shadow') {
+    const wallId = pixelWallId(obs);
+    let context: MeasureContext = {};
+    if (wallId === undefined) {
       planeField = 'groundPlane';
-      if (!scene.groundPlane && !scene.camera) throw new InvalidInputError(planeField, undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground), or a camera block', `${field} is a pole shadow in pixels`);
+      if (!scene.groundPlane && !scene.camera) throw new InvalidInputError(planeField, undefined, 'the ground plane clicked in the picture (a rectangle or points on level ground), or a camera block', `${field} is a ${obs.kind.replace('-', ' ')} in pixels on the ground`);
       plane = rectifySceneGround(scene, image, planes, camera);
     } else {
-      const index = scene.walls.findIndex((w) => w.id === obs.wallId);
+      const index = scene.walls.findIndex((w) => w.id === wallId);
       if (index < 0) {
-        throw new InvalidInputError(`${field}.wallId`, obs.wallId, `the id of a wall of this scene (${scene.walls.map((w) => JSON.stringify(w.id)).join(', ') || 'none given'})`);
+        throw new InvalidInputError(`${field}.${obs.kind === 'shadow-points' ? 'pixels.wall' : 'wallId'}`, wallId, `the id of a wall of this scene (${scene.walls.map((w) => JSON.stringify(w.id)).join(', ') || 'none given'})`);
       }
+      context = measureContextOf(scene, obs);
       planeField = `walls[${index}].imagePlane`;
       const wallPlane = scene.walls[index].imagePlane;
       if (!wallPlane && !scene.camera) throw new InvalidInputError(planeField, undefined, 'the wall clicked in the picture (a rectangle or points on the wall), or a camera block', `${field} is given in pixels on this wall`);
       plane = wallPlaneOf(scene, index, image, planes, camera);
     }
     planes.set(planeField, plane);
-    measurements.push({ field, measurement: measurePixelObservation(obs, plane, field) });
+    measurements.push({ field, measurement: measurePixelObservation(obs, plane, field, context) });
   });
   return { planes, measurements };
 }

@@ -11,6 +11,8 @@
  *   depth in metres (tan |HSA|), side from the sign.
  * - pole-shadow: foot -> tip on the ground (east, north); azimuth
  *   atan2(dE, dN) clockwise from north; length over heightM.
+ * - eave-shadow and shadow-points: measured in pointPixels.ts, on the same
+ *   parameter vectors (pixelSetup.ts).
  * A ratio of a length in the plane to a depth out of it (overhang, fin, pole
  * length) needs the plane in metres: an aspect-only rectangle fixes the plane
  * only up to scale, and those ratios are refused there.
@@ -30,50 +32,33 @@ import { InvalidInputError } from '../errors.js';
 import { atan2Deg, normalizeDeg360 } from '../math/angles.js';
 import type { RandomSource } from '../math/random.js';
 import type {
+  EaveShadowObservation,
   FinShadowObservation,
   OverhangShadowObservation,
   PoleShadowObservation,
   RodShadowObservation,
+  ShadowPointsObservation,
   Side,
 } from '../scene/types.js';
-import { applyHomography, fitHomographyDlt, homogeneousW, invertHomography, type Homography, type Point2 } from './homography.js';
+import { homogeneousW, type Point2 } from './homography.js';
 import { checkPixelPoint, toWorkingFrame, type RectifiedPlane, MIN_POINT_SEPARATION_PX } from './planeInImage.js';
-import { groundFromWallsParameterCount, groundFromWallsParameters, groundHomographyOf } from './groundFromWalls.js';
 import { monteCarloSpread, propagateFirstOrder, type MeasurementFunction } from './propagation.js';
-import { cameraPlaneHomographyOf, cameraPlaneParameterCount, cameraPlaneParameters } from './planeFromCamera.js';
+import {
+  clickSigma, lengthInputs, mapPoints, needsMetric, planeHow, planeParameters, quantityOf, sigmaWords,
+  type MeasuredQuantity, type Setup,
+} from './pixelSetup.js';
+import { measurePointPixels, pointPixelsSetup, type PointPixelMeasurement } from './pointPixels.js';
+
+export { LINEARITY_TOLERANCE, type MeasuredQuantity } from './pixelSetup.js';
 
 /** The pixel-form observations this module measures. */
 export type PixelObservation =
   | RodShadowObservation
   | OverhangShadowObservation
   | FinShadowObservation
-  | PoleShadowObservation;
-
-/** A measured number with its first-order sigma and the parts of that sigma. */
-export interface MeasuredQuantity {
-  readonly value: number;
-  readonly sigma: number;
-  /** Part of the sigma from the clicked corners (the rectification) alone. */
-  readonly sigmaFromPlane: number;
-  /** Part from the two clicked points of the observation alone. */
-  readonly sigmaFromPoints: number;
-  /** Part from the sigma of projectionM / heightM alone. */
-  readonly sigmaFromLength: number;
-  /**
-   * False when the measurement (any of its values, since they share the clicks) bends noticeably within
-   * two sigmas of the clicks (nonlinearity above LINEARITY_TOLERANCE, see src/image/propagation.ts): then the first-order sigma may be far from the
-   * true spread, and the Monte Carlo spread is the one to use.
-   */
-  readonly firstOrderReliable: boolean;
-  readonly nonlinearity: number;
-}
-
-/**
- * Largest nonlinearity (src/image/propagation.ts) for a trusted first-order sigma. Chosen on the synthetic
- * cameras of tests/image: well-conditioned cases stay below 0.2, the cases where the first-order sigma is
- * several times off the Monte Carlo spread reach 1 and more.
- */
-export const LINEARITY_TOLERANCE = 0.3;
+  | PoleShadowObservation
+  | EaveShadowObservation
+  | ShadowPointsObservation;
 
 /** What a user needs to judge the rectification. */
 export interface RectificationReport {
@@ -87,7 +72,7 @@ export interface RectificationReport {
   readonly note: string;
 }
 
-interface MeasurementCommon {
+export interface MeasurementCommon {
   readonly id: string;
   readonly note: string;
   readonly rectification: RectificationReport;
@@ -105,7 +90,8 @@ export type PixelMeasurement =
       readonly shadowAzimuthDeg: MeasuredQuantity;
       readonly lengthRatio?: MeasuredQuantity;
       readonly observation: PoleShadowObservation;
-    });
+    })
+  | PointPixelMeasurement;
 
 /** The report of a rectification's fit, with a plain-words note. */
 export function rectificationReport(plane: RectifiedPlane): RectificationReport {
@@ -136,99 +122,23 @@ export function rectificationReport(plane: RectifiedPlane): RectificationReport 
   };
 }
 
-/** Everything one observation's measurement depends on, as a parameter vector. */
-interface Setup {
-  readonly p0: number[];
-  readonly sigmas: number[];
-  readonly groups: string[];
-  readonly angular: boolean[];
-  readonly f: MeasurementFunction;
-  readonly names: readonly string[];
-}
+/** The pixel-form observations measured on a segment of two points (rod, overhang, fin, pole). */
+type SegmentObservation = RodShadowObservation | OverhangShadowObservation | FinShadowObservation | PoleShadowObservation;
 
-/**
- * The inputs that fix a plane, as the first entries of a parameter vector, with their sigmas and groups:
- * its clicked points (x, y each), or for a ground from two walls every click of both walls, the corner
- * and the two wall azimuths (groundFromWalls.ts), so that the Jacobian covers the whole chain.
- */
-function planeParameters(plane: RectifiedPlane): { p0: number[]; sigmas: number[] } {
-  if (plane.fromWalls) return groundFromWallsParameters(plane.fromWalls);
-  if (plane.fromCamera) return cameraPlaneParameters(plane.fromCamera);
-  const p0: number[] = [];
-  const sigmas: number[] = [];
-  plane.pixelPoints.forEach((p, i) => {
-    p0.push(p[0], p[1]);
-    sigmas.push(plane.pointSigmasPx[i], plane.pointSigmasPx[i]);
-  });
-  return { p0, sigmas };
-}
-
-/** Number of entries planeParameters gives. */
-function planeParameterCount(plane: RectifiedPlane): number {
-  if (plane.fromCamera) return cameraPlaneParameterCount(plane.fromCamera);
-  return plane.fromWalls ? groundFromWallsParameterCount(plane.fromWalls) : 2 * plane.pixelPoints.length;
-}
-
-/** Plane point of a working-frame pixel point under the inverse of the homography refitted to params. */
+/** Plane points of the segment's two points under the plane map refitted to params. */
 function mapSegment(plane: RectifiedPlane, params: readonly number[]): { from: Point2; to: Point2 } {
-  const k = planeParameterCount(plane);
-  let h: Homography;
-  if (plane.fromWalls) {
-    h = groundHomographyOf(plane.fromWalls, params);
-  } else if (plane.fromCamera) {
-    h = cameraPlaneHomographyOf(plane.fromCamera, params);
-  } else {
-    const px: Point2[] = [];
-    for (let i = 0; i < k / 2; i++) px.push([params[2 * i], params[2 * i + 1]]);
-    h = fitHomographyDlt(plane.planePoints, px).matrix;
-  }
-  const g = invertHomography(h);
-  return {
-    from: applyHomography(g, [params[k], params[k + 1]]),
-    to: applyHomography(g, [params[k + 2], params[k + 3]]),
-  };
+  const [from, to] = mapPoints(plane, params, 2);
+  return { from, to };
 }
 
-function lengthInputs(
-  value: number | undefined,
-  sigma: number | undefined,
-  field: string,
-  name: string,
-  sigmaName: string,
-  required: boolean,
-): { value: number; sigma: number } | undefined {
-  if (value === undefined && !required) return undefined;
-  if (!(typeof value === 'number' && Number.isFinite(value) && value > 0)) {
-    throw new InvalidInputError(`${field}.pixels.${name}`, value, 'a length in metres greater than 0');
-  }
-  const s = sigma ?? 0;
-  if (!(Number.isFinite(s) && s >= 0)) {
-    throw new InvalidInputError(`${field}.pixels.${sigmaName}`, sigma, 'a sigma in metres, 0 or more');
-  }
-  return { value, sigma: s };
+/** The options a measurement may need from the scene: the stated azimuth of the wall it lies on. */
+export interface MeasureContext {
+  readonly wallAzimuthDeg?: number;
+  readonly wallAzimuthSigmaDeg?: number;
 }
 
-function needsMetric(plane: RectifiedPlane, field: string, what: string): void {
-  if (plane.fromCamera) {
-    const where = plane.kind === 'wall' ? `wall ${plane.fromCamera.wallId} (its imagePlane` : 'the ground (groundPlane';
-    throw new InvalidInputError(
-      `${field}.pixels`,
-      'a plane from the camera only',
-      `a figure of known size on ${where} with widthM and heightM, or planePointsM) for ${field}`,
-      `${what} compares a length in the plane with a length out of it in metres; the camera fixes the ${plane.kind} only up to scale (its distance is unknown)`,
-    );
-  }
-  if (!plane.metric) {
-    throw new InvalidInputError(
-      `${plane.field}.aspect`,
-      plane.definition,
-      `a plane known in metres (widthM with heightM, or planePointsM) for ${field}`,
-      `${what} compares a length in the plane with a length out of it in metres; an aspect-only rectangle gives lengths in the plane only up to scale`,
-    );
-  }
-}
-
-function setupFor(obs: PixelObservation, plane: RectifiedPlane, field: string): Setup {
+function setupFor(obs: PixelObservation, plane: RectifiedPlane, field: string, context: MeasureContext): Setup {
+  if (obs.kind === 'eave-shadow' || obs.kind === 'shadow-points') return pointPixelsSetup(obs, plane, field, context);
   const seg = obs.pixels;
   if (seg === undefined) throw new InvalidInputError(`${field}.pixels`, seg, 'a pixel form: fromPx and toPx');
   const expectedPlane = obs.kind === 'pole-shadow' ? 'ground' : 'wall';
@@ -251,10 +161,7 @@ function setupFor(obs: PixelObservation, plane: RectifiedPlane, field: string): 
       throw new InvalidInputError(`${field}.pixels.${name}`, clicked, `a point on the ${plane.kind} (below its horizon line in the picture)`);
     }
   }
-  const pointSigma = seg.sigmaPx ?? image.pixelSigmaPx;
-  if (!(Number.isFinite(pointSigma) && pointSigma >= 0)) {
-    throw new InvalidInputError(`${field}.pixels.sigmaPx`, seg.sigmaPx, 'a sigma in pixels, 0 or more');
-  }
+  const pointSigma = clickSigma(seg.sigmaPx, plane, field);
   const p0: number[] = [];
   const sigmas: number[] = [];
   const groups: string[] = [];
@@ -321,32 +228,29 @@ function fmt(v: number, digits: number): string {
 /**
  * Measure a pixel-form observation on its rectified plane.
  * @param field path of the observation in the scene, e.g. `observations[3]`
+ * @param context the stated azimuth of the wall a point pair lies on (shadow-points on a wall of known size)
  */
-export function measurePixelObservation(obs: PixelObservation, plane: RectifiedPlane, field: string): PixelMeasurement {
-  const setup = setupFor(obs, plane, field);
+export function measurePixelObservation(obs: PixelObservation, plane: RectifiedPlane, field: string, context: MeasureContext = {}): PixelMeasurement {
+  const setup = setupFor(obs, plane, field, context);
   const fo = propagateFirstOrder(setup.f, setup.p0, setup.sigmas, setup.angular, setup.groups);
-  const q = (k: number): MeasuredQuantity => ({
-    value: fo.values[k],
-    sigma: fo.sigmas[k],
-    sigmaFromPlane: fo.sigmasByGroup.plane?.[k] ?? 0,
-    sigmaFromPoints: fo.sigmasByGroup.points?.[k] ?? 0,
-    sigmaFromLength: fo.sigmasByGroup.length?.[k] ?? 0,
-    firstOrderReliable: Math.max(...fo.nonlinearity) <= LINEARITY_TOLERANCE,
-    nonlinearity: fo.nonlinearity[k],
-  });
-  const { from, to } = mapSegment(plane, setup.p0);
   const rectification = rectificationReport(plane);
+  if (obs.kind === 'eave-shadow' || obs.kind === 'shadow-points') return measurePointPixels(obs, plane, field, setup, fo, rectification, context);
+  return measureSegment(obs, plane, field, setup, fo, rectification);
+}
+
+function measureSegment(
+  obs: SegmentObservation,
+  plane: RectifiedPlane,
+  field: string,
+  setup: Setup,
+  fo: ReturnType<typeof propagateFirstOrder>,
+  rectification: RectificationReport,
+): PixelMeasurement {
+  const q = (k: number): MeasuredQuantity => quantityOf(fo, k);
+  const { from, to } = mapSegment(plane, setup.p0);
   const unit = plane.metric ? 'm' : plane.fromCamera ? "camera's distances to the plane" : 'rectangle heights';
-  const how = plane.fromCamera
-    ? `on ${plane.kind === 'wall' ? `wall ${plane.fromCamera.wallId}` : 'the ground'} put into the picture by the camera (no clicked figure)`
-    : plane.fromWalls
-    ? `clicked on ${plane.field} (from the foot lines of walls ${plane.fromWalls.walls[0].id} and ${plane.fromWalls.walls[1].id} meeting at the corner)`
-    : `clicked on ${plane.field} (${plane.definition === 'points' ? `${plane.planePoints.length} plane points` : plane.definition === 'rectangle' ? 'rectangle of known size' : 'rectangle of known aspect'}` +
-    `${plane.fit.exactlyDetermined ? ', exact 4-point fit' : `, rms ${fmt(plane.fit.rms, 2)} px`})`;
-  const sigmaText = (m: MeasuredQuantity, d: number): string =>
-    `sigma ${fmt(m.sigma, d)} by first-order propagation (${plane.fromCamera ? 'camera lines' : 'corners'} ${fmt(m.sigmaFromPlane, d)}, points ${fmt(m.sigmaFromPoints, d)}` +
-    `${m.sigmaFromLength > 0 ? `, length ${fmt(m.sigmaFromLength, d)}` : ''})` +
-    (m.firstOrderReliable ? '' : ' NOT RELIABLE: the value bends within one clicking error (points far outside the clicked figure or near its horizon line); use the Monte Carlo spread');
+  const how = planeHow(plane);
+  const sigmaText = (m: MeasuredQuantity, d: number): string => sigmaWords(plane, m, d);
   const common = { id: obs.id, rectification, fromPlane: from, toPlane: to };
   switch (obs.kind) {
     case 'rod-shadow': {
@@ -403,9 +307,10 @@ export function monteCarloPixelObservation(
   field: string,
   rng: RandomSource,
   samples: number,
+  context: MeasureContext = {},
 ): { readonly names: readonly string[]; readonly values: readonly number[]; readonly means: readonly number[]; readonly sigmas: readonly number[]; readonly samples: number } {
   if (!(Number.isInteger(samples) && samples >= 2)) throw new InvalidInputError('samples', samples, 'a whole number of samples, 2 or more');
-  const setup = setupFor(obs, plane, field);
+  const setup = setupFor(obs, plane, field, context);
   const mc = monteCarloSpread(setup.f, setup.p0, setup.sigmas, setup.angular, rng, samples);
   return { names: setup.names, ...mc };
 }

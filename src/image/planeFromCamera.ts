@@ -46,14 +46,17 @@ export interface CameraPlaneSource {
   readonly wallId?: string;
 }
 
-/** H = K R [A | B | X0] for one camera (H&Z sec. 8.1.1, eq. (8.1)), plane -> working pixels. */
-function homographyOfCore(core: CameraCore, source: CameraPlaneSource): Homography {
+/** K R d: the image (working pixels, homogeneous) of a site direction d for one camera. */
+function imageOfDirection(core: CameraCore, d: Vector3): [number, number, number] {
   const f = core.focalLengthPx;
   const [px, py] = core.principalPointPx;
-  const cols = [source.axisA, source.axisB, source.origin].map((d) => {
-    const c = [dot3(core.rotation[0], d), dot3(core.rotation[1], d), dot3(core.rotation[2], d)];
-    return [f * c[0] + px * c[2], f * c[1] + py * c[2], c[2]];
-  });
+  const c = [dot3(core.rotation[0], d), dot3(core.rotation[1], d), dot3(core.rotation[2], d)];
+  return [f * c[0] + px * c[2], f * c[1] + py * c[2], c[2]];
+}
+
+/** H = K R [A | B | X0] for one camera (H&Z sec. 8.1.1, eq. (8.1)), plane -> working pixels. */
+function homographyOfCore(core: CameraCore, source: CameraPlaneSource): Homography {
+  const cols = [source.axisA, source.axisB, source.origin].map((d) => imageOfDirection(core, d));
   // row-major, like homography.ts
   return [cols[0][0], cols[1][0], cols[2][0], cols[0][1], cols[1][1], cols[2][1], cols[0][2], cols[1][2], cols[2][2]];
 }
@@ -72,6 +75,21 @@ export function cameraPlaneParameters(source: CameraPlaneSource): { p0: number[]
 export function cameraPlaneHomographyOf(source: CameraPlaneSource, params: readonly number[]): Homography {
   const core = cameraFromParameters(source.camera.input, source.camera.method, params, source.orientLike);
   return homographyOfCore(core, source);
+}
+
+/** The plane's unit normal N = A x B in the site frame (ground: up; wall: its outward normal). */
+export function cameraPlaneNormal(source: CameraPlaneSource): Vector3 {
+  const [a, b] = [source.axisA, source.axisB];
+  return [a[1] * b[2] - a[2] * b[1], a[2] * b[0] - a[0] * b[2], a[0] * b[1] - a[1] * b[0]];
+}
+
+/**
+ * The plane map and the image of its normal, K R N, with the camera refitted from a parameter vector: the point
+ * X0 + a A + b B + c N images at H (a, b, 1) + c K R N (H&Z sec. 8.1.1, eq. (8.1), extended by the normal column).
+ */
+export function cameraPlaneProjectionOf(source: CameraPlaneSource, params: readonly number[]): { homography: Homography; normalImage: readonly [number, number, number] } {
+  const core = cameraFromParameters(source.camera.input, source.camera.method, params, source.orientLike);
+  return { homography: homographyOfCore(core, source), normalImage: imageOfDirection(core, cameraPlaneNormal(source)) };
 }
 
 /**

@@ -6,7 +6,8 @@
  * observation given in pixels is measured (measureScene.ts); the observation
  * is then replaced by its numeric form (slopeDeg and side with sigmaDeg,
  * depthRatio with sigma, widthRatio and side with sigma, shadowAzimuthDeg and
- * lengthRatio with their sigmas), its `pixels` left out. Observations already
+ * lengthRatio with their sigmas, distanceRatio with sigma and projectionRatio,
+ * caster and shadow with sigmaM), its `pixels` left out. Observations already
  * numeric, walls, planes and everything else are kept as they are, so the
  * function is idempotent.
  *
@@ -23,7 +24,8 @@
  */
 import { createRandom } from '../math/random.js';
 import type { Observation, Scene } from '../scene/types.js';
-import { measureScenePixels } from './measureScene.js';
+import { isPixelObservation, measureContextOf, measureScenePixels } from './measureScene.js';
+import { shadowPointsSigmaM } from './pointPixels.js';
 import { monteCarloPixelObservation, type MeasuredQuantity, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
 import type { RectifiedPlane } from './planeInImage.js';
 import { hasObjectShadows, resolveSceneSun, type SceneSun } from './sceneSun.js';
@@ -33,7 +35,10 @@ export const RESOLVE_MONTE_CARLO_SAMPLES = 1000;
 
 /** One value written into the scene, with where its sigma came from. */
 export interface ResolvedValue {
-  /** Field name in the numeric form: 'slopeDeg', 'depthRatio', 'widthRatio', 'shadowAzimuthDeg', 'lengthRatio'. */
+  /**
+   * Field name in the numeric form: 'slopeDeg', 'depthRatio', 'widthRatio', 'shadowAzimuthDeg', 'lengthRatio', 'distanceRatio';
+   * for a point pair the direction it gives, 'sunAzimuthDeg' and 'sunAltitudeDeg' (written as caster, shadow and sigmaM).
+   */
   readonly name: string;
   readonly value: number;
   /** The sigma written into the scene. */
@@ -77,6 +82,10 @@ export function measuredQuantities(m: PixelMeasurement): readonly { readonly nam
       return m.lengthRatio
         ? [{ name: 'shadowAzimuthDeg', quantity: m.shadowAzimuthDeg }, { name: 'lengthRatio', quantity: m.lengthRatio }]
         : [{ name: 'shadowAzimuthDeg', quantity: m.shadowAzimuthDeg }];
+    case 'eave-shadow':
+      return [{ name: 'distanceRatio', quantity: m.distanceRatio }];
+    case 'shadow-points':
+      return [{ name: 'sunAzimuthDeg', quantity: m.sunAzimuthDeg }, { name: 'sunAltitudeDeg', quantity: m.sunAltitudeDeg }];
   }
 }
 
@@ -94,6 +103,13 @@ function numericObservation(m: PixelMeasurement, values: readonly ResolvedValue[
       return m.lengthRatio
         ? { ...m.observation, shadowAzimuthSigmaDeg: sigma('shadowAzimuthDeg'), lengthRatioSigma: sigma('lengthRatio') }
         : { ...m.observation, shadowAzimuthSigmaDeg: sigma('shadowAzimuthDeg') };
+    case 'eave-shadow':
+      return { ...m.observation, sigma: sigma('distanceRatio') };
+    case 'shadow-points': {
+      const [c, s] = [m.caster, m.shadow];
+      const distance = Math.hypot(c[0] - s[0], c[1] - s[1], c[2] - s[2]);
+      return { ...m.observation, sigmaM: shadowPointsSigmaM(distance, sigma('sunAzimuthDeg'), sigma('sunAltitudeDeg'), m.sunAltitudeDeg.value) };
+    }
   }
 }
 
@@ -120,7 +136,8 @@ export function resolvePixelObservations(scene: Scene): ResolvedScene {
     const index = Number(/\[(\d+)\]/.exec(field)![1]);
     const seed = (scene.seed + index) >>> 0; // one stream per observation, repeatable from the scene's seed
     const plane = planes.get(measurement.rectification.field)!;
-    const mc = monteCarloPixelObservation(scene.observations[index] as PixelObservation, plane, field, createRandom(seed), RESOLVE_MONTE_CARLO_SAMPLES);
+    const obs = scene.observations[index] as PixelObservation;
+    const mc = monteCarloPixelObservation(obs, plane, field, createRandom(seed), RESOLVE_MONTE_CARLO_SAMPLES, measureContextOf(scene, obs));
     const values = quantities.map(({ name, quantity }, k): ResolvedValue => {
       const mcSigma = mc.sigmas[k];
       const useMc = mcSigma > quantity.sigma;
@@ -141,7 +158,5 @@ export function resolvePixelObservations(scene: Scene): ResolvedScene {
 
 /** True when a scene has at least one observation given in pixels. */
 export function hasPixelObservations(scene: Scene): boolean {
-  return scene.observations.some(
-    (o) => ((o.kind === 'rod-shadow' || o.kind === 'overhang-shadow' || o.kind === 'fin-shadow' || o.kind === 'pole-shadow') && o.pixels !== undefined) || o.kind === 'object-shadow',
-  );
+  return scene.observations.some((o) => isPixelObservation(o) || o.kind === 'object-shadow');
 }

@@ -130,9 +130,13 @@ export function observationWords(o: Observation): string {
       return parts.length > 0 ? parts.join('; ') : 'measured in the picture (pixels)';
     }
     case 'eave-shadow':
-      return `shadow line distance / eave height ${o.distanceRatio}, sigma ${o.sigma}, eave projection / height ${o.projectionRatio}`;
+      return o.distanceRatio !== undefined
+        ? `shadow line distance / eave height ${o.distanceRatio}, sigma ${o.sigma ?? '?'}, eave projection / height ${o.projectionRatio ?? 0}`
+        : 'measured in the picture (pixels)';
     case 'shadow-points':
-      return `caster (${o.caster.join(', ')}) m, shadow (${o.shadow.join(', ')}) m, sigma ${o.sigmaM} m`;
+      return o.caster !== undefined && o.shadow !== undefined
+        ? `caster (${o.caster.join(', ')}) m, shadow (${o.shadow.join(', ')}) m, sigma ${o.sigmaM ?? '?'} m`
+        : 'measured in the picture (pixels)';
     case 'sun-direction':
       return `sun azimuth ${deg(o.azimuthDeg)} +/- ${deg(o.azimuthSigmaDeg)}, altitude ${deg(o.altitudeDeg)} +/- ${deg(o.altitudeSigmaDeg)}`;
     case 'wall-lit':

@@ -12,7 +12,7 @@ import {
   SIGMA_FLOOR,
 } from './fields.js';
 import { needImage, PIXEL_SIGMA, readPixelPoint, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
-import type { CameraBlock, ClockObservation, ImageInfo, Observation, ObservationKind, PlaneInImage, SitePoint, Wall } from './types.js';
+import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, Observation, ObservationKind, PlaneInImage, ShadowPointsPixels, SitePoint, Wall } from './types.js';
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
@@ -50,8 +50,8 @@ const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'overhang-shadow': [...COMMON, 'wall', 'depthRatio', 'sigma', 'pixels'],
   'fin-shadow': [...COMMON, 'wall', 'widthRatio', 'side', 'sigma', 'pixels'],
   'pole-shadow': [...COMMON, 'shadowAzimuthDeg', 'shadowAzimuthSigmaDeg', 'lengthRatio', 'lengthRatioSigma', 'pixels'],
-  'eave-shadow': [...COMMON, 'wall', 'distanceRatio', 'sigma', 'projectionRatio'],
-  'shadow-points': [...COMMON, 'caster', 'shadow', 'sigmaM'],
+  'eave-shadow': [...COMMON, 'wall', 'distanceRatio', 'sigma', 'projectionRatio', 'pixels'],
+  'shadow-points': [...COMMON, 'caster', 'shadow', 'sigmaM', 'pixels'],
   'sun-direction': [...COMMON, 'azimuthDeg', 'azimuthSigmaDeg', 'altitudeDeg', 'altitudeSigmaDeg'],
   'wall-lit': [...COMMON, 'wall'],
   'wall-shaded': [...COMMON, 'wall'],
@@ -123,6 +123,72 @@ function readSitePoint(f: Fields, key: string): SitePoint {
   if (!has(f, key)) throw missing(f, key, 'a site point [eastM, northM, upM]');
   const list = checkList(raw(f, key), path, 'a site point [eastM, northM, upM]', 3, 3);
   return [0, 1, 2].map((i) => checkNumber(list[i], itemPath(path, i), SITE_COORD)) as unknown as SitePoint;
+}
+
+/** A stated length and its sigma in metres, given together (both required). */
+function lengthPair(p: Fields, key: string, sigmaKey: string, words: string, zeroAllowed: boolean): { value: number; sigma: number } {
+  if (!has(p, key)) throw missing(p, key, words);
+  if (!has(p, sigmaKey)) throw missing(p, sigmaKey, `the sigma of ${key} in metres`);
+  const value = num(p, key, zeroAllowed ? { words, min: 0, max: 10_000 } : { ...LENGTH_M, words });
+  return { value, sigma: num(p, sigmaKey, LENGTH_SIGMA_M) };
+}
+
+/** An eave's shadow line in pixels: on the ground plane of known size (src/image/pointPixels.ts). */
+function readEavePixels(f: Fields, ctx: ObservationContext): EavePixels {
+  const image = needImage(ctx.image, keyPath(f.path, 'pixels'), raw(f, 'pixels'));
+  if (ctx.groundPlane === undefined) {
+    throw new InvalidInputError(
+      keyPath(f.path, 'pixels'), raw(f, 'pixels'), 'pixel measurements of an eave\'s shadow line only when the scene has a "groundPlane" of known size',
+      'The distance of the shadow line from the wall is compared with the eave\'s height in metres; a camera alone fixes the ground only up to scale.',
+    );
+  }
+  const p = openPixels(f, ctx, ['alongPx', 'heightM', 'heightSigmaM', 'projectionM', 'projectionSigmaM']);
+  const segment = readSegmentPart(p, image);
+  if (!has(p, 'alongPx')) throw missing(p, 'alongPx', "a second image point [xPx, yPx] of the wall's foot line (fromPx is the first)");
+  const alongPx = readPixelPoint(raw(p, 'alongPx'), keyPath(p.path, 'alongPx'), image);
+  const height = lengthPair(p, 'heightM', 'heightSigmaM', "the eave's height above the ground, metres", false);
+  const projection = has(p, 'projectionM') || has(p, 'projectionSigmaM')
+    ? lengthPair(p, 'projectionM', 'projectionSigmaM', 'how far the eave edge stands out from the wall, metres (0 on the wall plane)', true)
+    : { value: 0, sigma: 0 };
+  return { ...segment, alongPx, heightM: height.value, heightSigmaM: height.sigma, projectionM: projection.value, projectionSigmaM: projection.sigma };
+}
+
+/** A caster's foot and its shadow in pixels, on the ground or a wall (src/image/pointPixels.ts). */
+function readPointPairPixels(f: Fields, ctx: ObservationContext): ShadowPointsPixels {
+  const image = needImage(ctx.image, keyPath(f.path, 'pixels'), raw(f, 'pixels'));
+  const p = openPixels(f, ctx, ['wall', 'heightM', 'heightSigmaM', 'objectPx']);
+  let wallId: string | undefined;
+  let planeGiven: boolean;
+  if (has(p, 'wall')) {
+    const wall = wallRef(p, ctx);
+    wallId = wall.id;
+    planeGiven = wall.imagePlane !== undefined;
+  } else {
+    planeGiven = ctx.groundPlane !== undefined;
+  }
+  const where = wallId !== undefined ? `wall "${wallId}"` : 'the ground';
+  if (!planeGiven && ctx.camera === undefined) {
+    throw new InvalidInputError(
+      keyPath(f.path, 'pixels'), raw(f, 'pixels'),
+      `a point pair on ${where} only when ${wallId !== undefined ? 'that wall has an "imagePlane"' : 'the scene has a "groundPlane"'} or the scene has a "camera" block`,
+    );
+  }
+  const segment = readSegmentPart(p, image);
+  if (planeGiven) {
+    if (has(p, 'objectPx')) {
+      throw new InvalidInputError(keyPath(p.path, 'objectPx'), raw(p, 'objectPx'), `no objectPx when ${where} is clicked as a figure of known size: give heightM and heightSigmaM`,
+        'The caster is placed by its distance from the plane in metres; only a plane from the camera places a clicked caster.');
+    }
+    const height = lengthPair(p, 'heightM', 'heightSigmaM', "the caster's distance from the plane, metres (its height above the ground, or how far it stands out from the wall)", false);
+    return { ...segment, ...(wallId !== undefined ? { wallId } : {}), heightM: height.value, heightSigmaM: height.sigma };
+  }
+  if (has(p, 'heightM')) {
+    throw new InvalidInputError(keyPath(p.path, 'heightM'), raw(p, 'heightM'), `no heightM when ${where} comes from the camera alone: click the caster itself (objectPx)`,
+      'The camera fixes the plane only up to scale, so a length in metres cannot be placed on it.');
+  }
+  if (!has(p, 'objectPx')) throw missing(p, 'objectPx', 'the image point [xPx, yPx] of the caster (the point whose shadow is toPx)');
+  const objectPx = readPixelPoint(raw(p, 'objectPx'), keyPath(p.path, 'objectPx'), image);
+  return { ...segment, ...(wallId !== undefined ? { wallId } : {}), objectPx };
 }
 
 /** "7:40" or "19:05:30" to minutes after midnight (or after 12 on a 12-hour dial). */
@@ -270,12 +336,18 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
     }
     case 'eave-shadow': {
       const wall = wallRef(f, ctx);
+      if (pixelForm(f, ['distanceRatio', 'sigma', 'projectionRatio'], 'numbers (distanceRatio, sigma, projectionRatio)')) {
+        return { ...base, kind, wallId: wall.id, pixels: readEavePixels(f, ctx) };
+      }
       const distanceRatio = num(f, 'distanceRatio', { ...RATIO, words: 'distance of the shadow line from the wall / height of the eave (no unit)' });
       const sigma = num(f, 'sigma', RATIO_SIGMA);
       const projectionRatio = optNum(f, 'projectionRatio', { ...RATIO, words: 'how far the eave stands out / its height (no unit)' }, 0);
       return { ...base, kind, wallId: wall.id, distanceRatio, sigma, projectionRatio };
     }
     case 'shadow-points': {
+      if (pixelForm(f, ['caster', 'shadow', 'sigmaM'], 'surveyed points (caster, shadow, sigmaM)')) {
+        return { ...base, kind, pixels: readPointPairPixels(f, ctx) };
+      }
       const caster = readSitePoint(f, 'caster');
       const shadow = readSitePoint(f, 'shadow');
       if (!(caster[2] > shadow[2])) {

@@ -222,18 +222,49 @@ export interface EaveShadowObservation extends ObservationBase {
   readonly kind: 'eave-shadow';
   readonly wallId: string;
   /** Distance of the shadow line from the wall foot, measured along the wall normal, over the eave's height above the ground. */
-  readonly distanceRatio: number;
-  readonly sigma: number;
+  readonly distanceRatio?: number;
+  readonly sigma?: number;
   /** How far the eave edge stands out from the wall, over its height; 0 when the edge is on the wall plane. */
-  readonly projectionRatio: number;
+  readonly projectionRatio?: number;
+  /**
+   * Pixel form on the ground plane: fromPx on the wall's foot line, alongPx a second point of that foot line,
+   * toPx a point of the eave's shadow line; the eave's height (and projection) in metres.
+   */
+  readonly pixels?: EavePixels;
+}
+
+/** The clicks and stated lengths of an eave's shadow line measured on the ground plane. */
+export interface EavePixels extends PixelSegment {
+  /** A second point of the wall's foot line (fromPx is the first). */
+  readonly alongPx: PixelPoint;
+  readonly heightM: number;
+  readonly heightSigmaM: number;
+  /** How far the eave edge stands out from the wall, metres; 0 when the edge is on the wall plane. */
+  readonly projectionM: number;
+  readonly projectionSigmaM: number;
 }
 
 /** 6. A caster point and its shadow point, surveyed, site coordinates. */
 export interface ShadowPointsObservation extends ObservationBase {
   readonly kind: 'shadow-points';
-  readonly caster: SitePoint;
-  readonly shadow: SitePoint;
-  readonly sigmaM: number; // per coordinate, both points
+  readonly caster?: SitePoint;
+  readonly shadow?: SitePoint;
+  readonly sigmaM?: number; // per coordinate, both points
+  /** Pixel form: the caster's foot and its shadow clicked on a plane (the ground, or a wall). */
+  readonly pixels?: ShadowPointsPixels;
+}
+
+/**
+ * A caster point and its shadow point clicked on one plane: fromPx is the caster's foot (the point of the plane
+ * straight below it, or behind it on a wall), toPx the shadow point. The caster stands heightM out of the plane
+ * (a plane of known size), or is clicked itself at objectPx (a plane put into the picture by the camera).
+ */
+export interface ShadowPointsPixels extends PixelSegment {
+  /** The wall the points lie on; absent: the ground. */
+  readonly wallId?: string;
+  readonly heightM?: number;
+  readonly heightSigmaM?: number;
+  readonly objectPx?: PixelPoint;
 }
 
 /** 7. A sun direction estimated by other means. */

@@ -136,9 +136,24 @@ function shadowEvidenceOf(o: Observation, i: number): { evidence: ShadowEvidence
       };
     }
     case 'eave-shadow':
-      return { evidence: { kind: 'eave-shadow', distanceRatio: o.distanceRatio, sigma: o.sigma, projectionRatio: o.projectionRatio }, wallId: o.wallId };
+      return {
+        evidence: {
+          kind: 'eave-shadow',
+          distanceRatio: need(o.distanceRatio, `${f}.distanceRatio`, 'a ratio >= 0'),
+          sigma: need(o.sigma, `${f}.sigma`, 'a sigma > 0'),
+          projectionRatio: o.projectionRatio ?? 0,
+        },
+        wallId: o.wallId,
+      };
     case 'shadow-points':
-      return { evidence: { kind: 'shadow-points', caster: o.caster, shadow: o.shadow, sigmaM: o.sigmaM } };
+      return {
+        evidence: {
+          kind: 'shadow-points',
+          caster: need(o.caster, `${f}.caster`, 'a site point [eastM, northM, upM]'),
+          shadow: need(o.shadow, `${f}.shadow`, 'a site point [eastM, northM, upM]'),
+          sigmaM: need(o.sigmaM, `${f}.sigmaM`, 'a sigma in metres > 0'),
+        },
+      };
     case 'sun-direction':
       return {
         evidence: { kind: 'sun-direction', azimuthDeg: o.azimuthDeg, azimuthSigmaDeg: o.azimuthSigmaDeg, altitudeDeg: o.altitudeDeg, altitudeSigmaDeg: o.altitudeSigmaDeg },

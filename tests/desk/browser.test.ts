@@ -4,13 +4,11 @@ import { spawnSync, type ChildProcess } from 'node:child_process';
 import { copyFileSync, existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
-import { fileURLToPath } from 'node:url';
 import type { Browser, Page } from 'playwright-core';
 import { CHROMIUM, launchChromium } from '../helpers/chromium.js';
-import { BIN } from '../helpers/runCli.js';
 import { parse, stringify } from 'yaml';
 import { tiffFile } from './tiffFile.js';
-import { startDesk, watch } from './deskSession.js';
+import { CLI, OUT_DIR, ROOT, clickPixel, cli, expectShownAsMeasured, fillField, pickTool, startDesk, toolField, watch as watchPage } from './deskPage.js';
 
 // The measuring desk in a real browser (issue 10, "What it must show"): Debian's Chromium through
 // playwright-core, as tests/report/browser.test.ts does. The desk is started by the command line on
@@ -19,9 +17,6 @@ import { startDesk, watch } from './deskSession.js';
 // the screen-to-picture mapping is exercised), the other fields through the forms. The values the
 // page shows are compared with what `heliochron measure` prints for the example file, its first
 // candidate with `heliochron date`'s, and the file it saves is dated again by the command line.
-const ROOT = fileURLToPath(new URL('../../', import.meta.url));
-const CLI = BIN;
-const OUT_DIR = join(ROOT, 'test-output', 'desk');
 const EXAMPLE_DIR = join(ROOT, 'examples', 'tanners-hall-photo');
 const EXAMPLE = join(EXAMPLE_DIR, 'tanners-hall-photo.yaml');
 const PICTURE = 'tanners-hall-photo.png';
@@ -38,12 +33,6 @@ let desk: ChildProcess | undefined;
 let deskUrl = '';
 let folder = '';
 const example = parse(readFileSync(EXAMPLE, 'utf8')) as Example;
-
-function cli(args: readonly string[], cwd = ROOT): string {
-  const run = spawnSync(process.execPath, [CLI, ...args], { cwd, encoding: 'utf8' });
-  if (run.status !== 0) throw new Error(`heliochron ${args.join(' ')} exited with ${run.status}: ${run.stderr}`);
-  return run.stdout;
-}
 
 beforeAll(async () => {
   if (!existsSync(CHROMIUM)) {
@@ -66,60 +55,16 @@ afterAll(async () => {
   if (folder) rmSync(folder, { recursive: true, force: true });
 });
 
-/** Click a picture pixel: the picture is moved (middle-button drag) until the point is well inside the view. */
-async function clickPixel(page: Page, p: readonly [number, number]): Promise<void> {
-  const viewer = page.locator('#viewer');
-  const box = (await viewer.boundingBox())!;
-  const read = async () => ({
-    zoom: Number(await viewer.getAttribute('data-zoom')),
-    panX: Number(await viewer.getAttribute('data-pan-x')),
-    panY: Number(await viewer.getAttribute('data-pan-y')),
-  });
-  let view = await read();
-  let sx = view.panX + view.zoom * p[0];
-  let sy = view.panY + view.zoom * p[1];
-  if (sx < 220 || sy < 40 || sx > box.width - 40 || sy > box.height - 40) {
-    const cx = Math.round(box.width / 2);
-    const cy = Math.round(box.height / 2);
-    const dx = Math.round(cx - sx);
-    const dy = Math.round(cy - sy);
-    await page.mouse.move(box.x + cx, box.y + cy);
-    await page.mouse.down({ button: 'middle' });
-    await page.mouse.move(box.x + cx + dx / 2, box.y + cy + dy / 2);
-    await page.mouse.move(box.x + cx + dx, box.y + cy + dy);
-    await page.mouse.up({ button: 'middle' });
-    view = await read();
-    sx = view.panX + view.zoom * p[0];
-    sy = view.panY + view.zoom * p[1];
-  }
-  const now = (await viewer.boundingBox())!; // the box itself, read again just before the click
-  await page.mouse.click(now.x + sx, now.y + sy);
-}
-
-async function fillField(page: Page, field: string, value: string): Promise<void> {
-  const input = page.locator(`[data-field="${field}"]`);
-  await input.fill(value);
-  await input.press('Tab');
-}
-
-async function toolField(page: Page, name: string, value: string, select = false): Promise<void> {
-  const input = page.locator(`#tool-fields [data-tool-field="${name}"]`);
-  if (select) await input.selectOption(value);
-  else {
-    await input.fill(value);
-    await input.dispatchEvent('change');
-  }
-}
-
-async function pickTool(page: Page, id: string): Promise<void> {
-  await page.locator(`#tool-buttons [data-tool="${id}"]`).click();
+/** Watch a page (deskPage.ts), by default at the address of the desk started above. */
+function watch(page: Page, address = deskUrl): ReturnType<typeof watchPage> {
+  return watchPage(page, address);
 }
 
 describe('the measuring desk in Chromium', () => {
   it('measures the Tanners\' Hall picture by clicks, dates it as the command line does, saves a file the command line dates the same, and restores the work after a reload', async () => {
     const context = await browser!.newContext({ viewport: { width: 1500, height: 1000 } });
     const page = await context.newPage();
-    const watched = watch(page, deskUrl);
+    const watched = watch(page);
     await page.goto(deskUrl);
     await page.waitForSelector('body[data-ready="true"]');
     expect(await page.locator('[data-field="image.widthPx"]').inputValue()).toBe('1600');
@@ -199,16 +144,7 @@ describe('the measuring desk in Chromium', () => {
     // the values shown equal `heliochron measure`'s for the example file
     const measured = JSON.parse(cli(['measure', EXAMPLE, '--json'])) as { observations: { id: string; values: { name: string; value: number; sigma: number }[] }[] };
     expect(measured.observations.length).toBe(3);
-    for (const o of measured.observations) {
-      for (const v of o.values) {
-        const cell = page.locator(`li[data-id="${o.id}"] [data-value="${v.name}"]`);
-        const shown = Number(await cell.getAttribute('data-number'));
-        const sigma = Number(await cell.getAttribute('data-sigma'));
-        const tolerance = v.name.endsWith('Deg') ? 0.01 : 0.001; // issue 10: 0.01 deg, 0.001 in a ratio
-        expect(Math.abs(shown - v.value), `${o.id} ${v.name}`).toBeLessThanOrEqual(tolerance);
-        expect(Math.abs(sigma - v.sigma), `${o.id} ${v.name} sigma`).toBeLessThanOrEqual(tolerance);
-      }
-    }
+    await expectShownAsMeasured(page, measured);
     expect(await page.locator('.message').count()).toBe(0); // the reader takes the whole scene
 
     // "Date it" gives the command line's first candidate

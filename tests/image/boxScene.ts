@@ -6,7 +6,7 @@
  * syntheticCamera.ts, not by the code under test). Shadow points by explicit
  * ray-plane intersection.
  */
-import type { RandomSource } from '../../src/math/random.js';
+import { createRandom, type RandomSource } from '../../src/math/random.js';
 import type { CameraInput, LineFamily } from '../../src/image/cameraModel.js';
 import type { ShadowPairInput } from '../../src/image/cameraSun.js';
 import type { Scene } from '../../src/scene/types.js';
@@ -113,6 +113,17 @@ export function randomBoxPicture(rng: RandomSource, options: BoxOptions = {}): B
     if (Math.abs(m[2]) < Math.sin((8 * Math.PI) / 180) * Math.hypot(...m)) return null;
   }
   return { camera, widthPx, heightPx, wallAzimuthsDeg: [azA % 360, azB % 360], sun: { azimuthDeg: ((sunAz % 360) + 360) % 360, altitudeDeg: sunAlt }, vertical, wallA, wallB, pairs };
+}
+
+/** `count` random box pictures that `accept` takes, drawn from one generator seeded with `seed`, and that generator after them. */
+export function boxPictures(seed: number, count: number, accept: (pic: BoxPicture) => boolean, options: BoxOptions = {}): { pics: BoxPicture[]; rng: RandomSource } {
+  const rng = createRandom(seed);
+  const pics: BoxPicture[] = [];
+  while (pics.length < count) {
+    const pic = randomBoxPicture(rng, options);
+    if (pic && accept(pic)) pics.push(pic);
+  }
+  return { pics, rng };
 }
 
 /** The camera input a user would click on the picture, with clicking noise `noisePx` and stated sigma `sigmaPx`. */

@@ -16,7 +16,7 @@ import { rectifyPlane, type RectifiedPlane } from '../../src/image/planeInImage.
 import { measurePixelObservation, monteCarloPixelObservation } from '../../src/image/pixelObservations.js';
 import { createRandom, type RandomSource } from '../../src/math/random.js';
 import type { ImageInfo, PoleShadowObservation, RodShadowObservation } from '../../src/scene/types.js';
-import { cameraInputOf, randomBoxPicture, sceneOfPicture, type BoxPicture } from './boxScene.js';
+import { boxPictures, cameraInputOf, sceneOfPicture, type BoxPicture } from './boxScene.js';
 import { resolvePixelObservations } from '../../src/image/resolvePixels.js';
 import { readSceneText } from '../../src/scene/readScene.js';
 import { readFileSync } from 'node:fs';
@@ -55,13 +55,7 @@ function measuredScene(pic: BoxPicture): { wallPoints: Vec3[]; rod: [Vec3, Vec3]
 }
 
 function pictures(seed: number, count: number): { pics: BoxPicture[]; rng: RandomSource } {
-  const rng = createRandom(seed);
-  const pics: BoxPicture[] = [];
-  while (pics.length < count) {
-    const pic = randomBoxPicture(rng, { pairs: 3 });
-    if (pic && measuredScene(pic)) pics.push(pic);
-  }
-  return { pics, rng };
+  return boxPictures(seed, count, (pic) => measuredScene(pic) !== null, { pairs: 3 });
 }
 
 interface Case {

@@ -1,6 +1,6 @@
 /**
  * The desk's measuring tools, in the order of their buttons. One line per tool: the figures of
- * known size and their shadows, then the picture's own perspective (vertical edges, wall
+ * known size and their shadows (rod, overhang, fin, pole, eave line, caster and shadow point), then the picture's own perspective (vertical edges, wall
  * courses) and object-shadow pairs on any surface.
  */
 import type { DeskTool } from './tool.js';
@@ -11,6 +11,8 @@ import { rodShadowTool } from './rodShadow.js';
 import { overhangShadowTool } from './overhangShadow.js';
 import { finShadowTool } from './finShadow.js';
 import { poleShadowTool } from './poleShadow.js';
+import { eaveShadowTool } from './eaveShadow.js';
+import { pointPairTool } from './pointPair.js';
 import { verticalEdgesTool } from './verticalEdges.js';
 import { wallCoursesTool } from './wallCourses.js';
 import { objectShadowTool } from './objectShadow.js';
@@ -23,6 +25,8 @@ export const TOOLS: readonly DeskTool[] = [
   overhangShadowTool,
   finShadowTool,
   poleShadowTool,
+  eaveShadowTool,
+  pointPairTool,
   verticalEdgesTool,
   wallCoursesTool,
   objectShadowTool,

@@ -1,7 +1,8 @@
 /**
- * The common shape of the four two-click shadow tools (rod, overhang, fin, pole): two points,
- * from (`fromPx`) then to (`toPx`), as docs/measuring.md section 3 asks, and the lengths the
- * kind needs. Each tool file states its own words and fields.
+ * The common shape of the shadow tools on one plane (rod, overhang, fin, pole, eave): their
+ * points in order, from (`fromPx`) then to (`toPx`), as docs/measuring.md section 3 asks, or the
+ * kind's own list (the eave's foot line takes two), and the lengths the kind needs. Each tool
+ * file states its own words and fields.
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
@@ -9,17 +10,20 @@ import { pointValue, typedNumber, wallIndex, type DeskTool, type ToolField, type
 
 export interface ShadowToolSpec {
   readonly id: string;
-  readonly kind: 'rod-shadow' | 'overhang-shadow' | 'fin-shadow' | 'pole-shadow';
+  readonly kind: 'rod-shadow' | 'overhang-shadow' | 'fin-shadow' | 'pole-shadow' | 'eave-shadow';
   readonly name: string;
   readonly key: string;
   readonly onWall: boolean;
   readonly fromWords: string;
   readonly toWords: string;
+  /** The points under `pixels` in click order, with what to click; absent: fromPx then toPx. */
+  readonly points?: readonly (readonly [key: string, words: string])[];
   /** Extra fields copied into `pixels` by name (projectionM, heightM, ...). */
   readonly lengthFields: readonly ToolField[];
 }
 
 export function shadowTool(spec: ShadowToolSpec): DeskTool {
+  const points = spec.points ?? [['fromPx', spec.fromWords], ['toPx', spec.toWords]];
   const fields: ToolField[] = [
     { name: 'id', label: 'name (id)', kind: 'text', initial: spec.id },
     ...(spec.onWall ? [{ name: 'wall', label: 'on wall', kind: 'wall' as const, initial: '' }] : []),
@@ -31,11 +35,11 @@ export function shadowTool(spec: ShadowToolSpec): DeskTool {
     name: spec.name,
     key: spec.key,
     fields,
-    clicks: () => [`Click ${spec.fromWords}.`, `Click ${spec.toWords}.`],
+    clicks: () => points.map(([, words]) => `Click ${words}.`),
     finish(draft: Draft, clicks: readonly PixelPoint[], values: ToolValues) {
       if (spec.onWall && wallIndex(draft, values.wall ?? '') < 0) return 'Choose the wall it falls on (add the wall under Walls first).';
       const id = values.id?.trim() ? freshObservationId(draft, values.id.trim()) : freshObservationId(draft, spec.id);
-      const pixels: Record<string, DraftValue> = { fromPx: pointValue(clicks[0]), toPx: pointValue(clicks[1]) };
+      const pixels: Record<string, DraftValue> = Object.fromEntries(points.map(([key], k) => [key, pointValue(clicks[k])]));
       for (const f of spec.lengthFields) if ((values[f.name] ?? '').trim() !== '') pixels[f.name] = typedNumber(values[f.name]);
       const observation: Record<string, DraftValue> = { id, kind: spec.kind };
       if (spec.onWall) observation.wall = values.wall;
