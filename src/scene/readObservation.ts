@@ -16,7 +16,7 @@ import type { CameraBlock, ClockObservation, ImageInfo, Observation, Observation
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
-  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'object-shadow',
+  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'object-shadow', 'shadow-wedge',
 ];
 
 /** Identifiers of walls and observations: letters, digits, '-', '_', '.'. */
@@ -58,6 +58,7 @@ const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'sun-up': [...COMMON],
   clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
   'object-shadow': [...COMMON, 'objectPx', 'shadowPx', 'sigmaPx'],
+  'shadow-wedge': [...COMMON, 'shadowPx', 'edgesPx', 'sigmaPx'],
 };
 
 /** The keys an observation of each kind may hold (for the schema test and the docs). */
@@ -300,14 +301,16 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind };
     case 'clock':
       return readClock(f, id, note);
-    case 'object-shadow': {
-      const image = needImage(ctx.image, keyPath(path, 'objectPx'), raw(f, 'objectPx'));
+    case 'object-shadow':
+    case 'shadow-wedge': {
+      const image = needImage(ctx.image, keyPath(path, kind === 'object-shadow' ? 'objectPx' : 'shadowPx'), raw(f, kind === 'object-shadow' ? 'objectPx' : 'shadowPx'));
       if (ctx.camera === undefined) {
         throw new InvalidInputError(
-          keyPath(path, 'kind'), kind, 'an object-shadow pair only when the scene has a "camera" block',
+          keyPath(path, 'kind'), kind, `${kind === 'object-shadow' ? 'an object-shadow pair' : 'a shadow wedge'} only when the scene has a "camera" block`,
           'The camera (lines along vertical edges and along walls of known azimuth) turns the pair into a sun direction; see docs/measuring.md.',
         );
       }
+      if (kind === 'shadow-wedge') return readWedge(f, base, image);
       if (!has(f, 'objectPx')) throw missing(f, 'objectPx', 'the image point [xPx, yPx] of the point that casts the shadow');
       if (!has(f, 'shadowPx')) throw missing(f, 'shadowPx', 'the image point [xPx, yPx] of its shadow');
       const objectPx = readPixelPoint(raw(f, 'objectPx'), keyPath(path, 'objectPx'), image);
@@ -316,4 +319,19 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind, objectPx, shadowPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}) };
     }
   }
+}
+
+/** A shadow-wedge observation: the shadow point and two points bounding the directions of its object point. */
+function readWedge(f: Fields, base: { readonly id: string; readonly note?: string; readonly group?: string }, image: ImageInfo): Observation {
+  const path = f.path;
+  if (!has(f, 'shadowPx')) throw missing(f, 'shadowPx', 'the image point [xPx, yPx] of the shadow');
+  if (!has(f, 'edgesPx')) throw missing(f, 'edgesPx', 'two image points [[xPx, yPx], [xPx, yPx]], one on each side of the wedge in which the object point lies');
+  const shadowPx = readPixelPoint(raw(f, 'shadowPx'), keyPath(path, 'shadowPx'), image);
+  const list = raw(f, 'edgesPx');
+  if (!Array.isArray(list) || list.length !== 2) {
+    throw new InvalidInputError(keyPath(path, 'edgesPx'), list, 'two image points [[xPx, yPx], [xPx, yPx]], one on each side of the wedge in which the object point lies');
+  }
+  const edgesPx = [readPixelPoint(list[0], itemPath(keyPath(path, 'edgesPx'), 0), image), readPixelPoint(list[1], itemPath(keyPath(path, 'edgesPx'), 1), image)] as const;
+  const sigmaPx = optNum(f, 'sigmaPx', PIXEL_SIGMA);
+  return { ...base, kind: 'shadow-wedge', shadowPx, edgesPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}) };
 }

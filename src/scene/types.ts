@@ -7,6 +7,7 @@
  * (azimuth origin, wall axes, pixel axes) are in docs/conventions.md.
  */
 import type { DeltaTModel } from '../time/deltaT.js';
+import type { SkyPlane } from '../geometry/skyPlanes.js';
 
 
 /** A point in image pixels: x to the right, y down, origin at the top-left corner of the top-left pixel. */
@@ -265,6 +266,23 @@ export interface ObjectShadowObservation extends ObservationBase {
   readonly shadowPx: PixelPoint;
   /** Clicking sigma of both points, else the image's pixelSigmaPx. */
   readonly sigmaPx?: number;
+  /**
+   * Filled in through the camera before solving (src/image/resolvePixels.ts), never read from the file: the
+   * pair's great circle of the sky and the two side planes that keep the sun on its arc (src/image/sunConstraints.ts).
+   */
+  readonly circle?: SkyPlane;
+  readonly sides?: readonly [SkyPlane, SkyPlane];
+}
+
+/** 8b. A shadow point whose object point is known only to lie within a wedge seen from it (needs the camera). */
+export interface ShadowWedgeObservation extends ObservationBase {
+  readonly kind: 'shadow-wedge';
+  readonly shadowPx: PixelPoint;
+  /** Two image points, one on each bounding direction of the wedge, as seen from the shadow point. */
+  readonly edgesPx: readonly [PixelPoint, PixelPoint];
+  readonly sigmaPx?: number;
+  /** Filled in through the camera before solving: the two side planes of the wedge's lune of the sky. */
+  readonly edges?: readonly [SkyPlane, SkyPlane];
 }
 
 /** 9. A clock in the picture. */
@@ -289,7 +307,8 @@ export type Observation =
   | WallLightObservation
   | SunUpObservation
   | ClockObservation
-  | ObjectShadowObservation;
+  | ObjectShadowObservation
+  | ShadowWedgeObservation;
 
 export type ObservationKind = Observation['kind'];
 

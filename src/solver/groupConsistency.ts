@@ -23,7 +23,7 @@
  */
 import type { ClockKind, Scene } from '../scene/types.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
-import { residualRowsByObservation, wallAzimuthOf, type EvidenceModel, type ShadowTerm } from './evidenceModel.js';
+import { residualRowsByObservation, termEvidence, wallAzimuthOf, type EvidenceModel, type ShadowTerm } from './evidenceModel.js';
 import { improvementPValue, localRefitWithout, LOO_P_THRESHOLD } from './consistency.js';
 import type { RawCandidate } from './stageB.js';
 import type { DayWindow } from './window.js';
@@ -68,7 +68,7 @@ const MAX_HALVINGS = 20;
 function groupChiSquare(model: EvidenceModel, terms: readonly ShadowTerm[], nuisances: readonly number[], azimuthDeg: number, altitudeDeg: number): number {
   let chi = 0;
   for (const t of terms) {
-    for (const r of evidenceResiduals(t.evidence, { azimuthDeg, altitudeDeg }, wallAzimuthOf(model, t.wallId, nuisances)).residuals) chi += r * r;
+    for (const r of evidenceResiduals(termEvidence(model, t, nuisances), { azimuthDeg, altitudeDeg }, wallAzimuthOf(model, t.wallId, nuisances)).residuals) chi += r * r;
   }
   return Number.isFinite(chi) ? chi : Infinity;
 }
