@@ -229,7 +229,11 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
         if (!n.name.startsWith('camera:')) out.push(`  fitted ${n.name}: ${n.fittedDeg.toFixed(1)} deg (stated ${n.priorDeg.toFixed(1)} +/- ${n.priorSigmaDeg.toFixed(1)})`);
       }
       if (camera.length > 0) {
-        out.push(`  fitted camera error (shared by the shadows clicked through the camera), in its own sigmas: ${camera.map((n) => `${n.fittedDeg >= 0 ? '+' : ''}${n.fittedDeg.toFixed(2)}`).join(', ')}`);
+        const far = camera.some((n) => Math.abs(n.fittedDeg) > 3);
+        out.push(
+          `  fitted camera error (shared by the shadows clicked through the camera), in its own sigmas: ${camera.map((n) => `${n.fittedDeg >= 0 ? '+' : ''}${n.fittedDeg.toFixed(2)}`).join(', ')}` +
+            (far ? '; more than 3 sigmas: the shadows cannot be reconciled through this camera without moving it far from its lines' : ''),
+        );
       }
     }
   }

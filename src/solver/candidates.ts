@@ -114,7 +114,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
       observationKind: f.fact,
       satisfied,
       penalty: r * r,
-      note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied),
+      note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied, raw.nuisances),
     };
   });
   const cov = raw.rep.covariance;

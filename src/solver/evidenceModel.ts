@@ -471,12 +471,12 @@ export function predictedValuesOf(term: ShadowTerm, sun: SolverSunDirection, wal
 }
 
 /** Plain words for a fact at a sun direction. */
-export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean): string {
+export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean, nuisances: readonly number[] = []): string {
   const wallName = f.wallId ?? '';
   if (f.fact === 'pair-side' || f.fact === 'wedge') {
     const where = f.fact === 'pair-side' ? "on the side of the pair's line where its shadow falls away from the light" : 'inside the wedge of its shadow';
     if (satisfied) return `the sun lies ${where}`;
-    const v = sideViolation(f.planes ?? [], sunUnitVector(sun.azimuthDeg, sun.altitudeDeg));
+    const v = sideViolation(f.planes ?? [], sunUnitVector(sun.azimuthDeg, sun.altitudeDeg), cameraErrorOf(model, nuisances));
     return `the sun lies ${v.degrees.toFixed(1)} deg outside the bound it must keep (${where}; ${v.sigmas.toFixed(1)} sigma of the clicks)`;
   }
   if (f.fact === 'sun-up') {
