@@ -241,8 +241,9 @@ export function describeSceneSun(s: SceneSun): string[] {
   for (const p of s.singlePairs) {
     out.push(`  ${p.group ? `group "${p.group}"` : 'pairs without a group'} (${p.id}; ${p.field}): one pair, a great circle of the sky only; no sun of its own here, but the dating uses it`);
   }
+  const wedges = s.observations.filter((o) => o.kind === 'shadow-wedge').length;
   out.push(
-    `  For the dating each pair is its own observation (the sun's distance from its great circle), each wedge a bound; the camera's error, shared by all of them, ` +
+    `  For the dating each pair is its own observation (the sun's distance from its great circle)${wedges > 0 ? `, each of the ${wedges} shadow wedge${wedges === 1 ? '' : 's'} a one-sided bound` : ''}; the camera's error, shared by all of them, ` +
       `is fitted as ${s.cameraErrors.components.length} nuisance${s.cameraErrors.components.length === 1 ? '' : 's'} of one sigma each, so the pairs are not taken as independent.`,
   );
   if (s.groups.length === 2 && s.groups.some((g) => g.againstRest && g.againstRest.pValue < GROUP_P_LIMIT)) {

@@ -79,6 +79,18 @@ export const GOOD_SCENES: readonly { readonly name: string; readonly data: Data 
     }),
   },
   {
+    name: 'camera block and a shadow wedge',
+    data: variant({
+      image: IMAGE,
+      camera: {
+        verticalLines: [[[100, 100], [102, 800]], [[700, 90], [699, 820], [698, 850]]],
+        wallLines: [{ wall: 'tanners-hall-front', lines: [[[100, 200], [600, 260]], [[100, 500], [600, 480]]] }],
+        focalLengthPx: 1500,
+      },
+      'observations.0': { id: 'o', kind: 'shadow-wedge', shadowPx: [420, 700], edgesPx: [[380, 300], [460, 310]], sigmaPx: 2, group: 'figures' },
+    }),
+  },
+  {
     name: 'pixel rod on a wall plane',
     data: variant({ image: IMAGE, 'walls.0.imagePlane': WALL_PLANE, 'observations.0': { id: 'o', kind: 'rod-shadow', wall: 'tanners-hall-front', pixels: { fromPx: [300, 300], toPx: [250, 350], sigmaPx: 2 } } }),
   },
@@ -128,6 +140,15 @@ export const BAD_SCENES: readonly BadScene[] = [
     name: 'object-shadow without a camera',
     data: variant({ image: IMAGE, 'observations.0': { id: 'o', kind: 'object-shadow', objectPx: [400, 300], shadowPx: [420, 700] } }),
     field: 'observations[0].kind', says: /only when the scene has a "camera" block/, schemaSees: false,
+  },
+  {
+    name: 'shadow wedge with one edge point',
+    data: variant({
+      image: IMAGE,
+      camera: { verticalLines: [[[100, 100], [102, 800]], [[700, 90], [699, 820]]], wallLines: [{ wall: 'tanners-hall-front', lines: [[[100, 200], [600, 260]], [[100, 500], [600, 480]]] }], focalLengthPx: 1500 },
+      'observations.0': { id: 'o', kind: 'shadow-wedge', shadowPx: [420, 700], edgesPx: [[380, 300]] },
+    }),
+    field: 'observations[0].edgesPx', says: /two image points/, schemaSees: true,
   },
   {
     name: 'camera without wall lines',
