@@ -205,10 +205,23 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       const ratioKey = kind === 'overhang-shadow' ? 'depthRatio' : 'widthRatio';
       const numeric = kind === 'overhang-shadow' ? ['depthRatio', 'sigma'] : ['widthRatio', 'side', 'sigma'];
       if (pixelForm(f, numeric, `numbers (${numeric.join(', ')})`)) {
-        needImagePlane(wall, f, ctx, false);
         const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
-        const p = openPixels(f, ctx, ['projectionM', 'projectionSigmaM']);
+        const p = openPixels(f, ctx, ['projectionM', 'projectionSigmaM', 'tipPx']);
         const segment = readSegmentPart(p, image);
+        if (has(p, 'tipPx')) {
+          if (has(p, 'projectionM') || has(p, 'projectionSigmaM')) {
+            throw new InvalidInputError(keyPath(p.path, 'tipPx'), raw(p, 'tipPx'), 'either tipPx (through the camera) or projectionM with projectionSigmaM, not both');
+          }
+          if (wall.imagePlane !== undefined || ctx.camera === undefined) {
+            throw new InvalidInputError(
+              keyPath(p.path, 'tipPx'), raw(p, 'tipPx'), `tipPx only on a wall put into the picture by the camera (a "camera" block, and no imagePlane on wall "${wall.id}")`,
+              'With a figure of known size on the wall, give projectionM and projectionSigmaM in metres instead',
+            );
+          }
+          const tipPx = readPixelPoint(raw(p, 'tipPx'), keyPath(p.path, 'tipPx'), image);
+          return { ...base, kind, wallId: wall.id, pixels: { ...segment, tipPx } } as Observation;
+        }
+        needImagePlane(wall, f, ctx, false);
         const projectionM = num(p, 'projectionM', { ...LENGTH_M, words: 'how far the edge stands out from the wall, metres' });
         const projectionSigmaM = num(p, 'projectionSigmaM', LENGTH_SIGMA_M);
         return { ...base, kind, wallId: wall.id, pixels: { ...segment, projectionM, projectionSigmaM } } as Observation;

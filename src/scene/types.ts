@@ -194,7 +194,7 @@ export interface OverhangShadowObservation extends ObservationBase {
   readonly depthRatio?: number; // shadow depth / projection depth, >= 0
   readonly sigma?: number;
   /** Pixel form: from the overhang's root line down to its shadow line, plus the projection in metres. */
-  readonly pixels?: PixelSegment & { readonly projectionM: number; readonly projectionSigmaM: number };
+  readonly pixels?: PixelSegment & ProjectionPart;
 }
 
 /** 3. Fin: sideways shadow width on the wall over the fin's depth: tan(|HSA|), with the side it falls to. */
@@ -204,7 +204,7 @@ export interface FinShadowObservation extends ObservationBase {
   readonly widthRatio?: number; // >= 0
   readonly side?: Side; // the shadow falls to this side of the fin, seen from outside
   readonly sigma?: number;
-  readonly pixels?: PixelSegment & { readonly projectionM: number; readonly projectionSigmaM: number };
+  readonly pixels?: PixelSegment & ProjectionPart;
 }
 
 /** 4. Vertical pole or building corner on level ground. */
@@ -273,6 +273,14 @@ export interface ObjectShadowObservation extends ObservationBase {
   readonly circle?: SkyPlane;
   readonly sides?: readonly [SkyPlane, SkyPlane];
 }
+
+/**
+ * How far an overhang or fin stands out from its wall, in a pixel form: in metres, or (with the wall put into the
+ * picture by the camera) as the clicked point of its front edge straight out from the segment's first point.
+ */
+export type ProjectionPart =
+  | { readonly projectionM: number; readonly projectionSigmaM: number; readonly tipPx?: undefined }
+  | { readonly tipPx: PixelPoint; readonly projectionM?: undefined; readonly projectionSigmaM?: undefined };
 
 /** 8b. A shadow point whose object point is known only to lie within a wedge seen from it (needs the camera). */
 export interface ShadowWedgeObservation extends ObservationBase {
