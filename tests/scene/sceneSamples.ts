@@ -79,6 +79,14 @@ export const GOOD_SCENES: readonly { readonly name: string; readonly data: Data 
     }),
   },
   {
+    name: 'overhang through the camera, with its tip point',
+    data: variant({
+      image: IMAGE,
+      camera: { verticalLines: [[[100, 100], [102, 800]], [[700, 90], [699, 820]]], wallLines: [{ wall: 'tanners-hall-front', lines: [[[100, 200], [600, 260]], [[100, 500], [600, 480]]] }], focalLengthPx: 1500 },
+      'observations.0': { id: 'o', kind: 'overhang-shadow', wall: 'tanners-hall-front', pixels: { fromPx: [300, 300], toPx: [300, 350], tipPx: [320, 310] } },
+    }),
+  },
+  {
     name: 'camera block and a shadow wedge',
     data: variant({
       image: IMAGE,
@@ -140,6 +148,15 @@ export const BAD_SCENES: readonly BadScene[] = [
     name: 'object-shadow without a camera',
     data: variant({ image: IMAGE, 'observations.0': { id: 'o', kind: 'object-shadow', objectPx: [400, 300], shadowPx: [420, 700] } }),
     field: 'observations[0].kind', says: /only when the scene has a "camera" block/, schemaSees: false,
+  },
+  {
+    name: 'overhang with both tipPx and projectionM',
+    data: variant({
+      image: IMAGE,
+      camera: { verticalLines: [[[100, 100], [102, 800]], [[700, 90], [699, 820]]], wallLines: [{ wall: 'tanners-hall-front', lines: [[[100, 200], [600, 260]], [[100, 500], [600, 480]]] }], focalLengthPx: 1500 },
+      'observations.0': { id: 'o', kind: 'overhang-shadow', wall: 'tanners-hall-front', pixels: { fromPx: [300, 300], toPx: [300, 350], tipPx: [320, 310], projectionM: 0.5, projectionSigmaM: 0.01 } },
+    }),
+    field: 'observations[0].pixels.tipPx', says: /either tipPx .* or projectionM/, schemaSees: true,
   },
   {
     name: 'shadow wedge with one edge point',
