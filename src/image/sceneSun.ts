@@ -243,7 +243,7 @@ export function describeSceneSun(s: SceneSun): string[] {
   }
   const wedges = s.observations.filter((o) => o.kind === 'shadow-wedge').length;
   out.push(
-    `  For the dating each pair is its own observation (the sun's distance from its great circle)${wedges > 0 ? `, each of the ${wedges} shadow wedge${wedges === 1 ? '' : 's'} a one-sided bound` : ''}; the camera's error, shared by all of them, ` +
+    `  For the dating each pair is its own observation (the sun's distance from its great circle)${wedges === 1 ? ', the shadow wedge a one-sided bound' : wedges > 1 ? `, each of the ${wedges} shadow wedges a one-sided bound` : ''}; the camera's error, shared by all of them, ` +
       `is fitted as ${s.cameraErrors.components.length} nuisance${s.cameraErrors.components.length === 1 ? '' : 's'} of one sigma each, so the pairs are not taken as independent.`,
   );
   if (s.groups.length === 2 && s.groups.some((g) => g.againstRest && g.againstRest.pValue < GROUP_P_LIMIT)) {

@@ -114,7 +114,7 @@ function needImagePlane(wall: Wall, f: Fields, ctx: ObservationContext, cameraWi
         : `this pixel measurement on wall "${wall.id}" only when that wall has an "imagePlane" of known size`,
       cameraWill
         ? 'Give the wall its imagePlane (4 or more points of known shape on it), or the scene a camera block, or give the measurement as numbers.'
-        : 'It compares a length on the wall with a depth in metres, and a camera fixes the wall only up to scale: give the wall its imagePlane (a figure of known size), or give the measurement as numbers.',
+        : 'It compares a length on the wall with a depth in metres, and a camera fixes the wall only up to scale: give the wall its imagePlane (a figure of known size), give the measurement as numbers, or (with a camera block) click the front point of the overhang or fin as tipPx in place of projectionM.',
     );
   }
 }
