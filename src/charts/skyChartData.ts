@@ -17,7 +17,7 @@ import { normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
-import { buildEvidenceModel, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
+import { buildEvidenceModel, termEvidence, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
 import { nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
 import { ellipsePoints, semiAxisVectors } from './ellipse.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
@@ -159,7 +159,7 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
     const values = altitudes.map((alt) =>
       azimuths.map((az) => {
         evaluations += 1;
-        const r = evidenceResiduals(term.evidence, { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt }, wallAz);
+        const r = evidenceResiduals(termEvidence(model, term, nuisances), { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt }, wallAz);
         if (!r.defined) return 99; // the shadow cannot arise there (wall in shade): far outside the band
         return r.residuals.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
       }),

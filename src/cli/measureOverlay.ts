@@ -79,7 +79,6 @@ export function predictMeasurements(
     const sigma = (name: string): number => values.find((v) => v.name === name)!.sigma;
     const base = { field, id: m.id };
     const original = scene.observations[observationIndex(field)];
-    const projectionM = 'pixels' in original && original.pixels && 'projectionM' in original.pixels ? original.pixels.projectionM : NaN;
     const from = m.fromPlane;
     const to = m.toPlane;
     switch (m.kind) {
@@ -96,7 +95,7 @@ export function predictMeasurements(
       case 'overhang-shadow': {
         const az = wallAzimuth(m.observation.wallId);
         const p = predictOverhangShadow(sun, az);
-        const v = from[1] - p.depthRatio * projectionM;
+        const v = from[1] - p.depthRatio * m.projectionInPlane;
         const reach = Math.max(0.3, 0.5 * Math.abs(to[0] - from[0]));
         const line: [Point2, Point2] = [[Math.min(from[0], to[0]) - reach, v], [Math.max(from[0], to[0]) + reach, v]];
         return {
@@ -108,7 +107,7 @@ export function predictMeasurements(
       case 'fin-shadow': {
         const az = wallAzimuth(m.observation.wallId);
         const p = predictFinShadow(sun, az);
-        const u = from[0] + (p.side === 'left' ? -1 : 1) * p.widthRatio * projectionM;
+        const u = from[0] + (p.side === 'left' ? -1 : 1) * p.widthRatio * m.projectionInPlane;
         const reach = Math.max(0.3, 0.5 * Math.abs(to[1] - from[1]));
         const line: [Point2, Point2] = [[u, Math.min(from[1], to[1]) - reach], [u, Math.max(from[1], to[1]) + reach]];
         return {

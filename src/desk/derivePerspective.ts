@@ -69,7 +69,7 @@ function perspectiveOf(draft: Draft, copy: Draft): Perspective | null {
   const pairRefusals = new Map<string, string>();
   const bound = 2 + (copy.observations as DraftValue[]).length;
   const none = (cameraRefusal: Refusal | null, camera: CameraSolution | null = null): Perspective => ({
-    camera, cameraRefusal, sceneSun: null, drawing: camera ? { camera, groups: [], observations: [], pairsByField: new Map() } : null, pairRefusals,
+    camera, cameraRefusal, sceneSun: null, drawing: camera ? { camera, groups: [], singlePairs: [], cameraErrors: { nominal: [camera.core.focalLengthPx, camera.core.principalPointPx[0], camera.core.principalPointPx[1], 0, 0, 0], components: [] }, observations: [], pairsByField: new Map() } : null, pairRefusals,
   });
 
   let scene: Scene | null = null;

@@ -90,7 +90,7 @@ function sunItems(ctx: PerspectiveContext): HTMLElement[] {
       h('p', { class: 'small', text: `from ${g.ids.join(', ')}` }),
       valueRow('azimuthDeg', 'sun azimuth (from true north)', { value: g.sun.azimuthDeg, sigma: g.azimuthSigmaDeg }, ' deg', 2, mc),
       valueRow('altitudeDeg', 'apparent altitude', { value: g.sun.altitudeDeg, sigma: g.altitudeSigmaDeg }, ' deg', 2, mc),
-      h('p', { class: 'small', text: `first-order sigmas ${g.sun.azimuthSigmaDeg.toFixed(2)} and ${g.sun.altitudeSigmaDeg.toFixed(2)} deg, correlation ${g.correlation.toFixed(2)}; the dating takes them widened by sqrt(1 + |correlation|)` }),
+      h('p', { class: 'small', text: `first-order sigmas ${g.sun.azimuthSigmaDeg.toFixed(2)} and ${g.sun.altitudeSigmaDeg.toFixed(2)} deg, correlation ${g.correlation.toFixed(2)}; the dating takes each pair on its own, the camera's error shared` }),
       h('p', { class: 'small readout', text: `the shadow lines meet at ${vp ? `[${vp[0].toFixed(1)}, ${vp[1].toFixed(1)}] px (the ${g.sun.vanishingPointIsSun ? 'sun' : 'point opposite the sun'})` : 'infinity (the sun is square to the line of sight)'}` }),
       ...g.sun.notes.map((n) => h('p', { class: /NOT/.test(n) ? 'warning' : 'small', text: n })),
       g.againstRest

@@ -9,3 +9,4 @@ export * from './pointShadows.js';
 export * from './lightFacts.js';
 export * from './observationModels.js';
 export * from './skyIntersection.js';
+export * from './skyPlanes.js';

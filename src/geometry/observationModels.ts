@@ -17,6 +17,8 @@ import {
   type SunDirectionMeasurement,
 } from './pointShadows.js';
 import type { ResidualSet } from './residuals.js';
+import { planeDistanceDeg, planeNormalAt, sunCircleLocus, sunCircleResidual, type SunCircleMeasurement } from './skyPlanes.js';
+import { sunUnitVector } from './sunVector.js';
 import type { SkyLocus } from './skyLocus.js';
 import type { SunDirection } from './sunVector.js';
 import {
@@ -58,6 +60,7 @@ export type ShadowEvidence =
   | ({ readonly kind: 'eave-shadow' } & EaveShadowMeasurement)
   | ({ readonly kind: 'shadow-points' } & ShadowPointsMeasurement)
   | ({ readonly kind: 'sun-direction' } & SunDirectionMeasurement)
+  | ({ readonly kind: 'sun-circle' } & SunCircleMeasurement)
   | { readonly kind: 'wall-lit' | 'wall-shaded' | 'sun-up'; readonly toleranceDeg?: number };
 
 export type ShadowEvidenceKind = ShadowEvidence['kind'];
@@ -80,6 +83,7 @@ export type EvidencePrediction =
   | ({ readonly kind: 'eave-shadow' } & EaveShadowPrediction)
   | ({ readonly kind: 'shadow-points' } & ShadowPointsPrediction)
   | { readonly kind: 'sun-direction'; readonly azimuthDeg: number; readonly altitudeDeg: number }
+  | { readonly kind: 'sun-circle'; readonly distanceDeg: number }
   | { readonly kind: 'wall-lit' | 'wall-shaded' | 'sun-up'; readonly holds: boolean };
 
 /**
@@ -103,6 +107,8 @@ export function predictEvidence(evidence: ShadowEvidence, sun: SunDirection, wal
       return { kind: evidence.kind, ...predictShadowPoints(evidence, sun) };
     case 'sun-direction':
       return { kind: evidence.kind, azimuthDeg: sun.azimuthDeg, altitudeDeg: sun.altitudeDeg };
+    case 'sun-circle':
+      return { kind: evidence.kind, distanceDeg: planeDistanceDeg(planeNormalAt(evidence.circle, evidence.cameraError ?? []), sunUnitVector(sun.azimuthDeg, sun.altitudeDeg)) };
     default: {
       const r = lightFactResidual(evidence.kind, sun, wallAzimuthDeg, evidence.toleranceDeg ?? DEFAULT_FACT_TOLERANCE_DEG);
       return { kind: evidence.kind, holds: r.defined };
@@ -127,6 +133,8 @@ export function evidenceResiduals(evidence: ShadowEvidence, sun: SunDirection, w
       return shadowPointsResidual(evidence, sun);
     case 'sun-direction':
       return sunDirectionResidual(evidence, sun);
+    case 'sun-circle':
+      return sunCircleResidual(evidence, sun);
     default:
       return lightFactResidual(evidence.kind, sun, wallAzimuthDeg, evidence.toleranceDeg ?? DEFAULT_FACT_TOLERANCE_DEG);
   }
@@ -149,6 +157,8 @@ export function evidenceLocus(evidence: ShadowEvidence, wallAzimuthDeg = 0): Sky
       return shadowPointsLocus(evidence);
     case 'sun-direction':
       return sunDirectionLocus(evidence);
+    case 'sun-circle':
+      return sunCircleLocus(evidence);
     default:
       return { kind: 'empty', description: `${evidence.kind} bounds the sky but gives no curve` };
   }

@@ -96,6 +96,31 @@ function sunInCamera(core: CameraCore, pairs: readonly (readonly [Point2, Point2
   return { fit, d };
 }
 
+/**
+ * The site unit normal of a pair's great circle (the plane through the camera centre, the object point and its
+ * shadow point), after the checks that refuse a pair naming its field: points too close, a bad sigma, a line
+ * through the vanishing point of the verticals (a circle through the zenith fixes the azimuth only).
+ */
+export function checkShadowPair(camera: CameraSolution, pair: ShadowPairInput): Vector3 {
+  const core = camera.core;
+  const dist = Math.hypot(pair.objectPx[0] - pair.shadowPx[0], pair.objectPx[1] - pair.shadowPx[1]);
+  if (!(dist >= MIN_PAIR_LENGTH_PX)) {
+    throw new InvalidInputError(`${pair.field}.shadowPx`, pair.shadowPx, `a shadow point at least ${MIN_PAIR_LENGTH_PX} px from the object point`);
+  }
+  if (!(Number.isFinite(pair.sigmaPx) && pair.sigmaPx > 0)) throw new InvalidInputError(`${pair.field}.sigmaPx`, pair.sigmaPx, 'a clicking sigma in pixels greater than 0');
+  const ro = pixelRay(pair.objectPx, core.focalLengthPx, core.principalPointPx);
+  const rs = pixelRay(pair.shadowPx, core.focalLengthPx, core.principalPointPx);
+  const m = unit(applyMatrix(transpose(core.rotation), cross(ro, rs)));
+  if (Math.abs(m[2]) < Math.sin(ZENITH_CIRCLE_LIMIT_DEG / deg)) {
+    throw new InvalidInputError(
+      `${pair.field}.shadowPx`, pair.shadowPx, 'a shadow point off the vertical through the object point',
+      'The line from the object point to its shadow point passes through the vanishing point of the verticals: the shadow runs straight towards or away from the camera, ' +
+        'or the shadow point was clicked directly below its object (at its foot); such a pair fixes at most the sun\'s azimuth. Choose a pair whose shadow runs across the view',
+    );
+  }
+  return m;
+}
+
 /** a, b with d ~ a r_o + b r_s (least squares in the plane of the two rays). */
 function decompose(d: Vector3, ro: Vector3, rs: Vector3): [number, number] {
   const [g11, g12, g22] = [dot3(ro, ro), dot3(ro, rs), dot3(rs, rs)];
@@ -123,25 +148,7 @@ export function sunFromShadowPairs(camera: CameraSolution, pairs: readonly Shado
   const input = camera.input;
   const core = camera.core;
   const rt = transpose(core.rotation);
-  const up: Vector3 = [0, 0, 1];
-  const circleNormals = pairs.map((pair): Vector3 => {
-    const dist = Math.hypot(pair.objectPx[0] - pair.shadowPx[0], pair.objectPx[1] - pair.shadowPx[1]);
-    if (!(dist >= MIN_PAIR_LENGTH_PX)) {
-      throw new InvalidInputError(`${pair.field}.shadowPx`, pair.shadowPx, `a shadow point at least ${MIN_PAIR_LENGTH_PX} px from the object point`);
-    }
-    if (!(Number.isFinite(pair.sigmaPx) && pair.sigmaPx > 0)) throw new InvalidInputError(`${pair.field}.sigmaPx`, pair.sigmaPx, 'a clicking sigma in pixels greater than 0');
-    const ro = pixelRay(pair.objectPx, core.focalLengthPx, core.principalPointPx);
-    const rs = pixelRay(pair.shadowPx, core.focalLengthPx, core.principalPointPx);
-    const m = unit(applyMatrix(rt, cross(ro, rs)));
-    if (Math.abs(dot3(m, up)) < Math.sin(ZENITH_CIRCLE_LIMIT_DEG / deg)) {
-      throw new InvalidInputError(
-        `${pair.field}.shadowPx`, pair.shadowPx, 'a shadow point off the vertical through the object point',
-        'The line from the object point to its shadow point passes through the vanishing point of the verticals: the shadow runs straight towards or away from the camera, ' +
-          'or the shadow point was clicked directly below its object (at its foot); such a pair fixes at most the sun\'s azimuth. Choose a pair whose shadow runs across the view',
-      );
-    }
-    return m;
-  });
+  const circleNormals = pairs.map((pair) => checkShadowPair(camera, pair));
   const pairPoints = pairs.map((p): [Point2, Point2] => [p.objectPx, p.shadowPx]);
   const pairSigmas = pairs.map((p) => p.sigmaPx);
   const nominal = sunInCamera(core, pairPoints, pairSigmas, undefined);

@@ -44,12 +44,13 @@ import { homogeneousW, type Point2 } from './homography.js';
 import { checkPixelPoint, toWorkingFrame, type RectifiedPlane, MIN_POINT_SEPARATION_PX } from './planeInImage.js';
 import { monteCarloSpread, propagateFirstOrder, type MeasurementFunction } from './propagation.js';
 import {
-  clickSigma, lengthInputs, mapPoints, needsMetric, planeHow, planeParameters, quantityOf, sigmaWords,
+  clickSigma, lengthInputs, mapPoints, needsMetric, planeHow, planeParameterCount, planeParameters, quantityOf, sigmaWords,
   type MeasuredQuantity, type Setup,
 } from './pixelSetup.js';
 import { measurePointPixels, pointPixelsSetup, type PointPixelMeasurement } from './pointPixels.js';
 
 export { LINEARITY_TOLERANCE, type MeasuredQuantity } from './pixelSetup.js';
+import { projectionFromTip } from './planeFromCamera.js';
 
 /** The pixel-form observations this module measures. */
 export type PixelObservation =
@@ -83,8 +84,8 @@ export interface MeasurementCommon {
 
 export type PixelMeasurement =
   | (MeasurementCommon & { readonly kind: 'rod-shadow'; readonly slopeDeg: MeasuredQuantity; readonly side: Side; readonly observation: RodShadowObservation })
-  | (MeasurementCommon & { readonly kind: 'overhang-shadow'; readonly depthRatio: MeasuredQuantity; readonly observation: OverhangShadowObservation })
-  | (MeasurementCommon & { readonly kind: 'fin-shadow'; readonly widthRatio: MeasuredQuantity; readonly side: Side; readonly observation: FinShadowObservation })
+  | (MeasurementCommon & { readonly kind: 'overhang-shadow'; readonly depthRatio: MeasuredQuantity; readonly projectionInPlane: number; readonly observation: OverhangShadowObservation })
+  | (MeasurementCommon & { readonly kind: 'fin-shadow'; readonly widthRatio: MeasuredQuantity; readonly side: Side; readonly projectionInPlane: number; readonly observation: FinShadowObservation })
   | (MeasurementCommon & {
       readonly kind: 'pole-shadow';
       readonly shadowAzimuthDeg: MeasuredQuantity;
@@ -185,12 +186,31 @@ function setupFor(obs: PixelObservation, plane: RectifiedPlane, field: string, c
     case 'overhang-shadow':
     case 'fin-shadow': {
       const what = obs.kind === 'overhang-shadow' ? 'An overhang depth ratio' : 'A fin width ratio';
+      const vertical = obs.kind === 'overhang-shadow';
+      const tipPx = obs.pixels!.tipPx;
+      if (tipPx !== undefined) {
+        // the projection through the camera: the front edge's point straight out from the root (planeFromCamera.ts)
+        if (!plane.fromCamera) throw new InvalidInputError(`${field}.pixels.tipPx`, tipPx, 'tipPx only on a wall put into the picture by the camera (no imagePlane)');
+        checkPixelPoint(tipPx, image, `${field}.pixels.tipPx`);
+        const tip = toWorkingFrame(tipPx, image);
+        p0.push(tip[0], tip[1]);
+        sigmas.push(pointSigma, pointSigma);
+        groups.push('points', 'points');
+        const k = planeParameterCount(plane);
+        const source = plane.fromCamera;
+        const f: MeasurementFunction = (q) => {
+          const { from: a, to: b } = mapSegment(plane, q);
+          const depth = projectionFromTip(source, q.slice(0, k), a, [q[lengthIndex], q[lengthIndex + 1]]);
+          const d = vertical ? a[1] - b[1] : Math.abs(b[0] - a[0]);
+          return [d / depth];
+        };
+        return { p0, sigmas, groups, angular: [false], f, names: [vertical ? 'depthRatio' : 'widthRatio'] };
+      }
       needsMetric(plane, field, what);
       const len = lengthInputs(obs.pixels!.projectionM, obs.pixels!.projectionSigmaM, field, 'projectionM', 'projectionSigmaM', true)!;
       p0.push(len.value);
       sigmas.push(len.sigma);
       groups.push('length');
-      const vertical = obs.kind === 'overhang-shadow';
       const f: MeasurementFunction = (q) => {
         const { from: a, to: b } = mapSegment(plane, q);
         const d = vertical ? a[1] - b[1] : Math.abs(b[0] - a[0]);
@@ -219,6 +239,18 @@ function setupFor(obs: PixelObservation, plane: RectifiedPlane, field: string, c
       };
     }
   }
+}
+
+/** How far the overhang or fin stands out, in the plane's units, with words for the note. */
+function projectionOf(obs: OverhangShadowObservation | FinShadowObservation, plane: RectifiedPlane, p0: readonly number[]): { value: number; unit: string; words: string } {
+  const px = obs.pixels!;
+  if (px.tipPx !== undefined && plane.fromCamera) {
+    const k = planeParameterCount(plane);
+    const { from } = mapSegment(plane, p0);
+    const value = projectionFromTip(plane.fromCamera, p0.slice(0, k), from, [p0[k + 4], p0[k + 5]]);
+    return { value, unit: "of the camera's distance to the wall", words: `${fmt(value, 3)} of the same unit, from the clicked tip point (scale-free ratio)` };
+  }
+  return { value: px.projectionM!, unit: 'm', words: `${px.projectionM} m` };
 }
 
 function fmt(v: number, digits: number): string {
@@ -273,16 +305,18 @@ function measureSegment(
       if (!(ratio.value >= 0)) {
         throw new InvalidInputError(`${field}.pixels.toPx`, obs.pixels!.toPx, 'a shadow point on or below the overhang root line', `On the wall it lies ${fmt(to[1] - from[1], 3)} m above the root line`);
       }
-      const note = `depth ratio ${fmt(ratio.value, 4)} (shadow depth ${fmt(from[1] - to[1], 3)} m over projection ${obs.pixels!.projectionM} m), ${how}; ${sigmaText(ratio, 4)}`;
+      const projection = projectionOf(obs, plane, setup.p0);
+      const note = `depth ratio ${fmt(ratio.value, 4)} (shadow depth ${fmt(from[1] - to[1], 3)} ${projection.unit} over projection ${projection.words}), ${how}; ${sigmaText(ratio, 4)}`;
       const { pixels: _p, ...rest } = obs;
-      return { ...common, kind: obs.kind, depthRatio: ratio, note, observation: { ...rest, depthRatio: ratio.value, sigma: ratio.sigma } };
+      return { ...common, kind: obs.kind, depthRatio: ratio, projectionInPlane: projection.value, note, observation: { ...rest, depthRatio: ratio.value, sigma: ratio.sigma } };
     }
     case 'fin-shadow': {
       const ratio = q(0);
       const side: Side = to[0] - from[0] < 0 ? 'left' : 'right';
-      const note = `width ratio ${fmt(ratio.value, 4)} to the ${side} (shadow width ${fmt(Math.abs(to[0] - from[0]), 3)} m over fin depth ${obs.pixels!.projectionM} m), ${how}; ${sigmaText(ratio, 4)}`;
+      const projection = projectionOf(obs, plane, setup.p0);
+      const note = `width ratio ${fmt(ratio.value, 4)} to the ${side} (shadow width ${fmt(Math.abs(to[0] - from[0]), 3)} ${projection.unit} over fin depth ${projection.words}), ${how}; ${sigmaText(ratio, 4)}`;
       const { pixels: _p, ...rest } = obs;
-      return { ...common, kind: obs.kind, widthRatio: ratio, side, note, observation: { ...rest, widthRatio: ratio.value, side, sigma: ratio.sigma } };
+      return { ...common, kind: obs.kind, widthRatio: ratio, side, projectionInPlane: projection.value, note, observation: { ...rest, widthRatio: ratio.value, side, sigma: ratio.sigma } };
     }
     case 'pole-shadow': {
       const az = q(0);

@@ -93,6 +93,30 @@ export function cameraPlaneProjectionOf(source: CameraPlaneSource, params: reado
 }
 
 /**
+ * How far a point straight out from a wall stands from its root, in the plane's unit (the camera's distance to the
+ * wall), from the clicked pixel of that point: the root R = X0 + a A + b B in the site frame (camera at the origin,
+ * as for the homography above), the point on the line R + p n (n the outward normal, n = -X0), and p from the
+ * closest approach of that line to the viewing ray d = R^T K^-1 x of the click (the least-squares meeting of two
+ * lines, common practice; exact when the click lies on the image of the line, which runs towards the vanishing
+ * point of n). The ratio of a length in the wall to p is then free of the unknown scale: all points of one rigid
+ * overhang or fin are known in one frame up to a single scale (H&Z 2nd ed. sec. 8.1.1 and Result 8.20).
+ * @example projectionFromTip(source, p0, [2.1, 0.4], [812, 431]) // 0.062 (6.2% of the camera's distance to the wall)
+ */
+export function projectionFromTip(source: CameraPlaneSource, params: readonly number[], root: Point2, tipPx: Point2): number {
+  const core = cameraFromParameters(source.camera.input, source.camera.method, params, source.orientLike);
+  const { axisA: a, axisB: b, origin: x0 } = source;
+  const r: Vector3 = [x0[0] + root[0] * a[0] + root[1] * b[0], x0[1] + root[0] * a[1] + root[1] * b[1], x0[2] + root[0] * a[2] + root[1] * b[2]];
+  const n: Vector3 = [-x0[0], -x0[1], -x0[2]];
+  const c: Vector3 = [(tipPx[0] - core.principalPointPx[0]) / core.focalLengthPx, (tipPx[1] - core.principalPointPx[1]) / core.focalLengthPx, 1];
+  const rot = core.rotation;
+  const d: Vector3 = [rot[0][0] * c[0] + rot[1][0] * c[1] + rot[2][0] * c[2], rot[0][1] * c[0] + rot[1][1] * c[1] + rot[2][1] * c[2], rot[0][2] * c[0] + rot[1][2] * c[1] + rot[2][2] * c[2]];
+  // p (n.n) - lambda (n.d) = -n.R ; p (n.d) - lambda (d.d) = -d.R
+  const [nn, nd, dd, nr, dr] = [dot3(n, n), dot3(n, d), dot3(d, d), dot3(n, r), dot3(d, r)];
+  const det = -nn * dd + nd * nd;
+  return (-nr * -dd - -nd * -dr) / det;
+}
+
+/**
  * A wall (of stated outward azimuth) or the level ground as a RectifiedPlane from the camera.
  * Throws InvalidInputError naming `field` when the plane cannot be seen by this camera.
  * @example planeFromCamera(camera, 'wall', image, 'walls[1]', { id: 'hall-east', azimuthDeg: 95 }).definition // 'camera'

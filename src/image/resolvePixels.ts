@@ -11,8 +11,8 @@
  * numeric, walls, planes and everything else are kept as they are, so the
  * function is idempotent.
  *
- * Object-shadow pairs (sceneSun.ts) are resolved through the scene's camera into one sun direction per
- * group, in place of the group's first pair, its other pairs becoming sun-up facts.
+ * Object-shadow pairs and shadow wedges (sceneSun.ts) are given, through the scene's camera, their
+ * planes of the sky (sunConstraints.ts): a pair's great circle and side planes, a wedge's two edges.
  *
  * Sigma: the first-order sigma of the clicks (src/image/propagation.ts,
  * after Criminisi, Reid and Zisserman 1997). When the measurement bends within
@@ -158,5 +158,5 @@ export function resolvePixelObservations(scene: Scene): ResolvedScene {
 
 /** True when a scene has at least one observation given in pixels. */
 export function hasPixelObservations(scene: Scene): boolean {
-  return scene.observations.some((o) => isPixelObservation(o) || o.kind === 'object-shadow');
+  return scene.observations.some((o) => isPixelObservation(o) || o.kind === 'object-shadow' || o.kind === 'shadow-wedge');
 }

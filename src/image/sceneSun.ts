@@ -11,16 +11,13 @@
  * is used when larger, as for the other pixel measurements
  * (resolvePixels.ts).
  *
- * For the solver each group becomes one `sun-direction` observation, put in
- * place of the group's first pair and named `group:<label>` (or the first
- * pair's id when the pairs have no group); its other pairs become `sun-up` facts
- * (a cast shadow means the sun is up) so that nothing is counted twice. The
- * sun-direction form has independent azimuth and altitude sigmas; the
- * correlation rho of the two is absorbed conservatively by widening both
- * sigmas by sqrt(1 + |rho|): the matrix (1 + |rho|) diag(sigma^2) is at
- * least the full covariance in every direction, because the correlation
- * matrix [[1, rho], [rho, 1]] has eigenvalues 1 +- rho (common practice of
- * bounding a covariance by a diagonal one).
+ * A group's sun is for the report and the overlay. The dating does not use
+ * it: each pair is its own observation there, its great circle of the sky
+ * with the side planes of its arc, and each shadow wedge its lune
+ * (sunConstraints.ts), written into the observation (`circle`, `sides`,
+ * `edges`), with the camera's shared error as nuisances of the solver. A
+ * group of one pair has no sun of its own here (one pair is a great circle
+ * only) but dates like any other.
  *
  * With two or more groups, each group's sun is compared with the sun of all
  * the other pairs (cameraSun.ts, compareShadowSets): a Delta chi-square with
@@ -38,6 +35,7 @@ import { compareShadowSets, sunFromShadowPairs, sunFromShadowPairsFunction, type
 import { toWorkingFrame } from './planeInImage.js';
 import type { Point2 } from './homography.js';
 import { monteCarloSpread } from './propagation.js';
+import { cameraErrorComponents, pairConstraint, wedgeConstraint, type CameraErrorComponents } from './sunConstraints.js';
 
 /** Monte Carlo samples when the first-order sigma of a group's sun is not reliable. */
 export const SUN_MONTE_CARLO_SAMPLES = 1000;
@@ -69,7 +67,7 @@ export interface GroupSun {
   readonly ids: readonly string[];
   readonly fields: readonly string[];
   readonly sun: SunFromShadows;
-  /** Sigmas written into the sun-direction observation (widened for the correlation, or from the Monte Carlo). */
+  /** The sigmas reported: first order, or the Monte Carlo spread when that is not reliable and the spread is larger. */
   readonly azimuthSigmaDeg: number;
   readonly altitudeSigmaDeg: number;
   readonly correlation: number;
@@ -85,7 +83,11 @@ export const GROUP_P_LIMIT = 0.01;
 export interface SceneSun {
   readonly camera: CameraSolution;
   readonly groups: readonly GroupSun[];
-  /** The observations with every object-shadow pair replaced (see the header). */
+  /** Groups (or the pairs without a group) of a single pair: a great circle only, no sun of their own. */
+  readonly singlePairs: readonly { readonly group: string; readonly id: string; readonly field: string }[];
+  /** The camera's shared error as independent components (sunConstraints.ts). */
+  readonly cameraErrors: CameraErrorComponents;
+  /** The observations with every object-shadow pair and shadow wedge given its planes through the camera (see the header). */
   readonly observations: readonly Observation[];
   /** Object and shadow point of each pair, working frame, by field (`observations[4]`). */
   readonly pairsByField: ReadonlyMap<string, readonly [Point2, Point2]>;
@@ -93,7 +95,7 @@ export interface SceneSun {
 
 /** True when the scene has object-shadow pairs. */
 export function hasObjectShadows(scene: Scene): boolean {
-  return scene.observations.some((o) => o.kind === 'object-shadow');
+  return scene.observations.some((o) => o.kind === 'object-shadow' || o.kind === 'shadow-wedge');
 }
 
 /**
@@ -110,15 +112,26 @@ export function resolveSceneSun(scene: Scene): SceneSun {
     const key = o.group ?? '';
     byGroup.set(key, [...(byGroup.get(key) ?? []), { obs: o, index }]);
   });
-  const replaced: Observation[] = [...scene.observations];
+  const cameraErrors = cameraErrorComponents(camera);
+  const replaced: Observation[] = scene.observations.map((o, index): Observation => {
+    const field = `observations[${index}]`;
+    const sigmaPx = (o.kind === 'object-shadow' || o.kind === 'shadow-wedge') ? (o.sigmaPx ?? image.pixelSigmaPx) : 0;
+    if (o.kind === 'object-shadow') {
+      const c = pairConstraint(camera, cameraErrors, { field, objectPx: toWorkingFrame(o.objectPx, image), shadowPx: toWorkingFrame(o.shadowPx, image), sigmaPx });
+      return { ...o, circle: c.circle, sides: c.sides };
+    }
+    if (o.kind === 'shadow-wedge') {
+      const edgesPx = [toWorkingFrame(o.edgesPx[0], image), toWorkingFrame(o.edgesPx[1], image)] as const;
+      return { ...o, edges: wedgeConstraint(camera, cameraErrors, { field, shadowPx: toWorkingFrame(o.shadowPx, image), edgesPx, sigmaPx }).edges };
+    }
+    return o;
+  });
   const groups: GroupSun[] = [];
+  const singlePairs: SceneSun['singlePairs'][number][] = [];
   for (const [group, members] of byGroup) {
     if (members.length < 2) {
-      const m = members[0];
-      throw new InvalidInputError(
-        `observations[${m.index}]`, m.obs.id, `two or more object-shadow pairs${group ? ` in group "${group}"` : ' without a group'}`,
-        'One pair confines the sun to a great circle of the sky only; add a second pair lit by the same sun',
-      );
+      singlePairs.push({ group, id: members[0].obs.id, field: `observations[${members[0].index}]` });
+      continue;
     }
     const pairs: ShadowPairInput[] = members.map(({ obs, index }) => ({
       field: `observations[${index}]`,
@@ -128,33 +141,21 @@ export function resolveSceneSun(scene: Scene): SceneSun {
     }));
     const sun = sunFromShadowPairs(camera, pairs);
     const correlation = sun.covarianceDeg2[0][1] / (sun.azimuthSigmaDeg * sun.altitudeSigmaDeg);
-    const widen = Math.sqrt(1 + Math.abs(Number.isFinite(correlation) ? correlation : 0));
-    let azimuthSigmaDeg = sun.azimuthSigmaDeg * widen;
-    let altitudeSigmaDeg = sun.altitudeSigmaDeg * widen;
+    let azimuthSigmaDeg = sun.azimuthSigmaDeg;
+    let altitudeSigmaDeg = sun.altitudeSigmaDeg;
     let sigmaSource: GroupSun['sigmaSource'] = 'first-order';
     let monteCarlo: GroupSun['monteCarlo'];
     if (!sun.firstOrderReliable) {
       const seed = (scene.seed + members[0].index) >>> 0; // one stream per group, repeatable from the scene's seed
       const chain = sunFromShadowPairsFunction(camera, pairs);
       const mc = monteCarloSpread(chain.f, chain.p0, chain.sigmas, [true, false], createRandom(seed), SUN_MONTE_CARLO_SAMPLES);
-      const [mcAz, mcAlt] = [mc.sigmas[0] * widen, mc.sigmas[1] * widen];
+      const [mcAz, mcAlt] = [mc.sigmas[0], mc.sigmas[1]];
       if (Number.isFinite(mcAz) && Number.isFinite(mcAlt) && (mcAz > azimuthSigmaDeg || mcAlt > altitudeSigmaDeg)) {
         azimuthSigmaDeg = Math.max(azimuthSigmaDeg, mcAz);
         altitudeSigmaDeg = Math.max(altitudeSigmaDeg, mcAlt);
         sigmaSource = 'monte-carlo';
       }
       monteCarlo = { seed, samples: SUN_MONTE_CARLO_SAMPLES, azimuthSigmaDeg: mc.sigmas[0], altitudeSigmaDeg: mc.sigmas[1] };
-    }
-    const [first, ...rest] = members;
-    const label = group ? `group "${group}"` : 'the pairs without a group';
-    // a group's sun is named after the group ("group:figures"; a colon never occurs in an id of the file)
-    replaced[first.index] = {
-      id: group ? `group:${group}` : first.obs.id, kind: 'sun-direction', ...(group ? { group } : {}),
-      azimuthDeg: sun.azimuthDeg, azimuthSigmaDeg, altitudeDeg: sun.altitudeDeg, altitudeSigmaDeg,
-      note: `sun from ${members.length} object-shadow pairs of ${label} through the picture's camera (${members.map((m) => m.obs.id).join(', ')})${first.obs.note ? `; ${first.obs.note}` : ''}`,
-    };
-    for (const m of rest) {
-      replaced[m.index] = { id: m.obs.id, kind: 'sun-up', note: `object-shadow pair combined into ${first.obs.id}${m.obs.note ? `; ${m.obs.note}` : ''}` };
     }
     groups.push({
       group, ids: members.map((m) => m.obs.id), fields: pairs.map((p) => p.field), sun,
@@ -191,7 +192,7 @@ export function resolveSceneSun(scene: Scene): SceneSun {
   scene.observations.forEach((o, index) => {
     if (o.kind === 'object-shadow') pairsByField.set(`observations[${index}]`, [toWorkingFrame(o.objectPx, image), toWorkingFrame(o.shadowPx, image)]);
   });
-  return { camera, groups: compared, observations: replaced, pairsByField };
+  return { camera, groups: compared, singlePairs, cameraErrors, observations: replaced, pairsByField };
 }
 
 const f1 = (x: number): string => x.toFixed(1);
@@ -229,10 +230,7 @@ export function describeSceneSun(s: SceneSun): string[] {
       `    sun azimuth ${f2(g.sun.azimuthDeg)} deg, sigma ${f2(g.azimuthSigmaDeg)}; apparent altitude ${f2(g.sun.altitudeDeg)} deg, sigma ${f2(g.altitudeSigmaDeg)}` +
         `${g.sigmaSource === 'monte-carlo' ? ' (Monte Carlo spread)' : ''}`,
     );
-    out.push(
-      `    first-order sigmas ${f2(g.sun.azimuthSigmaDeg)} and ${f2(g.sun.altitudeSigmaDeg)} deg, correlation ${g.correlation.toFixed(2)}; ` +
-        `written to the dating widened by sqrt(1 + |correlation|) so that no direction is claimed better than measured`,
-    );
+    out.push(`    first-order sigmas ${f2(g.sun.azimuthSigmaDeg)} and ${f2(g.sun.altitudeSigmaDeg)} deg, correlation ${g.correlation.toFixed(2)}`);
     if (g.monteCarlo) out.push(`    Monte Carlo of ${g.monteCarlo.samples} samples (seed ${g.monteCarlo.seed}): ${f2(g.monteCarlo.azimuthSigmaDeg)} and ${f2(g.monteCarlo.altitudeSigmaDeg)} deg`);
     const vp = g.sun.vanishingPointPx;
     out.push(`    the shadow lines meet at ${vp ? `[${f1(vp[0])}, ${f1(vp[1])}] px (the ${g.sun.vanishingPointIsSun ? 'sun' : 'point opposite the sun'})` : 'infinity (the sun is square to the line of sight)'}`);
@@ -240,6 +238,14 @@ export function describeSceneSun(s: SceneSun): string[] {
     if (g.againstRest) out.push(`    ${g.againstRest.sentence}`);
     else if (s.groups.length > 1) out.push('    not compared with the other pairs: taken together they do not point to one sun (several other groups under different light)');
   }
+  for (const p of s.singlePairs) {
+    out.push(`  ${p.group ? `group "${p.group}"` : 'pairs without a group'} (${p.id}; ${p.field}): one pair, a great circle of the sky only; no sun of its own here, but the dating uses it`);
+  }
+  const wedges = s.observations.filter((o) => o.kind === 'shadow-wedge').length;
+  out.push(
+    `  For the dating each pair is its own observation (the sun's distance from its great circle)${wedges === 1 ? ', the shadow wedge a one-sided bound' : wedges > 1 ? `, each of the ${wedges} shadow wedges a one-sided bound` : ''}; the camera's error, shared by all of them, ` +
+      `is fitted as ${s.cameraErrors.components.length} nuisance${s.cameraErrors.components.length === 1 ? '' : 's'} of one sigma each, so the pairs are not taken as independent.`,
+  );
   if (s.groups.length === 2 && s.groups.some((g) => g.againstRest && g.againstRest.pValue < GROUP_P_LIMIT)) {
     out.push('  With two groups the test is the same both ways: it says the two groups were not lit by one sun, not which of them is out of place.');
   }
@@ -273,12 +279,14 @@ export function sceneSunRecord(s: SceneSun): unknown {
       group: g.group || null, ids: g.ids, fields: g.fields,
       azimuthDeg: g.sun.azimuthDeg, altitudeDeg: g.sun.altitudeDeg,
       firstOrder: { azimuthSigmaDeg: g.sun.azimuthSigmaDeg, altitudeSigmaDeg: g.sun.altitudeSigmaDeg, covarianceDeg2: g.sun.covarianceDeg2 },
-      written: { azimuthSigmaDeg: g.azimuthSigmaDeg, altitudeSigmaDeg: g.altitudeSigmaDeg, sigmaSource: g.sigmaSource },
+      reported: { azimuthSigmaDeg: g.azimuthSigmaDeg, altitudeSigmaDeg: g.altitudeSigmaDeg, sigmaSource: g.sigmaSource },
       monteCarlo: g.monteCarlo ?? null,
       vanishingPointPx: g.sun.vanishingPointPx, vanishingPointCovariancePx: g.sun.vanishingPointCovariancePx ?? null, vanishingPointIsSun: g.sun.vanishingPointIsSun,
       meeting: { chiSquare: g.sun.chiSquare, dof: g.sun.dof, pValue: g.sun.pValue, missAnglesDeg: g.sun.missAnglesDeg },
       notes: g.sun.notes,
       againstRest: g.againstRest ?? null,
     })),
+    singlePairs: s.singlePairs,
+    cameraErrorComponents: s.cameraErrors.components.length,
   };
 }

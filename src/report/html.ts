@@ -147,6 +147,8 @@ export function observationWords(o: Observation): string {
       return 'the sun is above the horizon';
     case 'object-shadow':
       return `object point [${o.objectPx.join(', ')}] px and its shadow point [${o.shadowPx.join(', ')}] px${o.group ? `, group "${o.group}"` : ''}`;
+    case 'shadow-wedge':
+      return `shadow point [${o.shadowPx.join(', ')}] px, its object point within the wedge towards [${o.edgesPx[0].join(', ')}] and [${o.edgesPx[1].join(', ')}] px${o.group ? `, group "${o.group}"` : ''}`;
     case 'clock': {
       const kept = o.kept.kind === 'unknown' ? 'what it kept is unknown (each kind is tried)' : `kept ${describeClockKind(o.kept)}`;
       return `reads ${hhmm(o.readingMinutes)} on a ${o.dialHours}-hour dial, precision ${o.precisionMinutes} min${o.hourHandTrusted ? '' : ', hour hand not trusted'}; ${kept}`;

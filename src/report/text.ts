@@ -224,7 +224,17 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
     if (best.residuals.length > 0) out.push(...residualTable(best.residuals).map((l) => `  ${l}`));
     for (const fact of best.facts) out.push(`  ${fact.satisfied ? 'holds' : 'FAILS'}: ${fact.observationId} - ${fact.note}`);
     if (best.nuisances.length > 0) {
-      for (const n of best.nuisances) out.push(`  fitted ${n.name}: ${n.fittedDeg.toFixed(1)} deg (stated ${n.priorDeg.toFixed(1)} +/- ${n.priorSigmaDeg.toFixed(1)})`);
+      const camera = best.nuisances.filter((n) => n.name.startsWith('camera:'));
+      for (const n of best.nuisances) {
+        if (!n.name.startsWith('camera:')) out.push(`  fitted ${n.name}: ${n.fittedDeg.toFixed(1)} deg (stated ${n.priorDeg.toFixed(1)} +/- ${n.priorSigmaDeg.toFixed(1)})`);
+      }
+      if (camera.length > 0) {
+        const far = camera.some((n) => Math.abs(n.fittedDeg) > 3);
+        out.push(
+          `  fitted camera error (shared by the shadows clicked through the camera), in its own sigmas: ${camera.map((n) => `${n.fittedDeg >= 0 ? '+' : ''}${n.fittedDeg.toFixed(2)}`).join(', ')}` +
+            (far ? '; more than 3 sigmas: the shadows cannot be reconciled through this camera without moving it far from its lines' : ''),
+        );
+      }
     }
   }
 

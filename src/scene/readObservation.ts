@@ -16,7 +16,7 @@ import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, Observation,
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
-  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'object-shadow',
+  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'object-shadow', 'shadow-wedge',
 ];
 
 /** Identifiers of walls and observations: letters, digits, '-', '_', '.'. */
@@ -58,6 +58,7 @@ const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'sun-up': [...COMMON],
   clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
   'object-shadow': [...COMMON, 'objectPx', 'shadowPx', 'sigmaPx'],
+  'shadow-wedge': [...COMMON, 'shadowPx', 'edgesPx', 'sigmaPx'],
 };
 
 /** The keys an observation of each kind may hold (for the schema test and the docs). */
@@ -113,7 +114,7 @@ function needImagePlane(wall: Wall, f: Fields, ctx: ObservationContext, cameraWi
         : `this pixel measurement on wall "${wall.id}" only when that wall has an "imagePlane" of known size`,
       cameraWill
         ? 'Give the wall its imagePlane (4 or more points of known shape on it), or the scene a camera block, or give the measurement as numbers.'
-        : 'It compares a length on the wall with a depth in metres, and a camera fixes the wall only up to scale: give the wall its imagePlane (a figure of known size), or give the measurement as numbers.',
+        : 'It compares a length on the wall with a depth in metres, and a camera fixes the wall only up to scale: give the wall its imagePlane (a figure of known size), give the measurement as numbers, or (with a camera block) click the front point of the overhang or fin as tipPx in place of projectionM.',
     );
   }
 }
@@ -270,10 +271,23 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       const ratioKey = kind === 'overhang-shadow' ? 'depthRatio' : 'widthRatio';
       const numeric = kind === 'overhang-shadow' ? ['depthRatio', 'sigma'] : ['widthRatio', 'side', 'sigma'];
       if (pixelForm(f, numeric, `numbers (${numeric.join(', ')})`)) {
-        needImagePlane(wall, f, ctx, false);
         const image = needImage(ctx.image, keyPath(path, 'pixels'), raw(f, 'pixels'));
-        const p = openPixels(f, ctx, ['projectionM', 'projectionSigmaM']);
+        const p = openPixels(f, ctx, ['projectionM', 'projectionSigmaM', 'tipPx']);
         const segment = readSegmentPart(p, image);
+        if (has(p, 'tipPx')) {
+          if (has(p, 'projectionM') || has(p, 'projectionSigmaM')) {
+            throw new InvalidInputError(keyPath(p.path, 'tipPx'), raw(p, 'tipPx'), 'either tipPx (through the camera) or projectionM with projectionSigmaM, not both');
+          }
+          if (wall.imagePlane !== undefined || ctx.camera === undefined) {
+            throw new InvalidInputError(
+              keyPath(p.path, 'tipPx'), raw(p, 'tipPx'), `tipPx only on a wall put into the picture by the camera (a "camera" block, and no imagePlane on wall "${wall.id}")`,
+              'With a figure of known size on the wall, give projectionM and projectionSigmaM in metres instead',
+            );
+          }
+          const tipPx = readPixelPoint(raw(p, 'tipPx'), keyPath(p.path, 'tipPx'), image);
+          return { ...base, kind, wallId: wall.id, pixels: { ...segment, tipPx } } as Observation;
+        }
+        needImagePlane(wall, f, ctx, false);
         const projectionM = num(p, 'projectionM', { ...LENGTH_M, words: 'how far the edge stands out from the wall, metres' });
         const projectionSigmaM = num(p, 'projectionSigmaM', LENGTH_SIGMA_M);
         return { ...base, kind, wallId: wall.id, pixels: { ...segment, projectionM, projectionSigmaM } } as Observation;
@@ -372,14 +386,16 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind };
     case 'clock':
       return readClock(f, id, note);
-    case 'object-shadow': {
-      const image = needImage(ctx.image, keyPath(path, 'objectPx'), raw(f, 'objectPx'));
+    case 'object-shadow':
+    case 'shadow-wedge': {
+      const image = needImage(ctx.image, keyPath(path, kind === 'object-shadow' ? 'objectPx' : 'shadowPx'), raw(f, kind === 'object-shadow' ? 'objectPx' : 'shadowPx'));
       if (ctx.camera === undefined) {
         throw new InvalidInputError(
-          keyPath(path, 'kind'), kind, 'an object-shadow pair only when the scene has a "camera" block',
+          keyPath(path, 'kind'), kind, `${kind === 'object-shadow' ? 'an object-shadow pair' : 'a shadow wedge'} only when the scene has a "camera" block`,
           'The camera (lines along vertical edges and along walls of known azimuth) turns the pair into a sun direction; see docs/measuring.md.',
         );
       }
+      if (kind === 'shadow-wedge') return readWedge(f, base, image);
       if (!has(f, 'objectPx')) throw missing(f, 'objectPx', 'the image point [xPx, yPx] of the point that casts the shadow');
       if (!has(f, 'shadowPx')) throw missing(f, 'shadowPx', 'the image point [xPx, yPx] of its shadow');
       const objectPx = readPixelPoint(raw(f, 'objectPx'), keyPath(path, 'objectPx'), image);
@@ -388,4 +404,19 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind, objectPx, shadowPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}) };
     }
   }
+}
+
+/** A shadow-wedge observation: the shadow point and two points bounding the directions of its object point. */
+function readWedge(f: Fields, base: { readonly id: string; readonly note?: string; readonly group?: string }, image: ImageInfo): Observation {
+  const path = f.path;
+  if (!has(f, 'shadowPx')) throw missing(f, 'shadowPx', 'the image point [xPx, yPx] of the shadow');
+  if (!has(f, 'edgesPx')) throw missing(f, 'edgesPx', 'two image points [[xPx, yPx], [xPx, yPx]], one on each side of the wedge in which the object point lies');
+  const shadowPx = readPixelPoint(raw(f, 'shadowPx'), keyPath(path, 'shadowPx'), image);
+  const list = raw(f, 'edgesPx');
+  if (!Array.isArray(list) || list.length !== 2) {
+    throw new InvalidInputError(keyPath(path, 'edgesPx'), list, 'two image points [[xPx, yPx], [xPx, yPx]], one on each side of the wedge in which the object point lies');
+  }
+  const edgesPx = [readPixelPoint(list[0], itemPath(keyPath(path, 'edgesPx'), 0), image), readPixelPoint(list[1], itemPath(keyPath(path, 'edgesPx'), 1), image)] as const;
+  const sigmaPx = optNum(f, 'sigmaPx', PIXEL_SIGMA);
+  return { ...base, kind: 'shadow-wedge', shadowPx, edgesPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}) };
 }

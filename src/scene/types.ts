@@ -7,6 +7,7 @@
  * (azimuth origin, wall axes, pixel axes) are in docs/conventions.md.
  */
 import type { DeltaTModel } from '../time/deltaT.js';
+import type { SkyPlane } from '../geometry/skyPlanes.js';
 
 
 /** A point in image pixels: x to the right, y down, origin at the top-left corner of the top-left pixel. */
@@ -193,7 +194,7 @@ export interface OverhangShadowObservation extends ObservationBase {
   readonly depthRatio?: number; // shadow depth / projection depth, >= 0
   readonly sigma?: number;
   /** Pixel form: from the overhang's root line down to its shadow line, plus the projection in metres. */
-  readonly pixels?: PixelSegment & { readonly projectionM: number; readonly projectionSigmaM: number };
+  readonly pixels?: PixelSegment & ProjectionPart;
 }
 
 /** 3. Fin: sideways shadow width on the wall over the fin's depth: tan(|HSA|), with the side it falls to. */
@@ -203,7 +204,7 @@ export interface FinShadowObservation extends ObservationBase {
   readonly widthRatio?: number; // >= 0
   readonly side?: Side; // the shadow falls to this side of the fin, seen from outside
   readonly sigma?: number;
-  readonly pixels?: PixelSegment & { readonly projectionM: number; readonly projectionSigmaM: number };
+  readonly pixels?: PixelSegment & ProjectionPart;
 }
 
 /** 4. Vertical pole or building corner on level ground. */
@@ -296,6 +297,31 @@ export interface ObjectShadowObservation extends ObservationBase {
   readonly shadowPx: PixelPoint;
   /** Clicking sigma of both points, else the image's pixelSigmaPx. */
   readonly sigmaPx?: number;
+  /**
+   * Filled in through the camera before solving (src/image/resolvePixels.ts), never read from the file: the
+   * pair's great circle of the sky and the two side planes that keep the sun on its arc (src/image/sunConstraints.ts).
+   */
+  readonly circle?: SkyPlane;
+  readonly sides?: readonly [SkyPlane, SkyPlane];
+}
+
+/**
+ * How far an overhang or fin stands out from its wall, in a pixel form: in metres, or (with the wall put into the
+ * picture by the camera) as the clicked point of its front edge straight out from the segment's first point.
+ */
+export type ProjectionPart =
+  | { readonly projectionM: number; readonly projectionSigmaM: number; readonly tipPx?: undefined }
+  | { readonly tipPx: PixelPoint; readonly projectionM?: undefined; readonly projectionSigmaM?: undefined };
+
+/** 8b. A shadow point whose object point is known only to lie within a wedge seen from it (needs the camera). */
+export interface ShadowWedgeObservation extends ObservationBase {
+  readonly kind: 'shadow-wedge';
+  readonly shadowPx: PixelPoint;
+  /** Two image points, one on each bounding direction of the wedge, as seen from the shadow point. */
+  readonly edgesPx: readonly [PixelPoint, PixelPoint];
+  readonly sigmaPx?: number;
+  /** Filled in through the camera before solving: the two side planes of the wedge's lune of the sky. */
+  readonly edges?: readonly [SkyPlane, SkyPlane];
 }
 
 /** 9. A clock in the picture. */
@@ -320,7 +346,8 @@ export type Observation =
   | WallLightObservation
   | SunUpObservation
   | ClockObservation
-  | ObjectShadowObservation;
+  | ObjectShadowObservation
+  | ShadowWedgeObservation;
 
 export type ObservationKind = Observation['kind'];
 

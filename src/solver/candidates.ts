@@ -10,7 +10,7 @@ import { jdToCivilDate } from '../calendar/regions.js';
 import { chiSquarePValue } from '../math/chiSquare.js';
 import { deltaTAtJdUT } from '../time/timeScales.js';
 import { describeClockKind, formatClockKind, jdUTToClockMinutes } from '../time/clock.js';
-import { factNote, latitudeOf, predictClock, predictedValuesOf, wallAzimuthOf, wrapSymmetric, type EvidenceModel } from './evidenceModel.js';
+import { factNote, latitudeOf, predictClock, predictedValuesOf, termEvidence, wallAzimuthOf, wrapSymmetric, type EvidenceModel } from './evidenceModel.js';
 import { zoneOffsetsAt } from './fitting.js';
 import { candidateUncertainty, type UncertaintyCache } from './candidateUncertainty.js';
 import type { RawCandidate } from './stageB.js';
@@ -74,7 +74,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
   const measuredRows: ResidualEntry[] = [];
   let row = 0;
   for (const t of model.shadows) {
-    const values = predictedValuesOf(t, p.sun, wallAzimuthOf(model, t.wallId, raw.nuisances));
+    const values = predictedValuesOf({ ...t, evidence: termEvidence(model, t, raw.nuisances) }, p.sun, wallAzimuthOf(model, t.wallId, raw.nuisances));
     for (let k = 0; k < t.count; k += 1) {
       const v = values[k] ?? { component: `residual-${k + 1}`, measured: NaN, predicted: NaN, unit: '', sigma: NaN };
       // The solver's residuals are (predicted - measured) / sigma; reports use the opposite sign (docs/conventions.md).
@@ -114,7 +114,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
       observationKind: f.fact,
       satisfied,
       penalty: r * r,
-      note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied),
+      note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied, raw.nuisances),
     };
   });
   const cov = raw.rep.covariance;

@@ -210,7 +210,7 @@ export function localRefitWithout(
   assumed: ClockKind | null,
   win: DayWindow,
   omit: ReadonlySet<string>,
-): { readonly objective: number; readonly chiSquare: number; readonly model: EvidenceModel } {
+): { readonly objective: number; readonly chiSquare: number; readonly model: EvidenceModel; readonly nuisancesByName: ReadonlyMap<string, number> } {
   const reduced = buildEvidenceModel(scene, omit);
   const nuis = reduced.nuisances.map((n) => {
     const k = model.nuisances.findIndex((m) => m.name === n.name);
@@ -221,6 +221,7 @@ export function localRefitWithout(
   const centre = nearestDayJd0(fit.x[0]);
   let bestObjective = Infinity;
   let bestChi = Infinity;
+  let bestNuisances: readonly number[] = nuis;
   // The candidate's own day (allowed by the window) is always tried too, from the candidate's
   // minute: the refit without an observation can drift out of the window (with the only
   // measured observation left out nothing holds it), and chi-square without it is never above.
@@ -234,9 +235,10 @@ export function localRefitWithout(
     if (s.chiSquare + s.penalty < bestObjective) {
       bestObjective = s.chiSquare + s.penalty;
       bestChi = s.chiSquare;
+      bestNuisances = onDay.x.slice(2);
     }
   }
-  return { objective: bestObjective, chiSquare: bestChi, model: reduced };
+  return { objective: bestObjective, chiSquare: bestChi, model: reduced, nuisancesByName: new Map(reduced.nuisances.map((n, k) => [n.name, bestNuisances[k]])) };
 }
 
 /** p-value of a chi-square fall with k degrees of freedom. */

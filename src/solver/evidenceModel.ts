@@ -16,6 +16,13 @@
  *   (its wall is lit, the sun is up) and of a clock (read in a sunlit picture: the sun is up),
  *   soft penalties of src/geometry/lightFacts.ts, zero when
  *   they hold, not counted as measured residuals.
+ * - Shadows clicked through the picture's camera (src/image/sunConstraints.ts): each object-shadow
+ *   pair is one measured residual, the sun's distance from the pair's great circle over its sigma
+ *   from the pair's clicks (src/geometry/skyPlanes.ts), and a one-sided fact that keeps the sun on
+ *   the pair's arc; a shadow wedge is a one-sided fact only. Their one-sided rows are in sigmas of
+ *   the clicks, not over a fixed tolerance. The camera's error, shared by all of them, enters as
+ *   nuisances of one sigma each with unit priors ('camera' kind): fitting them carries the
+ *   correlation between the pairs (skyPlanes.ts header).
  */
 import { predictHourSystemClock } from './hourSystemPrediction.js';
 import { InvalidInputError } from '../errors.js';
@@ -23,6 +30,8 @@ import type { ClockKind, Observation, Scene } from '../scene/types.js';
 import { evidenceResiduals, predictEvidence, type ShadowEvidence } from '../geometry/observationModels.js';
 import { lightFactViolationDeg, type LightFact } from '../geometry/lightFacts.js';
 import { horizontalShadowAngleDeg } from '../geometry/shadowAngles.js';
+import { planeClickSigmaDeg, sideViolation, type SkyPlane } from '../geometry/skyPlanes.js';
+import { sunUnitVector } from '../geometry/sunVector.js';
 import type { SolverSunDirection } from './sunModel.js';
 
 /** Tolerance of the soft penalties, degrees: a violation of this size costs 1 in chi-square. */
@@ -32,7 +41,8 @@ export const STAGE_A_CLOCK_EXTRA_SIGMA_MINUTES = 8;
 
 export interface NuisanceSpec {
   readonly name: string;
-  readonly kind: 'wall-azimuth' | 'latitude' | 'longitude';
+  /** 'camera': one standardised component of the picture's camera error (unit: its sigma; prior 0, sigma 1). */
+  readonly kind: 'wall-azimuth' | 'latitude' | 'longitude' | 'camera';
   readonly wallId?: string;
   readonly priorDeg: number;
   readonly sigmaDeg: number;
@@ -56,9 +66,14 @@ export interface ClockTerm {
   readonly kept: ClockKind | null;
 }
 
+/** A one-sided fact of a shadow clicked through the camera: the sun on a pair's arc, or inside a wedge. */
+export type SideFact = 'pair-side' | 'wedge';
+
 export interface FactTerm {
   readonly observationId: string;
-  readonly fact: LightFact;
+  readonly fact: LightFact | SideFact;
+  /** For the side facts: the planes on whose positive side the sun must lie. */
+  readonly planes?: readonly SkyPlane[];
   readonly wallId?: string;
   /** True for the facts implied by a shadow (its wall lit, the sun up). */
   readonly implicit: boolean;
@@ -78,6 +93,8 @@ export interface EvidenceModel {
   readonly longitudeNuisance: number;
   /** Stated azimuth of each wall. */
   readonly wallAzimuths: ReadonlyMap<string, number>;
+  /** The camera-error nuisances: index of the first in `nuisances` and how many; null without camera evidence. */
+  readonly cameraNuisance: { readonly start: number; readonly count: number } | null;
 }
 
 /** How a residual evaluation sees the instant and the clocks. */
@@ -158,6 +175,8 @@ function shadowEvidenceOf(o: Observation, i: number): { evidence: ShadowEvidence
       return {
         evidence: { kind: 'sun-direction', azimuthDeg: o.azimuthDeg, azimuthSigmaDeg: o.azimuthSigmaDeg, altitudeDeg: o.altitudeDeg, altitudeSigmaDeg: o.altitudeSigmaDeg },
       };
+    case 'object-shadow':
+      return { evidence: { kind: 'sun-circle', circle: need(o.circle, `${f}.objectPx`, 'a pair measured through the camera') } };
     default:
       return null;
   }
@@ -175,6 +194,8 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
   const clocks: ClockTerm[] = [];
   const facts: FactTerm[] = [];
   const usedWalls = new Set<string>();
+  const cameraPlanes: SkyPlane[] = [];
+  const f = (i: number): string => `observations[${i}]`;
   const implicitLit = new Set<string>();
   let implicitSunUp = false;
   scene.observations.forEach((o, i) => {
@@ -207,6 +228,19 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
       facts.push({ observationId: o.id, fact: 'sun-up', implicit: false });
       return;
     }
+    if (o.kind === 'shadow-wedge') {
+      facts.push({ observationId: o.id, fact: 'wedge', planes: need(o.edges, `${f(i)}.edgesPx`, 'a wedge measured through the camera'), implicit: false });
+      cameraPlanes.push(...o.edges!);
+      if (!implicitSunUp) {
+        implicitSunUp = true;
+        facts.push({ observationId: o.id, fact: 'sun-up', implicit: true });
+      }
+      return;
+    }
+    if (o.kind === 'object-shadow') {
+      facts.push({ observationId: o.id, fact: 'pair-side', planes: need(o.sides, `${f(i)}.shadowPx`, 'a pair measured through the camera'), implicit: false });
+      cameraPlanes.push(...o.sides!, ...(o.circle ? [o.circle] : []));
+    }
     const s = shadowEvidenceOf(o, i);
     if (!s) return;
     const count = evidenceResiduals(s.evidence, { azimuthDeg: 180, altitudeDeg: 30 }, 180).residuals.length;
@@ -238,9 +272,14 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
     longitudeNuisance = nuisances.length;
     nuisances.push({ name: 'site:longitude', kind: 'longitude', priorDeg: scene.site.longitudeDeg, sigmaDeg: scene.site.longitudeSigmaDeg });
   }
+  const cameraCount = Math.max(0, ...cameraPlanes.map((p) => p.cameraSensitivity.length));
+  const cameraNuisance = cameraCount > 0 ? { start: nuisances.length, count: cameraCount } : null;
+  for (let k = 0; k < cameraCount; k++) {
+    nuisances.push({ name: `camera:error-${k + 1}`, kind: 'camera', priorDeg: 0, sigmaDeg: 1 });
+  }
   const measuredCount = shadows.reduce((n, t) => n + t.count, 0) + clocks.length;
   const wallAzimuths = new Map(scene.walls.map((w) => [w.id, w.azimuthDeg]));
-  return { scene, nuisances, shadows, clocks, facts, measuredCount, wallNuisance, latitudeNuisance, longitudeNuisance, wallAzimuths };
+  return { scene, nuisances, shadows, clocks, facts, measuredCount, wallNuisance, latitudeNuisance, longitudeNuisance, wallAzimuths, cameraNuisance };
 }
 
 /** Wall azimuth in use: the nuisance value when fitted, else the stated azimuth. */
@@ -308,11 +347,22 @@ export function clockResidual(term: ClockTerm, model: EvidenceModel, ctx: Evalua
   return wrapSymmetric(p.minutes - term.readingMinutes, term.modulusMinutes) / p.sigma;
 }
 
+/** The camera-error components at a point of the fit (empty without camera evidence). */
+export function cameraErrorOf(model: EvidenceModel, nuisances: readonly number[]): readonly number[] {
+  const c = model.cameraNuisance;
+  return c ? nuisances.slice(c.start, c.start + c.count) : [];
+}
+
+/** A term's evidence at a point of the fit: a pair's great circle moved by the fitted camera error. */
+export function termEvidence(model: EvidenceModel, t: ShadowTerm, nuisances: readonly number[]): ShadowEvidence {
+  return t.evidence.kind === 'sun-circle' ? { ...t.evidence, cameraError: cameraErrorOf(model, nuisances) } : t.evidence;
+}
+
 /** Residual vector: measured (shadows, then clocks), then nuisance priors, then soft facts. */
 export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationContext): number[] {
   const out: number[] = [];
   for (const t of model.shadows) {
-    const r = evidenceResiduals(t.evidence, ctx.sun, wallAzimuthOf(model, t.wallId, ctx.nuisances)).residuals;
+    const r = evidenceResiduals(termEvidence(model, t, ctx.nuisances), ctx.sun, wallAzimuthOf(model, t.wallId, ctx.nuisances)).residuals;
     for (const v of r) out.push(v);
   }
   for (const c of model.clocks) out.push(clockResidual(c, model, ctx));
@@ -323,6 +373,10 @@ export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationCont
 
 /** Soft residual of one fact (0 when it holds). */
 export function factResidual(model: EvidenceModel, f: FactTerm, ctx: EvaluationContext): number {
+  if (f.fact === 'pair-side' || f.fact === 'wedge') {
+    // one-sided, in sigmas of the clicks (skyPlanes.ts sideViolation); the camera's part through its nuisances
+    return sideViolation(f.planes ?? [], sunUnitVector(ctx.sun.azimuthDeg, ctx.sun.altitudeDeg), cameraErrorOf(model, ctx.nuisances)).sigmas;
+  }
   return lightFactViolationDeg(f.fact, ctx.sun, wallAzimuthOf(model, f.wallId, ctx.nuisances)) / FACT_TOLERANCE_DEG; // = lightFactResidual(...).residuals[0]
 }
 
@@ -422,14 +476,24 @@ export function predictedValuesOf(term: ShadowTerm, sun: SolverSunDirection, wal
         { component: 'azimuth', measured: e.azimuthDeg, predicted: sun.azimuthDeg, unit: 'deg', sigma: e.azimuthSigmaDeg },
         { component: 'altitude', measured: e.altitudeDeg, predicted: sun.altitudeDeg, unit: 'deg', sigma: e.altitudeSigmaDeg },
       ];
+    case 'sun-circle': {
+      const s = sunUnitVector(sun.azimuthDeg, sun.altitudeDeg);
+      return [{ component: 'distance-from-great-circle', measured: 0, predicted: p.kind === 'sun-circle' ? p.distanceDeg : NaN, unit: 'deg', sigma: planeClickSigmaDeg(e.circle, s) }];
+    }
     default:
       return [];
   }
 }
 
 /** Plain words for a fact at a sun direction. */
-export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean): string {
+export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean, nuisances: readonly number[] = []): string {
   const wallName = f.wallId ?? '';
+  if (f.fact === 'pair-side' || f.fact === 'wedge') {
+    const where = f.fact === 'pair-side' ? "on the side of the pair's line where its shadow falls away from the light" : 'inside the wedge of its shadow';
+    if (satisfied) return `the sun lies ${where}`;
+    const v = sideViolation(f.planes ?? [], sunUnitVector(sun.azimuthDeg, sun.altitudeDeg), cameraErrorOf(model, nuisances));
+    return `the sun lies ${v.degrees.toFixed(1)} deg outside the bound it must keep (${where}; ${v.sigmas.toFixed(1)} sigma of the clicks)`;
+  }
   if (f.fact === 'sun-up') {
     const needs = model.clocks.some((c) => c.observationId === f.observationId) ? ', as a clock read in daylight needs' : ', as a shadow needs';
     return `the sun is ${satisfied ? 'up' : 'below the horizon'} (altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? needs : ''}`;

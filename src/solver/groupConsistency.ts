@@ -9,8 +9,9 @@
  * - a separate sun for the group: the rest refitted without the group (a
  *   local refit from the best candidate, consistency.ts localRefitWithout),
  *   plus the group's shadow observations fitted by a sun direction of their
- *   own (azimuth and altitude free, the walls at the best candidate's
- *   azimuths), found by a grid over the sky and a bounded pattern search.
+ *   own (azimuth and altitude free, the walls' azimuths and the camera's
+ *   error as the rest was refitted to them), found by a grid over the sky
+ *   and a bounded pattern search.
  * The fall of chi-square between the nested fits is distributed as
  * chi-square with as many degrees of freedom as the separate sun adds,
  * min(2, the group's number of residuals) (Press et al., Numerical Recipes
@@ -23,7 +24,7 @@
  */
 import type { ClockKind, Scene } from '../scene/types.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
-import { residualRowsByObservation, wallAzimuthOf, type EvidenceModel, type ShadowTerm } from './evidenceModel.js';
+import { residualRowsByObservation, termEvidence, wallAzimuthOf, type EvidenceModel, type ShadowTerm } from './evidenceModel.js';
 import { improvementPValue, localRefitWithout, LOO_P_THRESHOLD } from './consistency.js';
 import type { RawCandidate } from './stageB.js';
 import type { DayWindow } from './window.js';
@@ -68,7 +69,7 @@ const MAX_HALVINGS = 20;
 function groupChiSquare(model: EvidenceModel, terms: readonly ShadowTerm[], nuisances: readonly number[], azimuthDeg: number, altitudeDeg: number): number {
   let chi = 0;
   for (const t of terms) {
-    for (const r of evidenceResiduals(t.evidence, { azimuthDeg, altitudeDeg }, wallAzimuthOf(model, t.wallId, nuisances)).residuals) chi += r * r;
+    for (const r of evidenceResiduals(termEvidence(model, t, nuisances), { azimuthDeg, altitudeDeg }, wallAzimuthOf(model, t.wallId, nuisances)).residuals) chi += r * r;
   }
   return Number.isFinite(chi) ? chi : Infinity;
 }
@@ -121,7 +122,9 @@ export function groupConsistency(scene: Scene, model: EvidenceModel, best: RawCa
     if (ids.length === 0 || restIds.length === 0) continue;
     const residualCount = terms.reduce((n, t) => n + t.count, 0);
     const rest = localRefitWithout(scene, model, best, assumed, win, new Set(ids));
-    const sun = ownSun(model, terms, best.nuisances);
+    // the group's own sun with the nuisances the rest was refitted to (the camera's error, shared by the pairs of
+    // both, is then set by the rest and its prior, not bent towards a compromise with the group: conservative)
+    const sun = ownSun(model, terms, model.nuisances.map((n, k) => rest.nuisancesByName.get(n.name) ?? best.nuisances[k]));
     const separate = rest.objective + sun.chiSquare;
     const delta = Math.max(0, best.objective - separate);
     const dof = Math.min(2, residualCount);

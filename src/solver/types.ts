@@ -47,7 +47,7 @@ export interface ResidualEntry {
 /** A fact without a number (wall lit or shaded, sun up) at a candidate. */
 export interface FactEntry {
   readonly observationId: string;
-  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'rod-side' | 'fin-side';
+  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'rod-side' | 'fin-side' | 'pair-side' | 'wedge';
   readonly satisfied: boolean;
   /** Soft penalty added to the objective, 0 when satisfied; not counted in the degrees of freedom. */
   readonly penalty: number;

@@ -358,7 +358,7 @@ describe('the measuring desk in Chromium', () => {
           focalLengthPx: { value: number; sigma: number }; principalPointPx: { value: number }[]; principalPointAssumed: boolean;
           viewAzimuthDeg: { value: number; sigma: number }; viewAltitudeDeg: { value: number; sigma: number };
           vanishingPoints: { field: string; note: string }[];
-          groups: { group: string; azimuthDeg: number; altitudeDeg: number; written: { azimuthSigmaDeg: number; altitudeSigmaDeg: number }; againstRest: { sentence: string } | null }[];
+          groups: { group: string; azimuthDeg: number; altitudeDeg: number; reported: { azimuthSigmaDeg: number; altitudeSigmaDeg: number }; againstRest: { sentence: string } | null }[];
         };
       };
       const cam = measured.camera;
@@ -387,8 +387,8 @@ describe('the measuring desk in Chromium', () => {
         const alt = await shown(scope, 'altitudeDeg');
         expect(Math.abs(az.value - g.azimuthDeg), `${g.group} azimuth`).toBeLessThanOrEqual(0.01);
         expect(Math.abs(alt.value - g.altitudeDeg), `${g.group} altitude`).toBeLessThanOrEqual(0.01);
-        expect(Math.abs(az.sigma - g.written.azimuthSigmaDeg), `${g.group} azimuth sigma`).toBeLessThanOrEqual(0.01);
-        expect(Math.abs(alt.sigma - g.written.altitudeSigmaDeg), `${g.group} altitude sigma`).toBeLessThanOrEqual(0.01);
+        expect(Math.abs(az.sigma - g.reported.azimuthSigmaDeg), `${g.group} azimuth sigma`).toBeLessThanOrEqual(0.01);
+        expect(Math.abs(alt.sigma - g.reported.altitudeSigmaDeg), `${g.group} altitude sigma`).toBeLessThanOrEqual(0.01);
         expect(await page.locator(`${scope} [data-group-test]`).textContent()).toBe(g.againstRest!.sentence);
       }
       // drawn over the picture: the vanishing lines, each group's shadow lines and the ellipse where they meet

@@ -134,13 +134,12 @@ describe("the picture's own perspective on the desk", () => {
     expect(points.find((q) => q.label === 'figure-2 shadow')!.owner).toEqual(['observations', 4]);
   });
 
-  it('refuses a group of one pair beside that pair and goes on with the others; a camera of one direction is refused beside the camera', () => {
+  it('keeps a group of one pair as a great circle (no sun of its own, nothing refused); a camera of one direction is refused beside the camera', () => {
     const oneFigure = structuredClone(korn);
     (oneFigure.observations as Draft[]).splice(4); // front-lit, post-1, post-2, figure-1
     const p = derivePerspective(oneFigure)!;
-    expect([...p.pairRefusals.keys()]).toEqual(['observations[3]']);
-    expect(p.pairRefusals.get('observations[3]')).toContain('two or more object-shadow pairs in group "figures"');
-    expect(p.sceneSun).toBeNull(); // not what the command line would accept
+    expect([...p.pairRefusals.keys()]).toEqual([]);
+    expect(p.sceneSun!.singlePairs).toEqual([{ group: 'figures', id: 'figure-1', field: 'observations[3]' }]);
     expect(p.drawing!.groups.map((g) => g.group)).toEqual(['lamp-posts']);
 
     const vertical = structuredClone(korn);

@@ -29,8 +29,8 @@ describe('the Kornhaus print: dated from its perspective alone', () => {
     expect(Math.abs(j.camera.principalPointPx[0].value - 1218)).toBeLessThan(3 * j.camera.principalPointPx[0].sigma);
     expect(j.camera.perspectiveConsistent).toBe(true);
     for (const g of j.camera.groups) {
-      expect(Math.abs(g.azimuthDeg - 269.177), g.group).toBeLessThan(2 * g.written.azimuthSigmaDeg);
-      expect(Math.abs(g.altitudeDeg - 26.3995), g.group).toBeLessThan(2 * g.written.altitudeSigmaDeg);
+      expect(Math.abs(g.azimuthDeg - 269.177), g.group).toBeLessThan(2 * g.reported.azimuthSigmaDeg);
+      expect(Math.abs(g.altitudeDeg - 26.3995), g.group).toBeLessThan(2 * g.reported.altitudeSigmaDeg);
       expect(g.againstRest.pValue).toBeGreaterThan(0.01);
     }
   });
@@ -42,7 +42,7 @@ describe('the Kornhaus print: dated from its perspective alone', () => {
     expect(a.status).not.toBe('nothing-fits');
     // the rendering's instant, jdUT 2404562.168472 (printed by make-picture.mjs); the candidate's own sigma is a few minutes
     const families: { fromMonthDay: string; bestJd: number }[] = a.families;
-    expect(families.map((f) => f.fromMonthDay)).toEqual(['05-14', '07-30']);
+    expect(families.map((f) => f.fromMonthDay)).toEqual(['05-14', '07-29']);
     expect(Math.abs(families[0].bestJd - 2404562.168472) * 1440).toBeLessThan(5);
     // the group test of the answer: posts and figures were rendered under one sun
     expect(a.groupTests.map((g: { group: string }) => g.group)).toEqual(['figures', 'lamp-posts']);
@@ -55,7 +55,8 @@ describe('the Kornhaus print: dated from its perspective alone', () => {
     expect(m.out).toContain('the shadows of group "figures" do not share the light of the other pairs: p < 0.000001');
     const d = await cli(['date', join(DIR, 'kornplatz-figures-variant.yaml')]);
     expect(d.out).toContain('Nothing fits');
-    expect(d.out).toContain('group:figures');
+    // each pair is its own observation: the camera would have to be far off its clicks to reconcile them
+    expect(d.out).toMatch(/fitted camera error .* in its own sigmas: .*; more than 3 sigmas: the shadows cannot be reconciled through this camera/);
     // the date answer's group test names the figures, with the sun they were rendered under (azimuth 200.90, altitude 59.63)
     expect(d.out).toContain('DIFFERS the shadows of "figures" do not share the light of "lamp-posts": Delta chi-square');
     const j = JSON.parse((await cli(['date', join(DIR, 'kornplatz-figures-variant.yaml'), '--json'])).out);

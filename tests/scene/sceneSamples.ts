@@ -42,6 +42,13 @@ export function variant(changes: Readonly<Record<string, unknown>>): Data {
 const obs = (o: Data): Data => variant({ 'observations.0': o });
 
 /** Valid scenes: every kind of observation and every form. */
+/** A camera block of two vertical lines, two lines along the front and a given focal length. */
+const SAMPLE_CAMERA = {
+  verticalLines: [[[100, 100], [102, 800]], [[700, 90], [699, 820]]],
+  wallLines: [{ wall: 'tanners-hall-front', lines: [[[100, 200], [600, 260]], [[100, 500], [600, 480]]] }],
+  focalLengthPx: 1500,
+};
+
 export const GOOD_SCENES: readonly { readonly name: string; readonly data: Data }[] = [
   { name: 'minimal', data: minimalScene() },
   { name: 'site in degrees-minutes-seconds', data: variant({ site: { latitudeDeg: "47°37'12\"N", longitudeDeg: '9 21 E' } }) },
@@ -76,6 +83,22 @@ export const GOOD_SCENES: readonly { readonly name: string; readonly data: Data 
         sigmaPx: 1.5,
       },
       'observations.0': { id: 'o', kind: 'object-shadow', objectPx: [400, 300], shadowPx: [420, 700], sigmaPx: 2, group: 'figures' },
+    }),
+  },
+  {
+    name: 'overhang through the camera, with its tip point',
+    data: variant({
+      image: IMAGE,
+      camera: SAMPLE_CAMERA,
+      'observations.0': { id: 'o', kind: 'overhang-shadow', wall: 'tanners-hall-front', pixels: { fromPx: [300, 300], toPx: [300, 350], tipPx: [320, 310] } },
+    }),
+  },
+  {
+    name: 'camera block and a shadow wedge',
+    data: variant({
+      image: IMAGE,
+      camera: SAMPLE_CAMERA,
+      'observations.0': { id: 'o', kind: 'shadow-wedge', shadowPx: [420, 700], edgesPx: [[380, 300], [460, 310]], sigmaPx: 2, group: 'figures' },
     }),
   },
   {
@@ -128,6 +151,24 @@ export const BAD_SCENES: readonly BadScene[] = [
     name: 'object-shadow without a camera',
     data: variant({ image: IMAGE, 'observations.0': { id: 'o', kind: 'object-shadow', objectPx: [400, 300], shadowPx: [420, 700] } }),
     field: 'observations[0].kind', says: /only when the scene has a "camera" block/, schemaSees: false,
+  },
+  {
+    name: 'overhang with both tipPx and projectionM',
+    data: variant({
+      image: IMAGE,
+      camera: SAMPLE_CAMERA,
+      'observations.0': { id: 'o', kind: 'overhang-shadow', wall: 'tanners-hall-front', pixels: { fromPx: [300, 300], toPx: [300, 350], tipPx: [320, 310], projectionM: 0.5, projectionSigmaM: 0.01 } },
+    }),
+    field: 'observations[0].pixels.tipPx', says: /either tipPx .* or projectionM/, schemaSees: true,
+  },
+  {
+    name: 'shadow wedge with one edge point',
+    data: variant({
+      image: IMAGE,
+      camera: SAMPLE_CAMERA,
+      'observations.0': { id: 'o', kind: 'shadow-wedge', shadowPx: [420, 700], edgesPx: [[380, 300]] },
+    }),
+    field: 'observations[0].edgesPx', says: /two image points/, schemaSees: true,
   },
   {
     name: 'camera without wall lines',
