@@ -17,7 +17,7 @@
  * tests/ephemeris/moonAccuracy.test.ts (see docs/moon.md).
  * Leaves out: the moon's semi-diameter (altitudes are of the centre), libration, the horizon dip.
  */
-import { AstroTime, Body, EquatorFromVector, GeoVector, Horizon, MoonPhase, Observer, ObserverVector, RotateVector, Rotation_EQJ_EQD, SiderealTime, Vector } from 'astronomy-engine';
+import { AstroTime, Body, EquatorFromVector, GeoVector, Horizon, Observer, ObserverVector, RotateVector, Rotation_EQD_ECT, Rotation_EQJ_EQD, SiderealTime, SphereFromVector, Vector } from 'astronomy-engine';
 import type { Air } from '../scene/types.js';
 import { atan2Deg, cosDeg, normalizeDeg180, normalizeDeg360, sinDeg, tanDeg, acosClamped, radToDeg } from '../math/angles.js';
 import { astroTimeFromJdUT, withDeltaT } from './engine.js';
@@ -73,8 +73,6 @@ const ELP_MEAN_LONGITUDE_T2_DEG = -0.0015786;
 const ENGINE_MEAN_LONGITUDE_T2_DEG = -0.00000313 * 360;
 /** The moon's mean motion in longitude, deg per day (Meeus 1998, eq. 47.1: 481267.88123421 deg per century). */
 const MOON_MEAN_MOTION_DEG_PER_DAY = 481267.88123421 / 36525;
-/** The sun's mean motion in longitude, deg per day (Meeus 1998, eq. 25.2: 36000.76983 deg per century). */
-const SUN_MEAN_MOTION_DEG_PER_DAY = 36000.76983 / 36525;
 
 /**
  * The time shift, days, that brings astronomy-engine's moon onto the secular acceleration of ELP-2000/82
@@ -113,6 +111,20 @@ export function parallacticAngleDeg(latitudeDeg: number, hourAngleDeg: number, d
 }
 
 /**
+ * The moon's geocentric apparent ecliptic longitude minus the sun's, true ecliptic and equinox of date,
+ * [0, 360) (0 new, 90 first quarter, 180 full, 270 last quarter; Meeus 1998 ch. 49 defines the phases by
+ * apparent longitudes). From geocentricMoonOfDate and geocentricSunOfDate (with aberration); not
+ * astronomy-engine's MoonPhase, which leaves out the sun's aberration (20.5", so its phases come about
+ * 40 s late: measured on Meeus Example 49.a).
+ */
+export function moonPhaseLongitudeDeg(time: AstroTime): number {
+  const toEcliptic = Rotation_EQD_ECT(time);
+  const moon = SphereFromVector(RotateVector(toEcliptic, geocentricMoonOfDate(time)));
+  const sun = SphereFromVector(RotateVector(toEcliptic, geocentricSunOfDate(time)));
+  return normalizeDeg360(moon.lon - sun.lon);
+}
+
+/**
  * The moon at instant jdUT seen from `site`.
  * @param air refraction air; absent = standard air; 'none' = geometric altitude.
  * @example moonPosition(2448724.5 - 59 / 86400, site, 'none', { deltaTSeconds: 59 }).illuminatedFraction // 0.6786 (Meeus Example 48.a)
@@ -146,10 +158,7 @@ function moonPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | un
   const moonDist = moonGeo.Length();
   const phaseAngleDeg = atan2Deg(sunDist * sinDeg(elongationDeg), moonDist - sunDist * cosDeg(elongationDeg));
   const illuminatedFraction = (1 + cosDeg(phaseAngleDeg)) / 2;
-  // astronomy-engine's MoonPhase (moon minus sun in ecliptic longitude of date) with the moon at the shifted
-  // time; the sun's own motion over the shift (0.9856 deg per day, Meeus 1998 eq. 25.2) is added back.
-  const shiftDays = lunarAccelerationShiftDays(time.tt);
-  const phaseLongitudeDeg = normalizeDeg360(MoonPhase(time.AddDays(shiftDays)) + SUN_MEAN_MOTION_DEG_PER_DAY * shiftDays);
+  const phaseLongitudeDeg = moonPhaseLongitudeDeg(time);
 
   // Bright limb from geocentric places (Meeus ch. 48) ...
   const limbGeoDeg = brightLimbPositionAngleDeg(eqSun.ra * 15, eqSun.dec, eqMoonGeo.ra * 15, eqMoonGeo.dec);
