@@ -13,9 +13,9 @@
  * the Delta T model in force for the whole search (engine.ts). Phase instants are then refined by Newton
  * steps on moonPhaseLongitudeDeg, which carries the secular-acceleration shift of moonPosition.ts; rise,
  * set and transit are not (the shift moves them by under 15 s in AD 1000, under 2 s after 1600).
- * Accuracy: phases about 30 s against Meeus Example 49.a; rise and set within a minute of an independent
- * computation from Meeus ch. 47 (tests/ephemeris/moonEvents.test.ts); the real horizon and atmosphere
- * move them by minutes.
+ * Accuracy (measured, tests/ephemeris/moonEvents.test.ts): the new moon of Meeus Example 49.a within 2 s;
+ * rise and set within 4 s of Meeus ch. 15 applied to the moon of Meeus ch. 47 (astronomia), 1600-2100.
+ * The real horizon and atmosphere move rise and set by minutes.
  */
 import { Body, Observer, SearchHourAngle, SearchMoonPhase, SearchRiseSet, type AstroTime } from 'astronomy-engine';
 import { ConvergenceError } from '../errors.js';
