@@ -39,9 +39,9 @@ function coordinateOption(text: string | undefined, field: string, axis: Coordin
 }
 
 /** hh:mm or hh:mm:ss (24-hour) to minutes since midnight. */
-export function parseTimeOfDay(text: string | undefined, field: string): number {
+export function parseTimeOfDay(text: string | undefined, field: string, whenRequired = 'required unless --day is given'): number {
   const allowed = 'a time of day hh:mm or hh:mm:ss on a 24-hour clock, 00:00 to 23:59:59';
-  if (text === undefined) throw new InvalidInputError(field, text, `${allowed} (required unless --day is given)`);
+  if (text === undefined) throw new InvalidInputError(field, text, `${allowed} (${whenRequired})`);
   const m = /^(\d{1,2}):(\d{2})(?::(\d{2}(?:\.\d+)?))?$/.exec(text.trim());
   if (!m) throw new InvalidInputError(field, text, allowed);
   const h = Number(m[1]);
@@ -94,8 +94,8 @@ export function clockText(jdUT: number, clock: ClockKind, site: SunSite): string
   return formatMinutes(jdUTToClockMinutes(jdUT, clock, site).minutesOfDay);
 }
 
-/** The reading in an hour system tied to sunrise and sunset, or null on a day without sunrise or sunset. */
-function hourSystemText(jdUT: number, clock: ClockKind, site: SunSite): string | null {
+/** The reading of a clock at an instant, or null where an hour system tied to sunrise and sunset has no reading (a day without sunrise or sunset). */
+export function hourSystemText(jdUT: number, clock: ClockKind, site: SunSite): string | null {
   try {
     return clockText(jdUT, clock, site);
   } catch (error) {
@@ -107,10 +107,10 @@ function hourSystemText(jdUT: number, clock: ClockKind, site: SunSite): string |
 
 /**
  * The UT instant of --time on the day, after checking --time and, for a zone clock, that the zone
- * database covers that day.
+ * database covers that day; `whenRequired` words when --time is required in the refusal of a missing one.
  */
-export function jdUTOfMoment(options: SiteMomentOptions, inputs: SiteMoment): number {
-  const minutes = parseTimeOfDay(options.time, '--time');
+export function jdUTOfMoment(options: SiteMomentOptions, inputs: SiteMoment, whenRequired?: string): number {
+  const minutes = parseTimeOfDay(options.time, '--time', whenRequired);
   if (inputs.clock.kind === 'zone') zoneReading(inputs.clock.zone, clockToJdUT(inputs.dayJd0, minutes, { kind: 'mean' }, inputs.site), '--clock');
   return clockToJdUT(inputs.dayJd0, minutes, inputs.clock, inputs.site);
 }
