@@ -116,7 +116,7 @@ function moonText(r: MoonRecord, inputs: SiteMoment): string {
     '',
     `Accuracy: the moon's direction agrees with Meeus ch. 47 (astronomia) within 0.01 deg over 1000-2100 for the same Delta T; ` +
       `the uncertainty of Delta T (+/- ${f(r.deltaT.sigmaSeconds, r.deltaT.sigmaSeconds < 1 ? 2 : 1)} s here) turns the sky by up to ${f((r.deltaT.sigmaSeconds * 360.9856) / 86400, 3)} deg` +
-      (year < 1000 ? '; before AD 1000 the moon is checked against the NASA canon of eclipses only (new moons within 2 min of time back to 1127 BC)' : '') +
+      (year < 1000 ? '; before AD 1000 the moon is checked against the NASA canon of eclipses only (new moons within 2 min of time back to 1128 BC)' : '') +
       (sunAccuracy === null ? '.' : `; sun: ${sunAccuracy}.`),
     `Caution: ${MOON_CAUTION}`,
   ];

@@ -79,7 +79,7 @@ const MOON_MEAN_MOTION_DEG_PER_DAY = 481267.88123421 / 36525;
  * (the one the Delta T models assume, Morrison and Stephenson 2004; Espenak and Meeus 2006 use
  * n-dot = -25.858 arcsec per century^2). astronomy-engine's lunar mean elements carry T^2 terms about
  * 1.63 arcsec per century^2 smaller in magnitude than Meeus eq. 47.1 (in L', D, M' and F alike: an older
- * tidal acceleration), which puts its moon ahead by 0.045 deg in AD 1000 and its conjunctions 4.6 min
+ * tidal acceleration), which puts its moon up to 0.06 deg ahead in AD 1000 and its conjunctions 4.6 min
  * early against the NASA Five Millennium Canon (measured, tests/ephemeris/moonAccuracy.test.ts).
  * Evaluating the moon at TT + shift removes it: shift = ((c_ELP - c_engine) T^2 + T^3 / 538841 - T^4 / 65194000) / n,
  * the last two the terms of eq. 47.1 that astronomy-engine's mean longitude lacks.
