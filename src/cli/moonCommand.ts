@@ -12,7 +12,6 @@ import { formatCalendarDate } from '../calendar/format.js';
 import { moonPosition, type MoonPosition } from '../ephemeris/moonPosition.js';
 import { moonAge, moonEvents } from '../ephemeris/moonEvents.js';
 import { litSideWords, moonPhaseWords } from '../ephemeris/moonLook.js';
-import { jdUTToJdTT } from '../time/timeScales.js';
 import { clockToJdUT, describeClockKind, formatClockKind, jdUTToClockMinutes } from '../time/clock.js';
 import type { CliIo } from './io.js';
 import type { MoonOptions } from './moonSpec.js';
@@ -24,6 +23,7 @@ import {
   jdUTOfMoment,
   momentHeaderLines,
   momentTimes,
+  placeRecord,
   readSiteMoment,
   signed,
   type SiteMoment,
@@ -63,14 +63,7 @@ function eventsRecord(inputs: SiteMoment) {
 function moonRecord(jdUT: number, inputs: SiteMoment, p: MoonPosition) {
   const age = moonAge(jdUT, { deltaTModel: inputs.deltaTModel });
   return {
-    jd: jdUT,
-    jdTT: jdUTToJdTT(jdUT, inputs.deltaTModel),
-    azimuth: p.azimuthDeg,
-    altitude: p.altitudeDeg,
-    geometricAltitude: p.geometricAltitudeDeg,
-    declination: p.declinationDeg,
-    rightAscension: p.rightAscensionDeg,
-    hourAngle: p.hourAngleDeg,
+    ...placeRecord(jdUT, inputs, p),
     distance: p.distanceKm,
     illuminatedFraction: p.illuminatedFraction,
     phase: moonPhaseWords(p.phaseLongitudeDeg),

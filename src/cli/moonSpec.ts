@@ -4,8 +4,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
-import { CLOCK_DEFAULT_WHY } from './clockOption.js';
-import { addDeltaTOption, addSiteMomentOptions, siteMomentOptionsFrom, type SiteMomentOptions } from './siteMomentSpec.js';
+import { addDeltaTOption, addSiteMomentOptions, siteMomentHelp, siteMomentOptionsFrom, type SiteMomentOptions } from './siteMomentSpec.js';
 
 /** The options as the command receives them (strings, validated in siteMoment.ts). */
 export type MoonOptions = SiteMomentOptions;
@@ -24,13 +23,11 @@ export function registerMoon(program: Command, io: CliIo): void {
   addDeltaTOption(command)
     .addHelpText(
       'after',
-      '\nNothing is guessed silently: without --calendar the date is read in the proleptic Gregorian calendar, without\n' +
-        `--clock the time is ${CLOCK_DEFAULT_WHY},\n` +
-        'without --pressure/--temperature refraction uses 1010 hPa and 10 C, and every answer lists the defaults it used.\n' +
-        'Examples (Velmar, 47.62 N 9.35 E):\n' +
-        '  heliochron moon --lat 47.62 --lon 9.35 --elevation 410 --date 1783-04-04 --time 20:30\n' +
-        '  heliochron moon --lat 47.62 --lon 9.35 --date 1783-04-04 --time 21:00 --clock mean --json\n' +
-        '  heliochron moon --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --time 02:00 --clock italian\n',
+      siteMomentHelp([
+        'heliochron moon --lat 47.62 --lon 9.35 --elevation 410 --date 1783-04-04 --time 20:30',
+        'heliochron moon --lat 47.62 --lon 9.35 --date 1783-04-04 --time 21:00 --clock mean --json',
+        'heliochron moon --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --time 02:00 --clock italian',
+      ]),
     )
     .action(async (options: Record<string, unknown>, actionCommand: Command) => {
       const { run } = await import('./moonCommand.js');

@@ -115,6 +115,24 @@ export function jdUTOfMoment(options: SiteMomentOptions, inputs: SiteMoment, whe
   return clockToJdUT(inputs.dayJd0, minutes, inputs.clock, inputs.site);
 }
 
+/** The place of a body in the sky at one moment, in the JSON naming `sun` and `moon` share. */
+export function placeRecord(
+  jdUT: number,
+  inputs: SiteMoment,
+  p: { readonly azimuthDeg: number; readonly altitudeDeg: number; readonly geometricAltitudeDeg: number; readonly declinationDeg: number; readonly rightAscensionDeg: number; readonly hourAngleDeg: number },
+) {
+  return {
+    jd: jdUT,
+    jdTT: jdUTToJdTT(jdUT, inputs.deltaTModel),
+    azimuth: p.azimuthDeg,
+    altitude: p.altitudeDeg,
+    geometricAltitude: p.geometricAltitudeDeg,
+    declination: p.declinationDeg,
+    rightAscension: p.rightAscensionDeg,
+    hourAngle: p.hourAngleDeg,
+  };
+}
+
 /** Delta T, every time scale and the civil date of one moment, as plain data (also the JSON form). */
 export function momentTimes(jdUT: number, inputs: SiteMoment) {
   const { site, clock, rule, dayJd0, deltaTModel } = inputs;

@@ -3,7 +3,7 @@
  * declared once here, light, loaded with the program; read and checked in siteMoment.ts.
  */
 import type { Command } from 'commander';
-import { CLOCK_DEFAULT, CLOCK_FLAGS, CLOCK_KINDS_HELP } from './clockOption.js';
+import { CLOCK_DEFAULT, CLOCK_DEFAULT_WHY, CLOCK_FLAGS, CLOCK_KINDS_HELP } from './clockOption.js';
 import { DELTA_T_FLAGS, DELTA_T_HELP } from './deltaTOption.js';
 
 export const SITE_MOMENT_DEFAULTS = {
@@ -50,6 +50,17 @@ export function addSiteMomentOptions(command: Command, timeHelp: string): Comman
     .option('--pressure <hPa>', 'air pressure for refraction, hPa', SITE_MOMENT_DEFAULTS.pressure)
     .option('--temperature <C>', 'air temperature for refraction, degrees Celsius', SITE_MOMENT_DEFAULTS.temperature)
     .option('--json', 'print one JSON object instead of text');
+}
+
+/** The help text after the options: what is assumed when an option is left out, then the examples given. */
+export function siteMomentHelp(examples: readonly string[]): string {
+  return (
+    '\nNothing is guessed silently: without --calendar the date is read in the proleptic Gregorian calendar, without\n' +
+    `--clock the time is ${CLOCK_DEFAULT_WHY},\n` +
+    'without --pressure/--temperature refraction uses 1010 hPa and 10 C, and every answer lists the defaults it used.\n' +
+    'Examples (Velmar, 47.62 N 9.35 E):\n' +
+    examples.map((line) => `  ${line}\n`).join('')
+  );
 }
 
 /** Add --delta-t (kept last in --help). */

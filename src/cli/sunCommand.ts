@@ -9,7 +9,6 @@ import type { Air } from '../scene/types.js';
 import { jdToCalendarDate } from '../calendar/julianDay.js';
 import { sunPosition, type SunPosition } from '../ephemeris/sunPosition.js';
 import { sunEvents } from '../ephemeris/riseSet.js';
-import { jdUTToJdTT } from '../time/timeScales.js';
 import { clockToJdUT, describeClockKind, formatClockKind, formatMinutes, jdUTToClockMinutes } from '../time/clock.js';
 import type { CliIo } from './io.js';
 import type { SunOptions } from './sunSpec.js';
@@ -22,6 +21,7 @@ import {
   momentHeaderLines,
   momentTimes,
   numberOption,
+  placeRecord,
   readSiteMoment,
   signed,
   type SiteMoment,
@@ -32,14 +32,7 @@ type Inputs = SiteMoment;
 /** Everything the answer reports about one moment, as plain data (also the JSON form). */
 function momentRecord(jdUT: number, inputs: Inputs, p: SunPosition) {
   return {
-    jd: jdUT,
-    jdTT: jdUTToJdTT(jdUT, inputs.deltaTModel),
-    azimuth: p.azimuthDeg,
-    altitude: p.altitudeDeg,
-    geometricAltitude: p.geometricAltitudeDeg,
-    declination: p.declinationDeg,
-    rightAscension: p.rightAscensionDeg,
-    hourAngle: p.hourAngleDeg,
+    ...placeRecord(jdUT, inputs, p),
     equationOfTime: p.equationOfTimeMinutes,
     ...momentTimes(jdUT, inputs),
   };

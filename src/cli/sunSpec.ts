@@ -3,8 +3,7 @@
  */
 import type { Command } from 'commander';
 import type { CliIo } from './io.js';
-import { CLOCK_DEFAULT_WHY } from './clockOption.js';
-import { addDeltaTOption, addSiteMomentOptions, SITE_MOMENT_DEFAULTS, siteMomentOptionsFrom, type SiteMomentOptions } from './siteMomentSpec.js';
+import { addDeltaTOption, addSiteMomentOptions, SITE_MOMENT_DEFAULTS, siteMomentHelp, siteMomentOptionsFrom, type SiteMomentOptions } from './siteMomentSpec.js';
 
 export const SUN_DEFAULTS = { ...SITE_MOMENT_DEFAULTS, step: '30' } as const;
 
@@ -30,14 +29,12 @@ export function registerSun(program: Command, io: CliIo): void {
   addDeltaTOption(command)
     .addHelpText(
       'after',
-      '\nNothing is guessed silently: without --calendar the date is read in the proleptic Gregorian calendar, without\n' +
-        `--clock the time is ${CLOCK_DEFAULT_WHY},\n` +
-        'without --pressure/--temperature refraction uses 1010 hPa and 10 C, and every answer lists the defaults it used.\n' +
-        'Examples (Velmar, 47.62 N 9.35 E):\n' +
-        '  heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30\n' +
-        `  heliochron sun --lat "47°37'N" --lon "9 21 E" --date 1780-06-15 --time 16:00 --clock mean\n` +
-        '  heliochron sun --lat 47.62 --lon 9.35 --date 1890-06-15 --time 16:00 --clock zone:Europe/Zurich --json\n' +
-        '  heliochron sun --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --day --step 60\n',
+      siteMomentHelp([
+        'heliochron sun --lat 47.62 --lon 9.35 --elevation 410 --date 1650-03-10 --time 10:30',
+        `heliochron sun --lat "47°37'N" --lon "9 21 E" --date 1780-06-15 --time 16:00 --clock mean`,
+        'heliochron sun --lat 47.62 --lon 9.35 --date 1890-06-15 --time 16:00 --clock zone:Europe/Zurich --json',
+        'heliochron sun --lat 47.62 --lon 9.35 --date 1700-02-18 --calendar julian --day --step 60',
+      ]),
     )
     .action(async (options: Record<string, unknown>, actionCommand: Command) => {
       const { run } = await import('./sunCommand.js');
