@@ -84,6 +84,12 @@ function moonRecord(jdUT: number, inputs: SiteMoment, p: MoonPosition) {
 
 type MoonRecord = ReturnType<typeof moonRecord>;
 
+/** An event's clock reading, or why there is none. */
+function eventWords(reading: string | null, jdUT: number | null): string {
+  if (reading !== null) return reading;
+  return jdUT === null ? '- (none this day)' : '- (the clock given has no reading then)';
+}
+
 function moonText(r: MoonRecord, inputs: SiteMoment): string {
   const { air, clock } = inputs;
   const year = jdToCalendarDate(r.dates.jdOfLocalMidnight, 'julian').date.year;
@@ -104,8 +110,8 @@ function moonText(r: MoonRecord, inputs: SiteMoment): string {
     `  lit side as seen     ${r.litSide} - tilted ${signed(r.brightLimbTiltFromVertical, 1)} deg from straight up (plus towards the left, minus towards the right)`,
     `  distance             ${f(r.distance, 0)} km`,
     '',
-    `The moon's day in ${describeClockKind(clock)}: moonrise ${e.moonrise ?? '- (none this day)'}, transit ${e.transit ?? '- (none this day)'}, moonset ${e.moonset ?? '- (none this day)'}`,
-    `(rise and set: upper edge of the disc on a level horizon, standard refraction 34', parallax included; Delta T: ${deltaTModelName(inputs.deltaTModel)})`,
+    `The moon's day in ${describeClockKind(clock)}: moonrise ${eventWords(e.moonrise, e.moonriseJd)}, transit ${eventWords(e.transit, e.transitJd)}, moonset ${eventWords(e.moonset, e.moonsetJd)}`,
+    `(rise and set: upper edge of the disc on a level horizon, standard refraction 34', parallax included; hills, buildings and the air near the horizon move them by minutes; Delta T: ${deltaTModelName(inputs.deltaTModel)})`,
     '',
     `Accuracy: the moon's direction agrees with Meeus ch. 47 (astronomia) within 0.01 deg over 1000-2100 for the same Delta T; ` +
       `the uncertainty of Delta T (+/- ${f(r.deltaT.sigmaSeconds, r.deltaT.sigmaSeconds < 1 ? 2 : 1)} s here) turns the sky by up to ${f((r.deltaT.sigmaSeconds * 360.9856) / 86400, 3)} deg` +

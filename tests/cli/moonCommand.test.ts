@@ -87,15 +87,15 @@ describe('heliochron moon', () => {
 
 describe('heliochron moon: bad input', () => {
   const cases: Array<[string, string[], RegExp]> = [
-    ['latitude out of range', ['--lat', '95'], /--lat.*95/],
-    ['time of day not on a 24-hour clock', ['--time', '25:10'], /--time.*25:10.*hh:mm/],
-    ['unknown clock', ['--clock', 'sundial'], /--clock.*sundial/],
-    ['unknown Delta T model', ['--delta-t', 'guess'], /--delta-t.*guess/],
-    ['date out of the years allowed', ['--date', '3500-01-01'], /--date.*3500-01-01.*-1999 to 3000/],
-    ['pressure not a number', ['--pressure', 'high'], /--pressure.*high.*100 to 1200 hPa/],
+    ['a latitude out of range', ['--lat', '95'], /--lat.*95/],
+    ['a time of day not on a 24-hour clock', ['--time', '25:10'], /--time.*25:10.*hh:mm/],
+    ['an unknown clock', ['--clock', 'sundial'], /--clock.*sundial/],
+    ['an unknown Delta T model', ['--delta-t', 'guess'], /--delta-t.*guess/],
+    ['a date out of the years allowed', ['--date', '3500-01-01'], /--date.*3500-01-01.*-1999 to 3000/],
+    ['a pressure not a number', ['--pressure', 'high'], /--pressure.*high.*100 to 1200 hPa/],
   ];
   for (const [what, change, message] of cases) {
-    it(`refuses a ${what} with exit 2, one line naming the option and the value, nothing on the output`, async () => {
+    it(`refuses ${what} with exit 2, one line naming the option and the value, nothing on the output`, async () => {
       const args = [...EVENING];
       for (let i = 0; i < change.length; i += 2) {
         const at = args.indexOf(change[i]);
