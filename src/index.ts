@@ -48,6 +48,11 @@ export { equationOfTimeMinutes } from './ephemeris/equationOfTime.js';
 export { sunEvents } from './ephemeris/riseSet.js';
 export { refractionDeg, bennettRefractionDeg, STANDARD_AIR } from './ephemeris/refraction.js';
 export { fastSunPosition } from './ephemeris/fastSun.js';
+export { moonPosition } from './ephemeris/moonPosition.js';
+export type { MoonPosition } from './ephemeris/moonPosition.js';
+export { moonEvents, moonAge, lunarPhaseNear } from './ephemeris/moonEvents.js';
+export type { MoonEvents, LunarPhaseName, LunarPhaseInstant } from './ephemeris/moonEvents.js';
+export { moonPhaseWords, litSideWords } from './ephemeris/moonLook.js';
 
 // Shadow geometry
 export { horizontalShadowAngleDeg, verticalShadowAngleDeg } from './geometry/shadowAngles.js';

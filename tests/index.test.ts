@@ -9,6 +9,11 @@ describe('the public API', () => {
       expect(typeof (heliochron as Record<string, unknown>)[name], name).toBe('function');
     }
   });
+  it('exposes the moon: its place, its events and its look in words', () => {
+    for (const name of ['moonPosition', 'moonEvents', 'moonAge', 'lunarPhaseNear', 'moonPhaseWords', 'litSideWords']) {
+      expect(typeof (heliochron as Record<string, unknown>)[name], name).toBe('function');
+    }
+  });
   it('computes Meeus Example 7.a through the index', () => {
     // Meeus, Astronomical Algorithms, 2nd ed. (1998), Example 7.a: 1957 October 4.81 = JD 2436116.31.
     expectClose(heliochron.calendarDateToJd({ calendar: 'gregorian', year: 1957, month: 10, day: 4 }, 0.81), 2436116.31, 1e-9);

@@ -3,14 +3,17 @@
  * apparent altitude up. Each measured observation is drawn as its band of sun directions within
  * 1 sigma (filled lightly and outlined in its own colour and line style); the sun's daily paths
  * on the candidates' days carry a mark at every whole hour of local apparent time; the
- * candidates' suns are drawn with their 68% and 95% sky ellipses.
+ * candidates' suns are drawn with their 68% and 95% sky ellipses. With the moon layer (skyChartData's
+ * `moon` option): the moon's path on the best day (grey, dash-dot, open circles at the whole hours) and
+ * a small phase symbol at the best candidate's instant, its lit part white and turned as the observer
+ * sees it, labelled and described in words under the chart.
  */
-import { normalizeDeg360 } from '../math/angles.js';
+import { cosDeg, normalizeDeg360, sinDeg } from '../math/angles.js';
 import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
 import { cellRuns, isolineSegments } from './contour.js';
 import { CHART_STYLE, DASHES, INK, OKABE_ITO, seriesStyle } from './palette.js';
 import { linearScale, niceTicks, type LinearScale } from './scale.js';
-import type { SkyBand, SkyChartData } from './skyChartData.js';
+import type { SkyBand, SkyChartData, SkyMoon } from './skyChartData.js';
 import { el, group, num, pathData, svgDocument, text } from './svg.js';
 import { placeLabels, placedLabelMarks, textWidth } from './labels.js';
 
@@ -20,6 +23,58 @@ const NOTES_TOP = 476;
 const AREA: PlotArea = { left: 62, top: 60, width: 540, height: 340 };
 const PATH_DASHES = [DASHES.solid, DASHES.dashed, DASHES.dotted] as const;
 const COMPASS = ['N', 'NE', 'E', 'SE', 'S', 'SW', 'W', 'NW'] as const;
+
+/** Radius of the moon's phase symbol, drawing units. */
+const MOON_RADIUS = 8;
+/** The moon's path: grey ink and a dash-dot line, unlike the sun paths (black, solid, dashed, dotted). */
+const MOON_PATH = { stroke: INK.muted, dash: DASHES.dashDot } as const;
+
+/**
+ * The moon's phase symbol: a dark disc with its lit part in white, turned as the observer sees it.
+ * The lit part lies between the lit limb (a half circle) and the terminator, a half ellipse whose
+ * half-width is r |1 - 2k| across the line to the lit side, k the lit fraction of the disc's area
+ * (Meeus 1998 ch. 48; the terminator is a great circle seen in projection, common practice).
+ * @param tiltDeg the lit side's direction from straight up, positive towards the left (docs/conventions.md)
+ */
+export function moonSymbol(cx: number, cy: number, r: number, illuminatedFraction: number, tiltDeg: number): string {
+  // Unit vector towards the lit side on the page (y down): up is (0, -1), left is (-1, 0).
+  const u = [-sinDeg(tiltDeg), -cosDeg(tiltDeg)] as const;
+  const w = [cosDeg(tiltDeg), -sinDeg(tiltDeg)] as const;
+  const at = (a: number, b: number): [number, number] => [cx + a * u[0] + b * w[0], cy + a * u[1] + b * w[1]];
+  const steps = 24;
+  const lit: [number, number][] = [];
+  for (let i = 0; i <= steps; i += 1) {
+    const t = -90 + (180 * i) / steps; // along the lit limb, from one horn to the other
+    lit.push(at(r * cosDeg(t), r * sinDeg(t)));
+  }
+  for (let i = steps; i >= 0; i -= 1) {
+    const t = -90 + (180 * i) / steps; // back along the terminator
+    lit.push(at(r * (1 - 2 * illuminatedFraction) * cosDeg(t), r * sinDeg(t)));
+  }
+  return group({ class: 'hc-moon-symbol' }, [
+    el('circle', { cx, cy, r, fill: INK.muted, stroke: 'none' }),
+    el('path', { d: pathData(lit, true), fill: INK.paper, stroke: 'none' }),
+    el('circle', { cx, cy, r, fill: 'none', stroke: INK.ink, 'stroke-width': 1.1 }),
+  ]);
+}
+
+/** The moon's path on the best day, with open circles at the whole hours of local apparent time. */
+function moonPathMarks(moon: SkyMoon, x: LinearScale, y: LinearScale): string {
+  return group({ class: 'hc-moon-path' }, [
+    ...moon.segments.map((seg) => el('path', { d: pathData(seg.map(([az, alt]) => [x(az), y(alt)])), fill: 'none', stroke: MOON_PATH.stroke, 'stroke-width': 1.3, 'stroke-dasharray': MOON_PATH.dash })),
+    ...moon.hourMarks.map((h) => el('circle', { cx: x(h.azimuthDeg), cy: y(h.altitudeDeg), r: 2.2, fill: INK.paper, stroke: MOON_PATH.stroke, 'stroke-width': 1 })),
+  ]);
+}
+
+/** Two lines under the chart: the moon at the candidate in words, and how its path is drawn. */
+function moonNotes(moon: SkyMoon): string[] {
+  const a = moon.at;
+  const where = a.altitudeDeg < 0 ? `below the horizon (altitude ${num(a.altitudeDeg, 1)} deg), so not drawn` : `azimuth ${num(normalizeDeg360(a.azimuthDeg), 1)}, altitude ${num(a.altitudeDeg, 1)} deg`;
+  return [
+    `Moon at ${a.candidateLabel}: ${a.words}; ${where}.`,
+    `Moon path on ${moon.label}: grey dash-dot line, open circles at the whole hours of local apparent time.`,
+  ];
+}
 
 /** A band whose region is smaller than this across, in drawing units, could hide under a sun's mark: it gets a ring. */
 const SPOT_SIZE = 14;
@@ -125,6 +180,16 @@ function legend(data: SkyChartData): { svg: string; bottom: number } {
   y += 15;
   parts.push(el('path', { d: `M${left} ${y - 4}h22`, stroke: INK.ink, 'stroke-width': 1.1, 'stroke-dasharray': '4 2.5', fill: 'none' }));
   parts.push(text(left + 28, y, '95% sky ellipse', { class: 'hc-legend' }));
+  if (data.moon) {
+    y += 23;
+    parts.push(el('path', { d: `M${left} ${y - 4}h22`, stroke: MOON_PATH.stroke, 'stroke-width': 1.3, 'stroke-dasharray': MOON_PATH.dash, fill: 'none' }));
+    parts.push(text(left + 28, y, `moon path, ${data.moon.at.candidateLabel}'s day`, { class: 'hc-legend' }));
+    y += 19;
+    parts.push(moonSymbol(left + 11, y - 4, 7, 0.3, 60));
+    parts.push(text(left + 28, y, `the moon at ${data.moon.at.candidateLabel},`, { class: 'hc-legend' }));
+    y += 13;
+    parts.push(text(left + 28, y, 'lit part white, as seen', { class: 'hc-legend' }));
+  }
   return { svg: group({ class: 'hc-legend-block' }, parts), bottom: y };
 }
 
@@ -168,8 +233,12 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
       }),
   );
   const bounds = { x: AREA.left, y: AREA.top, width: AREA.width, height: AREA.height };
+  const moonUp = data.moon !== undefined && data.moon.at.altitudeDeg >= 0 ? data.moon : undefined;
   const placement = placeLabels(
-    data.suns.map((s, k) => ({ anchor: [x(s.azimuthDeg), y(s.altitudeDeg)] as const, text: s.label, fontSize: 10.5, markRadius: k === 0 ? 5 : 4 })),
+    [
+      ...data.suns.map((s, k) => ({ anchor: [x(s.azimuthDeg), y(s.altitudeDeg)] as const, text: s.label, fontSize: 10.5, markRadius: k === 0 ? 5 : 4 })),
+      ...(moonUp ? [{ anchor: [x(moonUp.at.azimuthDeg), y(moonUp.at.altitudeDeg)] as const, text: `moon ${moonUp.at.candidateLabel}`, fontSize: 10.5, markRadius: MOON_RADIUS + 1 }] : []),
+    ],
     [...hourBoxes, ...ellipseBoxes],
     bounds,
   );
@@ -183,6 +252,7 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
   if (ringed.length > 0) noteLines.push(`${ringed.join(', ')}: smaller than a sun's mark, so ${ringed.length === 1 ? 'a ring in its colour shows where it lies' : 'rings in their colours show where they lie'}.`);
   const thin = data.bands.filter((_, i) => bandParts[i].shown === 'not drawn').map((b) => b.observationId);
   if (thin.length > 0) noteLines.push(`Not drawn: ${thin.join(', ')} (narrower than the chart's grid of sun directions, or nowhere in the sky shown).`);
+  if (data.moon) noteLines.push(...moonNotes(data.moon));
   if (data.notes.length > 0) noteLines.push(`Not drawn: ${data.notes.join('; ')}.`);
   if (placement.unplaced.length > 0) noteLines.push(`Too crowded to label: ${placement.unplaced.map((u) => u.text).join(', ')}.`);
   const key = legend(data);
@@ -200,7 +270,15 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
       el('rect', { width: WIDTH, height, fill: INK.paper }),
       el('defs', {}, clipPathFor(clip, AREA)),
       titleBlock(AREA.left, title, caption),
-      group({ 'clip-path': `url(#${clip})` }, [...bandParts.map((b) => b.under), ...paths, ...suns, ...bandParts.map((b) => b.over), ...placedLabelMarks(placement.placed)]),
+      group({ 'clip-path': `url(#${clip})` }, [
+        ...bandParts.map((b) => b.under),
+        ...paths,
+        ...(data.moon ? [moonPathMarks(data.moon, x, y)] : []),
+        ...suns,
+        ...(moonUp ? [moonSymbol(x(moonUp.at.azimuthDeg), y(moonUp.at.altitudeDeg), MOON_RADIUS, moonUp.at.illuminatedFraction, moonUp.at.brightLimbTiltFromVerticalDeg)] : []),
+        ...bandParts.map((b) => b.over),
+        ...placedLabelMarks(placement.placed),
+      ]),
       bottomAxis(AREA, { scale: x, ticks, label: 'azimuth (degrees clockwise from true north)', grid: true, secondary: compass }),
       leftAxis(AREA, { scale: y, ticks: niceTicks(data.altitudeRange[0], data.altitudeRange[1], 6).map((v) => ({ value: v, label: num(v, 0) })), label: 'altitude above the horizon (degrees)', grid: true }),
       plotFrame(AREA),

@@ -4,6 +4,10 @@
  * largest component taken when it has several); the sun's daily paths on the candidates' days
  * with marks at the whole hours of local apparent time; and the candidates' sky ellipses.
  *
+ * With `moon: true` (off by default, for scenes with evidence of the moon): the moon's path on the best
+ * candidate's day over the hours it is up, and its place, lit fraction and the tilt of its lit side at
+ * the best candidate's instant, drawn as a small phase symbol (src/ephemeris/moonPosition.ts).
+ *
  * The wall azimuths are those fitted at the best candidate. Clock readings and facts without
  * numbers (wall lit, sun up) are no band on the sky and are listed in the notes instead.
  * Rendering is in skyChart.ts.
@@ -15,6 +19,8 @@ import { civilDateToJd, resolveCalendarRule } from '../calendar/regions.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import { normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
+import { moonPosition } from '../ephemeris/moonPosition.js';
+import { litSideWords, moonPhaseWords } from '../ephemeris/moonLook.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, termEvidence, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
@@ -50,6 +56,27 @@ export interface SkySun {
   readonly ellipses: readonly { readonly probability: number; readonly points: readonly (readonly [number, number])[] }[];
 }
 
+/** The moon on the best candidate's day: its path while up, and its look at the candidate's instant. */
+export interface SkyMoon {
+  /** "29 July 1784 (F1)": the day and the candidate, as the sun paths are labelled. */
+  readonly label: string;
+  /** The path in pieces (it breaks where the moon sets, or crosses the chart's edge azimuth), unwrapped azimuth and apparent altitude. */
+  readonly segments: readonly (readonly (readonly [number, number])[])[];
+  /** Marks at whole hours of local apparent time while the moon is up. */
+  readonly hourMarks: readonly { readonly azimuthDeg: number; readonly altitudeDeg: number; readonly label: string }[];
+  /** The moon at the candidate's instant. */
+  readonly at: {
+    readonly candidateLabel: string;
+    readonly azimuthDeg: number;
+    readonly altitudeDeg: number;
+    readonly illuminatedFraction: number;
+    /** Tilt of the lit side from straight up, positive towards the observer's left (docs/conventions.md). */
+    readonly brightLimbTiltFromVerticalDeg: number;
+    /** "waxing crescent, 9% lit, lit side towards the lower right". */
+    readonly words: string;
+  };
+}
+
 export interface SkyChartData {
   /** Azimuth at the middle of the chart: 180 (sun paths around the south) or 0 (around the north). */
   readonly centreAzimuthDeg: number;
@@ -61,6 +88,8 @@ export interface SkyChartData {
   readonly suns: readonly SkySun[];
   readonly notes: readonly string[];
   readonly evaluations: number;
+  /** Present only when asked for (SkyChartOptions.moon). */
+  readonly moon?: SkyMoon;
 }
 
 export interface SkyChartOptions {
@@ -70,6 +99,8 @@ export interface SkyChartOptions {
   /** Grid columns and rows of each band (default 241 x 121). */
   readonly columns?: number;
   readonly rows?: number;
+  /** Draw the moon's path and phase for the best candidate (default false: a scene without moon evidence is drawn as before). */
+  readonly moon?: boolean;
 }
 
 /** Unwrap an azimuth around a centre azimuth: centre + (az - centre) in (-180, 180]. */
@@ -100,6 +131,45 @@ function pathOfDay(mark: MarkedCandidate, scene: Scene, centre: number): SkyPath
   const d = c.civilDate;
   const label = `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${mark.label})`;
   return { label, points, hourMarks };
+}
+
+/** Largest jump in unwrapped azimuth between neighbouring points of one piece of the moon's path, degrees. */
+const MOON_PATH_BREAK_DEG = 90;
+
+function moonOfCandidate(mark: MarkedCandidate, scene: Scene, centre: number): SkyMoon {
+  const c = mark.candidate;
+  const dayJd0 = civilDateToJd(resolveCalendarRule(scene.calendar), c.civilDate);
+  const site: SunSite = { latitudeDeg: scene.site.latitudeDeg, longitudeDeg: scene.site.longitudeDeg, elevationM: scene.site.elevationM };
+  const segments: [number, number][][] = [];
+  const hourMarks: { azimuthDeg: number; altitudeDeg: number; label: string }[] = [];
+  let piece: [number, number][] = [];
+  for (let m = 0; m <= 1440; m += 10) {
+    const p = moonPosition(instantOfApparentMinute(dayJd0, m, site), site, scene.air, { deltaTModel: scene.deltaT });
+    const point: [number, number] = [unwrapAzimuth(p.azimuthDeg, centre), p.altitudeDeg];
+    const last = piece[piece.length - 1];
+    if (p.altitudeDeg < -1 || (last !== undefined && Math.abs(point[0] - last[0]) > MOON_PATH_BREAK_DEG)) {
+      if (piece.length > 1) segments.push(piece);
+      piece = [];
+    }
+    if (p.altitudeDeg >= -1) piece.push(point);
+    if (m % 60 === 0 && p.altitudeDeg > 0) hourMarks.push({ azimuthDeg: point[0], altitudeDeg: point[1], label: `${m / 60}h` });
+  }
+  if (piece.length > 1) segments.push(piece);
+  const at = moonPosition(c.jdUT, site, scene.air, { deltaTModel: scene.deltaT });
+  const d = c.civilDate;
+  return {
+    label: `${d.day} ${MONTH_NAMES[d.month - 1]} ${formatYearBcAd(d.year)} (${mark.label})`,
+    segments,
+    hourMarks,
+    at: {
+      candidateLabel: mark.label,
+      azimuthDeg: unwrapAzimuth(at.azimuthDeg, centre),
+      altitudeDeg: at.altitudeDeg,
+      illuminatedFraction: at.illuminatedFraction,
+      brightLimbTiltFromVerticalDeg: at.brightLimbTiltFromVerticalDeg,
+      words: `${moonPhaseWords(at.phaseLongitudeDeg)}, ${Math.round(100 * at.illuminatedFraction)}% lit, lit side ${litSideWords(at.brightLimbTiltFromVerticalDeg)}`,
+    },
+  };
 }
 
 /** The marked candidates on different days of the year (month and day), at most max. */
@@ -134,12 +204,13 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   const best = marked[0]?.candidate;
   const centre = scene.site.latitudeDeg >= 0 ? 180 : 0;
   const paths = distinctDays(marked, options.maxPaths ?? 3).map((m) => pathOfDay(m, scene, centre));
+  const moon = options.moon === true && marked[0] !== undefined ? moonOfCandidate(marked[0], scene, centre) : undefined;
 
   let azMin = centre - 90;
   let azMax = centre + 90;
   let altMax = 30;
-  for (const p of paths) {
-    for (const [az, alt] of p.points) {
+  for (const points of [...paths.map((p) => p.points), ...(moon?.segments ?? [])]) {
+    for (const [az, alt] of points) {
       azMin = Math.min(azMin, az);
       azMax = Math.max(azMax, az);
       altMax = Math.max(altMax, alt);
@@ -191,5 +262,5 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   }
   const explicitFacts = model.facts.filter((f) => !f.implicit);
   if (explicitFacts.length > 0) notes.push(`facts without numbers (${explicitFacts.map((f) => f.observationId).join(', ')}) are not drawn`);
-  return { centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, evaluations };
+  return { centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, evaluations, ...(moon ? { moon } : {}) };
 }

@@ -13,6 +13,7 @@ import { escapeControls } from '../textUnits.js';
 import { isSystemError, PLAIN_SYSTEM_ERRORS, systemErrorWords } from './systemErrors.js';
 import { processIo, type CliIo } from './io.js';
 import { registerSun } from './sunSpec.js';
+import { registerMoon } from './moonSpec.js';
 import { registerCalendar } from './calendarSpec.js';
 import { registerDate } from './dateSpec.js';
 import { registerCheck } from './checkSpec.js';
@@ -24,6 +25,7 @@ import { registerDesk } from './deskSpec.js';
 /** Each entry adds one command to the program. Add new commands here, one line each. */
 const COMMANDS: ReadonlyArray<(program: Command, io: CliIo) => void> = [
   registerSun,
+  registerMoon,
   registerCalendar,
   registerDate,
   registerCheck,

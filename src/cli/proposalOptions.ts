@@ -10,7 +10,7 @@ import { readCivilDate } from '../scene/calendarFields.js';
 import { MAX_YEAR, MIN_YEAR } from '../scene/readScene.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { parseClockKind } from '../time/clock.js';
-import { parseTimeOfDay } from './sunCommand.js';
+import { parseTimeOfDay } from './siteMoment.js';
 import type { CheckOptions } from './checkSpec.js';
 import { CLOCK_DEFAULT } from './clockOption.js';
 

@@ -10,11 +10,14 @@
  * (src/ephemeris/refraction.ts). The phase and the bright limb follow Meeus, Astronomical
  * Algorithms, 2nd ed. (1998), ch. 48, from geocentric apparent places; the tilt seen by the
  * observer subtracts the parallactic angle (Meeus eq. 14.1) at the topocentric place.
- * Accuracy: astronomy-engine states about 1 arcminute for the moon over the modern era; the
- * measured agreement with astronomia is in tests/ephemeris/moonPosition.test.ts.
+ * The moon is evaluated at a time shifted by lunarAccelerationShiftDays, which puts astronomy-engine's
+ * lunar series on the secular acceleration of ELP-2000/82 that the Delta T models assume (below).
+ * Accuracy: astronomy-engine states about 1 arcminute for the moon over the modern era; measured
+ * against astronomia (Meeus ch. 47) and the NASA Five Millennium Canon of eclipses in
+ * tests/ephemeris/moonAccuracy.test.ts (see docs/moon.md).
  * Leaves out: the moon's semi-diameter (altitudes are of the centre), libration, the horizon dip.
  */
-import { Body, EquatorFromVector, GeoVector, Horizon, MoonPhase, Observer, ObserverVector, RotateVector, Rotation_EQJ_EQD, SiderealTime, Vector } from 'astronomy-engine';
+import { AstroTime, Body, EquatorFromVector, GeoVector, Horizon, Observer, ObserverVector, RotateVector, Rotation_EQD_ECT, Rotation_EQJ_EQD, SiderealTime, SphereFromVector, Vector } from 'astronomy-engine';
 import type { Air } from '../scene/types.js';
 import { atan2Deg, cosDeg, normalizeDeg180, normalizeDeg360, sinDeg, tanDeg, acosClamped, radToDeg } from '../math/angles.js';
 import { astroTimeFromJdUT, withDeltaT } from './engine.js';
@@ -64,6 +67,37 @@ export interface MoonPosition {
 
 const KM_PER_AU = 149_597_870.7;
 
+/** T^2 coefficient of the moon's mean longitude, deg per Julian century^2: Meeus (1998) eq. 47.1, after Chapront-Touze and Chapront's ELP-2000/82 (1991 constants). */
+const ELP_MEAN_LONGITUDE_T2_DEG = -0.0015786;
+/** The same coefficient in astronomy-engine 2.1's lunar series (CalcMoon, L0: -0.00000313 revolutions per century^2). */
+const ENGINE_MEAN_LONGITUDE_T2_DEG = -0.00000313 * 360;
+/** The moon's mean motion in longitude, deg per day (Meeus 1998, eq. 47.1: 481267.88123421 deg per century). */
+const MOON_MEAN_MOTION_DEG_PER_DAY = 481267.88123421 / 36525;
+
+/**
+ * The time shift, days, that brings astronomy-engine's moon onto the secular acceleration of ELP-2000/82
+ * (the one the Delta T models assume, Morrison and Stephenson 2004; Espenak and Meeus 2006 use
+ * n-dot = -25.858 arcsec per century^2). astronomy-engine's lunar mean elements carry T^2 terms about
+ * 1.63 arcsec per century^2 smaller in magnitude than Meeus eq. 47.1 (in L', D, M' and F alike: an older
+ * tidal acceleration), which puts its moon up to 0.06 deg ahead in AD 1000 and its conjunctions 4.6 min
+ * early against the NASA Five Millennium Canon (measured, tests/ephemeris/moonAccuracy.test.ts).
+ * Evaluating the moon at TT + shift removes it: shift = ((c_ELP - c_engine) T^2 + T^3 / 538841 - T^4 / 65194000) / n,
+ * the last two the terms of eq. 47.1 that astronomy-engine's mean longitude lacks.
+ * @param ttDaysSinceJ2000 TT, days since J2000.0.
+ */
+export function lunarAccelerationShiftDays(ttDaysSinceJ2000: number): number {
+  const t = ttDaysSinceJ2000 / 36525;
+  // astronomy-engine's mean longitude has no T^3 and T^4 terms; Meeus eq. 47.1 has T^3 / 538841 - T^4 / 65194000.
+  const missingDeg = (ELP_MEAN_LONGITUDE_T2_DEG - ENGINE_MEAN_LONGITUDE_T2_DEG) * t * t + (t * t * t) / 538841 - (t * t * t * t) / 65194000;
+  return missingDeg / MOON_MEAN_MOTION_DEG_PER_DAY;
+}
+
+/** The moon's geocentric apparent vector, true equator and equinox of date, AU, with the secular-acceleration shift above. */
+export function geocentricMoonOfDate(time: AstroTime): Vector {
+  const shifted = GeoVector(Body.Moon, time.AddDays(lunarAccelerationShiftDays(time.tt)), true);
+  return RotateVector(Rotation_EQJ_EQD(time), new Vector(shifted.x, shifted.y, shifted.z, time));
+}
+
 /** Position angle of the bright limb, Meeus (1998) eq. 48.5; sun (raSun, decSun), moon (raMoon, decMoon), degrees. */
 export function brightLimbPositionAngleDeg(raSunDeg: number, decSunDeg: number, raMoonDeg: number, decMoonDeg: number): number {
   const y = cosDeg(decSunDeg) * sinDeg(raSunDeg - raMoonDeg);
@@ -74,6 +108,20 @@ export function brightLimbPositionAngleDeg(raSunDeg: number, decSunDeg: number, 
 /** Parallactic angle q, Meeus (1998) eq. 14.1: tan q = sin H / (tan phi cos dec - sin dec cos H), degrees. */
 export function parallacticAngleDeg(latitudeDeg: number, hourAngleDeg: number, declinationDeg: number): number {
   return atan2Deg(sinDeg(hourAngleDeg), tanDeg(latitudeDeg) * cosDeg(declinationDeg) - sinDeg(declinationDeg) * cosDeg(hourAngleDeg));
+}
+
+/**
+ * The moon's geocentric apparent ecliptic longitude minus the sun's, true ecliptic and equinox of date,
+ * [0, 360) (0 new, 90 first quarter, 180 full, 270 last quarter; Meeus 1998 ch. 49 defines the phases by
+ * apparent longitudes). From geocentricMoonOfDate and geocentricSunOfDate (with aberration); not
+ * astronomy-engine's MoonPhase, which leaves out the sun's aberration (20.5", so its phases come about
+ * 40 s late: measured on Meeus Example 49.a).
+ */
+export function moonPhaseLongitudeDeg(time: AstroTime): number {
+  const toEcliptic = Rotation_EQD_ECT(time);
+  const moon = SphereFromVector(RotateVector(toEcliptic, geocentricMoonOfDate(time)));
+  const sun = SphereFromVector(RotateVector(toEcliptic, geocentricSunOfDate(time)));
+  return normalizeDeg360(moon.lon - sun.lon);
 }
 
 /**
@@ -89,7 +137,7 @@ function moonPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | un
   const time = astroTimeFromJdUT(jdUT, options?.deltaTSeconds);
   const observer = new Observer(site.latitudeDeg, site.longitudeDeg, site.elevationM);
   // Geocentric apparent places of date (astronomy-engine GeoVector with light time, rotated J2000 -> of date).
-  const moonGeo = RotateVector(Rotation_EQJ_EQD(time), GeoVector(Body.Moon, time, true));
+  const moonGeo = geocentricMoonOfDate(time);
   const sunGeo = geocentricSunOfDate(time);
   let seen = moonGeo;
   if (options?.topocentric !== false) {
@@ -110,7 +158,7 @@ function moonPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | un
   const moonDist = moonGeo.Length();
   const phaseAngleDeg = atan2Deg(sunDist * sinDeg(elongationDeg), moonDist - sunDist * cosDeg(elongationDeg));
   const illuminatedFraction = (1 + cosDeg(phaseAngleDeg)) / 2;
-  const phaseLongitudeDeg = MoonPhase(time);
+  const phaseLongitudeDeg = moonPhaseLongitudeDeg(time);
 
   // Bright limb from geocentric places (Meeus ch. 48) ...
   const limbGeoDeg = brightLimbPositionAngleDeg(eqSun.ra * 15, eqSun.dec, eqMoonGeo.ra * 15, eqMoonGeo.dec);
