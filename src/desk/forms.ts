@@ -193,7 +193,7 @@ function factsAndClocks(ctx: FormContext): HTMLElement[] {
         field(ctx, { path: [...path, 'id'], label: 'name (id)', kind: 'text' }),
         field(ctx, { path: [...path, 'reading'], label: 'reading, H:MM', kind: 'text' }),
         field(ctx, { path: [...path, 'precisionMinutes'], label: 'read to within, minutes (sigma)', kind: 'number' }),
-        field(ctx, { path: [...path, 'dialHours'], label: 'hours on the dial', kind: 'select', choices: [['12', '12'], ['24', '24']] }),
+        field(ctx, { path: [...path, 'dialHours'], label: 'hours on the dial', kind: 'select', choices: [['6', '6'], ['12', '12'], ['24', '24']] }),
         field(ctx, { path: [...path, 'hourHandTrusted'], label: 'the hour hand can be trusted', kind: 'checkbox' }),
         field(ctx, { path: [...path, 'kept'], label: 'what it kept (unknown, apparent, mean, meridian:LON, zone:NAME, ut)', kind: 'text' }),
         field(ctx, { path: [...path, 'note'], label: 'note', kind: 'longtext' }),

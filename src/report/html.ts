@@ -16,6 +16,7 @@ import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '.
 import { formatDayWords } from '../calendar/format.js';
 import { MONTH_NAMES, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { describeClockKind, formatClockKind } from '../time/clock.js';
+import { describeSundialHours } from '../time/hourSystems.js';
 import { escapeXml } from '../charts/svg.js';
 import {
   CAUTION,
@@ -147,6 +148,8 @@ export function observationWords(o: Observation): string {
       const kept = o.kept.kind === 'unknown' ? 'what it kept is unknown (each kind is tried)' : `kept ${describeClockKind(o.kept)}`;
       return `reads ${hhmm(o.readingMinutes)} on a ${o.dialHours}-hour dial, precision ${o.precisionMinutes} min${o.hourHandTrusted ? '' : ', hour hand not trusted'}; ${kept}`;
     }
+    case 'sundial':
+      return `sundial reads ${hhmm(o.readingMinutes)} in ${describeSundialHours(o.hours)}, precision ${o.precisionMinutes} min`;
   }
 }
 
@@ -157,9 +160,11 @@ function questionSection(scene: Scene): string {
 
 function clockWords(scene: Scene, answer: DateAnswer): string {
   const clocks = scene.observations.filter((o): o is Extract<Observation, { kind: 'clock' }> => o.kind === 'clock');
-  if (clocks.length === 0) return 'No clock in the picture: times are given in local apparent (sundial) time, local mean time and UT.';
+  const dials = scene.observations.filter((o): o is Extract<Observation, { kind: 'sundial' }> => o.kind === 'sundial');
+  const dialText = dials.length > 0 ? ` Sundials (the sun's hour angle, no clock convention): ${dials.map((d) => `${d.id} ${observationWords(d)}`).join('; ')}.` : '';
+  if (clocks.length === 0) return `No clock in the picture: times are given in local apparent (sundial) time, local mean time and UT.${dialText}`;
   const tried = answer.clockAssumptions.map(clockAssumptionWords).join('; ');
-  return `Clock readings: ${clocks.map((c) => `${c.id} ${observationWords(c)}`).join('; ')}. Assumptions tried: ${tried || 'none'}.`;
+  return `Clock readings: ${clocks.map((c) => `${c.id} ${observationWords(c)}`).join('; ')}. Assumptions tried: ${tried || 'none'}.${dialText}`;
 }
 
 function assumptionsSection(scene: Scene, answer: DateAnswer): string {

@@ -135,3 +135,8 @@ export function describeHourSystem(system: HourSystem): string {
       return 'unequal (temporal) hours (twelve from sunrise to sunset, twelve from sunset to sunrise)';
   }
 }
+
+/** The hour lines of a sundial in words: equal hours of local apparent time, or one of the systems above. */
+export function describeSundialHours(hours: { readonly kind: 'apparent' } | HourSystem): string {
+  return hours.kind === 'apparent' ? 'equal hours of local apparent time (the sun\'s hour angle)' : describeHourSystem(hours);
+}
