@@ -80,7 +80,7 @@ export function registerDate(program: Command, io: CliIo): void {
 }
 
 /** --same-light-in and --zone, checked: a whole year 1970-3000 (default this year) and a valid IANA zone. */
-function sameLightOptions(year: unknown, zone: unknown): { sameLightIn?: number; zone?: string } {
+export function sameLightOptions(year: unknown, zone: unknown): { sameLightIn?: number; zone?: string } {
   if (year === undefined) {
     if (zone !== undefined) throw new InvalidInputError('--zone', zone, 'a zone only together with --same-light-in');
     return {};

@@ -35,6 +35,10 @@ import {
 } from './formatTimes.js';
 import { pText } from './text.js';
 import { REPORT_STYLE } from './htmlStyle.js';
+import { n, row, table, type Cell } from './htmlTable.js';
+import { calendarReadingsSection, sameLightSection } from './htmlReadings.js';
+import type { CalendarReadings } from '../solver/calendarReadings.js';
+import type { SameLightAnswer } from '../solver/sameLight.js';
 
 /** The three charts, as SVG markup (from src/charts). */
 export interface ReportCharts {
@@ -58,6 +62,10 @@ export interface HtmlReportInput {
   readonly answer: DateAnswer;
   readonly charts: ReportCharts;
   readonly reproducibility: Reproducibility;
+  /** The scene solved under every reading of a disputed calendar switch its window touches (src/solver/calendarReadings.ts). */
+  readonly calendarReadings?: CalendarReadings | null;
+  /** The days and zone times of a later year with the same light (src/solver/sameLight.ts). */
+  readonly sameLight?: SameLightAnswer | null;
 }
 
 /**
@@ -68,33 +76,6 @@ export const REPORT_SOLVE_OPTIONS = { perYear: true } as const;
 
 /** Escaped text. */
 const h = escapeXml;
-
-/**
- * A table cell: escaped markup, a number-like cell (right-aligned), text kept on one line, or
- * right-aligned text that may break where its markup allows.
- */
-type Cell = string | { readonly num: string } | { readonly nowrap: string } | { readonly wrap: string };
-
-function cellMarkup(tag: string, c: Cell): string {
-  if (typeof c === 'string') return `<${tag}>${c}</${tag}>`;
-  if ('num' in c) return `<${tag} class="num">${c.num}</${tag}>`;
-  if ('wrap' in c) return `<${tag} class="num-wrap">${c.wrap}</${tag}>`;
-  return `<${tag} class="nowrap">${c.nowrap}</${tag}>`;
-}
-
-function row(cells: readonly Cell[], header = false, attrs = ''): string {
-  const tag = header ? 'th' : 'td';
-  return `<tr${attrs}>${cells.map((c) => cellMarkup(tag, c)).join('')}</tr>`;
-}
-
-/** A numeric cell (its text already escaped or safe). */
-function n(text: string): Cell {
-  return { num: text };
-}
-
-function table(id: string, caption: string, header: readonly string[], rows: readonly string[]): string {
-  return `<table id="${id}"><caption class="muted" style="caption-side:top;text-align:left">${h(caption)}</caption><thead>${row(header.map(h), true)}</thead><tbody>${rows.join('')}</tbody></table>`;
-}
 
 function fixed(x: number | null | undefined, digits: number): string {
   return x === null || x === undefined || !Number.isFinite(x) ? '-' : x.toFixed(digits);
@@ -440,6 +421,8 @@ function reproducibilitySection(r: Reproducibility): string {
  */
 export function renderHtmlReport(input: HtmlReportInput): string {
   const { scene, answer, charts, reproducibility } = input;
+  const readings = input.calendarReadings ? calendarReadingsSection(input.calendarReadings) : '';
+  const sameLight = input.sameLight ? sameLightSection(input.sameLight, answer) : '';
   return `<!DOCTYPE html>
 <html lang="en">
 <head>
@@ -454,11 +437,11 @@ export function renderHtmlReport(input: HtmlReportInput): string {
 <p class="subtitle">When could this light have fallen? A report of heliochron ${h(reproducibility.version)}.</p>
 <div class="verdict status-${answer.status}" id="verdict"><span class="status">${h(answer.status.replace('-', ' '))}</span><br>${h(answer.verdict)}</div></header>
 <main>
-${questionSection(scene)}
+${readings}${questionSection(scene)}
 ${assumptionsSection(scene, answer)}
 ${evidenceSection(scene, answer)}
 ${answerSection(scene, answer)}
-${chartsSection(charts)}
+${sameLight}${chartsSection(charts)}
 ${consistencySection(answer)}
 ${cautionSection(answer)}
 ${reproducibilitySection(reproducibility)}
