@@ -73,7 +73,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
   const switching = scene.calendar.kind === 'region' || scene.calendar.kind === 'switch';
   const other = switching ? plainDate(jdToCalendarDate(raw.dayJd0 + 0.5, civil.calendar === 'julian' ? 'gregorian' : 'julian').date) : undefined;
   const e = p.state.equationOfTimeMinutes;
-  const site = { longitudeDeg: scene.site.longitudeDeg };
+  const site = { longitudeDeg: scene.site.longitudeDeg, latitudeDeg: scene.site.latitudeDeg, elevationM: scene.site.elevationM };
   let clock: Candidate['times']['clock'];
   const shownKind = kind ?? model.clocks.find((c) => c.kept && c.observationKind === 'clock')?.kept ?? null;
   if (shownKind && shownKind.kind !== 'apparent') {

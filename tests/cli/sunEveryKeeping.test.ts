@@ -36,4 +36,12 @@ describe('sun --clock with every keeping', () => {
     const r = await runCli([...BASE, '--time', '15:00', '--clock', 'italian:dusk']);
     expect(r.out).toContain("Italian hours (24 hours from the end of the previous evening's civil twilight)");
   });
+  it('check --clock italian reads the proposed hour in Italian hours at the scene\'s site (round trip through sun)', async () => {
+    // The bundled example's site (Velmar, 47.62 N 9.35 E, 410 m; its air 965 hPa, 18 C does not move the hour).
+    const sun = await runCli(['sun', '--lat', '47.62', '--lon', '9.35', '--elevation', '410', '--date', '1771-07-30', '--calendar', 'gregorian', '--time', '09:33', '--clock', 'apparent']);
+    const italian = line(sun.out, 'Italian hours');
+    const r = await runCli(['check', 'examples/marktgasse-print.yaml', '--on', '1771-07-30', '--time', italian.slice(0, 5), '--clock', 'italian']);
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/best within the proposal 30 July 1771 \(Gregorian, Tuesday\), 09:3[23] local apparent time/);
+  });
 });
