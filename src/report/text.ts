@@ -13,6 +13,7 @@ import type { Candidate, CandidateFamily, CheckAnswer, DateAnswer, Proposal, Res
 import { formatDayWords, formatYearBcAd } from '../calendar/format.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { describeClockKind } from '../time/clock.js';
+import { describeSundialHours } from '../time/hourSystems.js';
 import { countWords } from '../solver/candidates.js';
 import {
   CAUTION,
@@ -165,6 +166,9 @@ function assumptionLines(scene: Scene, answer: { readonly clockAssumptions?: Dat
   ];
   const clocks = answer.clockAssumptions ?? [];
   if (clocks.length > 0) lines.push(`  clock: ${clocks.map(clockAssumptionWords).join('; ')}`);
+  for (const o of scene.observations) {
+    if (o.kind === 'sundial') lines.push(`  sundial ${o.id}: read in ${describeSundialHours(o.hours)}, as its hour lines say; a sundial shows the sun's hour angle, so no clock keeping applies (a dial drawn or set wrong would shift it)`);
+  }
   if (best) lines.push(`  time scale: ${deltaTWords(best, scene)}`);
   const sunNote = sunAccuracyWords(scene);
   if (sunNote) lines.push(`  sun: ${sunNote}`);
