@@ -9,7 +9,7 @@
  * Additive: the main answer (the table's main reading) is computed as always by the caller;
  * this module adds the other readings and a comparison. Pure: no clock, no console.
  */
-import { disputedSwitchIn, type DisputedReading } from '../calendar/disputedSwitch.js';
+import { disputedSwitchIn, type DisputedReading, type DisputedSwitch } from '../calendar/disputedSwitch.js';
 import { formatDayWords } from '../calendar/format.js';
 import { HeliochronError } from '../errors.js';
 import type { Scene } from '../scene/types.js';
@@ -17,16 +17,22 @@ import type { Candidate, CheckAnswer, CheckVerdict, DateAnswer, Proposal, Solver
 import { civilDateToJd } from '../calendar/regions.js';
 import { dayWindowOf } from './window.js';
 
-/** What one reading of the switch gives. */
-export interface ReadingOutcome {
+/** A reading of a disputed switch as every comparison names it. */
+interface ReadingHeader {
   readonly readingId: string;
   /** The switch under this reading, in words. */
   readonly switchWords: string;
   readonly source: string;
-  readonly sourceText: string;
   readonly main: boolean;
   /** The calendar rule to state for this reading, e.g. `holland@placaet`. */
   readonly ruleText: string;
+  /** Why the scene (or proposal) could not be read under this reading (a written day that did not exist under it), else null. */
+  readonly refusal: string | null;
+}
+
+/** What one reading of the switch gives. */
+export interface ReadingOutcome extends ReadingHeader {
+  readonly sourceText: string;
   /** The best candidate under this reading; null when none (or the scene cannot be read under it). */
   readonly best: {
     readonly jdUT: number;
@@ -34,21 +40,23 @@ export interface ReadingOutcome {
     readonly chiSquare: number;
     readonly pValue: number | null;
   } | null;
-  /** Why the scene could not be read under this reading (a written day that did not exist under it), else null. */
-  readonly refusal: string | null;
+}
+
+/** The readings of a switch compared: which fit best, and the verdict in words. */
+interface ReadingsComparison<O> {
+  readonly regionId: string;
+  readonly regionName: string;
+  readonly outcomes: readonly O[];
+  /** Ids of the readings whose best fit is the best overall (within 1 in chi-square), or [] when none fits. */
+  readonly fitting: readonly string[];
+  /** One or two sentences in plain words. */
+  readonly verdict: string;
 }
 
 /** The comparison of readings for a scene whose window touches a disputed switch. */
-export interface CalendarReadings {
-  readonly regionId: string;
-  readonly regionName: string;
-  readonly outcomes: readonly ReadingOutcome[];
-  /** Ids of the readings whose best fit is the best overall (within 1 in chi-square), or [] when none fits. */
-  readonly fitting: readonly string[];
+export interface CalendarReadings extends ReadingsComparison<ReadingOutcome> {
   /** True when the readings' best candidates are the same instant (within half a day) named differently. */
   readonly sameInstant: boolean;
-  /** One or two sentences in plain words. */
-  readonly verdict: string;
 }
 
 /** Chi-square margin within which two readings fit equally well (one sigma for one parameter; common practice). */
@@ -64,6 +72,24 @@ export function switchWords(r: DisputedReading): string {
   if (last.firstDay === undefined) return r.reading.label;
   const before = last.lastDayBefore === undefined ? '' : `${formatDayWords(last.lastDayBefore)} (Julian) followed by `;
   return `${before}${formatDayWords(last.firstDay)} (Gregorian)`;
+}
+
+/** The names of a reading, without its outcome. */
+function headerOf(dispute: DisputedSwitch, r: DisputedReading): Omit<ReadingHeader, 'refusal'> {
+  return {
+    readingId: r.reading.id,
+    switchWords: switchWords(r),
+    source: r.reading.source,
+    main: r.main,
+    ruleText: r.main ? dispute.region.id : `${dispute.region.id}@${r.reading.id}`,
+  };
+}
+
+/** The ids of the readings whose best chi-square is within EQUAL_FIT_CHI_SQUARE of the lowest. */
+function fittingOf(outcomes: readonly { readonly readingId: string; readonly best: { readonly chiSquare: number } | null }[]): string[] {
+  const scored = outcomes.filter((o) => o.best !== null);
+  const lowest = Math.min(...scored.map((o) => o.best!.chiSquare));
+  return scored.filter((o) => o.best!.chiSquare <= lowest + EQUAL_FIT_CHI_SQUARE).map((o) => o.readingId);
 }
 
 function bestOf(answer: DateAnswer): ReadingOutcome['best'] {
@@ -82,14 +108,7 @@ export function calendarReadings(scene: Scene, mainAnswer: DateAnswer, solve: (s
   const dispute = disputedSwitchIn(scene.calendar, win.firstDayJd0 - 366, win.lastDayJd0 + 366);
   if (dispute === null) return null;
   const outcomes = dispute.readings.map((r): ReadingOutcome => {
-    const base = {
-      readingId: r.reading.id,
-      switchWords: switchWords(r),
-      source: r.reading.source,
-      sourceText: r.reading.sourceText,
-      main: r.main,
-      ruleText: r.main ? dispute.region.id : `${dispute.region.id}@${r.reading.id}`,
-    };
+    const base = { ...headerOf(dispute, r), sourceText: r.reading.sourceText };
     if (r.main) return { ...base, best: bestOf(mainAnswer), refusal: null };
     try {
       return { ...base, best: bestOf(solve({ ...scene, calendar: r.rule })), refusal: null };
@@ -99,8 +118,7 @@ export function calendarReadings(scene: Scene, mainAnswer: DateAnswer, solve: (s
     }
   });
   const scored = outcomes.filter((o) => o.best !== null);
-  const lowest = Math.min(...scored.map((o) => (o.best as NonNullable<ReadingOutcome['best']>).chiSquare));
-  const fitting = scored.filter((o) => (o.best as NonNullable<ReadingOutcome['best']>).chiSquare <= lowest + EQUAL_FIT_CHI_SQUARE).map((o) => o.readingId);
+  const fitting = fittingOf(outcomes);
   const instants = scored.map((o) => (o.best as NonNullable<ReadingOutcome['best']>).jdUT);
   const sameInstant = instants.length > 1 && Math.max(...instants) - Math.min(...instants) < 0.5;
   return { regionId: dispute.region.id, regionName: dispute.region.name, outcomes, fitting, sameInstant, verdict: verdictWords(dispute.region.name, outcomes, fitting, sameInstant) };
@@ -138,31 +156,18 @@ export function calendarReadingsLines(r: CalendarReadings): string[] {
 // ------------------------------------------------------------ check: a proposal under every reading
 
 /** What one reading of the switch makes of a proposal. */
-export interface CheckReadingOutcome {
-  readonly readingId: string;
-  readonly switchWords: string;
-  readonly source: string;
-  readonly main: boolean;
-  readonly ruleText: string;
+export interface CheckReadingOutcome extends ReadingHeader {
   /** The check's verdict under this reading; null when the proposal names no day under it. */
   readonly verdict: CheckVerdict | null;
   readonly verdictText: string | null;
   /** The best fit inside the proposal under this reading (its day named under the reading). */
   readonly best: { readonly jdUT: number; readonly civilDate: SolverCalendarDate; readonly chiSquare: number } | null;
-  /** Why the proposal could not be read under this reading (a day that did not exist there), else null. */
-  readonly refusal: string | null;
 }
 
 /** A proposal judged under every reading of a disputed switch it (or the scene's window) touches. */
-export interface CheckReadings {
-  readonly regionId: string;
-  readonly regionName: string;
-  readonly outcomes: readonly CheckReadingOutcome[];
-  /** Ids of the readings under which the proposal fits best (within 1 in chi-square of the best fit inside the proposal). */
-  readonly fitting: readonly string[];
+export interface CheckReadings extends ReadingsComparison<CheckReadingOutcome> {
   /** True when the proposal names the same days under every reading (only the window's best differs). */
   readonly sameDays: boolean;
-  readonly verdict: string;
 }
 
 /** The first and last civil days (JD of 0h) a proposal names under a rule; the Julian name when the rule skips it. */
@@ -215,13 +220,7 @@ export function checkUnderReadings(scene: Scene, proposal: Proposal | null, main
     refusal: null,
   });
   const outcomes = dispute.readings.map((r): CheckReadingOutcome => {
-    const base = {
-      readingId: r.reading.id,
-      switchWords: switchWords(r),
-      source: r.reading.source,
-      main: r.main,
-      ruleText: r.main ? dispute.region.id : `${dispute.region.id}@${r.reading.id}`,
-    };
+    const base = headerOf(dispute, r);
     if (r.main) return 'refusal' in mainAnswer ? { ...base, verdict: null, verdictText: null, best: null, refusal: mainAnswer.refusal } : { ...base, ...outcomeOf(mainAnswer) };
     try {
       return { ...base, ...outcomeOf(check({ ...scene, calendar: r.rule })) };
@@ -230,9 +229,7 @@ export function checkUnderReadings(scene: Scene, proposal: Proposal | null, main
       throw error;
     }
   });
-  const scored = outcomes.filter((o) => o.best !== null);
-  const lowest = Math.min(...scored.map((o) => o.best!.chiSquare));
-  const fitting = scored.filter((o) => o.best!.chiSquare <= lowest + EQUAL_FIT_CHI_SQUARE).map((o) => o.readingId);
+  const fitting = fittingOf(outcomes);
   const days = proposal === null ? [null] : dispute.readings.map((r) => daysUnder(scene, proposal, r.rule));
   const sameDays = days.every((d) => d !== null && d === days[0]);
   return { regionId: dispute.region.id, regionName: dispute.region.name, outcomes, fitting, sameDays, verdict: checkVerdictWords(dispute.region.name, outcomes, fitting, sameDays) };
