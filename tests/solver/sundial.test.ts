@@ -15,6 +15,7 @@ import { calendarDateToJd } from '../../src/calendar/julianDay.js';
 import { clockToJdUT, jdUTToClockMinutes } from '../../src/time/clock.js';
 import { sunPosition } from '../../src/ephemeris/sunPosition.js';
 import { sunEvents } from '../../src/ephemeris/riseSet.js';
+import { hourAngleAtAltitudeDeg } from '../../src/time/hourSystems.js';
 import { InvalidInputError } from '../../src/errors.js';
 import { dialCountWords } from '../../src/report/text.js';
 
@@ -58,6 +59,24 @@ describe('the synthetic truth', () => {
     expect(Math.abs(BABYLONIAN + (1440 - ITALIAN) - daylight)).toBeLessThan(3);
     // Sunrise at 4:31 apparent time: hour angle 112.2 deg at -0.833 deg altitude for declination 18.0 deg (Meeus 1998 eq. 15.1, worked by hand).
     expect(Math.abs(BABYLONIAN - (APPARENT_MINUTES - 271))).toBeLessThan(3);
+  });
+});
+
+describe('a published worked example of Babylonian and Italian hours', () => {
+  it('at the equinox 9:30 apparent time is 3 1/2 Babylonian hours and 8 1/2 hours before sunset (15 1/2 Italian), less the horizon correction of the project\'s sunrise', () => {
+    // macmillanhunter.co.uk, "Babylonian and Italian hours measure the day": on a dial at the equinox, 9:30 am is
+    // 3 1/2 Babylonian hours and 8 1/2 hours before sunset. That reading takes sunrise and sunset at 6:00 and 18:00
+    // (the sun's centre on the horizon, declination 0); heliochron takes them with the centre 0.8333 deg below
+    // (Meeus 1998 ch. 15), which moves sunrise earlier and sunset later by 4 (H0 - 90) minutes, H0 from Meeus eq. 15.1.
+    const equinox = calendarDateToJd({ calendar: 'gregorian', year: 1720, month: 3, day: 20 }); // declination -0.03 deg at 9:30 (sun command)
+    const jdUT = clockToJdUT(equinox, 570, { kind: 'apparent' }, SITE);
+    const babylonian = jdUTToClockMinutes(jdUT, { kind: 'babylonian' }, SITE).minutesOfDay;
+    const italian = jdUTToClockMinutes(jdUT, { kind: 'italian', origin: 'sunset', offsetMinutes: 0 }, SITE).minutesOfDay;
+    const h0 = hourAngleAtAltitudeDeg(-0.8333, 0, SITE.latitudeDeg)!;
+    const horizon = 4 * (h0 - 90); // 4.9 minutes at 47.62 N
+    expect(Math.abs(babylonian - (210 + horizon))).toBeLessThan(0.5);
+    // The Italian count runs from the previous evening, whose sunset came about 1.5 minutes earlier near the equinox.
+    expect(Math.abs(italian - (930 - horizon))).toBeLessThan(2);
   });
 });
 
