@@ -26,9 +26,9 @@ function hasOtherReadings(scene: Scene): boolean {
  * The answer to print when the main reading has no such day: the check under the first reading that has
  * it (the comparison block names every reading); the main reading's refusal when none has it.
  */
-function answerUnderAnotherReading(scene: Scene, readings: CheckReadings | null, judge: (s: Scene) => CheckAnswer, refusal: string): { answer: CheckAnswer; scene: Scene } {
+function answerUnderAnotherReading(scene: Scene, readings: CheckReadings | null, judge: (s: Scene) => CheckAnswer, refusal: HeliochronError): { answer: CheckAnswer; scene: Scene } {
   const other = readings?.outcomes.find((o) => o.verdict !== null);
-  if (readings === null || other === undefined) throw new InvalidInputError('--on', refusal, 'a day that was in civil use under at least one reading of the calendar switch');
+  if (readings === null || other === undefined) throw refusal; // no reading has the day: the main reading's own refusal
   const s: Scene = { ...scene, calendar: { kind: 'region', regionId: readings.regionId, reading: other.readingId } };
   return { answer: judge(s), scene: s };
 }
@@ -42,6 +42,7 @@ export async function run(args: readonly string[], options: CheckOptions, io: Cl
   const judge = (s: Scene): CheckAnswer => checkProposal(s, proposalFromOptions(options, s));
   let proposal: Proposal | null;
   let main: CheckAnswer | { readonly refusal: string };
+  let mainRefusal: HeliochronError | null = null;
   try {
     proposal = proposalFromOptions(options, scene);
     main = inScene(scenePath, () => checkProposal(scene, proposal as Proposal));
@@ -49,11 +50,12 @@ export async function run(args: readonly string[], options: CheckOptions, io: Cl
     // A day skipped under the table's main reading of a disputed switch may be a day under another reading.
     if (!(error instanceof HeliochronError && error.kind === 'invalid-input') || !hasOtherReadings(scene)) throw error;
     proposal = null;
+    mainRefusal = error;
     main = { refusal: error.message };
   }
   // A disputed calendar switch touched by the proposal or the window: judge it under every published reading.
   const readings = inScene(scenePath, () => checkUnderReadings(scene, proposal, main, judge));
-  const shown = 'refusal' in main ? answerUnderAnotherReading(scene, readings, judge, main.refusal) : { answer: main, scene };
+  const shown = mainRefusal !== null ? answerUnderAnotherReading(scene, readings, judge, mainRefusal) : { answer: main as CheckAnswer, scene };
   const text = options.json
     ? stableJson(withCalendarReadings(checkAnswerJson(shown.answer, shown.scene, options.version), readings))
     : withCalendarReadingsText(renderCheckText(shown.answer, shown.scene), readings === null ? null : checkReadingsLines(readings));

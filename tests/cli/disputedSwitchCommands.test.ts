@@ -38,7 +38,8 @@ describe('check under every reading of a disputed switch', () => {
   it('a day that exists under no reading is refused as before (exit 2, one line naming the option)', async () => {
     const r = await runCli(['check', SCENE, '--on', '1582-02-30']);
     expect(r.code).toBe(2);
-    expect(r.err).toMatch(/--on/);
+    expect(r.err).toMatch(/^heliochron: --on: "1582-02-30" is not allowed; expected a date/);
+    expect(r.err.trim().split('\n')).toHaveLength(1);
     expect(r.out).toBe('');
   }, 120000);
 });
