@@ -209,6 +209,7 @@ function legend(data: DateHourMapData, unlabelled: readonly string[], prefix: st
   parts.push(text(605, ly, '95% day interval (profile scan)', { class: 'hc-legend' }));
   const notes: string[] = [];
   if (data.months.some((m) => m.excluded)) notes.push('hatched: months outside the window stated in the scene');
+  if (data.calendarReadingNote !== null) notes.push(...data.calendarReadingNote);
   if (data.fromOtherYears > 0) notes.push(`open circles: best of a family in another year, placed on its day of the year`);
   if (unlabelled.length > 0) notes.push(`marks too crowded to label: ${unlabelled.join(', ')}; the report's table of families gives their days and hours`);
   parts.push(text(66, ly + 18, `Clock: ${data.clockLabel}.`, { class: 'hc-note' }));

@@ -4,6 +4,7 @@
  * best, the month boundaries, and the candidates of that year with their error ellipses or
  * profile-scan intervals. Rendering is in dateHourMap.ts.
  */
+import { calendarReadingNote } from './calendarReadingLabel.js';
 import type { Scene } from '../scene/types.js';
 import type { Candidate, DateAnswer } from '../solver/types.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
@@ -51,6 +52,8 @@ export interface DateHourMapData {
   /** The years for the title: the drawn year only when the evidence singles it out, else "any year 1760-1790 (drawn on the days of 1784)". */
   readonly titleYears: string;
   readonly calendarLabel: string;
+  /** Which reading of a disputed calendar switch names the days (src/charts/calendarReadingLabel.ts), or null. */
+  readonly calendarReadingNote: readonly string[] | null;
   readonly clockLabel: string;
   /** Number of days in the civil year (x domain [0, dayCount]). */
   readonly dayCount: number;
@@ -181,6 +184,7 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
     yearLabel: formatYearBcAd(year),
     titleYears: answer.yearsWords && answer.yearsWords !== formatYearBcAd(year) ? `${answer.yearsWords} (drawn on the days of ${formatYearBcAd(year)})` : formatYearBcAd(year),
     calendarLabel: best ? (best.civilDate.calendar === 'julian' ? 'Julian calendar' : 'Gregorian calendar') : 'calendar of the site',
+    calendarReadingNote: calendarReadingNote(scene),
     clockLabel: best ? best.clockAssumptionLabel : 'no clock',
     dayCount,
     minuteRange,

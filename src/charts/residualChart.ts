@@ -5,6 +5,8 @@
  * are marked. The facts without numbers follow as "holds" / "fails" rows.
  */
 import { signedFixed } from '../textUnits.js';
+import { calendarReadingShort } from './calendarReadingLabel.js';
+import type { Scene } from '../scene/types.js';
 import type { DateAnswer } from '../solver/types.js';
 import { bottomAxis, plotFrame, titleBlock, type PlotArea } from './axes.js';
 import { CHART_STYLE, DASHES, INK, OKABE_ITO } from './palette.js';
@@ -35,8 +37,11 @@ function valueText(value: number, unit: string): string {
   return `${value.toFixed(digits)}${w ? ` ${w}` : ''}`;
 }
 
-/** The rows of the residuals chart from the solver's answer (best candidate, rank 1). */
-export function residualChartData(answer: DateAnswer): ResidualChartData {
+/**
+ * The rows of the residuals chart from the solver's answer (best candidate, rank 1); with the scene,
+ * the candidate's date also says which reading of a disputed calendar switch names it.
+ */
+export function residualChartData(answer: DateAnswer, scene?: Scene): ResidualChartData {
   const best = answer.candidates[0] ?? answer.families[0]?.best;
   const flagged = new Set(answer.consistency.flaggedIds);
   if (!best) return { candidateLabel: 'no candidate', rows: [], facts: [], flaggedIds: [...flagged] };
@@ -49,7 +54,8 @@ export function residualChartData(answer: DateAnswer): ResidualChartData {
   }));
   const facts = best.facts.map((f) => ({ label: `${f.observationId}: ${f.note}`, satisfied: f.satisfied }));
   const d = best.civilDate;
-  return { candidateLabel: `candidate ${best.rank}, ${formatCalendarDate(d)}`, rows, facts, flaggedIds: [...flagged] };
+  const reading = scene === undefined ? null : calendarReadingShort(scene);
+  return { candidateLabel: `candidate ${best.rank}, ${formatCalendarDate(d)}${reading === null ? '' : ` (${reading})`}`, rows, facts, flaggedIds: [...flagged] };
 }
 
 const ROW_HEIGHT = 24;

@@ -254,6 +254,7 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
   if (thin.length > 0) noteLines.push(`Not drawn: ${thin.join(', ')} (narrower than the chart's grid of sun directions, or nowhere in the sky shown).`);
   if (data.moon) noteLines.push(...moonNotes(data.moon));
   if (data.notes.length > 0) noteLines.push(`Not drawn: ${data.notes.join('; ')}.`);
+  for (const line of data.calendarNote ?? []) noteLines.push(`${line[0].toUpperCase()}${line.slice(1)}.`);
   if (placement.unplaced.length > 0) noteLines.push(`Too crowded to label: ${placement.unplaced.map((u) => u.text).join(', ')}.`);
   const key = legend(data);
   const notesTop = Math.max(NOTES_TOP, key.bottom + 24);

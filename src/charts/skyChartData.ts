@@ -12,6 +12,7 @@
  * numbers (wall lit, sun up) are no band on the sky and are listed in the notes instead.
  * Rendering is in skyChart.ts.
  */
+import { calendarReadingNote } from './calendarReadingLabel.js';
 import type { Scene } from '../scene/types.js';
 import type { DateAnswer } from '../solver/types.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
@@ -78,6 +79,8 @@ export interface SkyMoon {
 }
 
 export interface SkyChartData {
+  /** Which reading of a disputed calendar switch names the best days (src/charts/calendarReadingLabel.ts), or null. */
+  readonly calendarNote: readonly string[] | null;
   /** Azimuth at the middle of the chart: 180 (sun paths around the south) or 0 (around the north). */
   readonly centreAzimuthDeg: number;
   /** Unwrapped azimuth range: centre +/- up to 180. */
@@ -258,9 +261,10 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   const notes: string[] = [];
   if (model.clocks.length > 0) {
     const one = model.clocks.length === 1;
-    notes.push(`clock reading${one ? '' : 's'} (${model.clocks.map((c) => c.observationId).join(', ')}) ${one ? 'fixes' : 'fix'} the hour, not the direction of the sun`);
+    const what = model.clocks.every((c) => c.observationKind === 'sundial') ? 'sundial reading' : model.clocks.some((c) => c.observationKind === 'sundial') ? 'clock and sundial reading' : 'clock reading';
+    notes.push(`${what}${one ? '' : 's'} (${model.clocks.map((c) => c.observationId).join(', ')}) ${one ? 'fixes' : 'fix'} the hour, not the direction of the sun`);
   }
   const explicitFacts = model.facts.filter((f) => !f.implicit);
   if (explicitFacts.length > 0) notes.push(`facts without numbers (${explicitFacts.map((f) => f.observationId).join(', ')}) are not drawn`);
-  return { centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, evaluations, ...(moon ? { moon } : {}) };
+  return { centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, calendarNote: calendarReadingNote(scene), evaluations, ...(moon ? { moon } : {}) };
 }

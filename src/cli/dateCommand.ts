@@ -6,7 +6,7 @@
 import { sameLightIn, sameLightLines, type SameLightAnswer } from '../solver/sameLight.js';
 import type { SunSite } from '../ephemeris/sunPosition.js';
 import type { DateAnswer } from '../solver/types.js';
-import { calendarReadings, calendarReadingsLines, type CalendarReadings } from '../solver/calendarReadings.js';
+import { calendarReadings, calendarReadingsLines } from '../solver/calendarReadings.js';
 import type { DeltaTModel } from '../time/deltaT.js';
 import { resolve } from 'node:path';
 import { HeliochronError, InvalidInputError, quoteValue } from '../errors.js';
@@ -72,14 +72,14 @@ export function deliver(text: string, target: string | undefined, output: string
 }
 
 /** The JSON answer with the comparison of calendar readings added (only when the window touches a disputed switch). */
-function withCalendarReadings<T extends object>(json: T, readings: CalendarReadings | null): T | (T & { calendarReadings: CalendarReadings }) {
+export function withCalendarReadings<T extends object, R>(json: T, readings: R | null): T | (T & { calendarReadings: R }) {
   return readings === null ? json : { ...json, calendarReadings: readings };
 }
 
-/** The text answer with the comparison of calendar readings placed right after the verdict, where a reader looks first. */
-function withCalendarReadingsText(text: string, readings: CalendarReadings | null): string {
-  if (readings === null) return text;
-  const block = calendarReadingsLines(readings).join('\n');
+/** The text answer with the comparison of calendar readings (its lines) placed right after the verdict, where a reader looks first. */
+export function withCalendarReadingsText(text: string, readingLines: readonly string[] | null): string {
+  if (readingLines === null) return text;
+  const block = readingLines.join('\n');
   const verdictAt = text.indexOf('\nVerdict:');
   const end = verdictAt < 0 ? -1 : text.indexOf('\n\n', verdictAt + 1);
   return end < 0 ? `${text}${block}\n` : `${text.slice(0, end)}\n${block}${text.slice(end)}`;
@@ -91,7 +91,7 @@ function siteOfScene(scene: Scene): SunSite {
 }
 
 /** The same light of each family's best candidate in a later year (src/solver/sameLight.ts). */
-function sameLightOfFamilies(answer: DateAnswer, scene: Scene, year: number, zone: string): SameLightAnswer {
+export function sameLightOfFamilies(answer: DateAnswer, scene: Scene, year: number, zone: string): SameLightAnswer {
   return {
     year,
     zone,
@@ -127,7 +127,7 @@ export async function run(args: readonly string[], options: DateOptions, io: Cli
     ? stableJson(withSameLight(withCalendarReadings(dateAnswerJson(answer, scene, options.version, { allYears: options.allYears }), readings), sameLight))
     : options.csv
       ? dateAnswerCsv(answer, scene, { allYears: options.allYears })
-      : withCalendarReadingsText(renderDateText(answer, scene, { allYears: options.allYears }), readings) +
+      : withCalendarReadingsText(renderDateText(answer, scene, { allYears: options.allYears }), readings === null ? null : calendarReadingsLines(readings)) +
         (sameLight === null ? '' : `${sameLightLines(sameLight, siteOfScene(scene), (id) => familyWords(answer, id), scene.air).join('\n')}\n`);
   deliver(text, target, options.output, options.force, fullPath, io);
 }

@@ -82,7 +82,7 @@ export function registerDate(program: Command, io: CliIo): void {
  * --same-light-in and --zone, checked: a whole year 1970-3000 (default this year) and a valid IANA zone.
  * The clock module (and the zone data behind it) is loaded only when a zone is given.
  */
-async function sameLightOptions(year: unknown, zone: unknown): Promise<{ sameLightIn?: number; zone?: string }> {
+export async function sameLightOptions(year: unknown, zone: unknown): Promise<{ sameLightIn?: number; zone?: string }> {
   if (year === undefined) {
     if (zone !== undefined) throw new InvalidInputError('--zone', zone, 'a zone only together with --same-light-in');
     return {};

@@ -19,6 +19,6 @@ export function drawChart(kind: ChartKind, scene: Scene, answer: DateAnswer, onP
     case 'sky':
       return renderSkyChart(skyChartData(scene, answer), idPrefix);
     case 'residuals':
-      return renderResidualChart(residualChartData(answer), idPrefix);
+      return renderResidualChart(residualChartData(answer, scene), idPrefix);
   }
 }

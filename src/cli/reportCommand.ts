@@ -11,7 +11,8 @@ import { solveDates } from '../solver/solveDates.js';
 import { REPORT_SOLVE_OPTIONS, renderHtmlReport } from '../report/html.js';
 import { drawChart } from './drawChart.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
-import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
+import { checkOutputPath, deliver, inScene, readSceneForCommand, sameLightOfFamilies } from './dateCommand.js';
+import { calendarReadings } from '../solver/calendarReadings.js';
 import type { CliIo } from './io.js';
 import { progressLine, withProgressLine } from './progress.js';
 import type { ReportOptions } from './reportSpec.js';
@@ -33,6 +34,9 @@ export async function run(args: readonly string[], options: ReportOptions, io: C
   const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
   const bytes = readFileSync(fullPath);
   const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { ...REPORT_SOLVE_OPTIONS, onProgress })));
+  // A disputed calendar switch in the window: solve under every published reading (src/solver/calendarReadings.ts).
+  const readings = inScene(scenePath, () => calendarReadings(scene, answer, (s) => solveDates(s, REPORT_SOLVE_OPTIONS)));
+  const sameLight = options.sameLightIn === undefined || options.zone === undefined ? null : sameLightOfFamilies(answer, scene, options.sameLightIn, options.zone);
   const progress = progressLine(io, 'drawing the date and hour map');
   let charts;
   try {
@@ -48,6 +52,8 @@ export async function run(args: readonly string[], options: ReportOptions, io: C
     scene,
     answer,
     charts,
+    calendarReadings: readings,
+    sameLight,
     reproducibility: {
       version: options.version,
       sceneSha256: sha256Hex(bytes),

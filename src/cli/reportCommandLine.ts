@@ -14,5 +14,7 @@ export function reportCommandLine(scenePath: string, options: ReportOptions): st
   const words = ['heliochron', 'report', scenePath];
   if (options.output !== undefined) words.push('-o', options.output);
   if (options.force) words.push('--force');
+  // The year as resolved (a bare --same-light-in means this year), so that the command gives the same report again.
+  if (options.sameLightIn !== undefined && options.zone !== undefined) words.push('--same-light-in', String(options.sameLightIn), '--zone', options.zone);
   return words.map(shellWord).join(' ');
 }

@@ -7,6 +7,7 @@ import { outputForm } from './outputFormat.js';
 import { parseSeedOption, SEED_FLAGS, SEED_HELP } from './seedOption.js';
 import type { DeltaTModel } from '../time/deltaT.js';
 import { DELTA_T_FLAGS, DELTA_T_HELP, parseDeltaTOption } from './deltaTOption.js';
+import { sameLightOptions } from './dateSpec.js';
 
 export interface ReportOptions {
   readonly output?: string;
@@ -15,6 +16,10 @@ export interface ReportOptions {
   readonly seed?: number;
   /** --delta-t: overrides the scene file's deltaT. */
   readonly deltaT?: DeltaTModel;
+  /** --same-light-in: the year to find the same light in (with --zone). */
+  readonly sameLightIn?: number;
+  /** --zone: the site's present IANA time zone, for --same-light-in. */
+  readonly zone?: string;
   /** The program's version, written into the report's reproducibility block. */
   readonly version: string;
 }
@@ -34,10 +39,13 @@ export function registerReport(program: Command, io: CliIo): void {
     .option('--force', 'replace the output file if it exists')
     .option(SEED_FLAGS, SEED_HELP)
     .option(DELTA_T_FLAGS, DELTA_T_HELP)
+    .option('--same-light-in [year]', 'also show, per family, the days and times of that year (default: this year) when the sun stands where the best candidate put it (needs --zone)')
+    .option('--zone <IANA name>', "the site's present time zone for --same-light-in, e.g. Europe/Zurich")
     .addHelpText(
       'after',
       '\nExample (the bundled example is in the fictional town of Velmar):\n' +
-        '  heliochron report examples/marktgasse-print.yaml -o marktgasse-report.html\n',
+        '  heliochron report examples/marktgasse-print.yaml -o marktgasse-report.html\n' +
+        '  heliochron report examples/marktgasse-print.yaml --same-light-in 2026 --zone Europe/Zurich -o marktgasse-report.html\n',
     )
     .action(async (scene: string, options: Record<string, unknown>, command: Command) => {
       const output = options.output === undefined ? undefined : String(options.output);
@@ -50,6 +58,7 @@ export function registerReport(program: Command, io: CliIo): void {
           force: options.force === true,
           seed: parseSeedOption(options.seed),
           deltaT: parseDeltaTOption(options.deltaT),
+          ...(await sameLightOptions(options.sameLightIn, options.zone)),
           version: String(command.parent?.version() ?? ''),
         },
         io,

@@ -193,9 +193,20 @@ function factsAndClocks(ctx: FormContext): HTMLElement[] {
         field(ctx, { path: [...path, 'id'], label: 'name (id)', kind: 'text' }),
         field(ctx, { path: [...path, 'reading'], label: 'reading, H:MM', kind: 'text' }),
         field(ctx, { path: [...path, 'precisionMinutes'], label: 'read to within, minutes (sigma)', kind: 'number' }),
-        field(ctx, { path: [...path, 'dialHours'], label: 'hours on the dial', kind: 'select', choices: [['12', '12'], ['24', '24']] }),
+        field(ctx, { path: [...path, 'dialHours'], label: 'hours on the dial', kind: 'select', choices: [['6', '6'], ['12', '12'], ['24', '24']] }),
         field(ctx, { path: [...path, 'hourHandTrusted'], label: 'the hour hand can be trusted', kind: 'checkbox' }),
-        field(ctx, { path: [...path, 'kept'], label: 'what it kept (unknown, apparent, mean, meridian:LON, zone:NAME, ut)', kind: 'text' }),
+        field(ctx, { path: [...path, 'kept'], label: 'what it kept (unknown, apparent, mean, meridian:LON, zone:NAME, ut, italian, italian+MIN, italian:dusk, babylonian, unequal)', kind: 'text' }),
+        field(ctx, { path: [...path, 'note'], label: 'note', kind: 'longtext' }),
+        refusalNode,
+        removeButton(ctx, `remove ${id}`, path),
+      ]));
+    } else if (kind === 'sundial') {
+      clocks.push(h('fieldset', { class: 'item' }, [
+        h('legend', { text: `Sundial: ${id}` }),
+        field(ctx, { path: [...path, 'id'], label: 'name (id)', kind: 'text' }),
+        field(ctx, { path: [...path, 'reading'], label: 'reading among the hour lines, H:MM', kind: 'text' }),
+        field(ctx, { path: [...path, 'hours'], label: 'hour lines', kind: 'select', choices: SUNDIAL_LINES }),
+        field(ctx, { path: [...path, 'precisionMinutes'], label: 'read to within, minutes (sigma)', kind: 'number' }),
         field(ctx, { path: [...path, 'note'], label: 'note', kind: 'longtext' }),
         refusalNode,
         removeButton(ctx, `remove ${id}`, path),
@@ -216,11 +227,24 @@ function factsAndClocks(ctx: FormContext): HTMLElement[] {
     const list = Array.isArray(d.observations) ? d.observations : (d.observations = []);
     list.push({ id: `clock-${list.length + 1}`, kind: 'clock', reading: '', precisionMinutes: 5 });
   }));
+  const addSundial = h('button', { type: 'button', text: 'Add a sundial' });
+  addSundial.addEventListener('click', () => ctx.commit('add a sundial', (d) => {
+    const list = Array.isArray(d.observations) ? d.observations : (d.observations = []);
+    list.push({ id: `sundial-${list.length + 1}`, kind: 'sundial', reading: '', hours: 'apparent', precisionMinutes: 10 });
+  }));
   return [
     section(ctx, 'Facts without numbers', [...facts, h('div', { class: 'row' }, [factKind, addFact])], facts.length > 0),
-    section(ctx, 'Clocks', [...clocks, addClock], clocks.length > 0),
+    section(ctx, 'Clocks and sundials', [...clocks, h('div', { class: 'row' }, [addClock, addSundial])], clocks.length > 0),
   ];
 }
+
+/** The hour lines a sundial may carry (src/scene/readObservation.ts), value and words. */
+const SUNDIAL_LINES: readonly (readonly [string, string])[] = [
+  ['apparent', 'equal hours (local apparent time)'],
+  ['italian', 'Italian hours (since sunset)'],
+  ['babylonian', 'Babylonian hours (since sunrise)'],
+  ['unequal', 'unequal hours (twelfths of the daylight)'],
+];
 
 /** All the forms, in the order of the scene file. */
 export function renderForms(ctx: FormContext): HTMLElement[] {

@@ -16,6 +16,7 @@ import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '.
 import { formatDayWords } from '../calendar/format.js';
 import { MONTH_NAMES, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { describeClockKind, formatClockKind } from '../time/clock.js';
+import { describeSundialHours } from '../time/hourSystems.js';
 import { escapeXml } from '../charts/svg.js';
 import {
   CAUTION,
@@ -34,6 +35,10 @@ import {
 } from './formatTimes.js';
 import { pText } from './text.js';
 import { REPORT_STYLE } from './htmlStyle.js';
+import { n, row, table, type Cell } from './htmlTable.js';
+import { calendarReadingsSection, sameLightSection } from './htmlReadings.js';
+import type { CalendarReadings } from '../solver/calendarReadings.js';
+import type { SameLightAnswer } from '../solver/sameLight.js';
 
 /** The three charts, as SVG markup (from src/charts). */
 export interface ReportCharts {
@@ -57,6 +62,10 @@ export interface HtmlReportInput {
   readonly answer: DateAnswer;
   readonly charts: ReportCharts;
   readonly reproducibility: Reproducibility;
+  /** The scene solved under every reading of a disputed calendar switch its window touches (src/solver/calendarReadings.ts). */
+  readonly calendarReadings?: CalendarReadings | null;
+  /** The days and zone times of a later year with the same light (src/solver/sameLight.ts). */
+  readonly sameLight?: SameLightAnswer | null;
 }
 
 /**
@@ -67,33 +76,6 @@ export const REPORT_SOLVE_OPTIONS = { perYear: true } as const;
 
 /** Escaped text. */
 const h = escapeXml;
-
-/**
- * A table cell: escaped markup, a number-like cell (right-aligned), text kept on one line, or
- * right-aligned text that may break where its markup allows.
- */
-type Cell = string | { readonly num: string } | { readonly nowrap: string } | { readonly wrap: string };
-
-function cellMarkup(tag: string, c: Cell): string {
-  if (typeof c === 'string') return `<${tag}>${c}</${tag}>`;
-  if ('num' in c) return `<${tag} class="num">${c.num}</${tag}>`;
-  if ('wrap' in c) return `<${tag} class="num-wrap">${c.wrap}</${tag}>`;
-  return `<${tag} class="nowrap">${c.nowrap}</${tag}>`;
-}
-
-function row(cells: readonly Cell[], header = false, attrs = ''): string {
-  const tag = header ? 'th' : 'td';
-  return `<tr${attrs}>${cells.map((c) => cellMarkup(tag, c)).join('')}</tr>`;
-}
-
-/** A numeric cell (its text already escaped or safe). */
-function n(text: string): Cell {
-  return { num: text };
-}
-
-function table(id: string, caption: string, header: readonly string[], rows: readonly string[]): string {
-  return `<table id="${id}"><caption class="muted" style="caption-side:top;text-align:left">${h(caption)}</caption><thead>${row(header.map(h), true)}</thead><tbody>${rows.join('')}</tbody></table>`;
-}
 
 function fixed(x: number | null | undefined, digits: number): string {
   return x === null || x === undefined || !Number.isFinite(x) ? '-' : x.toFixed(digits);
@@ -153,6 +135,8 @@ export function observationWords(o: Observation): string {
       const kept = o.kept.kind === 'unknown' ? 'what it kept is unknown (each kind is tried)' : `kept ${describeClockKind(o.kept)}`;
       return `reads ${hhmm(o.readingMinutes)} on a ${o.dialHours}-hour dial, precision ${o.precisionMinutes} min${o.hourHandTrusted ? '' : ', hour hand not trusted'}; ${kept}`;
     }
+    case 'sundial':
+      return `sundial reads ${hhmm(o.readingMinutes)} in ${describeSundialHours(o.hours)}, precision ${o.precisionMinutes} min`;
   }
 }
 
@@ -163,9 +147,11 @@ function questionSection(scene: Scene): string {
 
 function clockWords(scene: Scene, answer: DateAnswer): string {
   const clocks = scene.observations.filter((o): o is Extract<Observation, { kind: 'clock' }> => o.kind === 'clock');
-  if (clocks.length === 0) return 'No clock in the picture: times are given in local apparent (sundial) time, local mean time and UT.';
+  const dials = scene.observations.filter((o): o is Extract<Observation, { kind: 'sundial' }> => o.kind === 'sundial');
+  const dialText = dials.length > 0 ? ` Sundials (the sun's hour angle, no clock convention): ${dials.map((d) => `${d.id} ${observationWords(d)}`).join('; ')}.` : '';
+  if (clocks.length === 0) return `No clock in the picture: times are given in local apparent (sundial) time, local mean time and UT.${dialText}`;
   const tried = answer.clockAssumptions.map(clockAssumptionWords).join('; ');
-  return `Clock readings: ${clocks.map((c) => `${c.id} ${observationWords(c)}`).join('; ')}. Assumptions tried: ${tried || 'none'}.`;
+  return `Clock readings: ${clocks.map((c) => `${c.id} ${observationWords(c)}`).join('; ')}. Assumptions tried: ${tried || 'none'}.${dialText}`;
 }
 
 function assumptionsSection(scene: Scene, answer: DateAnswer): string {
@@ -441,6 +427,8 @@ function reproducibilitySection(r: Reproducibility): string {
  */
 export function renderHtmlReport(input: HtmlReportInput): string {
   const { scene, answer, charts, reproducibility } = input;
+  const readings = input.calendarReadings ? calendarReadingsSection(input.calendarReadings) : '';
+  const sameLight = input.sameLight ? sameLightSection(input.sameLight, answer) : '';
   return `<!DOCTYPE html>
 <html lang="en">
 <head>
@@ -455,11 +443,11 @@ export function renderHtmlReport(input: HtmlReportInput): string {
 <p class="subtitle">When could this light have fallen? A report of heliochron ${h(reproducibility.version)}.</p>
 <div class="verdict status-${answer.status}" id="verdict"><span class="status">${h(answer.status.replace('-', ' '))}</span><br>${h(answer.verdict)}</div></header>
 <main>
-${questionSection(scene)}
+${readings}${questionSection(scene)}
 ${assumptionsSection(scene, answer)}
 ${evidenceSection(scene, answer)}
 ${answerSection(scene, answer)}
-${chartsSection(charts)}
+${sameLight}${chartsSection(charts)}
 ${consistencySection(answer)}
 ${cautionSection(answer)}
 ${reproducibilitySection(reproducibility)}

@@ -66,6 +66,7 @@ function residualJson(r: ResidualEntry) {
     predicted: roundTo(r.predicted, DIGITS.ratio),
     sigma: roundTo(r.sigma, DIGITS.ratio),
     normalised: roundTo(r.normalised, DIGITS.ratio),
+    ...(r.fullCount ? { fullCount: { minutes: mo(r.fullCount.minutes), turnsOfDial: r.fullCount.turnsOfDial, dialHours: r.fullCount.dialHours } } : {}),
   };
 }
 

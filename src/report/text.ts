@@ -13,6 +13,7 @@ import type { Candidate, CandidateFamily, CheckAnswer, DateAnswer, Proposal, Res
 import { formatDayWords, formatYearBcAd } from '../calendar/format.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { describeClockKind } from '../time/clock.js';
+import { describeSundialHours } from '../time/hourSystems.js';
 import { countWords } from '../solver/candidates.js';
 import {
   CAUTION,
@@ -128,7 +129,19 @@ function residualTable(residuals: readonly ResidualEntry[]): string[] {
     const value = (x: number): string => (r.unit === 'min' && r.component === 'reading' ? clockText(x) : fixed(x, digits));
     rows.push([r.observationId, r.observationKind, r.component, value(r.measured), value(r.predicted), fixed(r.sigma, digits), r.unit, signedFixed(r.normalised, 2)]);
   }
-  return textTable(rows, [3, 4, 5, 7]);
+  return [...textTable(rows, [3, 4, 5, 7]), ...residuals.flatMap((r) => (r.fullCount ? [`  ${dialCountWords(r)}`] : []))];
+}
+
+/**
+ * Which of the readings a 12- or 6-hour dial cannot tell apart fits, in words.
+ * @example dialCountWords(r) // "church-clock: a 12-hour dial shows 03:00 twice a day; the one that fits is 15:00 of the 24-hour count (the reading plus 12 h)"
+ */
+export function dialCountWords(r: ResidualEntry): string {
+  const fc = r.fullCount;
+  if (!fc) return '';
+  const times = fc.dialHours === 12 ? 'twice' : 'four times';
+  const plus = fc.turnsOfDial === 0 ? 'the reading as shown' : `the reading plus ${fc.turnsOfDial * fc.dialHours} h`;
+  return `${r.observationId}: a ${fc.dialHours}-hour dial shows ${hhmm(r.measured)} ${times} a day; the one that fits is ${hhmm(fc.minutes)} of the 24-hour count (${plus})`;
 }
 
 function familyLine(f: CandidateFamily): string {
@@ -153,6 +166,9 @@ function assumptionLines(scene: Scene, answer: { readonly clockAssumptions?: Dat
   ];
   const clocks = answer.clockAssumptions ?? [];
   if (clocks.length > 0) lines.push(`  clock: ${clocks.map(clockAssumptionWords).join('; ')}`);
+  for (const o of scene.observations) {
+    if (o.kind === 'sundial') lines.push(`  sundial ${o.id}: read in ${describeSundialHours(o.hours)}, as its hour lines say; a sundial shows the sun's hour angle, so no clock keeping applies (a dial drawn or set wrong would shift it)`);
+  }
   if (best) lines.push(`  time scale: ${deltaTWords(best, scene)}`);
   const sunNote = sunAccuracyWords(scene);
   if (sunNote) lines.push(`  sun: ${sunNote}`);

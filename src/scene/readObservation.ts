@@ -12,11 +12,11 @@ import {
   SIGMA_FLOOR,
 } from './fields.js';
 import { needImage, PIXEL_SIGMA, readPixelPoint, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
-import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, Observation, ObservationKind, PlaneInImage, ShadowPointsPixels, SitePoint, Wall } from './types.js';
+import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, Observation, ObservationKind, PlaneInImage, ShadowPointsPixels, SitePoint, SundialHours, SundialObservation, Wall } from './types.js';
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
-  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'object-shadow', 'shadow-wedge',
+  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'sundial', 'object-shadow', 'shadow-wedge',
 ];
 
 /** Identifiers of walls and observations: letters, digits, '-', '_', '.'. */
@@ -57,6 +57,7 @@ const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'wall-shaded': [...COMMON, 'wall'],
   'sun-up': [...COMMON],
   clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
+  sundial: [...COMMON, 'reading', 'hours', 'precisionMinutes'],
   'object-shadow': [...COMMON, 'objectPx', 'shadowPx', 'sigmaPx'],
   'shadow-wedge': [...COMMON, 'shadowPx', 'edgesPx', 'sigmaPx'],
 };
@@ -192,11 +193,19 @@ function readPointPairPixels(f: Fields, ctx: ObservationContext): ShadowPointsPi
   return { ...segment, ...(wallId !== undefined ? { wallId } : {}), objectPx };
 }
 
-/** "7:40" or "19:05:30" to minutes after midnight (or after 12 on a 12-hour dial). */
-function readClockReading(f: Fields, dialHours: 12 | 24): number {
-  const words = dialHours === 12
-    ? 'a reading "H:MM" from "12:00" (or "0:00") to "11:59" (12-hour dial), in quotes'
-    : 'a reading "H:MM" from "0:00" to "23:59" (24-hour dial), in quotes';
+/** The readings a dial of `dialHours` shows, in words for messages. */
+function dialReadingWords(dialHours: 6 | 12 | 24): string {
+  if (dialHours === 24) return 'a reading "H:MM" from "0:00" to "23:59" (24-hour dial), in quotes';
+  return `a reading "H:MM" from "${dialHours}:00" (or "0:00") to "${dialHours - 1}:59" (${dialHours}-hour dial), in quotes`;
+}
+
+/**
+ * The "reading" "7:40" or "19:05:30" to minutes, for a count of up to `maxHours` hours. `top` says
+ * what the hour `maxHours` means: 'hour-is-zero' (a 12-hour dial's 12:30 is 0:30), 'instant-is-zero'
+ * (24:00 on an Italian sundial is its 0:00; 24:30 does not exist), 'end' (12:00 in unequal hours
+ * is sunset, the end of the count) or 'last-hour' (a 24-hour dial's 23:59, `maxHours` 23).
+ */
+function readHoursMinutes(f: Fields, maxHours: number, words: string, top: 'hour-is-zero' | 'instant-is-zero' | 'end' | 'last-hour'): number {
   if (!has(f, 'reading')) throw missing(f, 'reading', words);
   const value = raw(f, 'reading');
   const path = keyPath(f.path, 'reading');
@@ -207,19 +216,24 @@ function readClockReading(f: Fields, dialHours: 12 | 24): number {
   const hours = Number(m[1]);
   const minutes = Number(m[2]);
   const seconds = m[3] === undefined ? 0 : Number(m[3]);
-  const hourOk = dialHours === 12 ? hours <= 12 : hours <= 23;
-  if (!hourOk || minutes > 59 || seconds >= 60) throw new InvalidInputError(path, value, words);
-  const h = dialHours === 12 && hours === 12 ? 0 : hours;
-  return h * 60 + minutes + seconds / 60;
+  const total = hours * 60 + minutes + seconds / 60;
+  const beyond = top === 'hour-is-zero' || top === 'last-hour' ? hours > maxHours : total > maxHours * 60;
+  if (beyond || minutes > 59 || seconds >= 60) throw new InvalidInputError(path, value, words);
+  if (top === 'hour-is-zero' && hours === maxHours) return total - maxHours * 60;
+  return top === 'instant-is-zero' && total === maxHours * 60 ? 0 : total;
 }
+
+/** Hours on a clock dial: 24, 12, or 6 (Italian "sei ore" dials). */
+const DIAL_SIZES = [6, 12, 24] as const;
 
 function readClock(f: Fields, id: string, note: string | undefined): ClockObservation {
   const dial = has(f, 'dialHours') ? raw(f, 'dialHours') : 12;
-  if (dial !== 12 && dial !== 24) {
-    throw new InvalidInputError(keyPath(f.path, 'dialHours'), dial, '12 or 24 (hours on the dial)');
+  const dialHours = DIAL_SIZES.find((d) => d === dial);
+  if (dialHours === undefined) {
+    throw new InvalidInputError(keyPath(f.path, 'dialHours'), dial, '6, 12 or 24 (hours on the dial; 6 for an Italian six-hour dial)');
   }
-  const dialHours = dial;
-  const readingMinutes = readClockReading(f, dialHours);
+  // The hour equal to the dial's size (12:00 on a 12-hour dial) is its 0; on a 24-hour dial 24:00 is not written.
+  const readingMinutes = readHoursMinutes(f, dialHours === 24 ? 23 : dialHours, dialReadingWords(dialHours), dialHours === 24 ? 'last-hour' : 'hour-is-zero');
   const precisionMinutes = num(f, 'precisionMinutes', { words: 'a sigma of the reading in minutes', min: SIGMA_FLOOR, max: 180 });
   const hourHandTrusted = optBool(f, 'hourHandTrusted', true);
   let kept: ClockObservation['kept'] = { kind: 'unknown' };
@@ -232,6 +246,36 @@ function readClock(f: Fields, id: string, note: string | undefined): ClockObserv
     kept = text.trim() === 'unknown' ? { kind: 'unknown' } : parseClockKind(text, path);
   }
   return { id, kind: 'clock', readingMinutes, precisionMinutes, hourHandTrusted, dialHours, kept, ...(note ? { note } : {}) };
+}
+
+/** The hour lines a sundial may carry, by the word a scene file uses. */
+const SUNDIAL_HOURS: Readonly<Record<string, SundialHours>> = {
+  apparent: { kind: 'apparent' },
+  equal: { kind: 'apparent' },
+  italian: { kind: 'italian', origin: 'sunset', offsetMinutes: 0 },
+  babylonian: { kind: 'babylonian' },
+  unequal: { kind: 'unequal' },
+  temporal: { kind: 'unequal' },
+};
+const SUNDIAL_HOURS_WORDS = 'the hour lines of the dial: "apparent" (or "equal": equal hours from midnight, local apparent time), "italian" (hours since sunset), "babylonian" (hours since sunrise) or "unequal" (or "temporal": twelfths of the daylight, 0 at sunrise, 12 at sunset)';
+
+function readSundial(f: Fields, id: string, note: string | undefined): SundialObservation {
+  const path = keyPath(f.path, 'hours');
+  if (!has(f, 'hours')) throw missing(f, 'hours', SUNDIAL_HOURS_WORDS);
+  const word = raw(f, 'hours');
+  const hours = typeof word === 'string' ? SUNDIAL_HOURS[word.trim().toLowerCase()] : undefined;
+  if (hours === undefined) {
+    const near = typeof word === 'string' ? closestWord(word, Object.keys(SUNDIAL_HOURS)) : null;
+    throw new InvalidInputError(path, word, SUNDIAL_HOURS_WORDS, near ? `Did you mean "${near}"?` : undefined);
+  }
+  // Unequal hours on a dial run from 0 (sunrise) to 12 (sunset); the other counts run through 24 hours (24:00 = 0:00).
+  const maxHours = hours.kind === 'unequal' ? 12 : 24;
+  const words = hours.kind === 'unequal'
+    ? 'a reading "H:MM" from "0:00" (sunrise) to "12:00" (sunset) in unequal hours, in quotes'
+    : `a reading "H:MM" from "0:00" to "24:00" in ${hours.kind === 'apparent' ? 'equal hours of local apparent time' : `${hours.kind} hours`}, in quotes`;
+  const readingMinutes = readHoursMinutes(f, maxHours, words, hours.kind === 'unequal' ? 'end' : 'instant-is-zero');
+  const precisionMinutes = num(f, 'precisionMinutes', { words: 'a sigma of the reading in minutes', min: SIGMA_FLOOR, max: 180 });
+  return { id, kind: 'sundial', readingMinutes, precisionMinutes, hours, ...(note ? { note } : {}) };
 }
 
 /** Read observation `index` at `path`. */
@@ -386,6 +430,8 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind };
     case 'clock':
       return readClock(f, id, note);
+    case 'sundial':
+      return { ...readSundial(f, id, note), ...base };
     case 'object-shadow':
     case 'shadow-wedge': {
       const image = needImage(ctx.image, keyPath(path, kind === 'object-shadow' ? 'objectPx' : 'shadowPx'), raw(f, kind === 'object-shadow' ? 'objectPx' : 'shadowPx'));

@@ -327,12 +327,29 @@ export interface ShadowWedgeObservation extends ObservationBase {
 /** 9. A clock in the picture. */
 export interface ClockObservation extends ObservationBase {
   readonly kind: 'clock';
-  readonly readingMinutes: number; // minutes after midnight as read, [0, 1440) (12-hour dials: [0, 720))
+  readonly readingMinutes: number; // minutes after midnight as read, [0, 1440) (12-hour dials: [0, 720), 6-hour dials: [0, 360))
   readonly precisionMinutes: number; // sigma of the reading
   readonly hourHandTrusted: boolean; // false: known only modulo one hour
-  readonly dialHours: 12 | 24;
+  /** Hours on the dial: 24; 12 (the count shown twice a day); 6 (Italian "sei ore" dials, the count shown four times). */
+  readonly dialHours: 6 | 12 | 24;
   /** What the clock kept; 'unknown' means each kind is tried and reported. */
   readonly kept: ClockKind | { readonly kind: 'unknown' };
+}
+
+/** The hour lines of a sundial: what its shadow's place on the dial counts (src/time/hourSystems.ts). */
+export type SundialHours =
+  | { readonly kind: 'apparent' } // equal hours from midnight: local apparent time
+  | { readonly kind: 'italian'; readonly origin: 'sunset'; readonly offsetMinutes: 0 } // hours since the previous sunset
+  | { readonly kind: 'babylonian' } // hours since sunrise
+  | { readonly kind: 'unequal' }; // twelfths of the daylight from sunrise, 0-12
+
+/** 12. A sundial in the picture, read where the shadow falls among its hour lines. */
+export interface SundialObservation extends ObservationBase {
+  readonly kind: 'sundial';
+  /** The reading on the dial's own count, minutes, [0, 1440): 10:30 on an ordinary dial is 630. */
+  readonly readingMinutes: number;
+  readonly precisionMinutes: number; // sigma of the reading
+  readonly hours: SundialHours;
 }
 
 export type Observation =
@@ -346,6 +363,7 @@ export type Observation =
   | WallLightObservation
   | SunUpObservation
   | ClockObservation
+  | SundialObservation
   | ObjectShadowObservation
   | ShadowWedgeObservation;
 

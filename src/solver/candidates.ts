@@ -10,7 +10,7 @@ import { jdToCivilDate } from '../calendar/regions.js';
 import { chiSquarePValue } from '../math/chiSquare.js';
 import { deltaTAtJdUT } from '../time/timeScales.js';
 import { describeClockKind, formatClockKind, jdUTToClockMinutes } from '../time/clock.js';
-import { factNote, latitudeOf, predictClock, predictedValuesOf, termEvidence, wallAzimuthOf, wrapSymmetric, type EvidenceModel } from './evidenceModel.js';
+import { factNote, latitudeOf, predictClock, predictedValuesOf, termEvidence, wallAzimuthOf, wrapSymmetric, type ClockTerm, type EvidenceModel } from './evidenceModel.js';
 import { zoneOffsetsAt } from './fitting.js';
 import { candidateUncertainty, type UncertaintyCache } from './candidateUncertainty.js';
 import type { RawCandidate } from './stageB.js';
@@ -23,6 +23,18 @@ export function plainDate(d: CalendarDate): SolverCalendarDate {
 function wrapDay(minutes: number): number {
   const m = minutes % 1440;
   return m < 0 ? m + 1440 : m;
+}
+
+/**
+ * On a dial of fewer than 24 hours, which of the readings the dial cannot tell apart fits: the
+ * reading plus a whole number of turns of the dial, nearest the prediction, on the 24-hour count
+ * ([0, 1440)). Absent on a 24-hour dial and when the hour hand is not trusted.
+ */
+function dialCountOf(c: ClockTerm, predictedMinutes: number): { fullCount?: { readonly minutes: number; readonly turnsOfDial: number; readonly dialHours: 6 | 12 } } {
+  if (c.dialHours === 24 || c.modulusMinutes !== c.dialHours * 60) return {};
+  const turns = Math.round((predictedMinutes - c.readingMinutes) / c.modulusMinutes);
+  const k = ((turns % (24 / c.dialHours)) + 24 / c.dialHours) % (24 / c.dialHours);
+  return { fullCount: { minutes: c.readingMinutes + k * c.modulusMinutes, turnsOfDial: k, dialHours: c.dialHours } };
 }
 
 /** The label of a clock assumption in words. */
@@ -61,9 +73,9 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
   const switching = scene.calendar.kind === 'region' || scene.calendar.kind === 'switch';
   const other = switching ? plainDate(jdToCalendarDate(raw.dayJd0 + 0.5, civil.calendar === 'julian' ? 'gregorian' : 'julian').date) : undefined;
   const e = p.state.equationOfTimeMinutes;
-  const site = { longitudeDeg: scene.site.longitudeDeg };
+  const site = { longitudeDeg: scene.site.longitudeDeg, latitudeDeg: scene.site.latitudeDeg, elevationM: scene.site.elevationM };
   let clock: Candidate['times']['clock'];
-  const shownKind = kind ?? model.clocks.find((c) => c.kept)?.kept ?? null;
+  const shownKind = kind ?? model.clocks.find((c) => c.kept && c.observationKind === 'clock')?.kept ?? null;
   if (shownKind && shownKind.kind !== 'apparent') {
     try {
       clock = { kind: shownKind, minutes: jdUTToClockMinutes(p.jdUT, shownKind, site, undefined).minutesOfDay, label: formatClockKind(shownKind) };
@@ -95,7 +107,8 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
     const predicted = c.readingMinutes + wrapSymmetric(pred.minutes - c.readingMinutes, c.modulusMinutes);
     measuredRows.push({
       observationId: c.observationId,
-      observationKind: 'clock',
+      observationKind: c.observationKind,
+      ...dialCountOf(c, pred.minutes),
       component: 'reading',
       measured: c.readingMinutes,
       predicted,

@@ -224,7 +224,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
     if (proposal.timeMinutes !== undefined) {
       if (!(proposal.timeMinutes >= 0 && proposal.timeMinutes < 1440)) throw new InvalidInputError('proposal.timeMinutes', proposal.timeMinutes, 'minutes after midnight in [0, 1440)');
       const clock: ClockKind = proposal.timeClock ?? { kind: 'apparent' };
-      const site = { longitudeDeg: scene.site.longitudeDeg };
+      const site = { longitudeDeg: scene.site.longitudeDeg, latitudeDeg: scene.site.latitudeDeg, elevationM: scene.site.elevationM };
       const jdUT = clockToJdUT(dayJd0, proposal.timeMinutes, clock, site);
       // Local apparent minutes of that instant: LAT = UT + longitude + E (Meeus 1998 ch. 28).
       const ctx = newDatedContext(model, null, jdUT);

@@ -5,8 +5,14 @@
  * - Shadow evidence (rod, overhang, fin, pole, eave, shadow points, sun direction): the
  *   residuals of src/geometry/observationModels.ts, normalised by their sigmas.
  * - Clocks: predicted reading minus reading, wrapped to the dial (+/-30 min when the hour
- *   hand is not trusted, +/-360 min on a 12-hour dial, +/-720 min on a 24-hour dial), over
- *   the reading's precision. What the clock kept decides the prediction (src/time/clock.ts
+ *   hand is not trusted, +/-180 min on a 6-hour dial, +/-360 min on a 12-hour dial, +/-720 min
+ *   on a 24-hour dial: the nearest of the readings the dial cannot tell apart), over
+ *   the reading's precision.
+ * - Sundials: the same residual with the dial's hour lines as its keeping, always stated: equal
+ *   hours are local apparent time, which is the sun's hour angle (LAT = 12 h + H / 15 deg per
+ *   hour, Meeus 1998 ch. 28), so a sundial is evidence about the sun's hour angle and, for
+ *   Italian, Babylonian and unequal lines, about the time since sunset or sunrise
+ *   (src/solver/hourSystemPrediction.ts); no clock convention, equation of time or zone enters. What the clock kept decides the prediction (src/time/clock.ts
  *   defines the kinds): apparent m; mean m - E; meridian m - E + 4 (lon0 - lon); UT m - E - 4 lon;
  *   zone: UT + the zone's offset (luxon through src/time/clock.ts).
  * - Nuisance parameters: every wall azimuth and the site latitude/longitude whose sigma is
@@ -58,9 +64,13 @@ export interface ShadowTerm {
 
 export interface ClockTerm {
   readonly observationId: string;
+  /** A clock, or a sundial (its hour lines always stated; it shows the sun's hour angle, never a clock convention). */
+  readonly observationKind: 'clock' | 'sundial';
+  /** Hours on the dial: 24, 12 or 6 (a sundial's count runs through the day: 24). */
+  readonly dialHours: 6 | 12 | 24;
   readonly readingMinutes: number;
   readonly precisionMinutes: number;
-  /** Period of the reading: 60 (hour hand not trusted), 720 (12-hour dial) or 1440. */
+  /** Period of the reading: 60 (hour hand not trusted), 360 (6-hour dial), 720 (12-hour dial) or 1440. */
   readonly modulusMinutes: number;
   /** null: kept was 'unknown' (the solver's assumption applies). */
   readonly kept: ClockKind | null;
@@ -203,10 +213,21 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
     if ('wallId' in o && !walls.has(o.wallId)) {
       throw new InvalidInputError(`observations[${i}].wallId`, o.wallId, `one of the walls: ${scene.walls.map((w) => w.id).join(', ') || '(none given)'}`);
     }
+    if (o.kind === 'sundial') {
+      // A sundial is read only in sunshine: the sun is up (and lights the dial).
+      clocks.push({ observationId: o.id, observationKind: 'sundial', dialHours: 24, readingMinutes: o.readingMinutes, precisionMinutes: o.precisionMinutes, modulusMinutes: 1440, kept: o.hours });
+      if (!implicitSunUp) {
+        implicitSunUp = true;
+        facts.push({ observationId: o.id, fact: 'sun-up', implicit: true });
+      }
+      return;
+    }
     if (o.kind === 'clock') {
-      const modulus = !o.hourHandTrusted ? 60 : o.dialHours === 12 ? 720 : 1440;
+      const modulus = !o.hourHandTrusted ? 60 : o.dialHours * 60;
       clocks.push({
         observationId: o.id,
+        observationKind: 'clock',
+        dialHours: o.dialHours,
         readingMinutes: o.readingMinutes,
         precisionMinutes: o.precisionMinutes,
         modulusMinutes: modulus,
@@ -495,7 +516,8 @@ export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirect
     return `the sun lies ${v.degrees.toFixed(1)} deg outside the bound it must keep (${where}; ${v.sigmas.toFixed(1)} sigma of the clicks)`;
   }
   if (f.fact === 'sun-up') {
-    const needs = model.clocks.some((c) => c.observationId === f.observationId) ? ', as a clock read in daylight needs' : ', as a shadow needs';
+    const term = model.clocks.find((c) => c.observationId === f.observationId);
+    const needs = term ? (term.observationKind === 'sundial' ? ', as a sundial read in sunshine needs' : ', as a clock read in daylight needs') : ', as a shadow needs';
     return `the sun is ${satisfied ? 'up' : 'below the horizon'} (altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? needs : ''}`;
   }
   const hsa = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);

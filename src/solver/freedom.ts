@@ -13,6 +13,7 @@ import type { RawCandidate } from './stageB.js';
 import { TROPICAL_YEAR_DAYS } from './seasons.js';
 import { equationOfTimeMinutes } from '../ephemeris/equationOfTime.js';
 import { describeClockKind } from '../time/clock.js';
+import { describeSundialHours } from '../time/hourSystems.js';
 
 /** Candidates within this Delta chi-square of the best fit alike (the 68.3% level of one parameter). */
 const ALIKE_DELTA_CHI2 = 1;
@@ -58,7 +59,7 @@ export function freedomOf(model: EvidenceModel): AnswerFreedom {
   if (shadowNumbers === 0) {
     return {
       kind: 'clock-only',
-      leftFree: 'a clock alone fixes the hour, not the day',
+      leftFree: model.clocks.some((c) => c.observationKind === 'sundial') ? 'a clock or sundial alone fixes the hour, not the day' : 'a clock alone fixes the hour, not the day',
       wouldFix: 'a measured shadow (the direction and length of a pole\'s shadow, the depth of a cornice\'s shadow, the slope of a rod\'s shadow on a wall) would fix the day',
     };
   }
@@ -117,6 +118,7 @@ function clockHourWords(model: EvidenceModel, midJdUT: number): string {
   }
   const meanWords = `${hhmm(c.readingMinutes + eMin)}-${hhmm(c.readingMinutes + eMax)} local apparent time through the year (the equation of time)`;
   const kept = c.kept;
+  if (c.observationKind === 'sundial') return `the sundial's ${reading} (${describeSundialHours((kept ?? { kind: 'apparent' }) as Parameters<typeof describeSundialHours>[0])})`;
   if (kept === null) return `the clock's ${reading}: that hour in local apparent time if the clock kept sundial time, ${meanWords} if it kept local mean time`;
   if (kept.kind === 'apparent') return `the clock's ${reading} local apparent time`;
   if (kept.kind === 'mean') return `the clock's ${reading} local mean time, which is ${meanWords}`;

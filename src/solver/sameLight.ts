@@ -39,7 +39,8 @@ export interface SameLightMoment {
 }
 
 /** Largest distance of a daily minimum still listed (a day further away is not the same light at all), degrees. */
-const LISTED_WITHIN_DEG = 1;
+/** Moments farther than this from the candidate's direction are not listed, degrees. */
+export const LISTED_WITHIN_DEG = 1;
 const GOLDEN_STEPS = 60;
 
 /** Angle between two directions given by azimuth and altitude, degrees (spherical law of cosines, Meeus 1998 eq. 17.1). */
@@ -140,13 +141,15 @@ export const SAME_LIGHT_DEG = 0.1;
 
 const MONTHS = ['January', 'February', 'March', 'April', 'May', 'June', 'July', 'August', 'September', 'October', 'November', 'December'];
 
-function hhmmss(minutes: number): string {
+/** Minutes after midnight as hh:mm:ss. */
+export function hhmmss(minutes: number): string {
   const s = Math.round(minutes * 60) % 86400;
   const two = (n: number): string => String(n).padStart(2, '0');
   return `${two(Math.floor(s / 3600))}:${two(Math.floor((s % 3600) / 60))}:${two(s % 60)}`;
 }
 
-function offsetWords(minutes: number): string {
+/** An offset from UT in minutes as "UT+1:00". */
+export function offsetWords(minutes: number): string {
   const sign = minutes < 0 ? '-' : '+';
   const a = Math.round(Math.abs(minutes));
   return `UT${sign}${Math.floor(a / 60)}:${String(a % 60).padStart(2, '0')}`;

@@ -38,22 +38,22 @@ export interface StageAGrids {
 const stageAGridKey = (kind: ClockKind | null): string => JSON.stringify(kind);
 
 /**
- * The clock assumptions to try: none without a clock; the stated kind when every clock says
- * what it kept; else local apparent and local mean time, each its own candidate set
- * (plus any meridian or zone stated by another clock of the scene); when every clock has a
- * 24-hour dial, also Italian hours (from sunset), Babylonian hours (from sunrise) and unequal hours
- * (src/time/hourSystems.ts). A 12-hour dial cannot show those 24-hour counts, so there they are
- * tried only when stated.
+ * The clock assumptions to try: none without a clock (sundials state their hour lines and need
+ * none); the stated kind when every clock says what it kept; else each keeping its dial allows,
+ * each its own candidate set: on a 24-hour dial local apparent and local mean time, Italian hours
+ * (from sunset), Babylonian hours (from sunrise) and unequal hours (src/time/hourSystems.ts); on a
+ * 12-hour dial local apparent and mean time and Italian hours (Italian clocks also showed their
+ * count on twelve-hour faces, 1-12 twice); on a 6-hour dial Italian hours only (the "sei ore" dials
+ * of Rome and the Papal States, late 18th-19th c.: common practice); with several clocks, the keepings
+ * every dial allows; plus any meridian or zone stated by another clock of the scene.
  */
 export function clockAssumptionsOf(model: EvidenceModel): ClockAssumption[] {
-  if (model.clocks.length === 0) return [{ kind: 'none' }];
-  const unknown = model.clocks.some((c) => c.kept === null);
-  if (!unknown) return [{ ...(model.clocks[0].kept as ClockKind), stated: true }];
-  const tried: ClockKind[] = [{ kind: 'apparent' }, { kind: 'mean' }];
-  if (model.clocks.every((c) => c.modulusMinutes === 1440)) {
-    tried.push({ kind: 'italian', origin: 'sunset', offsetMinutes: 0 }, { kind: 'babylonian' }, { kind: 'unequal' });
-  }
-  for (const c of model.clocks) {
+  const clocks = model.clocks.filter((c) => c.observationKind === 'clock');
+  if (clocks.length === 0) return [{ kind: 'none' }];
+  const unknown = clocks.some((c) => c.kept === null);
+  if (!unknown) return [{ ...(clocks[0].kept as ClockKind), stated: true }];
+  const tried = KEEPINGS_BY_DIAL[24].filter((k) => clocks.every((c) => KEEPINGS_BY_DIAL[c.dialHours].includes(k)));
+  for (const c of clocks) {
     const k = c.kept;
     if (k && (k.kind === 'meridian' || k.kind === 'zone') && !tried.some((t) => JSON.stringify(t) === JSON.stringify(k))) tried.push(k);
   }
@@ -68,6 +68,18 @@ export const SEARCH_STAGE_WORDS = {
   grid: "searching the sky for the sun's possible places",
   dating: 'dating each place in every year of the window',
 } as const;
+
+const APPARENT: ClockKind = { kind: 'apparent' };
+const MEAN: ClockKind = { kind: 'mean' };
+const ITALIAN: ClockKind = { kind: 'italian', origin: 'sunset', offsetMinutes: 0 };
+const BABYLONIAN: ClockKind = { kind: 'babylonian' };
+const UNEQUAL: ClockKind = { kind: 'unequal' };
+/** The keepings an unknown clock is tried in, by the hours on its dial (see clockAssumptionsOf). */
+const KEEPINGS_BY_DIAL: Readonly<Record<6 | 12 | 24, readonly ClockKind[]>> = {
+  24: [APPARENT, MEAN, ITALIAN, BABYLONIAN, UNEQUAL],
+  12: [APPARENT, MEAN, ITALIAN],
+  6: [ITALIAN],
+};
 
 /**
  * Every local best fit in the window, under every clock assumption.

@@ -40,8 +40,13 @@ export interface ResidualEntry {
   /** Unit of measured and predicted: 'deg', 'ratio', 'min', 'm'. */
   readonly unit: string;
   readonly sigma: number;
-  /** (measured - predicted) / sigma, wrapped where the quantity is periodic (angles, clock modulo 60 or 720 min). */
+  /** (measured - predicted) / sigma, wrapped where the quantity is periodic (angles, clock modulo 60, 360 or 720 min). */
   readonly normalised: number;
+  /**
+   * A clock on a 12- or 6-hour dial: the reading on the 24-hour count that fits, minutes [0, 1440), and
+   * how many turns of the dial were added to what it shows (the dial cannot tell them apart).
+   */
+  readonly fullCount?: { readonly minutes: number; readonly turnsOfDial: number; readonly dialHours: 6 | 12 };
 }
 
 /** A fact without a number (wall lit or shaded, sun up) at a candidate. */

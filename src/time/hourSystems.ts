@@ -125,13 +125,18 @@ export function hourSystemToApparentMinutes(system: HourSystem, readingMinutes: 
 export function describeHourSystem(system: HourSystem): string {
   switch (system.kind) {
     case 'italian': {
-      const origin = system.origin === 'civil-dusk' ? 'the end of civil twilight' : 'sunset';
+      const origin = system.origin === 'civil-dusk' ? "the end of the previous evening's civil twilight" : 'the previous sunset';
       const plus = system.offsetMinutes === 0 ? '' : ` ${system.offsetMinutes > 0 ? 'plus' : 'minus'} ${Math.abs(system.offsetMinutes)} min`;
-      return `Italian hours (24 hours from the previous ${origin}${plus})`;
+      return `Italian hours (24 hours from ${origin}${plus})`;
     }
     case 'babylonian':
       return 'Babylonian hours (24 hours from sunrise)';
     case 'unequal':
       return 'unequal (temporal) hours (twelve from sunrise to sunset, twelve from sunset to sunrise)';
   }
+}
+
+/** The hour lines of a sundial in words: equal hours of local apparent time, or one of the systems above. */
+export function describeSundialHours(hours: { readonly kind: 'apparent' } | HourSystem): string {
+  return hours.kind === 'apparent' ? 'equal hours of local apparent time (the sun\'s hour angle)' : describeHourSystem(hours);
 }
