@@ -379,9 +379,9 @@ function glossarySection(): string {
 <dl class="facts glossary">${items.map(([k, v]) => `<dt>${h(k)}</dt><dd>${h(v)}</dd>`).join('')}</dl></section>`;
 }
 
-function consistencyRow(e: LeaveOneOutEntry, pThreshold: number, conflictIds: readonly string[]): string {
+function consistencyRow(e: LeaveOneOutEntry, pThreshold: number, entries: readonly LeaveOneOutEntry[]): string {
   return row(
-    [h(e.observationId), h(e.observationKind), n(String(e.residualCount)), n(fixed(e.chiSquareAll, 2)), n(fixed(e.chiSquareWithout, 2)), n(fixed(e.improvement, 2)), n(h(pText(e.pValue))), h(consistencyMark(e, pThreshold, conflictIds)), h(e.note)],
+    [h(e.observationId), h(e.observationKind), n(String(e.residualCount)), n(fixed(e.chiSquareAll, 2)), n(fixed(e.chiSquareWithout, 2)), n(fixed(e.improvement, 2)), n(h(pText(e.pValue))), h(consistencyMark(e, pThreshold, entries)), h(e.note)],
     false,
     e.flagged ? ' class="flagged"' : '',
   );
@@ -390,9 +390,9 @@ function consistencyRow(e: LeaveOneOutEntry, pThreshold: number, conflictIds: re
 function consistencySection(answer: DateAnswer): string {
   const c = answer.consistency;
   const body = c.entries.length
-    ? table('consistency-table', 'Each observation left out in turn', ['observation', 'kind', 'numbers', 'chi2 all', 'chi2 without', 'improvement', 'p', 'test', 'note'], c.entries.map((e) => consistencyRow(e, c.pThreshold, answer.conflictingIds)))
+    ? table('consistency-table', 'Each observation left out in turn', ['observation', 'kind', 'numbers', 'chi2 all', 'chi2 without', 'improvement', 'p', 'test', 'note'], c.entries.map((e) => consistencyRow(e, c.pThreshold, c.entries)))
     : '<p>The test was not run.</p>';
-  const strains = consistencyMarkNotes(c.entries, c.pThreshold, answer.conflictingIds).map((t) => `<p>${h(t)}</p>`).join('');
+  const strains = consistencyMarkNotes(c.entries, c.pThreshold).map((t) => `<p>${h(t)}</p>`).join('');
   const flagged = c.flaggedIds.length
     ? `${strains}<p><strong>Flagged: ${h(c.flaggedIds.join(', '))}.</strong> These do not agree with the rest; check how they were measured, or whether they show other light.</p>`
     : c.entries.length

@@ -262,17 +262,23 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
       ? `; without it the best is ${civilDateRendering(e.bestWithout.civilDate, scene).text} ${hhmm(e.bestWithout.times.localApparentMinutes)} apparent`
       : '';
     out.push(
-      `  ${consistencyMark(e, answer.consistency.pThreshold, answer.conflictingIds).padEnd(7)} ${e.observationId} (${e.observationKind}): chi2 ${e.chiSquareAll.toFixed(2)} -> ${e.chiSquareWithout.toFixed(2)} without it, ` +
+      `  ${consistencyMark(e, answer.consistency.pThreshold, answer.consistency.entries).padEnd(7)} ${e.observationId} (${e.observationKind}): chi2 ${e.chiSquareAll.toFixed(2)} -> ${e.chiSquareWithout.toFixed(2)} without it, ` +
         `improvement ${e.improvement.toFixed(2)} (p ${pText(e.pValue)})${without}`,
     );
   }
-  for (const words of consistencyMarkNotes(answer.consistency.entries, answer.consistency.pThreshold, answer.conflictingIds)) out.push(`  ${words}`);
+  for (const words of consistencyMarkNotes(answer.consistency.entries, answer.consistency.pThreshold)) out.push(`  ${words}`);
   if (answer.consistency.flaggedIds.length > 0) {
     out.push(`  flagged: ${answer.consistency.flaggedIds.join(', ')} - these do not agree with the rest; check how they were measured, or whether they show other light.`);
   } else if (answer.consistency.entries.length > 0) {
     out.push('  no observation is flagged.');
   }
-  if (answer.conflictingIds.length > 0) out.push(`  in conflict: ${answer.conflictingIds.join(', ')}`);
+  if (answer.conflictingIds.length > 0) {
+    out.push(
+      answer.consistency.flaggedIds.length > 0
+        ? `  in conflict: ${answer.conflictingIds.join(', ')}`
+        : `  no single observation explains why nothing fits; the largest falls of chi-square come from leaving out ${answer.conflictingIds.join(' or ')}`,
+    );
+  }
   if (answer.groupTests && answer.groupTests.length > 0) {
     out.push('', 'Parts of the picture (each group against the rest: one sun for all, or a sun of its own):');
     for (const g of answer.groupTests) {

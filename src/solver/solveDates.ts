@@ -305,10 +305,11 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         });
       }
       conflictingIds = entries.filter((e) => e.flagged).map((e) => e.observationId);
+      const noSingleCulprit = conflictingIds.length === 0;
       if (conflictingIds.length === 0) {
         conflictingIds = [...entries].sort((a, b) => b.improvement - a.improvement).slice(0, 2).map((e) => e.observationId);
       }
-      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named${estimated ? `${ESTIMATED_RULE_TEXT}; the search is rerun in full only for the observations named` : ''}`, entries, flaggedIds: conflictingIds };
+      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named${estimated ? `${ESTIMATED_RULE_TEXT}; the search is rerun in full only for the observations named` : ''}`, entries, flaggedIds: noSingleCulprit ? [] : conflictingIds };
       groupTests = groupConsistency(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
       const violated = bestC.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
       const without = entries
@@ -319,8 +320,11 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         `Nothing fits: no date and hour in ${windowText} agree with all the observations` +
         ` (best chi-square ${best.chiSquare.toFixed(1)}${p !== null ? `, p = ${p.toPrecision(2)}` : ''}${violated.length ? `; facts that cannot hold there: ${violated.join('; ')}` : ''}).` +
         (turnedAzimuths ? ` ${turnedAzimuths.words}` : '') +
-        ` The observations in conflict: ${conflictingIds.join(', ')}.` +
-        (without.length ? ` ${capitalised(without.join('; '))}.` : '');
+        (noSingleCulprit
+          ? ` No single observation explains it: without any one of them nothing fits still; the largest falls come from leaving out ${conflictingIds.join(' or ')}.`
+          : ` The observations in conflict: ${conflictingIds.join(', ')}.`) +
+        (without.length ? ` ${capitalised(without.join('; '))}.` : '') +
+        groupVerdictWords(groupTests);
     } else if (status === 'undetermined') {
       onProgress?.(1, progressSteps, SOLVE_STAGE_WORDS.answer);
       freedom = freedomOf(model);
@@ -430,4 +434,15 @@ function turnedAzimuthHint(scene: Scene, win: DayWindow, cutoff: number): Turned
   const c = dressed(s, b);
   const p = c.pValue === null ? 'no degrees of freedom left' : `p = ${c.pValue.toPrecision(2)}`;
   return { best: c, words: turnedAzimuthWords(`${familiesOf(s, false)[0].headline} (chi-square ${c.chiSquare.toFixed(2)}, ${p})`) };
+}
+
+/**
+ * When parts of the picture (its groups) do not share one light, the verdict says so, since it
+ * may explain why nothing fits better than any single observation does (groupConsistency.ts).
+ */
+function groupVerdictWords(tests: readonly GroupTest[]): string {
+  const differing = tests.filter((t) => t.differs).sort((a, b) => b.deltaChiSquare - a.deltaChiSquare);
+  if (differing.length === 0) return '';
+  const which = differing.length > 1 ? '; the test says that they were not lit by one sun, not which of them is out of place' : '';
+  return ` The parts of the picture do not share one light (see "Parts of the picture"): ${differing[0].sentence.split(' (')[0]}${which}.`;
 }
