@@ -153,6 +153,16 @@ export function observationWords(o: Observation): string {
       const kept = o.kept.kind === 'unknown' ? 'what it kept is unknown (each kind is tried)' : `kept ${describeClockKind(o.kept)}`;
       return `reads ${hhmm(o.readingMinutes)} on a ${o.dialHours}-hour dial, precision ${o.precisionMinutes} min${o.hourHandTrusted ? '' : ', hour hand not trusted'}; ${kept}`;
     }
+    case 'moon-direction':
+      return `moon azimuth ${deg(o.azimuthDeg)} +/- ${deg(o.azimuthSigmaDeg)}, altitude ${deg(o.altitudeDeg)} +/- ${deg(o.altitudeSigmaDeg)}`;
+    case 'moon-phase':
+      return o.phase !== undefined ? `the moon drawn as ${o.phase}, sigma ${deg(o.sigmaDeg)} of phase` : `the moon's lit fraction ${o.illuminatedFraction} +/- ${o.sigma}`;
+    case 'moon-lit-side':
+      return `the moon's lit edge faces ${deg(o.litSideDeg)} from straight up (positive towards the left) +/- ${deg(o.sigmaDeg)}, as drawn`;
+    case 'moon-up':
+      return 'the moon is in the sky';
+    case 'moon-not-up':
+      return 'the moon is not in the sky';
   }
 }
 
