@@ -47,7 +47,7 @@ export interface ResidualEntry {
 /** A fact without a number (wall lit or shaded, sun up) at a candidate. */
 export interface FactEntry {
   readonly observationId: string;
-  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'rod-side' | 'fin-side' | 'pair-side' | 'wedge';
+  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'rod-side' | 'fin-side' | 'pair-side' | 'wedge' | 'moon-up' | 'moon-not-up';
   readonly satisfied: boolean;
   /** Soft penalty added to the objective, 0 when satisfied; not counted in the degrees of freedom. */
   readonly penalty: number;
@@ -209,6 +209,23 @@ export interface Candidate {
   readonly fit: { readonly converged: boolean; readonly iterations: number };
   /** True when this year was mapped from a representative year and verified by one full evaluation. */
   readonly mapped: boolean;
+  /** The moon at the candidate's instant; present when the scene holds evidence of the moon. */
+  readonly moon?: CandidateMoon;
+}
+
+/** The moon at a candidate's instant (src/ephemeris/moonPosition.ts), degrees. */
+export interface CandidateMoon {
+  readonly azimuthDeg: number;
+  /** Apparent (refracted) altitude of the centre. */
+  readonly altitudeDeg: number;
+  readonly illuminatedFraction: number;
+  /** Moon's ecliptic longitude minus the sun's, [0, 360): 0 new, 90 first quarter, 180 full, 270 last quarter. */
+  readonly phaseLongitudeDeg: number;
+  readonly elongationDeg: number;
+  /** Where the lit edge faces as seen, from straight up, positive towards the left, (-180, 180]. */
+  readonly litSideTiltDeg: number;
+  /** "waxing crescent, 12% lit". */
+  readonly words: string;
 }
 
 /** One clock keeping tried within a family, with how well its best year fits. */
