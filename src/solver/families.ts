@@ -57,6 +57,8 @@ export interface FamilyContext {
   readonly restrictions: string | null;
   /** How a keeping's best fits: as the answer judges it. */
   readonly judge: (chiSquare: number, penalty: number) => FamilyKeeping['fit'];
+  /** True when the scene holds evidence of the moon, which is fitted in every year (src/solver/moonYears.ts). */
+  readonly moonEvidence?: boolean;
 }
 
 function ordinal(month: number, day: number): number {
@@ -106,13 +108,16 @@ export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext
   const alikeYears = [...byYear].filter(([, o]) => o <= best + YEARS_ALIKE_DELTA_CHI2).map(([y]) => y).sort((a, b) => a - b);
   const spreadChiSquare = Math.max(...[...byYear.values()].map((o) => o - best));
   if (alikeYears.length > 1) {
-    return { singledOut: false, alikeYears, spreadChiSquare, words: `${yearsText(alikeYears)} (the light alone cannot tell these years apart)` };
+    const cannot = ctx.moonEvidence ? 'the light and the moon together cannot tell these years apart' : 'the light alone cannot tell these years apart';
+    return { singledOut: false, alikeYears, spreadChiSquare, words: `${yearsText(alikeYears)} (${cannot})` };
   }
   const year = alikeYears[0];
   let by: string;
   if (byYear.size > 1) {
     const next = Math.min(...[...byYear].filter(([y]) => y !== year).map(([, o]) => o - best));
-    by = `the light itself: every other year of the family fits worse, by ${next.toFixed(1)} or more in chi-square`;
+    by = ctx.moonEvidence
+      ? `the moon: every other year of the family fits worse, by ${next.toFixed(1)} or more in chi-square`
+      : `the light itself: every other year of the family fits worse, by ${next.toFixed(1)} or more in chi-square`;
   } else if (ctx.fromYear === ctx.toYear) {
     by = 'the window, which holds this year only';
   } else if (ctx.restrictions) {
