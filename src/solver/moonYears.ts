@@ -6,10 +6,12 @@
  * the moon does not repeat (its phase on a calendar day returns after 19 years, 235 lunations, and
  * roughly after 8 years, 99 lunations), so it is evaluated per year and never mapped. For each
  * stage-B candidate (one per family track and year):
- * 1. screen: every allowed whole day within 3 sigma of the year's sun-only optimum (at least 1, at
+ * 1. screen: every allowed whole day within 5 sigma of the year's sun-only optimum (at least 2, at
  *    most MAX_MOON_DAYS days either side), at the minute the sun's fit predicts for that day (its
- *    conditional mean), one evaluation with the full sun and moon each;
- * 2. refine: the two best screened days of each year whose best screened objective lies within
+ *    conditional mean): days whose quick phase (Meeus eq. 48.4) misses a drawn phase by more than
+ *    5 sigma are passed over, the others evaluated once with the full sun and moon;
+ * 2. refine: the best screened day (and the second best, when it screened within SECOND_DAY_CUTOFF
+ *    of it) of each year whose best screened objective lies within
  *    MOON_REFINE_CUTOFF of the best of all years, by Levenberg-Marquardt in (minute, nuisances) on
  *    that day with the whole evidence (src/solver/fitting.ts refineOnDay); the other years keep
  *    their best screened day (they fit far worse: their objective is an upper bound of their best).
@@ -21,13 +23,43 @@ import { splitChiSquare, type EvidenceModel } from './evidenceModel.js';
 import { datedPoint, ensureTrack, newDatedContext, refineOnDay, type DatedContext } from './fitting.js';
 import { exactPoint, type RawCandidate } from './stageB.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
+import { moonPhaseLongitudeApproxDeg, MOON_PHASE_APPROX_ALLOWANCE_DEG } from '../ephemeris/moonPhaseApprox.js';
+import { normalizeDeg180, sinDeg, cosDeg } from '../math/angles.js';
+import type { MoonTerm } from './moonEvidence.js';
 
-/** Most days either side of a year's sun-only optimum screened for the moon. */
-export const MAX_MOON_DAYS = 20;
+/** Most days either side of a year's sun-only optimum screened for the moon (beyond, the other branch of the solstice takes over). */
+export const MAX_MOON_DAYS = 45;
+/** Days screened either side: this many sigmas of the sun's day (at least 2 days). */
+const DAY_REACH_SIGMAS = 5;
 /** Years whose best screened objective is within this of the best year's are refined. */
-export const MOON_REFINE_CUTOFF = 400;
+export const MOON_REFINE_CUTOFF = 100;
 /** Screened days refined per year. */
 const REFINED_DAYS = 2;
+const SECOND_DAY_CUTOFF = 50;
+/**
+ * A day whose quick phase (Meeus eq. 48.4, src/ephemeris/moonPhaseApprox.ts) misses the drawn phase by
+ * more than this in chi-square, with its sigma widened by the quick phase's allowance, is not screened
+ * with the full ephemeris (5 sigma: a true day is passed over with probability below 1e-6).
+ */
+const PHASE_SCREEN_CHI2 = 25;
+
+/** Chi-square of the drawn phases against the quick phase longitude l (sigmas widened by its allowance). */
+function quickPhaseChiSquare(terms: readonly MoonTerm[], l: number): number {
+  let chi = 0;
+  for (const t of terms) {
+    const e = t.evidence;
+    if (e.kind === 'moon-fraction') {
+      // k = (1 - cos L) / 2 (Meeus eq. 48.1 with i = 180 - L); dk/dL = sin(L) / 2 per radian.
+      const k = (1 - cosDeg(l)) / 2;
+      const sigma = e.sigma + (MOON_PHASE_APPROX_ALLOWANCE_DEG * Math.PI) / 360;
+      chi += ((k - e.illuminatedFraction) / sigma) ** 2;
+    } else if (e.kind === 'moon-named-phase') {
+      const predicted = e.folded ? Math.min(l, 360 - l) : l;
+      chi += (normalizeDeg180(predicted - e.phaseLongitudeDeg) / (e.sigmaDeg + MOON_PHASE_APPROX_ALLOWANCE_DEG)) ** 2;
+    }
+  }
+  return chi;
+}
 
 interface Screened {
   readonly day: number;
@@ -39,6 +71,8 @@ export interface MoonStageResult {
   readonly candidates: RawCandidate[];
   readonly moonEvaluations: number;
   readonly refinedYears: number;
+  /** Days evaluated with the full moon ephemeris in the screening. */
+  readonly screenedDays: number;
 }
 
 function objectiveOf(model: EvidenceModel, r: readonly number[]): { chiSquare: number; penalty: number; objective: number } {
@@ -56,13 +90,24 @@ function minuteOnDay(c: RawCandidate, day: number): number {
 
 function screenYear(model: EvidenceModel, ctx: DatedContext, c: RawCandidate, win: DayWindow): Screened[] {
   const cov = c.rep.covariance;
-  const sd = cov && cov[0][0] > 0 && Number.isFinite(cov[0][0]) ? Math.sqrt(cov[0][0]) : 1;
-  const reach = Math.min(MAX_MOON_DAYS, Math.max(1, Math.ceil(3 * sd)));
+  // Near a solstice the sun hardly fixes the day (the covariance is huge or singular): then the widest reach.
+  const sd = cov && cov[0][0] > 0 && Number.isFinite(cov[0][0]) ? Math.sqrt(cov[0][0]) : Infinity;
+  const reach = Math.min(MAX_MOON_DAYS, Math.max(2, Math.ceil(DAY_REACH_SIGMAS * sd)));
   const centre = nearestDayJd0(c.continuousDay);
-  const out: Screened[] = [];
+  const phased = model.moons.some((t) => t.evidence.kind === 'moon-fraction' || t.evidence.kind === 'moon-named-phase');
+  const days: { day: number; minutes: number; quick: number }[] = [];
   for (let day = centre - reach; day <= centre + reach; day += 1) {
     if (!isDayAllowed(win, day)) continue;
     const minutes = minuteOnDay(c, day);
+    // The instant, near enough for the quick phase: local apparent time less the longitude (the equation of time left out).
+    const quick = phased ? quickPhaseChiSquare(model.moons, moonPhaseLongitudeApproxDeg(day + minutes / 1440 - model.scene.site.longitudeDeg / 360)) : 0;
+    days.push({ day, minutes, quick });
+  }
+  // Every day that passes the quick phase, or else the year's best by it, is screened in full.
+  let passing = days.filter((d) => d.quick <= PHASE_SCREEN_CHI2);
+  if (passing.length === 0 && days.length > 0) passing = [days.reduce((a, b) => (b.quick < a.quick ? b : a))];
+  const out: Screened[] = [];
+  for (const { day, minutes } of passing) {
     ensureTrack(ctx, day + minutes / 1440);
     const p = datedPoint(ctx, day, minutes, c.nuisances);
     out.push({ day, minutes, objective: objectiveOf(model, p.residuals).objective });
@@ -87,7 +132,7 @@ export function moonStage(model: EvidenceModel, assumed: ClockKind | null, sunOn
     let pickObjective = days[0].objective;
     if (days[0].objective <= best + MOON_REFINE_CUTOFF) {
       refinedYears += 1;
-      for (const d of days.slice(0, REFINED_DAYS)) {
+      for (const d of days.slice(0, REFINED_DAYS).filter((x) => x.objective <= days[0].objective + SECOND_DAY_CUTOFF)) {
         const fit = refineOnDay(ctx, d.day, [d.minutes, ...c.nuisances]);
         const o = objectiveOf(model, fit.point.residuals).objective;
         if (o < pickObjective) {
@@ -114,5 +159,5 @@ export function moonStage(model: EvidenceModel, assumed: ClockKind | null, sunOn
     });
   }
   for (const s of screened) moonEvaluations += s.ctx.moonCalls;
-  return { candidates: out, moonEvaluations, refinedYears };
+  return { candidates: out, moonEvaluations, refinedYears, screenedDays: screened.reduce((n, x) => n + x.days.length, 0) };
 }

@@ -31,6 +31,9 @@ export interface SearchResult {
   readonly stageAGrids: StageAGrids;
   /** Calls of the moon's ephemeris (moonPosition) made by the moon's stage (src/solver/moonYears.ts); 0 without moon evidence. */
   readonly moonEvaluations: number;
+  /** Days screened with the full moon ephemeris and years refined with the moon (src/solver/moonYears.ts). */
+  readonly moonScreenedDays: number;
+  readonly moonRefinedYears: number;
 }
 
 /** The stage-A grids of one model, by clock assumption (stageAGridKey). */
@@ -103,6 +106,8 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: S
   const grids = new Map<string, StageAGrid>();
   const sources = reuse === undefined ? null : rowSourcesIn(model, reuse.model);
   let moonEvaluations = 0;
+  let moonScreenedDays = 0;
+  let moonRefinedYears = 0;
   assumptions.forEach((a, i) => {
     const kind = assumedKind(a);
     let zoneOffset: (zone: string) => number;
@@ -127,9 +132,11 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: S
     if (withMoon) {
       const ms = moonStage(model, kind, sb.candidates, win);
       moonEvaluations += ms.moonEvaluations;
+      moonScreenedDays += ms.screenedDays;
+      moonRefinedYears += ms.refinedYears;
       all.push(...dedupeByDayAndHour(ms.candidates));
     } else all.push(...sb.candidates);
   });
   all.sort((x, y) => x.objective - y.objective);
-  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations, sunEvaluations, moonEvaluations, stageAGrids: { model, byAssumption: grids } };
+  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations, sunEvaluations, moonEvaluations, moonScreenedDays, moonRefinedYears, stageAGrids: { model, byAssumption: grids } };
 }

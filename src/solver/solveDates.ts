@@ -414,7 +414,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       fullRefinements: s.search.fullRefinements,
       mappedYears: s.search.mappedYears,
       chiSquareEvaluations: s.search.evaluations,
-      ...(s.search.moonEvaluations > 0 ? { moonEvaluations: s.search.moonEvaluations } : {}),
+      ...(s.search.moonEvaluations > 0 ? { moonEvaluations: s.search.moonEvaluations, moonScreenedDays: s.search.moonScreenedDays, moonRefinedYears: s.search.moonRefinedYears } : {}),
       clockAssumptionsTried: s.search.assumptions.length,
     },
     seed: scene.seed,

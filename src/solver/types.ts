@@ -387,6 +387,9 @@ export interface SolverDiagnostics {
   readonly clockAssumptionsTried: number;
   /** Calls of the moon's ephemeris (present with moon evidence). */
   readonly moonEvaluations?: number;
+  /** Days screened with the full moon ephemeris, and years refined with the moon (src/solver/moonYears.ts). */
+  readonly moonScreenedDays?: number;
+  readonly moonRefinedYears?: number;
 }
 
 /** A year a near-repeat of the moon away from the best year, with its fit. */
