@@ -17,6 +17,8 @@ import { levenbergMarquardt, type LeastSquaresResult } from '../math/leastSquare
 import { normalizeDeg180 } from '../math/angles.js';
 import type { SunSite } from '../ephemeris/sunPosition.js';
 import { moonPosition, type MoonPosition } from '../ephemeris/moonPosition.js';
+import { deltaTSeconds } from '../time/deltaT.js';
+import { jdToDecimalYear } from '../time/timeScales.js';
 import { zoneOffsetMinutes } from '../time/clock.js';
 import {
   evidenceResidualVector,
@@ -145,7 +147,9 @@ export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null,
 /** The moon at jdUT for the model's site (the fitted latitude and longitude), air and Delta T. */
 export function moonAt(model: EvidenceModel, jdUT: number, nuisances: readonly number[]): MoonPosition {
   const s = model.scene.site;
-  return moonPosition(jdUT, { latitudeDeg: latitudeOf(model, nuisances), longitudeDeg: longitudeOf(model, nuisances), elevationM: s.elevationM }, model.scene.air, { deltaTModel: model.scene.deltaT });
+  // Delta T of the scene's model passed as seconds: the same value, without its published sigma computed at every call.
+  const deltaTSecondsNow = deltaTSeconds(jdToDecimalYear(jdUT), model.scene.deltaT);
+  return moonPosition(jdUT, { latitudeDeg: latitudeOf(model, nuisances), longitudeDeg: longitudeOf(model, nuisances), elevationM: s.elevationM }, model.scene.air, { deltaTSeconds: deltaTSecondsNow });
 }
 
 /** Move the track so that it covers jdUT (a new track when jdUT is outside its reach). */

@@ -9,7 +9,7 @@
  * 1. screen: every allowed whole day within 5 sigma of the year's sun-only optimum (at least 2, at
  *    most MAX_MOON_DAYS days either side), at the minute the sun's fit predicts for that day (its
  *    conditional mean): days whose quick phase (Meeus eq. 48.4) misses a drawn phase by more than
- *    5 sigma are passed over, the others evaluated once with the full sun and moon;
+ *    4 sigma are passed over, the others evaluated once with the full sun and moon;
  * 2. refine: the best screened day (and the second best, when it screened within SECOND_DAY_CUTOFF
  *    of it) of each year whose best screened objective lies within
  *    MOON_REFINE_CUTOFF of the best of all years, by Levenberg-Marquardt in (minute, nuisances) on
@@ -39,9 +39,9 @@ const SECOND_DAY_CUTOFF = 50;
 /**
  * A day whose quick phase (Meeus eq. 48.4, src/ephemeris/moonPhaseApprox.ts) misses the drawn phase by
  * more than this in chi-square, with its sigma widened by the quick phase's allowance, is not screened
- * with the full ephemeris (5 sigma: a true day is passed over with probability below 1e-6).
+ * with the full ephemeris (4 sigma: a true day is passed over with probability below 1e-4).
  */
-const PHASE_SCREEN_CHI2 = 25;
+const PHASE_SCREEN_CHI2 = 16;
 
 /** Chi-square of the drawn phases against the quick phase longitude l (sigmas widened by its allowance). */
 function quickPhaseChiSquare(terms: readonly MoonTerm[], l: number): number {
