@@ -10,6 +10,7 @@
  * input: no clock (the page carries no time of making), no console.
  */
 import { consistencyMark, consistencyMarkNotes } from './consistencyWords.js';
+import { moonReportLines } from './moonLines.js';
 import { deltaTModelName } from '../time/deltaT.js';
 import type { Observation, Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '../solver/types.js';
@@ -341,7 +342,9 @@ function answerSection(scene: Scene, answer: DateAnswer): string {
   const replacedList = replaced.length
     ? `<p>Where the error ellipse does not hold, a profile scan of the day gives the 95% interval:</p><ul>${replaced.map((c) => `<li>rank ${c.rank}: ${h(uncertaintyWords(c))}</li>`).join('')}</ul>`
     : '';
-  return `<section id="answer"><h2>The answer</h2>${families}${candidates}${replacedList}</section>`;
+  const moonLines = moonReportLines(answer);
+  const moon = moonLines.length ? `<h3 id="moon">The moon (fitted at each candidate's own instant, in every year of the window)</h3><ul>${moonLines.map((l) => `<li>${h(l)}</li>`).join('')}</ul>` : '';
+  return `<section id="answer"><h2>The answer</h2>${families}${moon}${candidates}${replacedList}</section>`;
 }
 
 function chartsSection(charts: ReportCharts): string {
