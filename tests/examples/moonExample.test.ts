@@ -1,6 +1,6 @@
 /**
  * examples/fischertor-crescent.yaml: an evening view in the fictional town of Velmar with a young
- * crescent over the roofs, dated to its year by the moon (examples/README.md, example (f)). Its truth
+ * crescent over the roofs, dated to its year by the moon (examples/README.md, example (d)). Its truth
  * is invented demo data; the file's numbers are checked against heliochron's own forward models at the
  * true instant (src/ephemeris/sunPosition.ts, moonPosition.ts, src/geometry/), which are checked
  * against published values in tests/ephemeris and tests/geometry.
