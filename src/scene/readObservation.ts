@@ -95,6 +95,16 @@ function checkLight(f: Fields): void {
   }
 }
 
+/** Azimuth and apparent altitude of a body in the sky, each with its sigma. */
+function readSkyDirection(f: Fields, body: string, altitudeWords: string): { azimuthDeg: number; azimuthSigmaDeg: number; altitudeDeg: number; altitudeSigmaDeg: number } {
+  return {
+    azimuthDeg: num(f, 'azimuthDeg', { ...AZIMUTH, words: `${body} azimuth in degrees clockwise from true north` }),
+    azimuthSigmaDeg: num(f, 'azimuthSigmaDeg', ANGLE_SIGMA),
+    altitudeDeg: num(f, 'altitudeDeg', { words: altitudeWords, min: -1, max: 90 }),
+    altitudeSigmaDeg: num(f, 'altitudeSigmaDeg', ANGLE_SIGMA),
+  };
+}
+
 function readMoonPhase(f: Fields, base: { id: string; note?: string; group?: string }): MoonPhaseObservation {
   const byFraction = has(f, 'illuminatedFraction');
   const byName = has(f, 'phase');
@@ -425,14 +435,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind, caster, shadow, sigmaM };
     }
     case 'sun-direction':
-      return {
-        ...base,
-        kind,
-        azimuthDeg: num(f, 'azimuthDeg', { ...AZIMUTH, words: "the sun's azimuth in degrees clockwise from true north" }),
-        azimuthSigmaDeg: num(f, 'azimuthSigmaDeg', ANGLE_SIGMA),
-        altitudeDeg: num(f, 'altitudeDeg', { words: "the sun's apparent altitude in degrees", min: -1, max: 90 }),
-        altitudeSigmaDeg: num(f, 'altitudeSigmaDeg', ANGLE_SIGMA),
-      };
+      return { ...base, kind, ...readSkyDirection(f, "the sun's", "the sun's apparent altitude in degrees") };
     case 'wall-lit':
     case 'wall-shaded':
       return { ...base, kind, wallId: wallRef(f, ctx).id };
@@ -464,14 +467,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
           'A point in the sky lies on no wall or ground plane; turning it into a direction needs the camera\'s pixel-to-sky mapping, which this version does not offer for the moon (docs/moon-evidence.md).',
         );
       }
-      return {
-        ...base,
-        kind,
-        azimuthDeg: num(f, 'azimuthDeg', { ...AZIMUTH, words: "the moon's azimuth in degrees clockwise from true north" }),
-        azimuthSigmaDeg: num(f, 'azimuthSigmaDeg', ANGLE_SIGMA),
-        altitudeDeg: num(f, 'altitudeDeg', { words: "the moon's apparent altitude (of its centre) in degrees", min: -1, max: 90 }),
-        altitudeSigmaDeg: num(f, 'altitudeSigmaDeg', ANGLE_SIGMA),
-      };
+      return { ...base, kind, ...readSkyDirection(f, "the moon's", "the moon's apparent altitude (of its centre) in degrees") };
     case 'moon-phase':
       return readMoonPhase(f, base);
     case 'moon-lit-side':

@@ -11,6 +11,7 @@
  */
 import { describe, expect, it } from 'vitest';
 import type { Observation, Scene, Wall } from '../../src/scene/types.js';
+import { baseScene } from './syntheticScene.js';
 import { solveDates } from '../../src/solver/solveDates.js';
 import { sunPosition } from '../../src/ephemeris/sunPosition.js';
 import { moonPosition } from '../../src/ephemeris/moonPosition.js';
@@ -74,18 +75,7 @@ function drawCase(rng: RandomSource): Truth | null {
   if (rng.uniform() < 0.5) {
     observations.push({ id: 'lit', kind: 'moon-lit-side', litSideDeg: normalizeDeg180(moon.brightLimbTiltFromVerticalDeg + noise(5)), sigmaDeg: 5 });
   }
-  const scene: Scene = {
-    formatVersion: 1,
-    title: 'synthetic moon',
-    site,
-    calendar: { kind: 'gregorian' },
-    yearStart: 'jan1',
-    window: { fromYear, toYear: fromYear + 39 },
-    mapNorthCorrectionDeg: 0,
-    walls,
-    observations,
-    seed: 1,
-  };
+  const scene = baseScene(observations, walls, fromYear, fromYear + 39, { site, title: 'synthetic moon' });
   // The civil year of the local day (local mean time: UT + longitude / 15 h).
   const localYear = jdToCalendarDate(jdUT + longitudeDeg / 360, 'gregorian').date.year;
   return { scene, year: localYear };
