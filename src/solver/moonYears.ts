@@ -6,7 +6,7 @@
  * the moon does not repeat (its phase on a calendar day returns after 19 years, 235 lunations, and
  * roughly after 8 years, 99 lunations), so it is evaluated per year and never mapped. For each
  * stage-B candidate (one per family track and year):
- * 1. screen: every allowed whole day within 5 sigma of the year's sun-only optimum (at least 2, at
+ * 1. screen: every allowed whole day within 4 sigma of the year's sun-only optimum (at least 2, at
  *    most MAX_MOON_DAYS days either side), at the minute the sun's fit predicts for that day (its
  *    conditional mean): days whose quick phase (Meeus eq. 48.4) misses a drawn phase by more than
  *    4 sigma are passed over, the others evaluated once with the full sun and moon;
@@ -30,12 +30,12 @@ import type { MoonTerm } from './moonEvidence.js';
 /** Most days either side of a year's sun-only optimum screened for the moon (beyond, the other branch of the solstice takes over). */
 export const MAX_MOON_DAYS = 45;
 /** Days screened either side: this many sigmas of the sun's day (at least 2 days). */
-const DAY_REACH_SIGMAS = 5;
+const DAY_REACH_SIGMAS = 4;
 /** Years whose best screened objective is within this of the best year's are refined. */
-export const MOON_REFINE_CUTOFF = 100;
+export const MOON_REFINE_CUTOFF = 30;
 /** Screened days refined per year. */
 const REFINED_DAYS = 2;
-const SECOND_DAY_CUTOFF = 50;
+const SECOND_DAY_CUTOFF = 10;
 /**
  * A day whose quick phase (Meeus eq. 48.4, src/ephemeris/moonPhaseApprox.ts) misses the drawn phase by
  * more than this in chi-square, with its sigma widened by the quick phase's allowance, is not screened
