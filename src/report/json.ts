@@ -392,6 +392,7 @@ export function dateAnswerJson(answer: DateAnswer, scene: Scene, version: string
               deltaChiSquare: n.deltaChiSquare === null ? null : roundTo(n.deltaChiSquare, DIGITS.chiSquare),
               pValue: roundProbability(n.pValue, DIGITS.probabilitySignificant),
               fitsAlike: n.fitsAlike,
+              refined: n.refined,
             })),
             impossible: [...answer.moon.impossible],
           },

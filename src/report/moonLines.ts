@@ -19,7 +19,7 @@ export function moonReportLines(answer: DateAnswer): string[] {
   for (const n of moon.nearRepeats) {
     const fit = n.deltaChiSquare === null
       ? 'no candidate of this light that year'
-      : `Delta chi-square ${n.deltaChiSquare.toFixed(1)}${n.pValue === null ? '' : `, p = ${n.pValue.toPrecision(2)}`}: ${n.fitsAlike ? 'fits as well' : 'fits worse'}`;
+      : `Delta chi-square ${n.refined ? '' : 'at most '}${n.deltaChiSquare.toFixed(1)}${n.pValue === null ? '' : `, p = ${n.pValue.toPrecision(2)}`}: ${n.fitsAlike ? 'fits as well' : n.refined ? 'fits worse' : 'fits far worse (screened, not refined)'}`;
     out.push(`Near-repeat ${formatYearBcAd(n.year)} (${n.offsetYears > 0 ? '+' : ''}${n.offsetYears} years, the ${n.cycle} return of the phase): ${fit}.`);
   }
   if (moon.nearRepeats.length === 0) out.push('No near-repeat of the moon (8, 11, 19, 27 or 38 years) falls inside the window.');

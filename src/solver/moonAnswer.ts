@@ -87,10 +87,15 @@ function impossibleMoon(s: Solved, best: Candidate): string[] {
 export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
   const raw = s.kept[0];
   const byYear = new Map<number, number>();
+  const refinedYears = new Set<number>();
   for (const c of s.search.candidates) {
     if (c.trackKey !== raw.trackKey) continue;
     const year = jdToCivilDate(s.win.calendar, c.dayJd0 + 0.5).civil.year;
-    byYear.set(year, Math.min(byYear.get(year) ?? Infinity, c.objective));
+    if (c.objective < (byYear.get(year) ?? Infinity)) {
+      byYear.set(year, c.objective);
+      if (c.moonRefined === false) refinedYears.delete(year);
+      else refinedYears.add(year);
+    }
   }
   const bestYear = best.civilDate.year;
   const bestObjective = raw.objective;
@@ -109,13 +114,14 @@ export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
         deltaChiSquare: delta,
         pValue: delta === null ? null : chiSquarePValue(delta, 1),
         fitsAlike: delta !== null && delta <= DELTA_CHI2_1DOF_95,
+        refined: refinedYears.has(year),
       });
     }
   }
   nearRepeats.sort((a, b) => Math.abs(a.offsetYears) - Math.abs(b.offsetYears) || a.offsetYears - b.offsetYears);
   const repeatWords = nearRepeats.length
     ? ` Its near-repeats in the window: ${nearRepeats
-        .map((n) => `${formatYearBcAd(n.year)} (${n.cycle.replace(/ \(.*\)/, '')}: ${n.deltaChiSquare === null ? 'no candidate of this light' : `Delta chi-square ${n.deltaChiSquare.toFixed(1)}${fmtP(n.pValue)}${n.fitsAlike ? ', fits as well' : ''}`})`)
+        .map((n) => `${formatYearBcAd(n.year)} (${n.cycle.replace(/ \(.*\)/, '')}: ${n.deltaChiSquare === null ? 'no candidate of this light' : `Delta chi-square ${n.refined ? '' : 'at most '}${n.deltaChiSquare.toFixed(1)}${fmtP(n.pValue)}${n.fitsAlike ? ', fits as well' : ''}`})`)
         .join('; ')}.`
     : ' No near-repeat of the moon (8, 11, 19, 27 or 38 years) falls inside the window.';
   const words = years.length <= 1

@@ -130,7 +130,8 @@ export function moonStage(model: EvidenceModel, assumed: ClockKind | null, sunOn
     if (days.length === 0) continue;
     let pick = { day: days[0].day, rest: [days[0].minutes, ...c.nuisances], iterations: 0, converged: true };
     let pickObjective = days[0].objective;
-    if (days[0].objective <= best + MOON_REFINE_CUTOFF) {
+    const refine = days[0].objective <= best + MOON_REFINE_CUTOFF;
+    if (refine) {
       refinedYears += 1;
       for (const d of days.slice(0, REFINED_DAYS).filter((x) => x.objective <= days[0].objective + SECOND_DAY_CUTOFF)) {
         const fit = refineOnDay(ctx, d.day, [d.minutes, ...c.nuisances]);
@@ -156,6 +157,7 @@ export function moonStage(model: EvidenceModel, assumed: ClockKind | null, sunOn
       objective: o.objective,
       fit: { converged: c.fit.converged && pick.converged, iterations: c.fit.iterations + pick.iterations },
       atWindowEdge: c.atWindowEdge && pick.day === c.dayJd0,
+      moonRefined: refine,
     });
   }
   for (const s of screened) moonEvaluations += s.ctx.moonCalls;

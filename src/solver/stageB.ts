@@ -85,6 +85,11 @@ export interface RawCandidate {
    * candidate was moved to the nearest allowed day: it is pressed against the edge of the window.
    */
   readonly atWindowEdge: boolean;
+  /**
+   * With moon evidence (src/solver/moonYears.ts): false when this year was screened only, not refined
+   * (it fit far worse than the best year; its objective is then an upper bound of the year's best).
+   */
+  readonly moonRefined?: boolean;
 }
 
 export interface StageBResult {

@@ -405,6 +405,8 @@ export interface MoonNearRepeat {
   readonly pValue: number | null;
   /** True when within 3.841 (one parameter, 95%): it fits as well as the best year. */
   readonly fitsAlike: boolean;
+  /** False when that year was screened only (it fit far worse): deltaChiSquare is then an upper bound. */
+  readonly refined: boolean;
 }
 
 /** What the moon says about the years (src/solver/moonAnswer.ts). */

@@ -68,6 +68,9 @@ describe('fischertor-crescent.yaml: the moon names the year', () => {
     expect(answer.families[0].headline).toContain('singled out by the moon');
     expect(answer.moon?.nearRepeats.map((n) => n.year).sort()).toEqual([1806, 1809, 1825, 1828]);
     expect(answer.moon?.nearRepeats.every((n) => !n.fitsAlike && (n.deltaChiSquare ?? 0) > 3.841)).toBe(true);
+    const r1809 = answer.moon?.nearRepeats.find((n) => n.year === 1809);
+    expect(r1809?.refined).toBe(true);
+    expectClose(r1809?.deltaChiSquare ?? NaN, 21.4, 0.5, 'Delta chi-square of 1809');
     expect(answer.verdict).toContain('The moon names 1817');
     expect(answer.consistency.flaggedIds).toEqual([]);
   });
