@@ -94,6 +94,18 @@ export function yearsText(years: readonly number[]): string {
   return sorted.length === to - from + 1 ? `any year ${span}` : `${sorted.length} of the years ${span}`;
 }
 
+/**
+ * Years in words, each named when there are few: "1790 and 1809", "1512, 1525 and 1531"; more than
+ * `most` as yearsText.
+ * @example yearListText([1790, 1809]) // "1790 and 1809"
+ */
+export function yearListText(years: readonly number[], most = 8): string {
+  const sorted = [...new Set(years)].sort((a, b) => a - b);
+  if (sorted.length > most || sorted.length <= 1) return yearsText(sorted);
+  const named = sorted.map((y) => formatYearBcAd(y));
+  return `${named.slice(0, -1).join(', ')} and ${named[named.length - 1]}`;
+}
+
 /** The lowest objective of each year. */
 function bestByYear(members: readonly FamilyMember[]): Map<number, number> {
   const byYear = new Map<number, number>();
@@ -108,8 +120,10 @@ export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext
   const alikeYears = [...byYear].filter(([, o]) => o <= best + YEARS_ALIKE_DELTA_CHI2).map(([y]) => y).sort((a, b) => a - b);
   const spreadChiSquare = Math.max(...[...byYear.values()].map((o) => o - best));
   if (alikeYears.length > 1) {
-    const cannot = ctx.moonEvidence ? 'the light and the moon together cannot tell these years apart' : 'the light alone cannot tell these years apart';
-    return { singledOut: false, alikeYears, spreadChiSquare, words: `${yearsText(alikeYears)} (${cannot})` };
+    const words = ctx.moonEvidence
+      ? `${yearListText(alikeYears)} (the light and the moon together cannot tell these years apart)`
+      : `${yearsText(alikeYears)} (the light alone cannot tell these years apart)`;
+    return { singledOut: false, alikeYears, spreadChiSquare, words };
   }
   const year = alikeYears[0];
   let by: string;

@@ -23,7 +23,7 @@ import { chiSquarePValue, DELTA_CHI2_1DOF_95 } from '../math/chiSquare.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import { jdToCivilDate } from '../calendar/regions.js';
 import { acosClamped, cosDeg, radToDeg, sinDeg } from '../math/angles.js';
-import { yearsText } from './families.js';
+import { yearListText } from './families.js';
 import { NAMED_PHASE_LONGITUDE_DEG } from './moonEvidence.js';
 
 /** Near-repeats of the moon's phase on a calendar day, years, with their lunations. */
@@ -126,7 +126,7 @@ export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
     : ' No near-repeat of the moon (8, 11, 19, 27 or 38 years) falls inside the window.';
   const words = years.length <= 1
     ? `The moon names ${formatYearBcAd(bestYear)}: every other year of this light fits worse by more than ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square.${repeatWords}`
-    : `The moon leaves ${yearsText(years)} alike (within ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square of the best, ${formatYearBcAd(bestYear)}).${repeatWords}`;
+    : `The moon leaves ${yearListText(years)} alike (within ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square of the best, ${formatYearBcAd(bestYear)}).${repeatWords}`;
   const cautions = [
     "The moon is fitted at each candidate's own instant in every year of the window, never mapped from another year (astronomy-engine's lunar theory, about 1 arcminute); the years it names are an estimate conditional on the drawn moon being the moon of that hour, not a painter's convention or a moon added in the studio.",
     "The error ellipses and day intervals of the candidates are those of the sun's evidence alone: the moon narrows the day and the hour more than they show.",
