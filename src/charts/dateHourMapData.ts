@@ -182,7 +182,9 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
   return {
     year,
     yearLabel: formatYearBcAd(year),
-    titleYears: answer.yearsWords && answer.yearsWords !== formatYearBcAd(year) ? `${answer.yearsWords} (drawn on the days of ${formatYearBcAd(year)})` : formatYearBcAd(year),
+    titleYears: answer.moon
+      ? `${answer.moon.years.length > 1 ? `the years that fit with the moon: ${answer.moon.years.map((y) => formatYearBcAd(y)).join(', ')}` : `${formatYearBcAd(answer.moon.bestYear)}, the year the moon names`} (drawn on the days of ${formatYearBcAd(year)})`
+      : answer.yearsWords && answer.yearsWords !== formatYearBcAd(year) ? `${answer.yearsWords} (drawn on the days of ${formatYearBcAd(year)})` : formatYearBcAd(year),
     calendarLabel: best ? (best.civilDate.calendar === 'julian' ? 'Julian calendar' : 'Gregorian calendar') : 'calendar of the site',
     calendarReadingNote: calendarReadingNote(scene),
     clockLabel: best ? best.clockAssumptionLabel : 'no clock',

@@ -17,7 +17,8 @@ export function drawChart(kind: ChartKind, scene: Scene, answer: DateAnswer, onP
     case 'map':
       return renderDateHourMap(dateHourMapData(scene, answer, { onProgress }), idPrefix);
     case 'sky':
-      return renderSkyChart(skyChartData(scene, answer), idPrefix);
+      // the moon's path and phase when the scene holds evidence of the moon (answer.moon)
+      return renderSkyChart(skyChartData(scene, answer, { moon: answer.moon !== undefined }), idPrefix);
     case 'residuals':
       return renderResidualChart(residualChartData(answer, scene), idPrefix);
   }

@@ -10,6 +10,7 @@
  * input: no clock (the page carries no time of making), no console.
  */
 import { consistencyMark, consistencyMarkNotes } from './consistencyWords.js';
+import { moonReportLines } from './moonLines.js';
 import { deltaTModelName } from '../time/deltaT.js';
 import type { Observation, Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, DateAnswer, LeaveOneOutEntry } from '../solver/types.js';
@@ -137,6 +138,16 @@ export function observationWords(o: Observation): string {
     }
     case 'sundial':
       return `sundial reads ${hhmm(o.readingMinutes)} in ${describeSundialHours(o.hours)}, precision ${o.precisionMinutes} min`;
+    case 'moon-direction':
+      return `moon azimuth ${deg(o.azimuthDeg)} +/- ${deg(o.azimuthSigmaDeg)}, altitude ${deg(o.altitudeDeg)} +/- ${deg(o.altitudeSigmaDeg)}`;
+    case 'moon-phase':
+      return o.phase !== undefined ? `the moon drawn as ${o.phase}, sigma ${deg(o.sigmaDeg)} of phase` : `the moon's lit fraction ${o.illuminatedFraction} +/- ${o.sigma}`;
+    case 'moon-lit-side':
+      return `the moon's lit edge faces ${deg(o.litSideDeg)} from straight up (positive towards the left) +/- ${deg(o.sigmaDeg)}, as drawn`;
+    case 'moon-up':
+      return 'the moon is in the sky';
+    case 'moon-not-up':
+      return 'the moon is not in the sky';
   }
 }
 
@@ -317,7 +328,9 @@ function answerSection(scene: Scene, answer: DateAnswer): string {
   const replacedList = replaced.length
     ? `<p>Where the error ellipse does not hold, a profile scan of the day gives the 95% interval:</p><ul>${replaced.map((c) => `<li>rank ${c.rank}: ${h(uncertaintyWords(c))}</li>`).join('')}</ul>`
     : '';
-  return `<section id="answer"><h2>The answer</h2>${families}${candidates}${replacedList}</section>`;
+  const moonLines = moonReportLines(answer);
+  const moon = moonLines.length ? `<h3 id="moon">The moon (fitted at each candidate's own instant, in every year of the window)</h3><ul>${moonLines.map((l) => `<li>${h(l)}</li>`).join('')}</ul>` : '';
+  return `<section id="answer"><h2>The answer</h2>${families}${moon}${candidates}${replacedList}</section>`;
 }
 
 function chartsSection(charts: ReportCharts): string {

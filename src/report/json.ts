@@ -204,6 +204,19 @@ export function candidateJson(c: Candidate, scene: Scene, familyId?: string) {
       declinationDeg: roundTo(c.sun.declinationDeg, DIGITS.angleDeg),
       hourAngleDeg: roundTo(c.sun.hourAngleDeg, DIGITS.angleDeg),
     },
+    ...(c.moon
+      ? {
+          moon: {
+            azimuthDeg: roundTo(c.moon.azimuthDeg, DIGITS.angleDeg),
+            altitudeDeg: roundTo(c.moon.altitudeDeg, DIGITS.angleDeg),
+            illuminatedFraction: roundTo(c.moon.illuminatedFraction, DIGITS.ratio),
+            phaseLongitudeDeg: roundTo(c.moon.phaseLongitudeDeg, DIGITS.angleDeg),
+            elongationDeg: roundTo(c.moon.elongationDeg, DIGITS.angleDeg),
+            litSideTiltDeg: roundTo(c.moon.litSideTiltDeg, DIGITS.angleDeg),
+            words: c.moon.words,
+          },
+        }
+      : {}),
     chiSquare: roundTo(c.chiSquare, DIGITS.chiSquare),
     degreesOfFreedom: c.degreesOfFreedom,
     ...present({ pValue: roundProbability(c.pValue, DIGITS.probabilitySignificant) }, { pValue: noPReason(c.residuals.length) }),
@@ -367,6 +380,25 @@ export function dateAnswerJson(answer: DateAnswer, scene: Scene, version: string
     candidates: answer.candidates.map((c) => candidateJson(c, scene, familyIdOf(answer, c))),
     consistency: consistencyJson(answer.consistency, scene),
     ...(answer.groupTests ? { groupTests: answer.groupTests.map(groupTestJson) } : {}),
+    ...(answer.moon
+      ? {
+          moon: {
+            bestYear: answer.moon.bestYear,
+            years: [...answer.moon.years],
+            words: answer.moon.words,
+            nearRepeats: answer.moon.nearRepeats.map((n) => ({
+              year: n.year,
+              offsetYears: n.offsetYears,
+              cycle: n.cycle,
+              deltaChiSquare: n.deltaChiSquare === null ? null : roundTo(n.deltaChiSquare, DIGITS.chiSquare),
+              pValue: roundProbability(n.pValue, DIGITS.probabilitySignificant),
+              fitsAlike: n.fitsAlike,
+              refined: n.refined,
+            })),
+            impossible: [...answer.moon.impossible],
+          },
+        }
+      : {}),
     conflictingIds: [...answer.conflictingIds],
     assumptions: assumptionsJson(scene, answer.clockAssumptions, best),
     notes: [...answer.notes],

@@ -8,6 +8,7 @@
  */
 import { signedFixed } from '../textUnits.js';
 import { consistencyMark, consistencyMarkNotes } from './consistencyWords.js';
+import { moonReportLines } from './moonLines.js';
 import type { Scene } from '../scene/types.js';
 import type { Candidate, CandidateFamily, CheckAnswer, DateAnswer, Proposal, ResidualEntry } from '../solver/types.js';
 import { formatDayWords, formatYearBcAd } from '../calendar/format.js';
@@ -207,6 +208,8 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
       for (const f of answer.families) out.push(...membersLines(f, scene));
     }
   }
+  const moonLines = moonReportLines(answer);
+  if (moonLines.length > 0) out.push('', 'The moon (fitted at each candidate\'s own instant, in every year of the window):', ...moonLines.map((l) => `  ${l}`));
 
   // The table shows the best candidates in rank order (at most TABLE_ROWS without --all-years) and,
   // after them, the best year of every family not yet shown, so that every distinct answer (both

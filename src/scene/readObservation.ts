@@ -12,12 +12,22 @@ import {
   SIGMA_FLOOR,
 } from './fields.js';
 import { needImage, PIXEL_SIGMA, readPixelPoint, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
-import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, Observation, ObservationKind, PlaneInImage, ShadowPointsPixels, SitePoint, SundialHours, SundialObservation, Wall } from './types.js';
+import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, MoonPhaseObservation, NamedMoonPhase, Observation, ObservationKind, PlaneInImage, ShadowPointsPixels, SitePoint, SundialHours, SundialObservation, Wall } from './types.js';
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
   'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'sundial', 'object-shadow', 'shadow-wedge',
+  'moon-direction', 'moon-phase', 'moon-lit-side', 'moon-up', 'moon-not-up',
 ];
+
+/** The named phases of the moon a scene may write (docs/moon-evidence.md). */
+export const NAMED_MOON_PHASES: readonly NamedMoonPhase[] = [
+  'new', 'waxing crescent', 'first quarter', 'waxing gibbous', 'full',
+  'waning gibbous', 'last quarter', 'waning crescent', 'crescent', 'gibbous',
+];
+
+/** The light of a shadow: only the sun in this version (moonlight shadows are refused, docs/moon-evidence.md). */
+const LIGHTS = ['sun', 'moon'] as const;
 
 /** Identifiers of walls and observations: letters, digits, '-', '_', '.'. */
 export const ID_PATTERN = /^[\p{L}\p{N}][\p{L}\p{N}_.\-]{0,63}$/u;
@@ -45,22 +55,75 @@ export interface ObservationContext {
 const GROUP_WORDS = 'a group label of letters, digits, "-", "_" or ".", starting with a letter or digit, at most 64 characters';
 
 const COMMON = ['id', 'kind', 'note', 'group'];
+/** Shadow kinds also take `light` (default "sun"). */
+const SHADOW = [...COMMON, 'light'];
 const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
-  'rod-shadow': [...COMMON, 'wall', 'slopeDeg', 'side', 'sigmaDeg', 'pixels'],
-  'overhang-shadow': [...COMMON, 'wall', 'depthRatio', 'sigma', 'pixels'],
-  'fin-shadow': [...COMMON, 'wall', 'widthRatio', 'side', 'sigma', 'pixels'],
-  'pole-shadow': [...COMMON, 'shadowAzimuthDeg', 'shadowAzimuthSigmaDeg', 'lengthRatio', 'lengthRatioSigma', 'pixels'],
-  'eave-shadow': [...COMMON, 'wall', 'distanceRatio', 'sigma', 'projectionRatio', 'pixels'],
-  'shadow-points': [...COMMON, 'caster', 'shadow', 'sigmaM', 'pixels'],
+  'rod-shadow': [...SHADOW, 'wall', 'slopeDeg', 'side', 'sigmaDeg', 'pixels'],
+  'overhang-shadow': [...SHADOW, 'wall', 'depthRatio', 'sigma', 'pixels'],
+  'fin-shadow': [...SHADOW, 'wall', 'widthRatio', 'side', 'sigma', 'pixels'],
+  'pole-shadow': [...SHADOW, 'shadowAzimuthDeg', 'shadowAzimuthSigmaDeg', 'lengthRatio', 'lengthRatioSigma', 'pixels'],
+  'eave-shadow': [...SHADOW, 'wall', 'distanceRatio', 'sigma', 'projectionRatio', 'pixels'],
+  'shadow-points': [...SHADOW, 'caster', 'shadow', 'sigmaM', 'pixels'],
   'sun-direction': [...COMMON, 'azimuthDeg', 'azimuthSigmaDeg', 'altitudeDeg', 'altitudeSigmaDeg'],
   'wall-lit': [...COMMON, 'wall'],
   'wall-shaded': [...COMMON, 'wall'],
   'sun-up': [...COMMON],
   clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
   sundial: [...COMMON, 'reading', 'hours', 'precisionMinutes'],
-  'object-shadow': [...COMMON, 'objectPx', 'shadowPx', 'sigmaPx'],
-  'shadow-wedge': [...COMMON, 'shadowPx', 'edgesPx', 'sigmaPx'],
+  'object-shadow': [...SHADOW, 'objectPx', 'shadowPx', 'sigmaPx'],
+  'shadow-wedge': [...SHADOW, 'shadowPx', 'edgesPx', 'sigmaPx'],
+  'moon-direction': [...COMMON, 'azimuthDeg', 'azimuthSigmaDeg', 'altitudeDeg', 'altitudeSigmaDeg', 'pixels'],
+  'moon-phase': [...COMMON, 'illuminatedFraction', 'sigma', 'phase', 'sigmaDeg'],
+  'moon-lit-side': [...COMMON, 'litSideDeg', 'sigmaDeg'],
+  'moon-up': [...COMMON],
+  'moon-not-up': [...COMMON],
 };
+
+/** Default sigma of a named phase, degrees of phase longitude: a named phase spans 45 deg either side at 2 sigma. */
+export const MOON_PHASE_DEFAULT_SIGMA_DEG = 22.5;
+const PHASE_SIGMA: NumberRule = { words: 'a sigma of the named phase, degrees of phase longitude', min: SIGMA_FLOOR, max: 90 };
+const FRACTION_SIGMA: NumberRule = { words: 'a sigma of the illuminated fraction (no unit)', min: SIGMA_FLOOR, max: 1 };
+
+/** A shadow's light: "sun" (the default); "moon" is refused in this version. */
+function checkLight(f: Fields): void {
+  if (!has(f, 'light')) return;
+  const light = checkChoice(raw(f, 'light'), keyPath(f.path, 'light'), LIGHTS, 'the light that casts the shadow');
+  if (light === 'moon') {
+    throw new InvalidInputError(
+      keyPath(f.path, 'light'), 'moon', '"sun" (shadows cast by moonlight are not solved in this version)',
+      'A moonlit shadow needs a search over the moon\'s places without the sun\'s evidence, which this version does not make; give the moon as moon-direction, moon-phase or moon-lit-side instead (docs/moon-evidence.md).',
+    );
+  }
+}
+
+/** Azimuth and apparent altitude of a body in the sky, each with its sigma. */
+function readSkyDirection(f: Fields, body: string, altitudeWords: string): { azimuthDeg: number; azimuthSigmaDeg: number; altitudeDeg: number; altitudeSigmaDeg: number } {
+  return {
+    azimuthDeg: num(f, 'azimuthDeg', { ...AZIMUTH, words: `${body} azimuth in degrees clockwise from true north` }),
+    azimuthSigmaDeg: num(f, 'azimuthSigmaDeg', ANGLE_SIGMA),
+    altitudeDeg: num(f, 'altitudeDeg', { words: altitudeWords, min: -1, max: 90 }),
+    altitudeSigmaDeg: num(f, 'altitudeSigmaDeg', ANGLE_SIGMA),
+  };
+}
+
+function readMoonPhase(f: Fields, base: { id: string; note?: string; group?: string }): MoonPhaseObservation {
+  const byFraction = has(f, 'illuminatedFraction');
+  const byName = has(f, 'phase');
+  if (byFraction === byName) {
+    throw new InvalidInputError(
+      keyPath(f.path, byFraction ? 'phase' : 'illuminatedFraction'), byFraction ? raw(f, 'phase') : undefined,
+      'either "illuminatedFraction" (with "sigma") or a named "phase" (with an optional "sigmaDeg"), not both',
+    );
+  }
+  if (byFraction) {
+    if (has(f, 'sigmaDeg')) throw new InvalidInputError(keyPath(f.path, 'sigmaDeg'), raw(f, 'sigmaDeg'), '"sigma" (no unit) with an illuminated fraction; "sigmaDeg" goes with a named phase');
+    const illuminatedFraction = num(f, 'illuminatedFraction', { words: 'the lit fraction of the disc, 0 (new) to 1 (full)', min: 0, max: 1 });
+    return { ...base, kind: 'moon-phase', illuminatedFraction, sigma: num(f, 'sigma', FRACTION_SIGMA) };
+  }
+  if (has(f, 'sigma')) throw new InvalidInputError(keyPath(f.path, 'sigma'), raw(f, 'sigma'), '"sigmaDeg" (degrees of phase longitude) with a named phase; "sigma" goes with an illuminated fraction');
+  const phase = checkChoice(raw(f, 'phase'), keyPath(f.path, 'phase'), NAMED_MOON_PHASES, 'a named phase of the moon');
+  return { ...base, kind: 'moon-phase', phase, sigmaDeg: optNum(f, 'sigmaDeg', PHASE_SIGMA, MOON_PHASE_DEFAULT_SIGMA_DEG) };
+}
 
 /** The keys an observation of each kind may hold (for the schema test and the docs). */
 export function observationKeys(kind: ObservationKind): readonly string[] {
@@ -293,6 +356,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
   const note = optStr(f, 'note', 'a note', NOTE_MAX);
   const group = optStr(f, 'group', GROUP_WORDS, 64, ID_PATTERN);
   const base = { id, ...(note !== undefined ? { note } : {}), ...(group !== undefined ? { group } : {}) };
+  checkLight(f);
 
   switch (kind) {
     case 'rod-shadow': {
@@ -415,14 +479,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind, caster, shadow, sigmaM };
     }
     case 'sun-direction':
-      return {
-        ...base,
-        kind,
-        azimuthDeg: num(f, 'azimuthDeg', { ...AZIMUTH, words: "the sun's azimuth in degrees clockwise from true north" }),
-        azimuthSigmaDeg: num(f, 'azimuthSigmaDeg', ANGLE_SIGMA),
-        altitudeDeg: num(f, 'altitudeDeg', { words: "the sun's apparent altitude in degrees", min: -1, max: 90 }),
-        altitudeSigmaDeg: num(f, 'altitudeSigmaDeg', ANGLE_SIGMA),
-      };
+      return { ...base, kind, ...readSkyDirection(f, "the sun's", "the sun's apparent altitude in degrees") };
     case 'wall-lit':
     case 'wall-shaded':
       return { ...base, kind, wallId: wallRef(f, ctx).id };
@@ -449,6 +506,26 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       const sigmaPx = optNum(f, 'sigmaPx', PIXEL_SIGMA);
       return { ...base, kind, objectPx, shadowPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}) };
     }
+    case 'moon-direction':
+      if (has(f, 'pixels')) {
+        throw new InvalidInputError(
+          keyPath(path, 'pixels'), raw(f, 'pixels'), 'the moon\'s direction as numbers (azimuthDeg, altitudeDeg and their sigmas); the pixel form is not read in this version',
+          'A point in the sky lies on no wall or ground plane; turning it into a direction needs the camera\'s pixel-to-sky mapping, which this version does not offer for the moon (docs/moon-evidence.md).',
+        );
+      }
+      return { ...base, kind, ...readSkyDirection(f, "the moon's", "the moon's apparent altitude (of its centre) in degrees") };
+    case 'moon-phase':
+      return readMoonPhase(f, base);
+    case 'moon-lit-side':
+      return {
+        ...base,
+        kind,
+        litSideDeg: num(f, 'litSideDeg', { words: 'where the lit edge faces, degrees from straight up in the picture, positive towards the left', min: -180, max: 180, minExclusive: true }),
+        sigmaDeg: num(f, 'sigmaDeg', { words: 'a sigma in degrees', min: SIGMA_FLOOR, max: 90 }),
+      };
+    case 'moon-up':
+    case 'moon-not-up':
+      return { ...base, kind };
   }
 }
 

@@ -352,6 +352,49 @@ export interface SundialObservation extends ObservationBase {
   readonly hours: SundialHours;
 }
 
+/**
+ * 13. The moon's direction in the sky (apparent: refracted altitude of its centre), estimated from the
+ * picture by other means. The pixel form is not read in this version (docs/moon-evidence.md).
+ */
+export interface MoonDirectionObservation extends ObservationBase {
+  readonly kind: 'moon-direction';
+  readonly azimuthDeg: number;
+  readonly azimuthSigmaDeg: number;
+  readonly altitudeDeg: number;
+  readonly altitudeSigmaDeg: number;
+}
+
+/** The named phases a scholar may write (docs/moon-evidence.md gives the phase longitude of each). */
+export type NamedMoonPhase =
+  | 'new' | 'waxing crescent' | 'first quarter' | 'waxing gibbous' | 'full'
+  | 'waning gibbous' | 'last quarter' | 'waning crescent' | 'crescent' | 'gibbous';
+
+/**
+ * 14. The moon's phase as drawn: the illuminated fraction of its disc with a sigma, or a named phase
+ * with a sigma in degrees of phase longitude (default MOON_PHASE_DEFAULT_SIGMA_DEG of src/solver/moonEvidence.ts).
+ */
+export type MoonPhaseObservation = ObservationBase & { readonly kind: 'moon-phase' } & (
+  | { readonly illuminatedFraction: number; readonly sigma: number; readonly phase?: undefined }
+  | { readonly phase: NamedMoonPhase; readonly sigmaDeg: number; readonly illuminatedFraction?: undefined }
+);
+
+/**
+ * 15. Where the lit side of the moon faces, as drawn: the direction from the disc's centre to the middle
+ * of its lit edge, degrees from straight up in the picture, positive towards the left (0 lit on top, 90 lit
+ * on the left, -90 lit on the right, 180 lit at the bottom), (-180, 180], as the print shows it (a reversed
+ * print, image.mirrored, is flipped by the solver). The picture's up is taken as the true vertical.
+ */
+export interface MoonLitSideObservation extends ObservationBase {
+  readonly kind: 'moon-lit-side';
+  readonly litSideDeg: number;
+  readonly sigmaDeg: number;
+}
+
+/** 16. Facts without numbers: the moon is in the sky (above the horizon), or it is not. */
+export interface MoonFactObservation extends ObservationBase {
+  readonly kind: 'moon-up' | 'moon-not-up';
+}
+
 export type Observation =
   | RodShadowObservation
   | OverhangShadowObservation
@@ -365,7 +408,11 @@ export type Observation =
   | ClockObservation
   | SundialObservation
   | ObjectShadowObservation
-  | ShadowWedgeObservation;
+  | ShadowWedgeObservation
+  | MoonDirectionObservation
+  | MoonPhaseObservation
+  | MoonLitSideObservation
+  | MoonFactObservation;
 
 export type ObservationKind = Observation['kind'];
 

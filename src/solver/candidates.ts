@@ -3,7 +3,7 @@
  * calendar where a switch applies), weekday, times in every clock, sun position, residuals
  * in the observations' own units, facts in words, nuisances, uncertainty.
  */
-import type { Candidate, ClockAssumption, FactEntry, NuisanceEntry, ResidualEntry, SolverCalendarDate } from './types.js';
+import type { Candidate, CandidateMoon, ClockAssumption, FactEntry, NuisanceEntry, ResidualEntry, SolverCalendarDate } from './types.js';
 import type { ClockKind } from '../scene/types.js';
 import { jdToCalendarDate, weekdayOfJd, WEEKDAY_NAMES, type CalendarDate } from '../calendar/julianDay.js';
 import { jdToCivilDate } from '../calendar/regions.js';
@@ -14,6 +14,8 @@ import { factNote, latitudeOf, predictClock, predictedValuesOf, termEvidence, wa
 import { zoneOffsetsAt } from './fitting.js';
 import { candidateUncertainty, type UncertaintyCache } from './candidateUncertainty.js';
 import type { RawCandidate } from './stageB.js';
+import type { MoonPosition } from '../ephemeris/moonPosition.js';
+import { moonFactNote, moonLookWords, moonValuesOf } from './moonEvidence.js';
 import type { DayWindow } from './window.js';
 
 export function plainDate(d: CalendarDate): SolverCalendarDate {
@@ -118,6 +120,14 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
     });
     row += 1;
   }
+  for (const t of model.moons) {
+    const values = p.moon ? moonValuesOf(t.evidence, p.moon) : [];
+    for (let k = 0; k < t.count; k += 1) {
+      const v = values[k] ?? { component: `residual-${k + 1}`, measured: NaN, predicted: NaN, unit: '', sigma: NaN };
+      measuredRows.push({ observationId: t.observationId, observationKind: t.observationKind, ...v, normalised: -p.residuals[row] });
+      row += 1;
+    }
+  }
   row += model.nuisances.length;
   const facts: FactEntry[] = model.facts.map((f) => {
     const r = p.residuals[row++];
@@ -130,6 +140,17 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
       note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied, raw.nuisances),
     };
   });
+  for (const f of model.moonFacts) {
+    const r = p.residuals[row++];
+    const satisfied = !(Math.abs(r) > 1e-9);
+    facts.push({
+      observationId: f.observationId,
+      observationKind: f.fact,
+      satisfied,
+      penalty: r * r,
+      note: p.moon ? moonFactNote(f, p.moon, satisfied) : 'the moon was not evaluated here',
+    });
+  }
   const cov = raw.rep.covariance;
   const nuisances: NuisanceEntry[] = model.nuisances.map((n, k) => ({
     name: n.name,
@@ -173,6 +194,20 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
     uncertainty: candidateUncertainty(raw, win, dc.cache, false, dc.profileScans),
     fit: raw.fit,
     mapped: raw.mapped,
+    ...(p.moon ? { moon: candidateMoonOf(p.moon) } : {}),
+  };
+}
+
+/** The moon of a candidate as the answer shows it. */
+export function candidateMoonOf(m: MoonPosition): CandidateMoon {
+  return {
+    azimuthDeg: m.azimuthDeg,
+    altitudeDeg: m.altitudeDeg,
+    illuminatedFraction: m.illuminatedFraction,
+    phaseLongitudeDeg: m.phaseLongitudeDeg,
+    elongationDeg: m.elongationDeg,
+    litSideTiltDeg: m.brightLimbTiltFromVerticalDeg,
+    words: moonLookWords(m),
   };
 }
 

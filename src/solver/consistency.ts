@@ -91,6 +91,11 @@ export function rowsRemovedWith(model: EvidenceModel): Map<string, number[]> {
     const support = !f.implicit ? 1 : f.fact === 'sun-up' ? shadowIds.size : (wallSupport.get(f.wallId ?? '')?.size ?? 1);
     if (support === 1) rows.get(f.observationId)?.push(factStart + k);
   });
+  const moonFactStart = factStart + model.facts.length;
+  model.moonFacts.forEach((f, k) => {
+    const support = f.implicit ? model.moons.length : 1;
+    if (support === 1) rows.get(f.observationId)?.push(moonFactStart + k);
+  });
   return rows;
 }
 

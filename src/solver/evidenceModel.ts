@@ -39,6 +39,8 @@ import { horizontalShadowAngleDeg } from '../geometry/shadowAngles.js';
 import { planeClickSigmaDeg, sideViolation, type SkyPlane } from '../geometry/skyPlanes.js';
 import { sunUnitVector } from '../geometry/sunVector.js';
 import type { SolverSunDirection } from './sunModel.js';
+import type { MoonPosition } from '../ephemeris/moonPosition.js';
+import { moonFactViolationDeg, moonResiduals, moonTermsOf, type MoonFactTerm, type MoonTerm } from './moonEvidence.js';
 
 /** Tolerance of the soft penalties, degrees: a violation of this size costs 1 in chi-square. */
 export const FACT_TOLERANCE_DEG = 0.5;
@@ -95,7 +97,11 @@ export interface EvidenceModel {
   readonly shadows: readonly ShadowTerm[];
   readonly clocks: readonly ClockTerm[];
   readonly facts: readonly FactTerm[];
-  /** Number of measured scalar residuals (shadows and clocks). */
+  /** The moon's measured terms (src/solver/moonEvidence.ts), evaluated at the candidate's own instant. */
+  readonly moons: readonly MoonTerm[];
+  /** The moon's facts (soft penalties, after the sun's facts). */
+  readonly moonFacts: readonly MoonFactTerm[];
+  /** Number of measured scalar residuals (shadows, clocks and the moon). */
   readonly measuredCount: number;
   /** Index in `nuisances` of each wall's azimuth, the latitude, the longitude (-1: fixed). */
   readonly wallNuisance: ReadonlyMap<string, number>;
@@ -119,6 +125,11 @@ export interface EvaluationContext {
   readonly assumedClock: ClockKind | null;
   /** Offset of each zone from UT at the instant, minutes. */
   readonly zoneOffsetMinutes: (zone: string) => number;
+  /**
+   * The moon at the instant, when the evaluation is at a whole civil day (src/solver/moonYears.ts);
+   * absent in the year-independent and continuous fits, where the moon's rows are 0.
+   */
+  readonly moon?: MoonPosition;
 }
 
 function need<T>(value: T | undefined, field: string, allowed: string): T {
@@ -298,9 +309,10 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
   for (let k = 0; k < cameraCount; k++) {
     nuisances.push({ name: `camera:error-${k + 1}`, kind: 'camera', priorDeg: 0, sigmaDeg: 1 });
   }
-  const measuredCount = shadows.reduce((n, t) => n + t.count, 0) + clocks.length;
+  const moon = moonTermsOf(scene, omit);
+  const measuredCount = shadows.reduce((n, t) => n + t.count, 0) + clocks.length + moon.terms.reduce((n, t) => n + t.count, 0);
   const wallAzimuths = new Map(scene.walls.map((w) => [w.id, w.azimuthDeg]));
-  return { scene, nuisances, shadows, clocks, facts, measuredCount, wallNuisance, latitudeNuisance, longitudeNuisance, wallAzimuths, cameraNuisance };
+  return { scene, nuisances, shadows, clocks, facts, moons: moon.terms, moonFacts: moon.facts, measuredCount, wallNuisance, latitudeNuisance, longitudeNuisance, wallAzimuths, cameraNuisance };
 }
 
 /** Wall azimuth in use: the nuisance value when fitted, else the stated azimuth. */
@@ -379,7 +391,10 @@ export function termEvidence(model: EvidenceModel, t: ShadowTerm, nuisances: rea
   return t.evidence.kind === 'sun-circle' ? { ...t.evidence, cameraError: cameraErrorOf(model, nuisances) } : t.evidence;
 }
 
-/** Residual vector: measured (shadows, then clocks), then nuisance priors, then soft facts. */
+/**
+ * Residual vector: measured (shadows, clocks, the moon), then nuisance priors, then soft facts (the
+ * sun's, then the moon's). The moon's rows are 0 when the context holds no moon.
+ */
 export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationContext): number[] {
   const out: number[] = [];
   for (const t of model.shadows) {
@@ -387,8 +402,13 @@ export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationCont
     for (const v of r) out.push(v);
   }
   for (const c of model.clocks) out.push(clockResidual(c, model, ctx));
+  for (const t of model.moons) {
+    if (ctx.moon) for (const v of moonResiduals(t.evidence, ctx.moon)) out.push(v);
+    else for (let k = 0; k < t.count; k += 1) out.push(0);
+  }
   model.nuisances.forEach((n, k) => out.push((ctx.nuisances[k] - n.priorDeg) / n.sigmaDeg));
   for (const f of model.facts) out.push(factResidual(model, f, ctx));
+  for (const f of model.moonFacts) out.push(ctx.moon ? moonFactViolationDeg(f.fact, ctx.moon) / FACT_TOLERANCE_DEG : 0);
   return out;
 }
 
@@ -430,6 +450,11 @@ export function residualRowsByObservation(model: EvidenceModel): Map<string, num
     const list = rows.get(c.observationId) ?? [];
     list.push(i++);
     rows.set(c.observationId, list);
+  }
+  for (const t of model.moons) {
+    const list = rows.get(t.observationId) ?? [];
+    for (let k = 0; k < t.count; k += 1) list.push(i++);
+    rows.set(t.observationId, list);
   }
   return rows;
 }

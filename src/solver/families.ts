@@ -57,6 +57,8 @@ export interface FamilyContext {
   readonly restrictions: string | null;
   /** How a keeping's best fits: as the answer judges it. */
   readonly judge: (chiSquare: number, penalty: number) => FamilyKeeping['fit'];
+  /** True when the scene holds evidence of the moon, which is fitted in every year (src/solver/moonYears.ts). */
+  readonly moonEvidence?: boolean;
 }
 
 function ordinal(month: number, day: number): number {
@@ -92,6 +94,18 @@ export function yearsText(years: readonly number[]): string {
   return sorted.length === to - from + 1 ? `any year ${span}` : `${sorted.length} of the years ${span}`;
 }
 
+/**
+ * Years in words, each named when there are few: "1790 and 1809", "1512, 1525 and 1531"; more than
+ * `most` as yearsText.
+ * @example yearListText([1790, 1809]) // "1790 and 1809"
+ */
+export function yearListText(years: readonly number[], most = 8): string {
+  const sorted = [...new Set(years)].sort((a, b) => a - b);
+  if (sorted.length > most || sorted.length <= 1) return yearsText(sorted);
+  const named = sorted.map((y) => formatYearBcAd(y));
+  return `${named.slice(0, -1).join(', ')} and ${named[named.length - 1]}`;
+}
+
 /** The lowest objective of each year. */
 function bestByYear(members: readonly FamilyMember[]): Map<number, number> {
   const byYear = new Map<number, number>();
@@ -106,13 +120,18 @@ export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext
   const alikeYears = [...byYear].filter(([, o]) => o <= best + YEARS_ALIKE_DELTA_CHI2).map(([y]) => y).sort((a, b) => a - b);
   const spreadChiSquare = Math.max(...[...byYear.values()].map((o) => o - best));
   if (alikeYears.length > 1) {
-    return { singledOut: false, alikeYears, spreadChiSquare, words: `${yearsText(alikeYears)} (the light alone cannot tell these years apart)` };
+    const words = ctx.moonEvidence
+      ? `${yearListText(alikeYears)} (the light and the moon together cannot tell these years apart)`
+      : `${yearsText(alikeYears)} (the light alone cannot tell these years apart)`;
+    return { singledOut: false, alikeYears, spreadChiSquare, words };
   }
   const year = alikeYears[0];
   let by: string;
   if (byYear.size > 1) {
     const next = Math.min(...[...byYear].filter(([y]) => y !== year).map(([, o]) => o - best));
-    by = `the light itself: every other year of the family fits worse, by ${next.toFixed(1)} or more in chi-square`;
+    by = ctx.moonEvidence
+      ? `the moon: every other year of the family fits worse, by ${next.toFixed(1)} or more in chi-square`
+      : `the light itself: every other year of the family fits worse, by ${next.toFixed(1)} or more in chi-square`;
   } else if (ctx.fromYear === ctx.toYear) {
     by = 'the window, which holds this year only';
   } else if (ctx.restrictions) {

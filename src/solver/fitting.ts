@@ -16,6 +16,9 @@ import type { ClockKind } from '../scene/types.js';
 import { levenbergMarquardt, type LeastSquaresResult } from '../math/leastSquares.js';
 import { normalizeDeg180 } from '../math/angles.js';
 import type { SunSite } from '../ephemeris/sunPosition.js';
+import { moonPosition, type MoonPosition } from '../ephemeris/moonPosition.js';
+import { deltaTSeconds } from '../time/deltaT.js';
+import { jdToDecimalYear } from '../time/timeScales.js';
 import { zoneOffsetMinutes } from '../time/clock.js';
 import {
   evidenceResidualVector,
@@ -105,6 +108,8 @@ export interface DatedPoint {
   readonly jdUT: number;
   readonly state: SolarState;
   readonly sun: SolverSunDirection;
+  /** The moon at the instant, when the model has moon evidence and the context evaluates it. */
+  readonly moon?: MoonPosition;
   readonly residuals: readonly number[];
 }
 
@@ -117,11 +122,34 @@ export interface DatedContext {
   zoneOffset: (zone: string) => number;
   /** Counter of full-ephemeris calls (3 per track). */
   ephemerisCalls: number;
+  /**
+   * Whether the moon's rows are evaluated (at whole civil days only: the moon needs the true instant,
+   * which a continuous day does not give). False in stage B, which fits the sun's evidence alone.
+   */
+  readonly moonRows: boolean;
+  /** Counter of moon evaluations. */
+  moonCalls: number;
 }
 
-export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null, anchorJdUT: number): DatedContext {
+/** True when the model holds evidence of the moon. */
+export function hasMoonEvidence(model: EvidenceModel): boolean {
+  return model.moons.length > 0 || model.moonFacts.length > 0;
+}
+
+export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null, anchorJdUT: number, moonRows = true): DatedContext {
   const site = siteOf(model);
-  return { model, assumed, site, track: makeSunTrack(anchorJdUT, site, model.scene.deltaT), zoneOffset: zoneOffsetsAt(model, assumed, anchorJdUT), ephemerisCalls: 3 };
+  return {
+    model, assumed, site, track: makeSunTrack(anchorJdUT, site, model.scene.deltaT), zoneOffset: zoneOffsetsAt(model, assumed, anchorJdUT), ephemerisCalls: 3,
+    moonRows: moonRows && hasMoonEvidence(model), moonCalls: 0,
+  };
+}
+
+/** The moon at jdUT for the model's site (the fitted latitude and longitude), air and Delta T. */
+export function moonAt(model: EvidenceModel, jdUT: number, nuisances: readonly number[]): MoonPosition {
+  const s = model.scene.site;
+  // Delta T of the scene's model passed as seconds: the same value, without its published sigma computed at every call.
+  const deltaTSecondsNow = deltaTSeconds(jdToDecimalYear(jdUT), model.scene.deltaT);
+  return moonPosition(jdUT, { latitudeDeg: latitudeOf(model, nuisances), longitudeDeg: longitudeOf(model, nuisances), elevationM: s.elevationM }, model.scene.air, { deltaTSeconds: deltaTSecondsNow });
 }
 
 /** Move the track so that it covers jdUT (a new track when jdUT is outside its reach). */
@@ -132,11 +160,19 @@ export function ensureTrack(c: DatedContext, jdUT: number, reach = TRACK_REACH_D
   c.ephemerisCalls += 3;
 }
 
-/** Evaluate the dated model at (d, m, nuisances) with the current track. */
-export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[]): DatedPoint {
+/**
+ * Evaluate the dated model at (d, m, nuisances) with the current track; the moon's rows when the
+ * context evaluates them and `withMoon` is not false (the continuous fit passes false).
+ */
+export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[], withMoon = true): DatedPoint {
   const lon = longitudeOf(c.model, nuisances);
   const { jdUT, state } = instantOfApparentTime(c.track, dayJd0, apparentMinutes, lon);
   const sun = sunFromDeclinationHourAngle(state.declinationDeg, (apparentMinutes - 720) / 4, latitudeOf(c.model, nuisances), c.model.scene.air);
+  let moon: MoonPosition | undefined;
+  if (withMoon && c.moonRows) {
+    moon = moonAt(c.model, jdUT, nuisances);
+    c.moonCalls += 1;
+  }
   const ctx: EvaluationContext = {
     sun,
     nuisances,
@@ -144,8 +180,9 @@ export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: num
     equationOfTimeMinutes: state.equationOfTimeMinutes,
     assumedClock: c.assumed,
     zoneOffsetMinutes: c.zoneOffset,
+    ...(moon ? { moon } : {}),
   };
-  return { dayJd0, apparentMinutes, nuisances, jdUT, state, sun, residuals: evidenceResidualVector(c.model, ctx) };
+  return { dayJd0, apparentMinutes, nuisances, jdUT, state, sun, ...(moon ? { moon } : {}), residuals: evidenceResidualVector(c.model, ctx) };
 }
 
 export function datedSteps(model: EvidenceModel): number[] {
@@ -183,7 +220,8 @@ export function refineDated(c: DatedContext, x0: readonly number[], maxIteration
   let iterations = 0;
   let lm: LeastSquaresResult | null = null;
   for (let move = 0; move <= MAX_TRACK_MOVES; move += 1) {
-    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2)).residuals as number[];
+    // The moon is left out of the continuous fit: between whole days its instant is not the true one.
+    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2), false).residuals as number[];
     const lower = x.map(() => -Infinity);
     const upper = x.map(() => Infinity);
     lower[0] = x0[0] - MAX_DAY_MOVE;
@@ -196,13 +234,13 @@ export function refineDated(c: DatedContext, x0: readonly number[], maxIteration
     lm = levenbergMarquardt({ residuals: res, steps: datedSteps(c.model), lower, upper }, x, { maxIterations, tolerance: 1e-10 });
     iterations += lm.iterations;
     x = normaliseDayMinute(lm.x.slice());
-    const p = datedPoint(c, x[0], x[1], x.slice(2));
+    const p = datedPoint(c, x[0], x[1], x.slice(2), false);
     if (Math.abs(p.jdUT - c.track.anchorJdUT) <= TRACK_REACH_DAYS - 0.5) {
       return { x, lm, point: p, iterations, converged: lm.converged };
     }
     ensureTrack(c, p.jdUT, 0);
   }
-  const p = datedPoint(c, x[0], x[1], x.slice(2));
+  const p = datedPoint(c, x[0], x[1], x.slice(2), false);
   return { x, lm: lm!, point: p, iterations, converged: false };
 }
 

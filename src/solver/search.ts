@@ -10,9 +10,12 @@ import { zoneOffsetsAt } from './fitting.js';
 import { zoneReading } from '../time/clock.js';
 import { lowPrecisionSun } from './seasons.js';
 import { stageA, type StageAGrid } from './stageA.js';
-import { stageB, type RawCandidate } from './stageB.js';
+import { dedupeByDayAndHour, stageB, type RawCandidate } from './stageB.js';
 import type { DayWindow } from './window.js';
 import { assumedKind } from './candidates.js';
+import { hasMoonEvidence } from './fitting.js';
+import { moonStage } from './moonYears.js';
+import { UnsupportedError } from '../errors.js';
 
 export interface SearchResult {
   readonly assumptions: readonly ClockAssumption[];
@@ -26,6 +29,11 @@ export interface SearchResult {
   readonly sunEvaluations: number;
   /** Stage A's grids, by clock assumption (stageAGridKey), for reruns with observations left out. */
   readonly stageAGrids: StageAGrids;
+  /** Calls of the moon's ephemeris (moonPosition) made by the moon's stage (src/solver/moonYears.ts); 0 without moon evidence. */
+  readonly moonEvaluations: number;
+  /** Days screened with the full moon ephemeris and years refined with the moon (src/solver/moonYears.ts). */
+  readonly moonScreenedDays: number;
+  readonly moonRefinedYears: number;
 }
 
 /** The stage-A grids of one model, by clock assumption (stageAGridKey). */
@@ -89,6 +97,12 @@ const KEEPINGS_BY_DIAL: Readonly<Record<6 | 12 | 24, readonly ClockKind[]>> = {
  */
 export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: StageAGrids, onProgress?: (fraction: number, stage: string) => void): SearchResult {
   const assumptions = clockAssumptionsOf(model);
+  const withMoon = hasMoonEvidence(model);
+  if (withMoon && model.shadows.length === 0 && model.clocks.length === 0) {
+    throw new UnsupportedError(
+      'The moon is the only measured evidence of this scene: this version dates the moon only together with evidence of the sun (a shadow, a sun direction or a clock), which finds the days and hours the moon is then fitted on in every year (docs/moon-evidence.md).',
+    );
+  }
   model.clocks.forEach((c) => {
     if (c.kept && c.kept.kind === 'zone') zoneReading(c.kept.zone, win.firstDayJd0 + 0.5, `clock ${c.observationId}`);
   });
@@ -103,6 +117,9 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: S
   let sunEvaluations = 0;
   const grids = new Map<string, StageAGrid>();
   const sources = reuse === undefined ? null : rowSourcesIn(model, reuse.model);
+  let moonEvaluations = 0;
+  let moonScreenedDays = 0;
+  let moonRefinedYears = 0;
   assumptions.forEach((a, i) => {
     const kind = assumedKind(a);
     let zoneOffset: (zone: string) => number;
@@ -124,8 +141,14 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: S
     mappedYears += sb.mappedYears;
     evaluations += sb.ephemerisCalls;
     sunEvaluations += sb.ephemerisCalls;
-    all.push(...sb.candidates);
+    if (withMoon) {
+      const ms = moonStage(model, kind, sb.candidates, win);
+      moonEvaluations += ms.moonEvaluations;
+      moonScreenedDays += ms.screenedDays;
+      moonRefinedYears += ms.refinedYears;
+      all.push(...dedupeByDayAndHour(ms.candidates));
+    } else all.push(...sb.candidates);
   });
   all.sort((x, y) => x.objective - y.objective);
-  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations, sunEvaluations, stageAGrids: { model, byAssumption: grids } };
+  return { assumptions, candidates: all, stageAGridPoints, stageAMinima, fullRefinements, mappedYears, evaluations, sunEvaluations, moonEvaluations, moonScreenedDays, moonRefinedYears, stageAGrids: { model, byAssumption: grids } };
 }

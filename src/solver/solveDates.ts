@@ -41,6 +41,8 @@ import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
 import { jdToCivilDate } from '../calendar/regions.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
+import { hasMoonEvidence } from './fitting.js';
+import { moonYearsAnswer } from './moonAnswer.js';
 
 /** Soft penalty above which the facts are said not to hold (a violation of 2 tolerances = 1 deg). */
 export const FACT_PENALTY_LIMIT = 4;
@@ -186,6 +188,7 @@ function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
     toYear: s.win.toYear,
     restrictions: restrictionWords(s.model.scene, s.win),
     judge: (chi, penalty) => judgeFit(s.model, chi, penalty),
+    moonEvidence: hasMoonEvidence(s.model),
   };
   return joinKeepings([...groups.values()]).map((list, i) => buildFamily(`f${i + 1}`, i + 1, list, ctx, perYear));
 }
@@ -375,13 +378,21 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
       if (!top.yearsTold.singledOut && top.yearsTold.alikeYears.length > 1) {
         notes.push(
-          `The years of a family fit alike (family 1: within ${top.yearsTold.spreadChiSquare.toFixed(2)} in chi-square): the order of its years among the candidates is no preference, and the light alone does not date the picture to one year.`,
+          hasMoonEvidence(model)
+            ? `The years of a family fit alike (family 1: within ${top.yearsTold.spreadChiSquare.toFixed(2)} in chi-square): the order of its years among the candidates is no preference; the light and the moon together leave these years open.`
+            : `The years of a family fit alike (family 1: within ${top.yearsTold.spreadChiSquare.toFixed(2)} in chi-square): the order of its years among the candidates is no preference, and the light alone does not date the picture to one year.`,
         );
       }
     }
   }
   onProgress?.(progressSteps - 1, progressSteps, SOLVE_STAGE_WORDS.answer);
   const top = families[0];
+  const moon = best && hasMoonEvidence(model) ? moonYearsAnswer(s, dressed(s, best)) : undefined;
+  if (moon) {
+    notes.push(...moon.cautions);
+    if (status === 'fits' || status === 'marginal') verdict += ` ${moon.words}`;
+    else if (moon.impossible.length > 0) verdict += ` ${moon.impossible.join(' ')}`;
+  }
   return {
     sceneTitle: scene.title,
     status,
@@ -396,6 +407,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     candidates,
     consistency,
     ...(groupTests.length > 0 ? { groupTests } : {}),
+    ...(moon ? { moon } : {}),
     conflictingIds,
     clockAssumptions: s.search.assumptions,
     measuredResiduals: model.measuredCount,
@@ -406,6 +418,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       fullRefinements: s.search.fullRefinements,
       mappedYears: s.search.mappedYears,
       chiSquareEvaluations: s.search.evaluations,
+      ...(s.search.moonEvaluations > 0 ? { moonEvaluations: s.search.moonEvaluations, moonScreenedDays: s.search.moonScreenedDays, moonRefinedYears: s.search.moonRefinedYears } : {}),
       clockAssumptionsTried: s.search.assumptions.length,
     },
     seed: scene.seed,

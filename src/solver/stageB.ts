@@ -24,6 +24,7 @@ import type { EvidenceModel } from './evidenceModel.js';
 import { splitChiSquare, longitudeOf } from './evidenceModel.js';
 import {
   datedPoint,
+  hasMoonEvidence,
   newDatedContext,
   refineDated,
   refineOnDay,
@@ -84,6 +85,11 @@ export interface RawCandidate {
    * candidate was moved to the nearest allowed day: it is pressed against the edge of the window.
    */
   readonly atWindowEdge: boolean;
+  /**
+   * With moon evidence (src/solver/moonYears.ts): false when this year was screened only, not refined
+   * (it fit far worse than the best year; its objective is then an upper bound of the year's best).
+   */
+  readonly moonRefined?: boolean;
 }
 
 export interface StageBResult {
@@ -106,6 +112,7 @@ export function exactPoint(
   minutes: number,
   nuisances: readonly number[],
   equationOfTimeGuessMinutes: number,
+  moonRows = true,
 ): { point: DatedPoint; sun: SunPosition } {
   const lon = longitudeOf(model, nuisances);
   const approxJdUT = dayJd0 + (minutes - equationOfTimeGuessMinutes) / 1440 - lon / 360;
@@ -115,7 +122,7 @@ export function exactPoint(
     declinationDeg: [sun.declinationDeg, sun.declinationDeg, sun.declinationDeg],
     equationOfTimeMinutes: [sun.equationOfTimeMinutes, sun.equationOfTimeMinutes, sun.equationOfTimeMinutes],
   };
-  const ctx: DatedContext = { model, assumed, site, track, zoneOffset: zoneOffsetsAt(model, assumed, approxJdUT), ephemerisCalls: 1 };
+  const ctx: DatedContext = { model, assumed, site, track, zoneOffset: zoneOffsetsAt(model, assumed, approxJdUT), ephemerisCalls: 1, moonRows: moonRows && hasMoonEvidence(model), moonCalls: 0 };
   return { point: datedPoint(ctx, dayJd0, minutes, nuisances), sun };
 }
 
@@ -265,7 +272,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
 
       const fitCycle = (k: number, start?: readonly number[]): RepresentativeFit => {
         const tk = instantOfSolarLongitude(track.longitudeDeg, t0 + k * TROPICAL_YEAR_DAYS);
-        const context = newDatedContext(model, assumed, tk);
+        const context = newDatedContext(model, assumed, tk, false); // the sun's evidence alone: the moon is fitted per year after (moonYears.ts)
         const m0 = 720 + 4 * seed.hourAngleDeg;
         const e0 = solarStateOnTrack(context.track, tk).equationOfTimeMinutes;
         const lon = longitudeOf(model, seed.nuisances);
@@ -313,7 +320,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
         const hit = list.find((f) => Math.abs(f.centreOffset - offset) <= 1.5);
         if (hit) return hit;
         const centreDay = nearestDayJd0(rep.fit.x[0] + offset);
-        const context = newDatedContext(model, assumed, centreDay + rep.fit.x[1] / 1440);
+        const context = newDatedContext(model, assumed, centreDay + rep.fit.x[1] / 1440, false);
         const fits = [centreDay - 1, centreDay, centreDay + 1].map((d) => refineOnDay(context, d, rep.fit.x.slice(1)));
         ephemerisCalls += context.ephemerisCalls;
         const f: FarFit = {
@@ -359,7 +366,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
         let farMapped = false;
         if (c.mapped && chosen.far) {
           const m = mappedFarDay(c, day);
-          const ex = exactPoint(model, assumed, rep.context.site, day, m.rest[0], m.rest.slice(1), m.equationOfTimeMinutes);
+          const ex = exactPoint(model, assumed, rep.context.site, day, m.rest[0], m.rest.slice(1), m.equationOfTimeMinutes, false);
           ephemerisCalls += 1;
           // Verified like the other mapped years: kept unless it fits worse than predicted by more than max(2, 20%).
           if (objectiveOf(model, ex.point.residuals).objective <= m.objective + Math.max(2, 0.2 * m.objective)) {
@@ -377,13 +384,13 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           iterations = rep.fit.iterations + onDay.iterations;
           converged = rep.fit.converged && onDay.converged;
           rest = onDay.x.slice(1);
-          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes));
+          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes, false));
           ephemerisCalls += 1;
           // Near a solstice the quadratic prediction can pick the wrong one of two neighbouring days: try the other.
           const other = day + (c.x[0] > day ? 1 : -1);
           if (!chosen.far && isDayAllowed(win, other)) {
             const alt = refineOnDay(rep.context, other, conditionalRest(c.x, rep.covariance, other));
-            const ex = exactPoint(model, assumed, rep.context.site, other, alt.x[1], alt.x.slice(2), alt.point.state.equationOfTimeMinutes);
+            const ex = exactPoint(model, assumed, rep.context.site, other, alt.x[1], alt.x.slice(2), alt.point.state.equationOfTimeMinutes, false);
             ephemerisCalls += 1;
             if (objectiveOf(model, ex.point.residuals).objective < objectiveOf(model, point.residuals).objective) {
               day = other;
@@ -396,7 +403,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           if (c.mapped) mappedYears += 1;
         } else {
           mappedYears += 1;
-          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), rep.fit.point.state.equationOfTimeMinutes));
+          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), rep.fit.point.state.equationOfTimeMinutes, false));
           ephemerisCalls += 1;
           const predicted = c.objective + (cdd > 0 ? ((day - c.x[0]) * (day - c.x[0])) / cdd : 0);
           const got = objectiveOf(model, point.residuals).objective;
@@ -416,7 +423,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
             rest = onDay.x.slice(1);
             iterations = own.fit.iterations + onDay.iterations;
             converged = own.fit.converged && onDay.converged;
-            ({ point, sun } = exactPoint(model, assumed, own.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes));
+            ({ point, sun } = exactPoint(model, assumed, own.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes, false));
             ephemerisCalls += 1;
           }
         }
@@ -448,16 +455,22 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
   });
   onProgress?.(minima.length, minima.length);
 
-  // One candidate per civil day and hour (within 5 minutes) and assumption: keep the best.
-  // Keyed by day, so that each candidate is compared only with those kept on its own day.
+  return { candidates: dedupeByDayAndHour(out), fullRefinements, mappedYears, ephemerisCalls };
+}
+
+/**
+ * One candidate per civil day and hour (within 5 minutes) of one assumption: the best, sorted best first.
+ * Keyed by day, so that each candidate is compared only with those kept on its own day.
+ */
+export function dedupeByDayAndHour(candidates: readonly RawCandidate[]): RawCandidate[] {
   const kept: RawCandidate[] = [];
   const keptByDay = new Map<number, RawCandidate[]>();
-  for (const c of [...out].sort((a, b) => a.objective - b.objective)) {
+  for (const c of [...candidates].sort((a, b) => a.objective - b.objective)) {
     const sameDay = keptByDay.get(c.dayJd0);
     if (sameDay?.some((k) => Math.abs(k.apparentMinutes - c.apparentMinutes) < 5)) continue;
     kept.push(c);
     if (sameDay) sameDay.push(c);
     else keptByDay.set(c.dayJd0, [c]);
   }
-  return { candidates: kept, fullRefinements, mappedYears, ephemerisCalls };
+  return kept;
 }

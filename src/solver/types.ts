@@ -52,7 +52,7 @@ export interface ResidualEntry {
 /** A fact without a number (wall lit or shaded, sun up) at a candidate. */
 export interface FactEntry {
   readonly observationId: string;
-  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'rod-side' | 'fin-side' | 'pair-side' | 'wedge';
+  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'rod-side' | 'fin-side' | 'pair-side' | 'wedge' | 'moon-up' | 'moon-not-up';
   readonly satisfied: boolean;
   /** Soft penalty added to the objective, 0 when satisfied; not counted in the degrees of freedom. */
   readonly penalty: number;
@@ -214,6 +214,23 @@ export interface Candidate {
   readonly fit: { readonly converged: boolean; readonly iterations: number };
   /** True when this year was mapped from a representative year and verified by one full evaluation. */
   readonly mapped: boolean;
+  /** The moon at the candidate's instant; present when the scene holds evidence of the moon. */
+  readonly moon?: CandidateMoon;
+}
+
+/** The moon at a candidate's instant (src/ephemeris/moonPosition.ts), degrees. */
+export interface CandidateMoon {
+  readonly azimuthDeg: number;
+  /** Apparent (refracted) altitude of the centre. */
+  readonly altitudeDeg: number;
+  readonly illuminatedFraction: number;
+  /** Moon's ecliptic longitude minus the sun's, [0, 360): 0 new, 90 first quarter, 180 full, 270 last quarter. */
+  readonly phaseLongitudeDeg: number;
+  readonly elongationDeg: number;
+  /** Where the lit edge faces as seen, from straight up, positive towards the left, (-180, 180]. */
+  readonly litSideTiltDeg: number;
+  /** "waxing crescent, 12% lit". */
+  readonly words: string;
 }
 
 /** One clock keeping tried within a family, with how well its best year fits. */
@@ -373,6 +390,44 @@ export interface SolverDiagnostics {
   readonly mappedYears: number;
   readonly chiSquareEvaluations: number;
   readonly clockAssumptionsTried: number;
+  /** Calls of the moon's ephemeris (present with moon evidence). */
+  readonly moonEvaluations?: number;
+  /** Days screened with the full moon ephemeris, and years refined with the moon (src/solver/moonYears.ts). */
+  readonly moonScreenedDays?: number;
+  readonly moonRefinedYears?: number;
+}
+
+/** A year a near-repeat of the moon away from the best year, with its fit. */
+export interface MoonNearRepeat {
+  readonly year: number;
+  /** Years from the best year (negative: earlier). */
+  readonly offsetYears: number;
+  /** "19-year (235 lunations)", "8-year (99 lunations)", "11-year (136 lunations)". */
+  readonly cycle: string;
+  /** Its best objective (chi-square plus penalty) minus the best year's; null when the search has no candidate of that light in that year. */
+  readonly deltaChiSquare: number | null;
+  /** Upper-tail probability of deltaChiSquare with 1 degree of freedom; null with it. */
+  readonly pValue: number | null;
+  /** True when within 3.841 (one parameter, 95%): it fits as well as the best year. */
+  readonly fitsAlike: boolean;
+  /** False when that year was screened only (it fit far worse): deltaChiSquare is then an upper bound. */
+  readonly refined: boolean;
+}
+
+/** What the moon says about the years (src/solver/moonAnswer.ts). */
+export interface MoonYearsAnswer {
+  /** The best year of the best light. */
+  readonly bestYear: number;
+  /** The years of that light that fit alike (within 3.841 of the best), sorted. */
+  readonly years: readonly number[];
+  /** In words: "The moon names 1790 ...". */
+  readonly words: string;
+  /** The near-repeats of the best year inside the window, with their fit. */
+  readonly nearRepeats: readonly MoonNearRepeat[];
+  /** Plain words for a moon that cannot be (lit side away from the sun, a phase impossible at its distance from the sun). */
+  readonly impossible: readonly string[];
+  /** Cautions for the notes. */
+  readonly cautions: readonly string[];
 }
 
 /** The answer to "on what dates and hours could this light have fallen?". */
@@ -401,6 +456,8 @@ export interface DateAnswer {
   readonly consistency: ConsistencyReport;
   /** Each group of observations (their `group` label) tested against the rest: one sun for all, or its own (groupConsistency.ts). */
   readonly groupTests?: readonly GroupTest[];
+  /** What the moon says about the years; present when the scene holds evidence of the moon. */
+  readonly moon?: MoonYearsAnswer;
   /** Observations named as conflicting when status is 'nothing-fits'. */
   readonly conflictingIds: readonly string[];
   readonly clockAssumptions: readonly ClockAssumption[];

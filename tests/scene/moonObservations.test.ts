@@ -1,0 +1,64 @@
+/**
+ * The scene reader on the moon's observations (docs/scene-file.md, docs/moon-evidence.md): what it
+ * reads, its default sigma for a named phase, and its one-line refusals naming field, value and what
+ * is allowed. Contracts of the file format (common practice of the reader's other kinds).
+ */
+import { describe, expect, it } from 'vitest';
+import { readSceneText } from '../../src/scene/readScene.js';
+import { MOON_PHASE_DEFAULT_SIGMA_DEG } from '../../src/scene/readObservation.js';
+
+const scene = (observations: string): string => `heliochron: 1
+title: Velmar test
+site: { latitudeDeg: 47.62, longitudeDeg: 9.35, elevationM: 410 }
+calendar: gregorian
+window: { fromYear: 1800, toYear: 1839 }
+walls:
+  - { id: gate-west, azimuthDeg: 262, azimuthSigmaDeg: 1 }
+observations:
+${observations}
+`;
+
+describe('the moon in a scene file', () => {
+  it('reads the moon\'s direction, phase by fraction or by name, lit side and facts', () => {
+    const s = readSceneText(scene(`  - { id: m, kind: moon-direction, azimuthDeg: 235, azimuthSigmaDeg: 1, altitudeDeg: 23, altitudeSigmaDeg: 1 }
+  - { id: k, kind: moon-phase, illuminatedFraction: 0.2, sigma: 0.05 }
+  - { id: n, kind: moon-phase, phase: waxing crescent }
+  - { id: t, kind: moon-lit-side, litSideDeg: -105, sigmaDeg: 10 }
+  - { id: u, kind: moon-up }
+  - { id: v, kind: moon-not-up }
+  - { id: r, kind: rod-shadow, wall: gate-west, slopeDeg: 13, side: right, sigmaDeg: 1, light: sun }`), 'velmar.yaml');
+    expect(s.observations.map((o) => o.kind)).toEqual(['moon-direction', 'moon-phase', 'moon-phase', 'moon-lit-side', 'moon-up', 'moon-not-up', 'rod-shadow']);
+    const named = s.observations[2];
+    expect(named.kind === 'moon-phase' && named.phase === 'waxing crescent' ? named.sigmaDeg : NaN).toBe(MOON_PHASE_DEFAULT_SIGMA_DEG);
+  });
+
+  describe('edge cases', () => {
+    const refusal = (obs: string): string => {
+      try {
+        readSceneText(scene(obs), 'velmar.yaml');
+      } catch (e) {
+        return (e as Error).message;
+      }
+      return 'no refusal';
+    };
+    it('refuses a phase given both as a fraction and by name', () => {
+      expect(refusal('  - { id: k, kind: moon-phase, illuminatedFraction: 0.2, sigma: 0.05, phase: full }')).toMatch(/observations\[0\]\.phase.*either "illuminatedFraction"/);
+    });
+    it('refuses an unknown phase name with a suggestion', () => {
+      expect(refusal('  - { id: k, kind: moon-phase, phase: waxing cresent }')).toMatch(/Did you mean "waxing crescent"/);
+    });
+    it('refuses a fraction outside 0..1 and a fraction without its sigma', () => {
+      expect(refusal('  - { id: k, kind: moon-phase, illuminatedFraction: 1.2, sigma: 0.05 }')).toMatch(/illuminatedFraction/);
+      expect(refusal('  - { id: k, kind: moon-phase, illuminatedFraction: 0.2 }')).toMatch(/sigma/);
+    });
+    it('refuses shadows cast by moonlight, saying why', () => {
+      expect(refusal('  - { id: r, kind: rod-shadow, wall: gate-west, slopeDeg: 13, side: right, sigmaDeg: 1, light: moon }')).toMatch(/observations\[0\]\.light.*moonlight are not solved in this version/);
+    });
+    it('refuses the moon\'s direction in pixels, saying what to give instead', () => {
+      expect(refusal('  - { id: m, kind: moon-direction, pixels: { fromPx: [1, 2], toPx: [3, 4] } }')).toMatch(/observations\[0\]\.pixels.*as numbers/);
+    });
+    it('refuses a lit side of -180 (written as 180)', () => {
+      expect(refusal('  - { id: t, kind: moon-lit-side, litSideDeg: -180, sigmaDeg: 10 }')).toMatch(/litSideDeg/);
+    });
+  });
+});
