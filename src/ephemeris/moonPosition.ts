@@ -17,12 +17,12 @@
  * tests/ephemeris/moonAccuracy.test.ts (see docs/moon.md).
  * Leaves out: the moon's semi-diameter (altitudes are of the centre), libration, the horizon dip.
  */
-import { AstroTime, Body, EquatorFromVector, GeoVector, Horizon, Observer, ObserverVector, RotateVector, Rotation_EQD_ECT, Rotation_EQJ_EQD, SiderealTime, SphereFromVector, Vector } from 'astronomy-engine';
+import { AstroTime, Body, EquatorFromVector, GeoVector, Horizon, Observer, RotateVector, Rotation_EQD_ECT, Rotation_EQJ_EQD, SiderealTime, SphereFromVector, Vector } from 'astronomy-engine';
 import type { Air } from '../scene/types.js';
 import { atan2Deg, cosDeg, normalizeDeg180, normalizeDeg360, sinDeg, tanDeg, acosClamped, radToDeg } from '../math/angles.js';
 import { astroTimeFromJdUT, withDeltaT } from './engine.js';
 import { refractionDeg } from './refraction.js';
-import { geocentricSunOfDate, type SunPositionOptions, type SunSite } from './sunPosition.js';
+import { geocentricSunOfDate, topocentricOfDate, type SunPositionOptions, type SunSite } from './sunPosition.js';
 
 /** The moon as seen from a site at one instant. Degrees throughout; see docs/conventions.md. */
 export interface MoonPosition {
@@ -139,11 +139,7 @@ function moonPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | un
   // Geocentric apparent places of date (astronomy-engine GeoVector with light time, rotated J2000 -> of date).
   const moonGeo = geocentricMoonOfDate(time);
   const sunGeo = geocentricSunOfDate(time);
-  let seen = moonGeo;
-  if (options?.topocentric !== false) {
-    const obs = ObserverVector(time, observer, true);
-    seen = new Vector(moonGeo.x - obs.x, moonGeo.y - obs.y, moonGeo.z - obs.z, time);
-  }
+  const seen = options?.topocentric !== false ? topocentricOfDate(moonGeo, time, observer) : moonGeo;
   const eqTopo = EquatorFromVector(seen);
   const eqMoonGeo = EquatorFromVector(moonGeo);
   const eqSun = EquatorFromVector(sunGeo);

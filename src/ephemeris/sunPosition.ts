@@ -72,6 +72,12 @@ export function geocentricSunOfDate(time: AstroTime): Vector {
   return RotateVector(Rotation_EQJ_EQD(time), GeoVector(Body.Sun, time, true));
 }
 
+/** A geocentric vector of date as seen from the observer: the observer's geocentric position of date subtracted (astronomy-engine ObserverVector). */
+export function topocentricOfDate(geo: Vector, time: AstroTime, observer: Observer): Vector {
+  const obs = ObserverVector(time, observer, true);
+  return new Vector(geo.x - obs.x, geo.y - obs.y, geo.z - obs.z, time);
+}
+
 /**
  * Equation of time in minutes from the sun's geocentric apparent right ascension:
  * E = (Greenwich hour angle of the true sun) - (Greenwich hour angle of the mean sun),
@@ -101,12 +107,7 @@ function sunPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | und
   const time = astroTimeFromJdUT(jdUT, options?.deltaTSeconds);
   const observer = new Observer(site.latitudeDeg, site.longitudeDeg, site.elevationM);
   const geo = geocentricSunOfDate(time);
-  let seen = geo;
-  if (options?.topocentric !== false) {
-    // Topocentric: subtract the observer's geocentric position of date (astronomy-engine ObserverVector).
-    const obs = ObserverVector(time, observer, true);
-    seen = new Vector(geo.x - obs.x, geo.y - obs.y, geo.z - obs.z, time);
-  }
+  const seen = options?.topocentric !== false ? topocentricOfDate(geo, time, observer) : geo;
   const eq = EquatorFromVector(seen);
   const hor = Horizon(time, observer, eq.ra, eq.dec, undefined);
   const gastHours = SiderealTime(time);
