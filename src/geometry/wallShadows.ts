@@ -83,7 +83,8 @@ export function rodDirectionFromSlope(slopeDeg: number, side: Side): number {
 
 /**
  * Residual of a rod's shadow. With a side: the wrapped difference of shadow
- * directions on the frontal view (continuous through HSA = 0), over sigmaDeg.
+ * directions on the frontal view (continuous through HSA = 0), over sigmaDeg, times -1 on the
+ * right (so that it runs as predicted minus measured slope on both sides).
  * Without: the difference of slopes, over sigmaDeg. Partials analytic from
  * d atan2(y, x) = (x dy - y dx) / (x^2 + y^2).
  */
@@ -100,9 +101,13 @@ export function rodShadowResidual(m: RodShadowMeasurement, sun: SunDirection, wa
   let dAlt: number;
   let dHsa: number;
   if (m.side !== undefined) {
-    residual = normalizeDeg180(p.directionDeg - rodDirectionFromSlope(m.slopeDeg, m.side)) / m.sigmaDeg;
-    dAlt = ok ? -sh / q : 0;
-    dHsa = ok ? (sa * ca * ch) / q : 0;
+    // On the right the direction is minus the slope: turn the sign so that the residual runs as
+    // (predicted slope - measured slope) on both sides, as for every other measured number
+    // (docs/conventions.md); chi-square is unchanged.
+    const toSlope = m.side === 'right' ? -1 : 1;
+    residual = (toSlope * normalizeDeg180(p.directionDeg - rodDirectionFromSlope(m.slopeDeg, m.side))) / m.sigmaDeg;
+    dAlt = ok ? (toSlope * -sh) / q : 0;
+    dHsa = ok ? (toSlope * sa * ca * ch) / q : 0;
   } else {
     const sign = Math.sign(sh);
     residual = (p.slopeDeg - m.slopeDeg) / m.sigmaDeg;
@@ -251,7 +256,8 @@ export function predictFinShadow(sun: SunDirection, wallAzimuthDeg: number): Fin
 
 /**
  * Residual of a fin shadow on the angle scale. With a side: (HSA - atan(signed ratio)) /
- * sigma_HSA, the ratio signed positive to the right; without: (|HSA| - atan(ratio)) / sigma_HSA;
+ * sigma_HSA, the ratio signed positive to the right, times -1 on the left (so that it runs as
+ * predicted minus measured width on both sides); without: (|HSA| - atan(ratio)) / sigma_HSA;
  * sigma_HSA = sigma / (1 + ratio^2). Does not depend on the altitude.
  */
 export function finShadowResidual(m: FinShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): ResidualSet {
@@ -261,8 +267,12 @@ export function finShadowResidual(m: FinShadowMeasurement, sun: SunDirection, wa
   let residual: number;
   let dHsa: number;
   if (m.side !== undefined) {
-    residual = normalizeDeg180(hsaDeg - (m.side === 'right' ? observedDeg : -observedDeg)) / sigmaDeg;
-    dHsa = 1 / sigmaDeg;
+    // On the left the HSA is minus the angle of the ratio: turn the sign so that the residual runs as
+    // (predicted angle - measured angle) on both sides, as for every other measured number
+    // (docs/conventions.md); chi-square is unchanged.
+    const toRatio = m.side === 'right' ? 1 : -1;
+    residual = (toRatio * normalizeDeg180(hsaDeg - toRatio * observedDeg)) / sigmaDeg;
+    dHsa = toRatio / sigmaDeg;
   } else {
     residual = (Math.abs(hsaDeg) - observedDeg) / sigmaDeg;
     dHsa = Math.sign(hsaDeg) / sigmaDeg;

@@ -4,18 +4,21 @@
  * evidence with (predicted ratio - observed ratio) / sigma (Taylor, An Introduction
  * to Error Analysis, 2nd ed. 1997, ch. 3: first-order propagation).
  */
-import { describe, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { evidenceResiduals, predictEvidence, type ShadowEvidence } from '../../src/geometry/observationModels.js';
 import { expectClose } from '../helpers/expectClose.js';
+import { predictFinShadow, predictRodShadow } from '../../src/geometry/wallShadows.js';
 
 describe('rod residuals', () => {
   // Sun 210 / 40 on a south wall: slope 59.2103 deg to the right (hand value in shadowAngles.test.ts).
   const sun = { azimuthDeg: 210, altitudeDeg: 40 };
   it('compare slopes on the same side as a plain difference over sigma', () => {
     const r = evidenceResiduals({ kind: 'rod-shadow', slopeDeg: 55, side: 'right', sigmaDeg: 2 }, sun, 180);
-    // Directions on the frontal view: predicted -59.2103, observed -55: (-59.2103 + 55) / 2 = -2.1051.
-    expectClose(r.residuals[0], -2.10513, 1e-4);
+    // Directions on the frontal view: predicted -59.2103, observed -55; on the right the direction is
+    // minus the slope, so the residual is taken as slopes, (59.2103 - 55) / 2 = +2.1051, the same sign
+    // as without a side (docs/conventions.md: one sign for every measured number).
+    expectClose(r.residuals[0], 2.10513, 1e-4);
     const noSide = evidenceResiduals({ kind: 'rod-shadow', slopeDeg: 55, sigmaDeg: 2 }, sun, 180);
     expectClose(noSide.residuals[0], 2.10513, 1e-4); // slopes: (59.2103 - 55) / 2
   });
@@ -23,6 +26,26 @@ describe('rod residuals', () => {
     // Observed 55 deg to the left: direction 55 - 180 = -125; predicted -59.2103; (-59.2103 + 125) / 2 = 32.8949.
     const r = evidenceResiduals({ kind: 'rod-shadow', slopeDeg: 55, side: 'left', sigmaDeg: 2 }, sun, 180);
     expectClose(r.residuals[0], 32.8949, 1e-4);
+  });
+});
+
+describe('one sign on both sides of the wall', () => {
+  // docs/conventions.md: every residual runs as (predicted - measured) / sigma inside the solver and is shown
+  // as (measured - predicted) / sigma; a shadow to the right or to the left must not turn it (common practice).
+  const suns = [{ azimuthDeg: 210, altitudeDeg: 40 }, { azimuthDeg: 150, altitudeDeg: 40 }];
+  it('a rod: a measured slope below the predicted one gives a negative shown residual on either side', () => {
+    for (const s of suns) {
+      const p = predictRodShadow(s, 180);
+      const r = evidenceResiduals({ kind: 'rod-shadow', slopeDeg: p.slopeDeg - 3, side: p.side, sigmaDeg: 2 }, s, 180);
+      expectClose(r.residuals[0], 1.5, 1e-9);
+    }
+  });
+  it('a fin: a measured width below the predicted one gives a positive solver residual on either side', () => {
+    for (const s of suns) {
+      const p = predictFinShadow(s, 180);
+      const r = evidenceResiduals({ kind: 'fin-shadow', widthRatio: p.widthRatio * 0.8, side: p.side, sigma: 0.03 }, s, 180);
+      expect(r.residuals[0]).toBeGreaterThan(0);
+    }
   });
 });
 
