@@ -259,7 +259,7 @@ const MOON_KINDS: readonly (readonly [string, string])[] = [
 ];
 
 /** A new moon observation of a kind, with the keys the scene reader asks for (left empty to be filled in). */
-function newMoonObservation(choice: string, n: number): Record<string, DraftValue> {
+export function newMoonObservation(choice: string, n: number): Record<string, DraftValue> {
   const kind = choice === 'moon-phase-named' ? 'moon-phase' : choice;
   const o: Record<string, DraftValue> = { id: `${kind}-${n}`, kind };
   if (choice === 'moon-phase-named') return { ...o, phase: '' };
