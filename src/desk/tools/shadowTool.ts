@@ -8,7 +8,7 @@
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
-import { pointValue, typedNumber, wallFromCamera, wallIndex, type DeskTool, type ToolField, type ToolValues } from './tool.js';
+import { addObservation, pointValue, typedNumber, wallFromCamera, wallIndex, type DeskTool, type ToolField, type ToolValues } from './tool.js';
 
 export interface ShadowToolSpec {
   readonly id: string;
@@ -56,13 +56,7 @@ export function shadowTool(spec: ShadowToolSpec): DeskTool {
       if (spec.onWall) observation.wall = values.wall;
       if ((values.note ?? '').trim() !== '') observation.note = values.note.trim();
       observation.pixels = pixels;
-      return {
-        label: `add ${spec.name.toLowerCase()} ${id}`,
-        change: (d: Draft) => {
-          if (!Array.isArray(d.observations)) d.observations = [];
-          (d.observations as DraftValue[]).push(observation);
-        },
-      };
+      return addObservation(`add ${spec.name.toLowerCase()} ${id}`, observation);
     },
   };
 }

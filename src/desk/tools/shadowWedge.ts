@@ -6,7 +6,7 @@
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
-import { pointValue, typedNumber, type DeskTool, type ToolValues } from './tool.js';
+import { addObservation, pointValue, typedNumber, type DeskTool, type ToolValues } from './tool.js';
 
 export const shadowWedgeTool: DeskTool = {
   id: 'shadow-wedge',
@@ -32,12 +32,6 @@ export const shadowWedgeTool: DeskTool = {
     observation.edgesPx = [pointValue(clicks[1]), pointValue(clicks[2])];
     if ((values.sigmaPx ?? '').trim() !== '') observation.sigmaPx = typedNumber(values.sigmaPx);
     if ((values.note ?? '').trim() !== '') observation.note = values.note.trim();
-    return {
-      label: `add shadow and wedge ${id}`,
-      change: (d: Draft) => {
-        if (!Array.isArray(d.observations)) d.observations = [];
-        (d.observations as DraftValue[]).push(observation);
-      },
-    };
+    return addObservation(`add shadow and wedge ${id}`, observation);
   },
 };

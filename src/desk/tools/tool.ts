@@ -70,3 +70,14 @@ export function wallFromCamera(draft: Draft, wallId: string): boolean {
   const k = wallIndex(draft, wallId);
   return draft.camera !== undefined && k >= 0 && getAt(draft, ['walls', k, 'imagePlane']) === undefined;
 }
+
+/** The transaction that appends one observation to the document, with its label for undo. */
+export function addObservation(label: string, observation: Readonly<Record<string, DraftValue>>): ToolResult {
+  return {
+    label,
+    change: (d: Draft) => {
+      if (!Array.isArray(d.observations)) d.observations = [];
+      (d.observations as DraftValue[]).push(observation as Record<string, DraftValue>);
+    },
+  };
+}
