@@ -224,6 +224,22 @@ describe('the shadow wedge, the tip through the camera and the moon on the desk'
     expect(tool('fin-shadow').clicks({ ...values, id: 'pier' }, korn)[2]).toMatch(/^Click the point of the fin's front edge/);
   });
 
+  it('measures the overhang through its tip as `heliochron measure` does; with no camera found yet it is refused beside it, saying why', () => {
+    const after = applied(korn, 'overhang-shadow', [[1300, 428], [1300, 470], [1330, 445]], { id: 'cornice', wall: 'kornhaus-front', projectionM: '', projectionSigmaM: '0.02', note: '' });
+    const k = (after.observations as Draft[]).length - 1;
+    const d = derive(after);
+    expect(d.itemRefusals.get(`observations[${k}]`)).toBeUndefined();
+    const direct = resolvePixelObservations(readSceneText(sceneYamlText(after), 'desk.yaml'));
+    expect(direct.measurements.map((m) => m.field)).toEqual([`observations[${k}]`]);
+    expect(d.measurements.map((m) => [m.field, m.values.map((v) => [v.name, v.value, v.sigma])]))
+      .toEqual(direct.measurements.map((m) => [m.field, m.values.map((v) => [v.name, v.value, v.sigma])]));
+    const noCamera = structuredClone(after);
+    delete (noCamera.camera as Draft).wallLines;
+    const e = derive(noCamera);
+    expect(e.measurements).toEqual([]);
+    expect(e.itemRefusals.get(`observations[${k}]`)).toMatch(/only the camera puts into the picture, and the camera is not found yet/);
+  });
+
   it('keeps two clicks and the depth in metres where the wall has its figure or the scene has no camera', () => {
     const noCamera = structuredClone(korn);
     delete noCamera.camera;
