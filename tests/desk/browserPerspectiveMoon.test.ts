@@ -92,6 +92,7 @@ describe('the shadow wedge and the moon on the desk in Chromium', () => {
     const message = await page.locator('.field.refused .message').first().textContent();
     expect(message).toContain(`observations[${n + 2}].phase`);
     expect(message).toContain('waning crescent'); // the reader lists what is allowed
+    await page.locator('details.form-section', { hasText: 'A moon drawn in the picture' }).screenshot({ path: join(OUT_DIR, 'moon-form-refused.png') });
     await phase.selectOption('waning crescent');
     await expect.poll(() => phase.getAttribute('aria-invalid')).toBeNull();
     expect(await page.locator('.message').allTextContents()).toEqual([]);
