@@ -6,7 +6,8 @@
  *
  * Measuring must not wait for the site or the window to be typed in, so the pixel part is
  * measured on a copy of the document in which what does not change a measurement (title,
- * site, calendar, window, the non-pixel observations) is replaced by neutral stand-ins; the
+ * site, calendar, window, the non-pixel observations) is replaced by neutral stand-ins (the
+ * camera block stays: it puts walls and the ground without a figure into the picture); the
  * observations keep their places, so that paths and Monte Carlo seeds are those of the file.
  * An item that the reader or the rectification refuses gets the message and is left out of
  * the copy, and measuring goes on for the others (at most once per item: bounded).
@@ -62,7 +63,16 @@ function measuringCopy(draft: Draft): Draft {
       : w,
   );
   const pixelForm = (o: DraftValue): boolean => PLANE_PIXEL_KINDS.has(String(getAt(o, ['kind']))) && getAt(o, ['pixels']) !== undefined;
-  return neutralCopy(draft, 'measuring', walls, pixelForm, ['image', 'groundPlane', 'mapNorthCorrectionDeg', 'seed']);
+  return neutralCopy(draft, 'measuring', walls, pixelForm, ['image', 'groundPlane', 'camera', 'mapNorthCorrectionDeg', 'seed']);
+}
+
+/** True for a pixel-form observation on a plane that only the camera puts into the picture (no figure clicked on it). */
+function onCameraPlane(copy: Draft, o: DraftValue): boolean {
+  if (getAt(o, ['pixels']) === undefined) return false;
+  if (onGround(o)) return copy.groundPlane === undefined;
+  const wallId = getAt(o, ['wall']) ?? getAt(o, ['pixels', 'wall']);
+  const wall = (copy.walls as DraftValue[]).find((w) => getAt(w, ['id']) === wallId);
+  return wall !== undefined && getAt(wall, ['imagePlane']) === undefined;
 }
 
 /** True for a pixel-form observation measured on the ground (pole, eave line, point pair without a wall). */
@@ -89,6 +99,11 @@ function leaveOut(copy: Draft, owner: string, refusals: Map<string, string>): bo
     const list = copy.observations as DraftValue[];
     if (getAt(list[k], ['kind']) === 'sun-up') return false;
     list[k] = standIn(k);
+    return true;
+  }
+  if (owner.startsWith('camera') && copy.camera !== undefined) {
+    leaveOutDependents(copy, (o) => onCameraPlane(copy, o), "it is measured on a plane that only the camera puts into the picture, and the camera is not found yet (see The picture's camera)", refusals);
+    delete copy.camera;
     return true;
   }
   const wall = /^walls\[(\d+)\](\.imagePlane)?$/.exec(owner);

@@ -32,7 +32,8 @@ export interface Perspective {
   readonly pairRefusals: ReadonlyMap<string, string>;
 }
 
-const isPair = (o: DraftValue | undefined): boolean => getAt(o, ['kind']) === 'object-shadow';
+/** An object-shadow pair or a shadow wedge: both stand on the camera alone. */
+const isPair = (o: DraftValue | undefined): boolean => getAt(o, ['kind']) === 'object-shadow' || getAt(o, ['kind']) === 'shadow-wedge';
 
 /** The copy of the document the camera and the suns need, with neutral stand-ins for the rest. */
 function perspectiveCopy(draft: Draft): Draft {

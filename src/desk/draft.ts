@@ -70,8 +70,8 @@ function isPoint(v: DraftValue | undefined): v is [number, number] {
 /** The clicked points of each pixel form, by key under `pixels`, with the word drawn beside each. */
 const PIXEL_POINT_WORDS: Readonly<Record<string, readonly (readonly [key: string, word: string])[]>> = {
   'rod-shadow': [['fromPx', 'root'], ['toPx', 'shadow']],
-  'overhang-shadow': [['fromPx', 'edge'], ['toPx', 'shadow']],
-  'fin-shadow': [['fromPx', 'edge'], ['toPx', 'shadow']],
+  'overhang-shadow': [['fromPx', 'edge'], ['toPx', 'shadow'], ['tipPx', 'tip']],
+  'fin-shadow': [['fromPx', 'edge'], ['toPx', 'shadow'], ['tipPx', 'tip']],
   'pole-shadow': [['fromPx', 'foot'], ['toPx', 'tip']],
   'eave-shadow': [['fromPx', 'foot'], ['alongPx', 'foot 2'], ['toPx', 'shadow line']],
   'shadow-points': [['fromPx', 'foot'], ['toPx', 'shadow'], ['objectPx', 'caster']],
@@ -117,6 +117,16 @@ export function draftPoints(draft: Draft): DraftPoint[] {
         const p = getAt(o, [key]);
         if (isPoint(p)) out.push({ path: ['observations', k, key], xy: p, label: `${id} ${word}`, owner: ['observations', k] });
       }
+      return;
+    }
+    if (getAt(o, ['kind']) === 'shadow-wedge') {
+      const owner = ['observations', k];
+      const shadow = getAt(o, ['shadowPx']);
+      if (isPoint(shadow)) out.push({ path: [...owner, 'shadowPx'], xy: shadow, label: `${id} shadow`, owner });
+      [0, 1].forEach((j) => {
+        const p = getAt(o, ['edgesPx', j]);
+        if (isPoint(p)) out.push({ path: [...owner, 'edgesPx', j], xy: p, label: `${id} edge ${j + 1}`, owner });
+      });
       return;
     }
     if (!words) return;

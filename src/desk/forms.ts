@@ -1,12 +1,14 @@
 /**
  * The forms for what is not clicked: the scene's title, picture, site, calendar, window, air,
- * walls, facts (lit / shaded / sun up) and clocks. Each field edits one path of the document in
+ * walls, facts (lit / shaded / sun up), clocks and sundials, and the moon (its direction, phase, lit
+ * side, up or not up). Each field edits one path of the document in
  * one transaction; the scene reader's own message is shown beside the field it names.
  */
 import { loadReformTable } from '../calendar/regions.js';
 import { h, type Child } from './dom.js';
 import { getAt, pathText, setAt, type Draft, type DraftPath, type DraftValue } from './draft.js';
 import type { Refusal } from './derive.js';
+import { NAMED_MOON_PHASES } from '../scene/readObservation.js';
 import { typedNumber } from './tools/tool.js';
 
 export interface FormContext {
@@ -246,6 +248,86 @@ const SUNDIAL_LINES: readonly (readonly [string, string])[] = [
   ['unequal', 'unequal hours (twelfths of the daylight)'],
 ];
 
+/** The moon's observations (docs/moon-evidence.md), value and words. */
+const MOON_KINDS: readonly (readonly [string, string])[] = [
+  ['moon-direction', "the moon's direction (azimuth and altitude)"],
+  ['moon-phase', 'how much of the moon is lit (its phase)'],
+  ['moon-phase-named', "the moon's phase by name"],
+  ['moon-lit-side', 'which way its lit side faces, as drawn'],
+  ['moon-up', 'the moon is in the sky'],
+  ['moon-not-up', 'the moon is not in the sky'],
+];
+
+/** A new moon observation of a kind, with the keys the scene reader asks for (left empty to be filled in). */
+export function newMoonObservation(choice: string, n: number): Record<string, DraftValue> {
+  const kind = choice === 'moon-phase-named' ? 'moon-phase' : choice;
+  const o: Record<string, DraftValue> = { id: `${kind}-${n}`, kind };
+  if (choice === 'moon-phase-named') return { ...o, phase: '' };
+  if (kind === 'moon-direction') Object.assign(o, { azimuthDeg: '', azimuthSigmaDeg: 2, altitudeDeg: '', altitudeSigmaDeg: 2 });
+  if (kind === 'moon-phase') Object.assign(o, { illuminatedFraction: '', sigma: 0.05 });
+  if (kind === 'moon-lit-side') Object.assign(o, { litSideDeg: '', sigmaDeg: 10 });
+  return o;
+}
+
+/** The fields of one moon observation; the reader's messages beside them. */
+function moonFields(ctx: FormContext, kind: string, path: DraftPath): (HTMLElement | null)[] {
+  if (kind === 'moon-direction') {
+    return [
+      field(ctx, { path: [...path, 'azimuthDeg'], label: 'azimuth, deg (from true north, clockwise)', kind: 'number' }),
+      field(ctx, { path: [...path, 'azimuthSigmaDeg'], label: 'its sigma, deg', kind: 'number' }),
+      field(ctx, { path: [...path, 'altitudeDeg'], label: "altitude of the moon's centre, deg (as seen, refracted)", kind: 'number' }),
+      field(ctx, { path: [...path, 'altitudeSigmaDeg'], label: 'its sigma, deg', kind: 'number' }),
+    ];
+  }
+  if (kind === 'moon-phase') {
+    return [
+      h('p', { class: 'small', text: 'Give either the lit fraction with its sigma, or a named phase (not both).' }),
+      field(ctx, { path: [...path, 'illuminatedFraction'], label: 'lit fraction of the disc (0 new to 1 full)', kind: 'number' }),
+      field(ctx, { path: [...path, 'sigma'], label: 'its sigma (more than 0, up to 1)', kind: 'number' }),
+      field(ctx, { path: [...path, 'phase'], label: 'or a named phase', kind: 'select', choices: NAMED_MOON_PHASES.map((p) => [p, p] as const) }),
+      field(ctx, { path: [...path, 'sigmaDeg'], label: 'its sigma, deg of phase longitude', kind: 'number', hint: 'default 22.5' }),
+    ];
+  }
+  if (kind === 'moon-lit-side') {
+    return [
+      field(ctx, { path: [...path, 'litSideDeg'], label: 'lit side, deg from straight up in the picture, + towards the left (0 top, 90 left, -90 right, 180 bottom), as the print shows it', kind: 'number' }),
+      field(ctx, { path: [...path, 'sigmaDeg'], label: 'its sigma, deg', kind: 'number' }),
+    ];
+  }
+  return [];
+}
+
+function moonSection(ctx: FormContext): HTMLElement {
+  const items: HTMLElement[] = [];
+  listOf(ctx.draft, 'observations').forEach((o, k) => {
+    const kind = String(getAt(o, ['kind']));
+    const words = MOON_KINDS.find(([v]) => v === kind)?.[1];
+    if (words === undefined) return;
+    const path = ['observations', k];
+    const id = String(getAt(o, ['id']) ?? '');
+    const refusal = ctx.itemRefusals.get(`observations[${k}]`);
+    items.push(h('fieldset', { class: 'item', 'data-item': `observations[${k}]` }, [
+      h('legend', { text: `${words[0].toUpperCase()}${words.slice(1)}: ${id}` }),
+      field(ctx, { path: [...path, 'id'], label: 'name (id)', kind: 'text' }),
+      ...moonFields(ctx, kind, path),
+      field(ctx, { path: [...path, 'note'], label: 'note', kind: 'longtext' }),
+      refusal && messageFor(ctx, `observations[${k}]`) === null ? h('p', { class: 'message', role: 'alert' }, [h('strong', { text: 'Not accepted: ' }), refusal]) : null,
+      removeButton(ctx, `remove ${id}`, path),
+    ]));
+  });
+  const kind = h('select', { id: 'new-moon-kind', 'aria-label': 'kind of moon observation' }, MOON_KINDS.map(([v, w]) => h('option', { value: v, text: w })));
+  const add = h('button', { type: 'button', id: 'add-moon', text: 'Add this' });
+  add.addEventListener('click', () => ctx.commit(`add ${kind.value.replace('-named', '')}`, (d) => {
+    const list = Array.isArray(d.observations) ? d.observations : (d.observations = []);
+    list.push(newMoonObservation(kind.value, list.length + 1));
+  }));
+  return section(ctx, 'The moon', [
+    h('p', { class: 'small', text: "A moon drawn in the picture narrows the years (docs/moon-evidence.md). It needs the sun's evidence beside it; a painted moon may be a convention." }),
+    ...items,
+    h('div', { class: 'row' }, [kind, add]),
+  ], items.length > 0);
+}
+
 /** All the forms, in the order of the scene file. */
 export function renderForms(ctx: FormContext): HTMLElement[] {
   // the reader's first refusal, also at the top (the field itself may be further down, marked the same way)
@@ -286,5 +368,6 @@ export function renderForms(ctx: FormContext): HTMLElement[] {
     ], ctx.draft.air !== undefined),
     wallsSection(ctx),
     ...factsAndClocks(ctx),
+    moonSection(ctx),
   ];
 }

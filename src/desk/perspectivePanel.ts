@@ -104,13 +104,14 @@ function pairItems(ctx: PerspectiveContext): HTMLElement[] {
   const list = Array.isArray(ctx.draft.observations) ? ctx.draft.observations : [];
   const items: HTMLElement[] = [];
   list.forEach((o, k) => {
-    if (getAt(o, ['kind']) !== 'object-shadow') return;
+    const kind = getAt(o, ['kind']);
+    if (kind !== 'object-shadow' && kind !== 'shadow-wedge') return;
     const field = `observations[${k}]`;
     const id = String(getAt(o, ['id']));
     const group = getAt(o, ['group']);
     const refusal = ctx.perspective?.pairRefusals.get(field);
     items.push(h('li', { class: 'item', 'data-item': field, 'data-id': id }, [
-      h('h4', { text: `${id}: object and shadow${typeof group === 'string' ? `, group ${group}` : ''}` }),
+      h('h4', { text: `${id}: ${kind === 'shadow-wedge' ? 'shadow and wedge (a one-sided bound on the sun)' : 'object and shadow'}${typeof group === 'string' ? `, group ${group}` : ''}` }),
       refusal ? refusalNote(refusal) : null,
       getAt(o, ['note']) !== undefined ? h('p', { class: 'note', text: String(getAt(o, ['note'])) }) : null,
       deleteButton(ctx, `delete ${id}`, ['observations', k]),

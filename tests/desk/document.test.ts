@@ -11,6 +11,7 @@ import { sceneYamlText } from '../../src/desk/sceneYaml.js';
 import { TOOLS } from '../../src/desk/tools/registry.js';
 import { derivePerspective } from '../../src/desk/derivePerspective.js';
 import { resolveSceneSun } from '../../src/image/sceneSun.js';
+import { newMoonObservation } from '../../src/desk/forms.js';
 
 // The desk's document is the scene file's own data (src/desk/draft.ts): what it saves is read by the
 // scene reader into the same Scene as the file it came from; its measurements are the library's.
@@ -169,5 +170,118 @@ describe("the picture's own perspective on the desk", () => {
     expect(tool('vertical-edges').clicks({ points: '3' }, h.draft).length).toBe(3);
     h = undo(undo(h));
     expect(getAt(h.draft, ['camera', 'wallLines', 0, 'lines'])).toEqual([[[809, 1120], [1776, 959]]]);
+  });
+});
+
+describe('the shadow wedge, the tip through the camera and the moon on the desk', () => {
+  const KORN = fileURLToPath(new URL('../../examples/kornplatz-figures/kornplatz-figures.yaml', import.meta.url));
+  const korn = parse(readFileSync(KORN, 'utf8')) as Draft;
+  const tool = (id: string) => TOOLS.find((t) => t.id === id)!;
+  const applied = (draft: Draft, id: string, clicks: [number, number][], values: Record<string, string>): Draft => {
+    const r = tool(id).finish(draft, clicks, values);
+    if (typeof r === 'string') throw new Error(r);
+    const after = structuredClone(draft);
+    r.change(after);
+    return after;
+  };
+  const last = (d: Draft) => (d.observations as Draft[])[(d.observations as Draft[]).length - 1];
+
+  it('places a shadow wedge by three clicks (shadow, then the two edges) that the scene reader reads as the file states it', () => {
+    const wedge = tool('shadow-wedge');
+    expect(wedge.clicks({}, korn).map((s) => s.slice(0, 30))).toEqual([
+      'Click the shadow point: the ti', 'Click a point on one side of t', 'Click a point on the other sid',
+    ]);
+    const after = applied(korn, 'shadow-wedge', [[1616, 1110], [1480, 1010], [1500, 1060]], { id: 'brim', group: 'figures', sigmaPx: '1.5', note: '' });
+    expect(last(after)).toEqual({ id: 'brim', kind: 'shadow-wedge', group: 'figures', shadowPx: [1616, 1110], edgesPx: [[1480, 1010], [1500, 1060]], sigmaPx: 1.5 });
+    const scene = readSceneText(sceneYamlText(after), 'desk.yaml');
+    expect(scene.observations[scene.observations.length - 1]).toEqual({ id: 'brim', kind: 'shadow-wedge', group: 'figures', shadowPx: [1616, 1110], edgesPx: [[1480, 1010], [1500, 1060]], sigmaPx: 1.5 });
+    // its three points are points of the document, owned by the wedge
+    const k = (after.observations as Draft[]).length - 1;
+    expect(draftPoints(after).filter((p) => p.owner[1] === k).map((p) => p.label)).toEqual(['brim shadow', 'brim edge 1', 'brim edge 2']);
+    // the wedge enters the camera's sun as `heliochron measure` takes it (same scene, same constraint)
+    const p = derivePerspective(after)!;
+    expect([...p.pairRefusals.keys()]).toEqual([]);
+    expect(p.sceneSun!.observations.some((o) => o.kind === 'shadow-wedge' && o.id === 'brim')).toBe(true);
+  });
+
+  it('a wedge of two edges in one direction is refused beside the wedge in the scene reader\'s or the camera\'s words', () => {
+    const after = applied(korn, 'shadow-wedge', [[1616, 1110], [1480, 1010], [1344, 910]], { id: 'flat', group: '', sigmaPx: '', note: '' });
+    const k = (after.observations as Draft[]).length - 1;
+    const refusal = derivePerspective(after)!.pairRefusals.get(`observations[${k}]`);
+    expect(refusal).toMatch(/edgesPx/);
+  });
+
+  it('asks for the overhang\'s tip as a third click on a wall from the camera, and writes tipPx in place of projectionM', () => {
+    const overhang = tool('overhang-shadow');
+    const values = { id: 'cornice', wall: 'kornhaus-front', projectionM: '0.6', projectionSigmaM: '0.02', note: '' };
+    const steps = overhang.clicks(values, korn);
+    expect(steps.length).toBe(3);
+    expect(steps[2]).toMatch(/^Click the point of the overhang's front edge straight out from the first point/);
+    const after = applied(korn, 'overhang-shadow', [[1000, 760], [1000, 800], [990, 775]], values);
+    expect(last(after)).toEqual({ id: 'cornice', kind: 'overhang-shadow', wall: 'kornhaus-front', pixels: { fromPx: [1000, 760], toPx: [1000, 800], tipPx: [990, 775] } });
+    const read = readSceneText(sceneYamlText(after), 'desk.yaml').observations.find((o) => o.id === 'cornice');
+    expect(read).toMatchObject({ kind: 'overhang-shadow', wallId: 'kornhaus-front', pixels: { fromPx: [1000, 760], toPx: [1000, 800], tipPx: [990, 775] } });
+    expect(tool('fin-shadow').clicks({ ...values, id: 'pier' }, korn)[2]).toMatch(/^Click the point of the fin's front edge/);
+  });
+
+  it('measures the overhang through its tip as `heliochron measure` does; with no camera found yet it is refused beside it, saying why', () => {
+    const after = applied(korn, 'overhang-shadow', [[1300, 428], [1300, 470], [1330, 445]], { id: 'cornice', wall: 'kornhaus-front', projectionM: '', projectionSigmaM: '0.02', note: '' });
+    const k = (after.observations as Draft[]).length - 1;
+    const d = derive(after);
+    expect(d.itemRefusals.get(`observations[${k}]`)).toBeUndefined();
+    const direct = resolvePixelObservations(readSceneText(sceneYamlText(after), 'desk.yaml'));
+    expect(direct.measurements.map((m) => m.field)).toEqual([`observations[${k}]`]);
+    expect(d.measurements.map((m) => [m.field, m.values.map((v) => [v.name, v.value, v.sigma])]))
+      .toEqual(direct.measurements.map((m) => [m.field, m.values.map((v) => [v.name, v.value, v.sigma])]));
+    const noCamera = structuredClone(after);
+    delete (noCamera.camera as Draft).wallLines;
+    const e = derive(noCamera);
+    expect(e.measurements).toEqual([]);
+    expect(e.itemRefusals.get(`observations[${k}]`)).toMatch(/only the camera puts into the picture, and the camera is not found yet/);
+  });
+
+  it('keeps two clicks and the depth in metres where the wall has its figure or the scene has no camera', () => {
+    const noCamera = structuredClone(korn);
+    delete noCamera.camera;
+    const values = { id: 'cornice', wall: 'kornhaus-front', projectionM: '0.6', projectionSigmaM: '0.02', note: '' };
+    expect(tool('overhang-shadow').clicks(values, noCamera).length).toBe(2);
+    const after = applied(noCamera, 'overhang-shadow', [[1000, 760], [1000, 800]], values);
+    expect(getAt(last(after), ['pixels'])).toEqual({ fromPx: [1000, 760], toPx: [1000, 800], projectionM: 0.6, projectionSigmaM: 0.02 });
+    const withFigure = structuredClone(korn);
+    setAt(withFigure, ['walls', 0, 'imagePlane'], { pointsPx: [[1, 1], [2, 1], [2, 2], [1, 2]], widthM: 1, heightM: 1 });
+    expect(tool('fin-shadow').clicks(values, withFigure).length).toBe(2);
+  });
+
+  it('the moon\'s forms make observations the scene reader reads, and the reader\'s message names the field to fill in', () => {
+    const list = (d: Draft) => d.observations as Draft[];
+    const draft = structuredClone(korn);
+    for (const choice of ['moon-direction', 'moon-phase', 'moon-phase-named', 'moon-lit-side', 'moon-up', 'moon-not-up']) {
+      list(draft).push(newMoonObservation(choice, list(draft).length + 1));
+    }
+    const n = list(korn).length;
+    // as added, the empty fields are refused in the reader's words, naming the field
+    const first = derive(draft).refusal!;
+    expect(first.field).toBe(`observations[${n}].azimuthDeg`);
+    // filled in as the forms write them (each field one path)
+    setAt(draft, ['observations', n, 'azimuthDeg'], 250);
+    setAt(draft, ['observations', n, 'altitudeDeg'], 12.5);
+    expect(derive(draft).refusal!.field).toBe(`observations[${n + 1}].illuminatedFraction`);
+    setAt(draft, ['observations', n + 1, 'illuminatedFraction'], 0.2);
+    expect(derive(draft).refusal!.field).toBe(`observations[${n + 2}].phase`);
+    setAt(draft, ['observations', n + 2, 'phase'], 'waning crescent');
+    setAt(draft, ['observations', n + 3, 'litSideDeg'], -100);
+    expect(derive(draft).refusal).toBeNull();
+    const scene = readSceneText(sceneYamlText(draft), 'desk.yaml');
+    expect(scene.observations.slice(n)).toEqual([
+      { id: `moon-direction-${n + 1}`, kind: 'moon-direction', azimuthDeg: 250, azimuthSigmaDeg: 2, altitudeDeg: 12.5, altitudeSigmaDeg: 2 },
+      { id: `moon-phase-${n + 2}`, kind: 'moon-phase', illuminatedFraction: 0.2, sigma: 0.05 },
+      { id: `moon-phase-${n + 3}`, kind: 'moon-phase', phase: 'waning crescent', sigmaDeg: 22.5 },
+      { id: `moon-lit-side-${n + 4}`, kind: 'moon-lit-side', litSideDeg: -100, sigmaDeg: 10 },
+      { id: `moon-up-${n + 5}`, kind: 'moon-up' },
+      { id: `moon-not-up-${n + 6}`, kind: 'moon-not-up' },
+    ]);
+    // both forms of a phase at once: the reader refuses it and says why
+    setAt(draft, ['observations', n + 1, 'phase'], 'full');
+    expect(derive(draft).refusal!.field).toMatch(new RegExp(`^observations\\[${n + 1}\\]`));
   });
 });

@@ -6,7 +6,7 @@
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
-import { pointValue, type DeskTool, type ToolValues } from './tool.js';
+import { addObservation, pointValue, type DeskTool, type ToolValues } from './tool.js';
 
 export const objectShadowTool: DeskTool = {
   id: 'object-shadow',
@@ -29,12 +29,6 @@ export const objectShadowTool: DeskTool = {
     observation.objectPx = pointValue(clicks[0]);
     observation.shadowPx = pointValue(clicks[1]);
     if ((values.note ?? '').trim() !== '') observation.note = values.note.trim();
-    return {
-      label: `add object and shadow ${id}`,
-      change: (d: Draft) => {
-        if (!Array.isArray(d.observations)) d.observations = [];
-        (d.observations as DraftValue[]).push(observation);
-      },
-    };
+    return addObservation(`add object and shadow ${id}`, observation);
   },
 };

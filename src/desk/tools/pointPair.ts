@@ -7,15 +7,14 @@
  * itself is clicked third.
  */
 import type { PixelPoint } from '../../scene/types.js';
-import { freshObservationId, getAt, type Draft, type DraftValue } from '../draft.js';
-import { pointValue, typedNumber, wallIndex, type DeskTool, type ToolValues } from './tool.js';
+import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
+import { addObservation, pointValue, typedNumber, wallFromCamera, wallIndex, type DeskTool, type ToolValues } from './tool.js';
 
 /** True when the plane the pair is on comes from the camera alone (no clicked figure, a camera block). */
 function fromCamera(draft: Draft, values: ToolValues): boolean {
   if (draft.camera === undefined) return false;
   if (values.on !== 'wall') return draft.groundPlane === undefined;
-  const k = wallIndex(draft, values.wall ?? '');
-  return k >= 0 && getAt(draft, ['walls', k, 'imagePlane']) === undefined;
+  return wallFromCamera(draft, values.wall ?? '');
 }
 
 export const pointPairTool: DeskTool = {
@@ -55,12 +54,6 @@ export const pointPairTool: DeskTool = {
     const observation: Record<string, DraftValue> = { id, kind: 'shadow-points' };
     if ((values.note ?? '').trim() !== '') observation.note = values.note.trim();
     observation.pixels = pixels;
-    return {
-      label: `add caster and shadow point ${id}`,
-      change: (d: Draft) => {
-        if (!Array.isArray(d.observations)) d.observations = [];
-        (d.observations as DraftValue[]).push(observation);
-      },
-    };
+    return addObservation(`add caster and shadow point ${id}`, observation);
   },
 };

@@ -1,7 +1,7 @@
 /**
  * The desk's measuring tools, in the order of their buttons. One line per tool: the figures of
  * known size and their shadows (rod, overhang, fin, pole, eave line, caster and shadow point), then the picture's own perspective (vertical edges, wall
- * courses) and object-shadow pairs on any surface.
+ * courses), object-shadow pairs on any surface and shadows whose casting point lies within a wedge.
  */
 import type { DeskTool } from './tool.js';
 import { groundFigureTool } from './groundFigure.js';
@@ -16,6 +16,7 @@ import { pointPairTool } from './pointPair.js';
 import { verticalEdgesTool } from './verticalEdges.js';
 import { wallCoursesTool } from './wallCourses.js';
 import { objectShadowTool } from './objectShadow.js';
+import { shadowWedgeTool } from './shadowWedge.js';
 
 export const TOOLS: readonly DeskTool[] = [
   wallFigureTool,
@@ -30,4 +31,5 @@ export const TOOLS: readonly DeskTool[] = [
   verticalEdgesTool,
   wallCoursesTool,
   objectShadowTool,
+  shadowWedgeTool,
 ];

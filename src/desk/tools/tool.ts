@@ -5,7 +5,7 @@
  * registry.ts; nothing else changes.
  */
 import type { PixelPoint } from '../../scene/types.js';
-import type { Draft, DraftValue } from '../draft.js';
+import { getAt, type Draft, type DraftValue } from '../draft.js';
 
 /** Values typed into the tool's own fields, as text. */
 export type ToolValues = Readonly<Record<string, string>>;
@@ -64,3 +64,20 @@ export function wallIndex(draft: Draft, id: string): number {
 }
 
 export const WALL_FIELD: ToolField = { name: 'wall', label: 'on wall', kind: 'wall', initial: '' };
+
+/** True when the wall comes into the picture from the camera alone: a camera block, and no imagePlane on the wall. */
+export function wallFromCamera(draft: Draft, wallId: string): boolean {
+  const k = wallIndex(draft, wallId);
+  return draft.camera !== undefined && k >= 0 && getAt(draft, ['walls', k, 'imagePlane']) === undefined;
+}
+
+/** The transaction that appends one observation to the document, with its label for undo. */
+export function addObservation(label: string, observation: Readonly<Record<string, DraftValue>>): ToolResult {
+  return {
+    label,
+    change: (d: Draft) => {
+      if (!Array.isArray(d.observations)) d.observations = [];
+      (d.observations as DraftValue[]).push(observation as Record<string, DraftValue>);
+    },
+  };
+}
