@@ -303,7 +303,7 @@ function measureSegment(
     case 'overhang-shadow': {
       const ratio = q(0);
       if (!(ratio.value >= 0)) {
-        throw new InvalidInputError(`${field}.pixels.toPx`, obs.pixels!.toPx, 'a shadow point on or below the overhang root line', `On the wall it lies ${fmt(to[1] - from[1], 3)} m above the root line`);
+        throw new InvalidInputError(`${field}.pixels.toPx`, obs.pixels!.toPx, 'a shadow point on or below the overhang root line', plane.fromCamera ? 'On the wall it lies above the root line (a wall put in the picture by the camera has no metres: the distance is not given)' : `On the wall it lies ${fmt(Math.abs(to[1] - from[1]), 3)} m above the root line`);
       }
       const projection = projectionOf(obs, plane, setup.p0);
       const note = `depth ratio ${fmt(ratio.value, 4)} (shadow depth ${fmt(from[1] - to[1], 3)} ${projection.unit} over projection ${projection.words}), ${how}; ${sigmaText(ratio, 4)}`;

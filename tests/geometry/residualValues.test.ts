@@ -36,14 +36,14 @@ describe('one sign on both sides of the wall', () => {
   it('a rod: a measured slope below the predicted one gives a negative shown residual on either side', () => {
     for (const s of suns) {
       const p = predictRodShadow(s, 180);
-      const r = evidenceResiduals({ kind: 'rod-shadow', slopeDeg: p.slopeDeg - 3, side: p.side, sigmaDeg: 2 }, s, 180);
+      const r = evidenceResiduals({ kind: 'rod-shadow', slopeDeg: p.slopeDeg - 3, side: p.side ?? undefined, sigmaDeg: 2 }, s, 180);
       expectClose(r.residuals[0], 1.5, 1e-9);
     }
   });
   it('a fin: a measured width below the predicted one gives a positive solver residual on either side', () => {
     for (const s of suns) {
       const p = predictFinShadow(s, 180);
-      const r = evidenceResiduals({ kind: 'fin-shadow', widthRatio: p.widthRatio * 0.8, side: p.side, sigma: 0.03 }, s, 180);
+      const r = evidenceResiduals({ kind: 'fin-shadow', widthRatio: p.widthRatio * 0.8, side: p.side ?? undefined, sigma: 0.03 }, s, 180);
       expect(r.residuals[0]).toBeGreaterThan(0);
     }
   });
