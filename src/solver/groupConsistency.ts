@@ -30,6 +30,9 @@ import type { RawCandidate } from './stageB.js';
 import type { DayWindow } from './window.js';
 
 /** One group of the picture tested against the rest. */
+/** Said of two groups that are each other's rest. */
+export const CANNOT_TELL_WHICH = 'with two groups the test says that they were not lit by one sun, not which of them is out of place';
+
 export interface GroupTest {
   readonly group: string;
   /** Measured observations of the group that take part (its shadows). */
@@ -56,6 +59,10 @@ export interface GroupTest {
   readonly pThreshold: number;
   /** The plain sentence for the report. */
   readonly sentence: string;
+  /** The finding alone, without the cautions in brackets: for the verdict when the group differs. */
+  readonly finding: string;
+  /** True for two groups that are each other's rest: the test cannot say which of them is out of place. */
+  readonly cannotTellWhich: boolean;
 }
 
 /** Grid of the separate sun's first search, degrees (common practice: coarser than any sigma that matters, refined after). */
@@ -133,20 +140,22 @@ export function groupConsistency(scene: Scene, model: EvidenceModel, best: RawCa
     const restName = restGroups.length === 1 && restGroups[0] !== '' ? quoted(restGroups[0]) : 'the rest of the picture';
     const differs = p < LOO_P_THRESHOLD;
     const numbers = `Delta chi-square ${delta.toFixed(1)} for ${dof} degree${dof === 1 ? '' : 's'} of freedom, ${p < 1e-6 ? 'p < 0.000001' : `p = ${p.toPrecision(2)}`}`;
+    const finding = differs
+      ? `the shadows of ${quoted(label)} do not share the light of ${restName}: ${numbers}; on their own they point to a sun at azimuth ${sun.azimuthDeg.toFixed(1)} deg, altitude ${sun.altitudeDeg.toFixed(1)} deg`
+      : `the shadows of ${quoted(label)} agree with the light of ${restName}`;
     const sentence = differs
-      ? `the shadows of ${quoted(label)} do not share the light of ${restName}: ${numbers}; on their own they point to a sun at azimuth ${sun.azimuthDeg.toFixed(1)} deg, altitude ${sun.altitudeDeg.toFixed(1)} deg ` +
-        '(another day or hour, another hand, or a misread shadow: an estimate under the stated assumptions, not a proof)'
-      : `the shadows of ${quoted(label)} agree with the light of ${restName} (${numbers})`;
+      ? `${finding} (another day or hour, another hand, or a misread shadow: an estimate under the stated assumptions, not a proof)`
+      : `${finding} (${numbers})`;
     out.push({
       group: label, observationIds: ids, restIds, restGroups, residualCount,
       chiSquareOneSun: best.objective, chiSquareSeparate: separate, chiSquareRest: rest.objective, chiSquareGroupOwnSun: sun.chiSquare,
       ownSun: { azimuthDeg: sun.azimuthDeg, altitudeDeg: sun.altitudeDeg },
-      deltaChiSquare: delta, degreesOfFreedom: dof, pValue: p, differs, pThreshold: LOO_P_THRESHOLD, sentence,
+      deltaChiSquare: delta, degreesOfFreedom: dof, pValue: p, differs, pThreshold: LOO_P_THRESHOLD, sentence, finding, cannotTellWhich: false,
     });
   }
   // two groups that are each other's rest: the test cannot say which of them is out of place
   if (out.length === 2 && out.every((g) => g.differs && g.restGroups.length === 1 && g.restGroups[0] !== '')) {
-    return out.map((g) => ({ ...g, sentence: `${g.sentence}; with two groups the test says that they were not lit by one sun, not which of them is out of place` }));
+    return out.map((g) => ({ ...g, sentence: `${g.sentence}; ${CANNOT_TELL_WHICH}`, cannotTellWhich: true }));
   }
   return out;
 }

@@ -36,7 +36,7 @@ import { evidenceFixesDayAndHour, freedomOf, undeterminedVerdict } from './freed
 import { turnedAzimuthScene, turnedAzimuthWords } from './turnedAzimuths.js';
 import { ESTIMATED_RULE_TEXT, EXACT_LEAVE_ONE_OUT_MAX_OBSERVATIONS, improvementPValue, localLeaveOneOut, LOO_P_THRESHOLD } from './consistency.js';
 import { estimatedEntry, estimatedWithoutEach } from './largeScenes.js';
-import { groupConsistency, type GroupTest } from './groupConsistency.js';
+import { CANNOT_TELL_WHICH, groupConsistency, type GroupTest } from './groupConsistency.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
 import { jdToCivilDate } from '../calendar/regions.js';
@@ -307,12 +307,10 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
             : `without ${o.id}: no candidate`,
         });
       }
-      conflictingIds = entries.filter((e) => e.flagged).map((e) => e.observationId);
-      const noSingleCulprit = conflictingIds.length === 0;
-      if (conflictingIds.length === 0) {
-        conflictingIds = [...entries].sort((a, b) => b.improvement - a.improvement).slice(0, 2).map((e) => e.observationId);
-      }
-      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named${estimated ? `${ESTIMATED_RULE_TEXT}; the search is rerun in full only for the observations named` : ''}`, entries, flaggedIds: noSingleCulprit ? [] : conflictingIds };
+      const flaggedIds = entries.filter((e) => e.flagged).map((e) => e.observationId);
+      const noSingleCulprit = flaggedIds.length === 0;
+      conflictingIds = noSingleCulprit ? [...entries].sort((a, b) => b.improvement - a.improvement).slice(0, 2).map((e) => e.observationId) : flaggedIds;
+      consistency = { ...consistency, rule: `${consistency.rule}; when nothing fits, the search is rerun without each observation and those whose removal lets the rest fit are named${estimated ? `${ESTIMATED_RULE_TEXT}; the search is rerun in full only for the observations named` : ''}`, entries, flaggedIds };
       groupTests = groupConsistency(scene, model, best, assumedKind(s.search.assumptions[best.assumptionIndex]), win);
       const violated = bestC.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
       const without = entries
@@ -456,6 +454,6 @@ function turnedAzimuthHint(scene: Scene, win: DayWindow, cutoff: number): Turned
 function groupVerdictWords(tests: readonly GroupTest[]): string {
   const differing = tests.filter((t) => t.differs).sort((a, b) => b.deltaChiSquare - a.deltaChiSquare);
   if (differing.length === 0) return '';
-  const which = differing.length > 1 ? '; the test says that they were not lit by one sun, not which of them is out of place' : '';
-  return ` The parts of the picture do not share one light (see "Parts of the picture"): ${differing[0].sentence.split(' (')[0]}${which}.`;
+  const which = differing[0].cannotTellWhich ? `; ${CANNOT_TELL_WHICH.replace('with two groups ', '')}` : '';
+  return ` The parts of the picture do not share one light (see "Parts of the picture"): ${differing[0].finding}${which}.`;
 }
