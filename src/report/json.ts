@@ -385,6 +385,15 @@ export function dateAnswerJson(answer: DateAnswer, scene: Scene, version: string
           moon: {
             bestYear: answer.moon.bestYear,
             years: [...answer.moon.years],
+            alike: answer.moon.alike.map((a) => ({
+              year: a.year,
+              offsetYears: a.offsetYears,
+              lunations: a.lunations,
+              date: civilDateRendering(a.civilDate, scene).text,
+              deltaChiSquare: roundTo(a.deltaChiSquare, DIGITS.chiSquare),
+              pValue: roundProbability(a.pValue, DIGITS.probabilitySignificant),
+              sameLight: a.sameLight,
+            })),
             words: answer.moon.words,
             nearRepeats: answer.moon.nearRepeats.map((n) => ({
               year: n.year,

@@ -5,6 +5,7 @@
  */
 import type { DateAnswer } from '../solver/types.js';
 import { formatYearBcAd } from '../calendar/format.js';
+import { alikeYearsText } from '../solver/moonAnswer.js';
 
 /** Lines about the moon, or none when the answer holds no evidence of the moon. */
 export function moonReportLines(answer: DateAnswer): string[] {
@@ -14,7 +15,7 @@ export function moonReportLines(answer: DateAnswer): string[] {
   out.push(
     moon.years.length <= 1
       ? `Years that fit: ${formatYearBcAd(moon.bestYear)} alone (every other year of the best light is worse by more than 3.84 in chi-square).`
-      : `Years that fit alike (within 3.84 in chi-square of the best): ${moon.years.map((y) => formatYearBcAd(y)).join(', ')}.`,
+      : `Years that fit alike (within 3.84 in chi-square of the best): ${alikeYearsText(moon.alike)}.`,
   );
   for (const n of moon.nearRepeats) {
     const fit = n.deltaChiSquare === null

@@ -6,10 +6,14 @@
  * lunations = 6939.69 days against 19 tropical years = 6939.60 days: the Metonic cycle), and
  * roughly after 8 years (99 lunations = 2923.53 days, 1.6 days more than 8 years), 11 years (136
  * lunations, 19 - 8) and their sums (Meeus, Astronomical Algorithms, 2nd ed. 1998, ch. 49; the
- * day counts from the mean synodic month 29.530589 days, Meeus eq. 49.1). Their fit is the
- * difference in objective (chi-square plus penalty) of that year's best candidate of the same light,
- * judged with 1 degree of freedom; 3.841 (95%, Press et al., Numerical Recipes, 3rd ed. 2007,
- * section 15.6.5) is the threshold of the years called alike, as for every family.
+ * day counts from the mean synodic month 29.530589 days, Meeus eq. 49.1). A year's fit is the
+ * difference in objective (chi-square plus penalty) of that year's best candidate, of any light
+ * (a day the sun's evidence allows before or after a solstice is the same evidence), against the
+ * best, judged with 1 degree of freedom; 3.841 (95%, Press et al., Numerical Recipes, 3rd ed. 2007,
+ * section 15.6.5) is the threshold of the years called alike, as for every family. Every year within
+ * it is named with its fit, its day and its distance from the best in lunations: besides the cycles
+ * above, a loose near-repeat (3 years = 37 lunations, 2.8 days short; 16 years = 198 lunations, 3.2
+ * days over; ...) fits alike when the sun's evidence fixes the day only to a few days.
  *
  * A moon that cannot be: its lit side faces the sun at every instant, so a drawn lit side more than
  * 90 deg from the side the sun lights at the best fit is named; and the lit fraction follows the
@@ -17,7 +21,9 @@
  * eqs. 48.1-48.3 with i = 180 - psi), so a drawn phase more than 3 sigma from what the drawn moon's
  * distance from the fitted sun allows is named.
  */
-import type { Candidate, MoonNearRepeat, MoonYearsAnswer } from './types.js';
+import type { Candidate, MoonAlikeYear, MoonNearRepeat, MoonYearsAnswer } from './types.js';
+import type { RawCandidate } from './stageB.js';
+import { MONTH_NAMES } from '../calendar/julianDay.js';
 import type { Solved } from './solveDates.js';
 import { chiSquarePValue, DELTA_CHI2_1DOF_95 } from '../math/chiSquare.js';
 import { formatYearBcAd } from '../calendar/format.js';
@@ -45,6 +51,18 @@ function separationDeg(az1: number, alt1: number, az2: number, alt2: number): nu
 
 function fmtP(p: number | null): string {
   return p === null ? '' : `, p = ${p.toPrecision(2)}`;
+}
+
+/** "1744 (9 January, -19 years = -235 lunations, Delta chi-square 2.4), ...": each year that fits alike, the best one too. */
+export function alikeYearsText(alike: readonly MoonAlikeYear[]): string {
+  return alike
+    .map((a) => {
+      const day = `${a.civilDate.day} ${MONTH_NAMES[a.civilDate.month - 1]}`;
+      if (a.offsetYears === 0 && a.deltaChiSquare === 0) return `${formatYearBcAd(a.year)} (${day}, the best)`;
+      const lun = a.lunations === 0 ? '' : ` = ${a.lunations > 0 ? '+' : ''}${a.lunations} lunations`;
+      return `${formatYearBcAd(a.year)} (${day}, ${a.offsetYears > 0 ? '+' : ''}${a.offsetYears} years${lun}, Delta chi-square ${a.deltaChiSquare.toFixed(1)}${a.sameLight ? '' : ', another light'})`;
+    })
+    .join('; ');
 }
 
 /** Words for a moon that cannot be, at the best candidate. */
@@ -83,30 +101,45 @@ function impossibleMoon(s: Solved, best: Candidate): string[] {
   return out;
 }
 
+/** Mean synodic month, days (Meeus, Astronomical Algorithms, 2nd ed. 1998, eq. 49.1, at J2000). */
+const SYNODIC_MONTH_DAYS = 29.530589;
+
 /** The moon's answer about the years, from a solve whose best raw candidate is `best` (dressed). */
 export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
   const raw = s.kept[0];
-  const byYear = new Map<number, number>();
-  const refinedYears = new Set<number>();
+  // Each year's best candidate of any light: a year fits alike whatever day of it the sun's evidence allows.
+  const byYear = new Map<number, RawCandidate>();
   for (const c of s.search.candidates) {
-    if (c.trackKey !== raw.trackKey) continue;
     const year = jdToCivilDate(s.win.calendar, c.dayJd0 + 0.5).civil.year;
-    if (c.objective < (byYear.get(year) ?? Infinity)) {
-      byYear.set(year, c.objective);
-      if (c.moonRefined === false) refinedYears.delete(year);
-      else refinedYears.add(year);
-    }
+    const held = byYear.get(year);
+    if (!held || c.objective < held.objective) byYear.set(year, c);
   }
   const bestYear = best.civilDate.year;
   const bestObjective = raw.objective;
-  const years = [...byYear].filter(([, o]) => o <= bestObjective + DELTA_CHI2_1DOF_95).map(([y]) => y).sort((a, b) => a - b);
+  const alike: MoonAlikeYear[] = [...byYear]
+    .filter(([, c]) => c.objective <= bestObjective + DELTA_CHI2_1DOF_95)
+    .sort(([a], [b]) => a - b)
+    .map(([year, c]) => {
+      const civil = jdToCivilDate(s.win.calendar, c.dayJd0 + 0.5);
+      const delta = Math.max(0, c.objective - bestObjective);
+      return {
+        year,
+        offsetYears: year - bestYear,
+        lunations: Math.round((c.dayJd0 - raw.dayJd0) / SYNODIC_MONTH_DAYS),
+        civilDate: { calendar: civil.date.calendar, year: civil.civil.year, month: civil.civil.month, day: civil.civil.day },
+        deltaChiSquare: delta,
+        pValue: chiSquarePValue(delta, 1),
+        sameLight: c.trackKey === raw.trackKey,
+      };
+    });
+  const years = alike.map((a) => a.year);
   const nearRepeats: MoonNearRepeat[] = [];
   for (const r of MOON_NEAR_REPEATS) {
     for (const sign of [-1, 1]) {
       const year = bestYear + sign * r.years;
       if (year < s.win.fromYear || year > s.win.toYear) continue;
-      const o = byYear.get(year);
-      const delta = o === undefined ? null : Math.max(0, o - bestObjective);
+      const c = byYear.get(year);
+      const delta = c === undefined ? null : Math.max(0, c.objective - bestObjective);
       nearRepeats.push({
         year,
         offsetYears: sign * r.years,
@@ -114,7 +147,7 @@ export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
         deltaChiSquare: delta,
         pValue: delta === null ? null : chiSquarePValue(delta, 1),
         fitsAlike: delta !== null && delta <= DELTA_CHI2_1DOF_95,
-        refined: refinedYears.has(year),
+        refined: c !== undefined && c.moonRefined !== false,
       });
     }
   }
@@ -126,10 +159,10 @@ export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
     : ' No near-repeat of the moon (8, 11, 19, 27 or 38 years) falls inside the window.';
   const words = years.length <= 1
     ? `The moon names ${formatYearBcAd(bestYear)}: every other year of this light fits worse by more than ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square.${repeatWords}`
-    : `The moon leaves ${yearListText(years)} alike (within ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square of the best, ${formatYearBcAd(bestYear)}).${repeatWords}`;
+    : `The moon leaves ${yearListText(years)} alike (within ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square of the best, ${formatYearBcAd(bestYear)}): ${alikeYearsText(alike)}.${repeatWords}`;
   const cautions = [
     "The moon is fitted at each candidate's own instant in every year of the window, never mapped from another year (astronomy-engine's lunar theory, about 1 arcminute); the years it names are an estimate conditional on the drawn moon being the moon of that hour, not a painter's convention or a moon added in the studio.",
     "The error ellipses and day intervals of the candidates are those of the sun's evidence alone: the moon narrows the day and the hour more than they show.",
   ];
-  return { bestYear, years, words, nearRepeats, impossible: impossibleMoon(s, best), cautions };
+  return { bestYear, years, alike, words, nearRepeats, impossible: impossibleMoon(s, best), cautions };
 }

@@ -9,7 +9,11 @@
  * 1. screen: every allowed whole day within 4 sigma of the year's sun-only optimum (at least 2, at
  *    most MAX_MOON_DAYS days either side), at the minute the sun's fit predicts for that day (its
  *    conditional mean): days whose quick phase (Meeus eq. 48.4) misses a drawn phase by more than
- *    4 sigma are passed over, the others evaluated once with the full sun and moon;
+ *    4 sigma are passed over, the others evaluated with the full sun and moon; where a direction of
+ *    the moon is drawn, also at the minute that brings the moon nearest its drawn place as the sky
+ *    turns (moonMinuteShift), when that lies within 4 conditional sigmas of the sun's minute, and the
+ *    better of the two kept (near the zenith the moon's azimuth sweeps many degrees a minute, and
+ *    the sun's minute alone can lead the fit on the true day into a wrong valley);
  * 2. refine: the best screened day (and the second best, when it screened within SECOND_DAY_CUTOFF
  *    of it) of each year whose best screened objective lies within
  *    MOON_REFINE_CUTOFF of the best of all years, by Levenberg-Marquardt in (minute, nuisances) on
@@ -19,7 +23,7 @@
  * The ellipses of a candidate (candidateUncertainty.ts) stay those of the sun's evidence alone.
  */
 import type { ClockKind } from '../scene/types.js';
-import { splitChiSquare, type EvidenceModel } from './evidenceModel.js';
+import { latitudeOf, splitChiSquare, type EvidenceModel } from './evidenceModel.js';
 import { datedPoint, ensureTrack, newDatedContext, refineOnDay, type DatedContext } from './fitting.js';
 import { exactPoint, type RawCandidate } from './stageB.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
@@ -59,6 +63,45 @@ function quickPhaseChiSquare(terms: readonly MoonTerm[], l: number): number {
     }
   }
   return chi;
+}
+
+/**
+ * The moon's mean apparent turn about the celestial pole, degrees per minute: the earth's sidereal
+ * rotation, 360.98564736629 deg per day (Meeus, Astronomical Algorithms, 2nd ed. 1998, eq. 12.4),
+ * less the moon's mean motion in longitude, 481267.88123421 deg per Julian century (Meeus eq. 47.1),
+ * i.e. 13.176 deg per day; divided by 1440.
+ */
+const MOON_DIURNAL_DEG_PER_MINUTE = (360.98564736629 - 481267.88123421 / 36525) / 1440;
+/** Largest shift of the minute tried for the moon's drawn place, minutes (a seed only: the fit on the day then refines it). */
+const MOON_SHIFT_LIMIT_MINUTES = 120;
+/** Shifts below this, minutes, are left to the fit on the day. */
+const MIN_MOON_SHIFT_MINUTES = 1;
+
+/** Unit vector (east, north, up) of a direction given by azimuth and altitude, degrees. */
+function horizonVector(azimuthDeg: number, altitudeDeg: number): [number, number, number] {
+  return [cosDeg(altitudeDeg) * sinDeg(azimuthDeg), cosDeg(altitudeDeg) * cosDeg(azimuthDeg), sinDeg(altitudeDeg)];
+}
+
+/**
+ * Minutes to add so that the moon, turning with the sky about the celestial pole from where it
+ * stands (azimuth, altitude), comes nearest to the drawn place: the least-squares step along its
+ * motion on the unit sphere, v(t) = v0 + t dv/dt with dv/dt = -w (p x v0), p the pole's direction
+ * (azimuth 0, altitude = latitude) and w the mean rate above; 0 without a drawn direction. The
+ * distance is taken on the sphere, not in azimuth, so that a moon near the zenith, whose azimuth
+ * sweeps fast, is found too (common practice: linearised motion on the sphere).
+ */
+export function moonMinuteShift(drawn: { azimuthDeg: number; altitudeDeg: number } | undefined, moon: { azimuthDeg: number; altitudeDeg: number }, latitudeDeg: number): number {
+  if (!drawn) return 0;
+  const v = horizonVector(moon.azimuthDeg, moon.altitudeDeg);
+  const target = horizonVector(drawn.azimuthDeg, drawn.altitudeDeg);
+  const pole = [0, cosDeg(latitudeDeg), sinDeg(latitudeDeg)];
+  const w = (MOON_DIURNAL_DEG_PER_MINUTE * Math.PI) / 180;
+  // dv/dt = -w (p x v): westward turn of the sky (p x v points east for a body due south of the pole).
+  const dv = [-w * (pole[1] * v[2] - pole[2] * v[1]), -w * (pole[2] * v[0] - pole[0] * v[2]), -w * (pole[0] * v[1] - pole[1] * v[0])];
+  const speed2 = dv[0] ** 2 + dv[1] ** 2 + dv[2] ** 2;
+  if (!(speed2 > 0)) return 0;
+  const t = ((target[0] - v[0]) * dv[0] + (target[1] - v[1]) * dv[1] + (target[2] - v[2]) * dv[2]) / speed2;
+  return Math.max(-MOON_SHIFT_LIMIT_MINUTES, Math.min(MOON_SHIFT_LIMIT_MINUTES, t));
 }
 
 interface Screened {
@@ -106,11 +149,28 @@ function screenYear(model: EvidenceModel, ctx: DatedContext, c: RawCandidate, wi
   // Every day that passes the quick phase, or else the year's best by it, is screened in full.
   let passing = days.filter((d) => d.quick <= PHASE_SCREEN_CHI2);
   if (passing.length === 0 && days.length > 0) passing = [days.reduce((a, b) => (b.quick < a.quick ? b : a))];
+  const drawn = model.moons.find((t) => t.evidence.kind === 'moon-direction')?.evidence;
+  const direction = drawn && drawn.kind === 'moon-direction' ? drawn : undefined;
+  const latitudeDeg = latitudeOf(model, c.nuisances);
+  // A shifted minute is tried only within 4 sigma of the minute the sun's fit allows on a given day
+  // (its conditional sigma); beyond, the shadows rule it out whatever the moon says.
+  const conditionalVar = cov && cov[0][0] > 0 ? cov[1][1] - (cov[1][0] * cov[1][0]) / cov[0][0] : NaN;
+  const minuteReach = Number.isFinite(conditionalVar) && conditionalVar > 0 ? DAY_REACH_SIGMAS * Math.sqrt(conditionalVar) : MOON_SHIFT_LIMIT_MINUTES;
   const out: Screened[] = [];
   for (const { day, minutes } of passing) {
     ensureTrack(ctx, day + minutes / 1440);
     const p = datedPoint(ctx, day, minutes, c.nuisances);
-    out.push({ day, minutes, objective: objectiveOf(model, p.residuals).objective });
+    let best: Screened = { day, minutes, objective: objectiveOf(model, p.residuals).objective };
+    // The minute the sun's fit gives may miss the moon's place by minutes that matter (the moon turns
+    // 0.24 deg a minute with the sky, its azimuth far faster near the zenith): the minute that brings
+    // the moon nearest its drawn place is screened too, and the better of the two kept.
+    const shift = p.moon ? moonMinuteShift(direction, p.moon, latitudeDeg) : 0;
+    if (Math.abs(shift) >= MIN_MOON_SHIFT_MINUTES && Math.abs(shift) <= minuteReach) {
+      const q = datedPoint(ctx, day, minutes + shift, c.nuisances);
+      const o = objectiveOf(model, q.residuals).objective;
+      if (o < best.objective) best = { day, minutes: minutes + shift, objective: o };
+    }
+    out.push(best);
   }
   return out.sort((a, b) => a.objective - b.objective);
 }

@@ -414,12 +414,34 @@ export interface MoonNearRepeat {
   readonly refined: boolean;
 }
 
+/** A year that fits alike with the moon (within 3.841 of the best), with its fit and its best day. */
+export interface MoonAlikeYear {
+  readonly year: number;
+  /** Years from the best year (negative: earlier; 0 for the best year itself). */
+  readonly offsetYears: number;
+  /** Whole lunations (mean synodic month, 29.530589 days) between the best candidate's day and this one. */
+  readonly lunations: number;
+  /** The day of that year's best candidate, in the scene's calendar. */
+  readonly civilDate: SolverCalendarDate;
+  /** Its best objective (chi-square plus penalty) minus the best year's (0 for the best year). */
+  readonly deltaChiSquare: number;
+  /** Upper-tail probability of deltaChiSquare with 1 degree of freedom. */
+  readonly pValue: number;
+  /** True when that year's best candidate is of the best candidate's light (the same track of the sun). */
+  readonly sameLight: boolean;
+}
+
 /** What the moon says about the years (src/solver/moonAnswer.ts). */
 export interface MoonYearsAnswer {
   /** The best year of the best light. */
   readonly bestYear: number;
-  /** The years of that light that fit alike (within 3.841 of the best), sorted. */
+  /**
+   * The years that fit alike (their best candidate, of any light, within 3.841 of the best: one
+   * parameter at 95%), sorted; the best year among them.
+   */
   readonly years: readonly number[];
+  /** The same years with their fit, their day and their distance from the best year in lunations, sorted by year. */
+  readonly alike: readonly MoonAlikeYear[];
   /** In words: "The moon names 1790 ...". */
   readonly words: string;
   /** The near-repeats of the best year inside the window, with their fit. */
