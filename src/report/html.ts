@@ -96,8 +96,13 @@ function windowWords(scene: Scene): string {
   return parts.join('; ');
 }
 
-/** One observation's measured values in words. */
+/** One observation's measured values in words, with its light when that is the moon. */
 export function observationWords(o: Observation): string {
+  const words = measuredWords(o);
+  return 'light' in o && o.light === 'moon' ? `${words}; cast by moonlight` : words;
+}
+
+function measuredWords(o: Observation): string {
   const deg = (x: number | undefined): string => (x === undefined ? '?' : `${x} deg`);
   switch (o.kind) {
     case 'rod-shadow':
@@ -128,6 +133,8 @@ export function observationWords(o: Observation): string {
       return 'the wall is in shade';
     case 'sun-up':
       return 'the sun is above the horizon';
+    case 'sun-not-up':
+      return 'the sun is below the horizon (a night view)';
     case 'object-shadow':
       return `object point [${o.objectPx.join(', ')}] px and its shadow point [${o.shadowPx.join(', ')}] px${o.group ? `, group "${o.group}"` : ''}`;
     case 'shadow-wedge':

@@ -60,6 +60,8 @@ function residualJson(r: ResidualEntry) {
   return {
     observationId: r.observationId,
     observationKind: r.observationKind,
+    // The light of a shadow cast by moonlight; absent: the sun (or no light: a clock, the moon's own evidence).
+    ...(r.light === 'moon' ? { light: r.light } : {}),
     component: r.component,
     unit: r.unit,
     measured: roundTo(r.measured, DIGITS.ratio),
@@ -71,7 +73,7 @@ function residualJson(r: ResidualEntry) {
 }
 
 function factJson(f: FactEntry) {
-  return { observationId: f.observationId, observationKind: f.observationKind, satisfied: f.satisfied, penalty: roundTo(f.penalty, DIGITS.chiSquare), note: f.note };
+  return { observationId: f.observationId, observationKind: f.observationKind, ...(f.light === 'moon' ? { light: f.light } : {}), satisfied: f.satisfied, penalty: roundTo(f.penalty, DIGITS.chiSquare), note: f.note };
 }
 
 /**

@@ -128,7 +128,7 @@ function residualTable(residuals: readonly ResidualEntry[]): string[] {
     const digits = r.unit === 'ratio' ? 3 : r.unit === 'm' ? 2 : 1;
     // A clock reading reads best as a time of day: minutes after midnight to hh:mm.m.
     const value = (x: number): string => (r.unit === 'min' && r.component === 'reading' ? clockText(x) : fixed(x, digits));
-    rows.push([r.observationId, r.observationKind, r.component, value(r.measured), value(r.predicted), fixed(r.sigma, digits), r.unit, signedFixed(r.normalised, 2)]);
+    rows.push([r.observationId, r.light === 'moon' ? `${r.observationKind} (moonlight)` : r.observationKind, r.component, value(r.measured), value(r.predicted), fixed(r.sigma, digits), r.unit, signedFixed(r.normalised, 2)]);
   }
   return [...textTable(rows, [3, 4, 5, 7]), ...residuals.flatMap((r) => (r.fullCount ? [`  ${dialCountWords(r)}`] : []))];
 }

@@ -16,7 +16,7 @@ import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, MoonPhaseObs
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
-  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'clock', 'sundial', 'object-shadow', 'shadow-wedge',
+  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'sun-not-up', 'clock', 'sundial', 'object-shadow', 'shadow-wedge',
   'moon-direction', 'moon-phase', 'moon-lit-side', 'moon-up', 'moon-not-up',
 ];
 
@@ -26,7 +26,7 @@ export const NAMED_MOON_PHASES: readonly NamedMoonPhase[] = [
   'waning gibbous', 'last quarter', 'waning crescent', 'crescent', 'gibbous',
 ];
 
-/** The light of a shadow: only the sun in this version (moonlight shadows are refused, docs/moon-evidence.md). */
+/** The light of a shadow: the sun (default) or the moon (docs/moon-evidence.md). */
 const LIGHTS = ['sun', 'moon'] as const;
 
 /** Identifiers of walls and observations: letters, digits, '-', '_', '.'. */
@@ -68,6 +68,7 @@ const KEYS: Readonly<Record<ObservationKind, readonly string[]>> = {
   'wall-lit': [...COMMON, 'wall'],
   'wall-shaded': [...COMMON, 'wall'],
   'sun-up': [...COMMON],
+  'sun-not-up': [...COMMON],
   clock: [...COMMON, 'reading', 'precisionMinutes', 'hourHandTrusted', 'dialHours', 'kept'],
   sundial: [...COMMON, 'reading', 'hours', 'precisionMinutes'],
   'object-shadow': [...SHADOW, 'objectPx', 'shadowPx', 'sigmaPx'],
@@ -84,16 +85,10 @@ export const MOON_PHASE_DEFAULT_SIGMA_DEG = 22.5;
 const PHASE_SIGMA: NumberRule = { words: 'a sigma of the named phase, degrees of phase longitude', min: SIGMA_FLOOR, max: 90 };
 const FRACTION_SIGMA: NumberRule = { words: 'a sigma of the illuminated fraction (no unit)', min: SIGMA_FLOOR, max: 1 };
 
-/** A shadow's light: "sun" (the default); "moon" is refused in this version. */
-function checkLight(f: Fields): void {
-  if (!has(f, 'light')) return;
-  const light = checkChoice(raw(f, 'light'), keyPath(f.path, 'light'), LIGHTS, 'the light that casts the shadow');
-  if (light === 'moon') {
-    throw new InvalidInputError(
-      keyPath(f.path, 'light'), 'moon', '"sun" (shadows cast by moonlight are not solved in this version)',
-      'A moonlit shadow needs a search over the moon\'s places without the sun\'s evidence, which this version does not make; give the moon as moon-direction, moon-phase or moon-lit-side instead (docs/moon-evidence.md).',
-    );
-  }
+/** A shadow's light: "sun" (the default) or "moon" (a shadow cast by moonlight, docs/moon-evidence.md). */
+function readLight(f: Fields): 'sun' | 'moon' {
+  if (!has(f, 'light')) return 'sun';
+  return checkChoice(raw(f, 'light'), keyPath(f.path, 'light'), LIGHTS, 'the light that casts the shadow: "sun" or "moon"');
 }
 
 /** Azimuth and apparent altitude of a body in the sky, each with its sigma. */
@@ -355,8 +350,9 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
   const id = str(f, 'id', ID_WORDS, 64, ID_PATTERN);
   const note = optStr(f, 'note', 'a note', NOTE_MAX);
   const group = optStr(f, 'group', GROUP_WORDS, 64, ID_PATTERN);
-  const base = { id, ...(note !== undefined ? { note } : {}), ...(group !== undefined ? { group } : {}) };
-  checkLight(f);
+  // Only the shadow kinds take "light" (openFields refuses it elsewhere); the sun, the default, is not written out.
+  const light = readLight(f);
+  const base = { id, ...(note !== undefined ? { note } : {}), ...(group !== undefined ? { group } : {}), ...(light === 'moon' ? { light } : {}) };
 
   switch (kind) {
     case 'rod-shadow': {
@@ -473,7 +469,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       const caster = readSitePoint(f, 'caster');
       const shadow = readSitePoint(f, 'shadow');
       if (!(caster[2] > shadow[2])) {
-        throw new InvalidInputError(keyPath(path, 'shadow'), shadow, `a shadow point lower than the caster (upM below ${caster[2]})`, 'With the sun above the horizon a shadow falls below the point that casts it.');
+        throw new InvalidInputError(keyPath(path, 'shadow'), shadow, `a shadow point lower than the caster (upM below ${caster[2]})`, `With the ${light} above the horizon a shadow falls below the point that casts it.`);
       }
       const sigmaM = num(f, 'sigmaM', { ...LENGTH_M, words: 'a sigma in metres', min: SIGMA_FLOOR, minExclusive: false });
       return { ...base, kind, caster, shadow, sigmaM };
@@ -484,6 +480,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
     case 'wall-shaded':
       return { ...base, kind, wallId: wallRef(f, ctx).id };
     case 'sun-up':
+    case 'sun-not-up':
       return { ...base, kind };
     case 'clock':
       return readClock(f, id, note);
@@ -530,7 +527,7 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
 }
 
 /** A shadow-wedge observation: the shadow point and two points bounding the directions of its object point. */
-function readWedge(f: Fields, base: { readonly id: string; readonly note?: string; readonly group?: string }, image: ImageInfo): Observation {
+function readWedge(f: Fields, base: { readonly id: string; readonly note?: string; readonly group?: string; readonly light?: 'moon' }, image: ImageInfo): Observation {
   const path = f.path;
   if (!has(f, 'shadowPx')) throw missing(f, 'shadowPx', 'the image point [xPx, yPx] of the shadow');
   if (!has(f, 'edgesPx')) throw missing(f, 'edgesPx', 'two image points [[xPx, yPx], [xPx, yPx]], one on each side of the wedge in which the object point lies');

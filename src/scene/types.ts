@@ -169,6 +169,15 @@ interface ObservationBase {
   readonly group?: string;
 }
 
+/** The light that casts a shadow: the sun (the default when absent) or the moon (docs/moon-evidence.md). */
+export type ShadowLight = 'sun' | 'moon';
+
+/** Every shadow kind: its light, absent for the sun. */
+interface ShadowBase extends ObservationBase {
+  /** 'moon' for a shadow cast by moonlight; absent (or 'sun') for sunlight. */
+  readonly light?: ShadowLight;
+}
+
 /** Two image points along a line, for pixel forms. */
 export interface PixelSegment {
   readonly fromPx: PixelPoint;
@@ -177,7 +186,7 @@ export interface PixelSegment {
 }
 
 /** 1. Shadow of a rod standing straight out of a wall: slope of its shadow on the wall, below horizontal. */
-export interface RodShadowObservation extends ObservationBase {
+export interface RodShadowObservation extends ShadowBase {
   readonly kind: 'rod-shadow';
   readonly wallId: string;
   readonly slopeDeg?: number; // (0, 90): angle of the shadow below the horizontal, on the frontal view
@@ -188,7 +197,7 @@ export interface RodShadowObservation extends ObservationBase {
 }
 
 /** 2. Overhang: shadow depth on the wall below the edge, over the projection depth: tan(VSA). */
-export interface OverhangShadowObservation extends ObservationBase {
+export interface OverhangShadowObservation extends ShadowBase {
   readonly kind: 'overhang-shadow';
   readonly wallId: string;
   readonly depthRatio?: number; // shadow depth / projection depth, >= 0
@@ -198,7 +207,7 @@ export interface OverhangShadowObservation extends ObservationBase {
 }
 
 /** 3. Fin: sideways shadow width on the wall over the fin's depth: tan(|HSA|), with the side it falls to. */
-export interface FinShadowObservation extends ObservationBase {
+export interface FinShadowObservation extends ShadowBase {
   readonly kind: 'fin-shadow';
   readonly wallId: string;
   readonly widthRatio?: number; // >= 0
@@ -208,7 +217,7 @@ export interface FinShadowObservation extends ObservationBase {
 }
 
 /** 4. Vertical pole or building corner on level ground. */
-export interface PoleShadowObservation extends ObservationBase {
+export interface PoleShadowObservation extends ShadowBase {
   readonly kind: 'pole-shadow';
   readonly shadowAzimuthDeg?: number; // direction from the foot to the shadow tip, clockwise from true north
   readonly shadowAzimuthSigmaDeg?: number;
@@ -219,7 +228,7 @@ export interface PoleShadowObservation extends ObservationBase {
 }
 
 /** 5. Eave's shadow line on level ground: its distance out from the wall over the eave's height. */
-export interface EaveShadowObservation extends ObservationBase {
+export interface EaveShadowObservation extends ShadowBase {
   readonly kind: 'eave-shadow';
   readonly wallId: string;
   /** Distance of the shadow line from the wall foot, measured along the wall normal, over the eave's height above the ground. */
@@ -246,7 +255,7 @@ export interface EavePixels extends PixelSegment {
 }
 
 /** 6. A caster point and its shadow point, surveyed, site coordinates. */
-export interface ShadowPointsObservation extends ObservationBase {
+export interface ShadowPointsObservation extends ShadowBase {
   readonly kind: 'shadow-points';
   readonly caster?: SitePoint;
   readonly shadow?: SitePoint;
@@ -282,8 +291,9 @@ export interface WallLightObservation extends ObservationBase {
   readonly kind: 'wall-lit' | 'wall-shaded';
   readonly wallId: string;
 }
+/** The sun is up ('sun-up'), or below the horizon ('sun-not-up': a night view). */
 export interface SunUpObservation extends ObservationBase {
-  readonly kind: 'sun-up';
+  readonly kind: 'sun-up' | 'sun-not-up';
 }
 
 /**
@@ -291,7 +301,7 @@ export interface SunUpObservation extends ObservationBase {
  * uneven paving, a curved wall). Needs the scene's `camera`: the line from the object to its shadow is the
  * image of a sun ray (src/image/cameraSun.ts). Pairs of one group are combined into one sun direction.
  */
-export interface ObjectShadowObservation extends ObservationBase {
+export interface ObjectShadowObservation extends ShadowBase {
   readonly kind: 'object-shadow';
   readonly objectPx: PixelPoint;
   readonly shadowPx: PixelPoint;
@@ -314,7 +324,7 @@ export type ProjectionPart =
   | { readonly tipPx: PixelPoint; readonly projectionM?: undefined; readonly projectionSigmaM?: undefined };
 
 /** 8b. A shadow point whose object point is known only to lie within a wedge seen from it (needs the camera). */
-export interface ShadowWedgeObservation extends ObservationBase {
+export interface ShadowWedgeObservation extends ShadowBase {
   readonly kind: 'shadow-wedge';
   readonly shadowPx: PixelPoint;
   /** Two image points, one on each bounding direction of the wedge, as seen from the shadow point. */

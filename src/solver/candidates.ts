@@ -10,7 +10,7 @@ import { jdToCivilDate } from '../calendar/regions.js';
 import { chiSquarePValue } from '../math/chiSquare.js';
 import { deltaTAtJdUT } from '../time/timeScales.js';
 import { describeClockKind, formatClockKind, jdUTToClockMinutes } from '../time/clock.js';
-import { factNote, latitudeOf, predictClock, predictedValuesOf, termEvidence, wallAzimuthOf, wrapSymmetric, type ClockTerm, type EvidenceModel } from './evidenceModel.js';
+import { factNote, latitudeOf, lightDirectionOf, predictClock, predictedValuesOf, termEvidence, wallAzimuthOf, wrapSymmetric, type ClockTerm, type EvidenceModel } from './evidenceModel.js';
 import { zoneOffsetsAt } from './fitting.js';
 import { candidateUncertainty, type UncertaintyCache } from './candidateUncertainty.js';
 import type { RawCandidate } from './stageB.js';
@@ -88,11 +88,13 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
   const measuredRows: ResidualEntry[] = [];
   let row = 0;
   for (const t of model.shadows) {
-    const values = predictedValuesOf({ ...t, evidence: termEvidence(model, t, raw.nuisances) }, p.sun, wallAzimuthOf(model, t.wallId, raw.nuisances));
+    // A shadow by moonlight is predicted from the moon's place at the candidate's instant.
+    const light = lightDirectionOf(t.light, p);
+    const values = light ? predictedValuesOf({ ...t, evidence: termEvidence(model, t, raw.nuisances) }, light, wallAzimuthOf(model, t.wallId, raw.nuisances)) : [];
     for (let k = 0; k < t.count; k += 1) {
       const v = values[k] ?? { component: `residual-${k + 1}`, measured: NaN, predicted: NaN, unit: '', sigma: NaN };
       // The solver's residuals are (predicted - measured) / sigma; reports use the opposite sign (docs/conventions.md).
-      measuredRows.push({ observationId: t.observationId, observationKind: t.observationKind, ...v, normalised: -p.residuals[row] });
+      measuredRows.push({ observationId: t.observationId, observationKind: t.observationKind, light: t.light, ...v, normalised: -p.residuals[row] });
       row += 1;
     }
   }
@@ -135,9 +137,10 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
     return {
       observationId: f.observationId,
       observationKind: f.fact,
+      ...(f.light ? { light: f.light } : {}),
       satisfied,
       penalty: r * r,
-      note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied, raw.nuisances),
+      note: factNote(model, f, p.sun, wallAzimuthOf(model, f.wallId, raw.nuisances), satisfied, raw.nuisances, p.moon),
     };
   });
   for (const f of model.moonFacts) {

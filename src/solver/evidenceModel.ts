@@ -29,10 +29,16 @@
  *   the clicks, not over a fixed tolerance. The camera's error, shared by all of them, enters as
  *   nuisances of one sigma each with unit priors ('camera' kind): fitting them carries the
  *   correlation between the pairs (skyPlanes.ts header).
+ * - Shadows cast by moonlight (`light: moon`): the same residuals and facts with the moon's topocentric
+ *   apparent direction (src/ephemeris/moonPosition.ts, refracted as the sun) in place of the sun's; the
+ *   geometry needs only a light direction. Their rows are 0 where the evaluation holds no moon (the
+ *   year-independent and continuous fits), like the moon's own terms. A shadow by moonlight implies
+ *   that the moon is up and lights its wall; in a night view (moonlit shadows and no evidence of
+ *   sunlight) also that the sun is below the horizon ('sun-not-up', implicit).
  */
 import { predictHourSystemClock } from './hourSystemPrediction.js';
 import { InvalidInputError } from '../errors.js';
-import type { ClockKind, Observation, Scene } from '../scene/types.js';
+import type { ClockKind, Observation, Scene, ShadowLight } from '../scene/types.js';
 import { evidenceResiduals, predictEvidence, type ShadowEvidence } from '../geometry/observationModels.js';
 import { lightFactViolationDeg, type LightFact } from '../geometry/lightFacts.js';
 import { horizontalShadowAngleDeg } from '../geometry/shadowAngles.js';
@@ -59,6 +65,8 @@ export interface NuisanceSpec {
 export interface ShadowTerm {
   readonly observationId: string;
   readonly observationKind: Observation['kind'];
+  /** The light that casts the shadow: its residuals are taken against this body's direction. */
+  readonly light: ShadowLight;
   readonly evidence: ShadowEvidence;
   readonly wallId?: string;
   readonly count: number;
@@ -83,7 +91,10 @@ export type SideFact = 'pair-side' | 'wedge';
 
 export interface FactTerm {
   readonly observationId: string;
-  readonly fact: LightFact | SideFact;
+  /** 'sun-not-up': the sun's centre below the horizon (stated, or implied by a night view lit by the moon). */
+  readonly fact: LightFact | SideFact | 'sun-not-up';
+  /** The body the fact is about: the moon for the facts of a moonlit shadow ('sun-up' then reads "the moon is up"); absent: the sun. */
+  readonly light?: 'moon';
   /** For the side facts: the planes on whose positive side the sun must lie. */
   readonly planes?: readonly SkyPlane[];
   readonly wallId?: string;
@@ -204,6 +215,11 @@ function shadowEvidenceOf(o: Observation, i: number): { evidence: ShadowEvidence
 }
 
 export const WALL_SHADOW_KINDS: ReadonlySet<string> = new Set(['rod-shadow', 'overhang-shadow', 'fin-shadow']);
+/** Observations that show sunlight unless their light is the moon (shadows), or always (the sun's place, its facts, a sundial). */
+const SUNLIGHT_KINDS: ReadonlySet<string> = new Set([
+  'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points', 'object-shadow', 'shadow-wedge',
+  'sun-direction', 'wall-lit', 'wall-shaded', 'sun-up', 'sundial',
+]);
 
 /**
  * The evidence model of a scene, leaving out the observations whose ids are in `omit`.
@@ -218,7 +234,15 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
   const cameraPlanes: SkyPlane[] = [];
   const f = (i: number): string => `observations[${i}]`;
   const implicitLit = new Set<string>();
-  let implicitSunUp = false;
+  const lightOf = (o: Observation): ShadowLight => ('light' in o && o.light === 'moon' ? 'moon' : 'sun');
+  // A night view: shadows cast by moonlight and nothing lit by the sun. Then the sun is below the
+  // horizon (implicit), and a clock or sundial read in the picture no longer implies daylight.
+  const live = scene.observations.filter((o) => !omit.has(o.id));
+  const nightView = live.some((o) => lightOf(o) === 'moon')
+    && !live.some((o) => SUNLIGHT_KINDS.has(o.kind) && lightOf(o) === 'sun');
+  let implicitSunUp = nightView;
+  let implicitMoonUp = false;
+  let implicitSunDown = false;
   scene.observations.forEach((o, i) => {
     if (omit.has(o.id)) return;
     if ('wallId' in o && !walls.has(o.wallId)) {
@@ -256,36 +280,47 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
       usedWalls.add(o.wallId);
       return;
     }
-    if (o.kind === 'sun-up') {
-      facts.push({ observationId: o.id, fact: 'sun-up', implicit: false });
+    if (o.kind === 'sun-up' || o.kind === 'sun-not-up') {
+      facts.push({ observationId: o.id, fact: o.kind, implicit: false });
       return;
     }
-    if (o.kind === 'shadow-wedge') {
-      facts.push({ observationId: o.id, fact: 'wedge', planes: need(o.edges, `${f(i)}.edgesPx`, 'a wedge measured through the camera'), implicit: false });
-      cameraPlanes.push(...o.edges!);
-      if (!implicitSunUp) {
+    const light = lightOf(o);
+    const moonLight = light === 'moon' ? ({ light: 'moon' } as const) : {};
+    // The implicit facts of a shadow: its light is up (the sun, or the moon), and in a night view the sun is down.
+    const lightUp = (): void => {
+      if (light === 'sun' && !implicitSunUp) {
         implicitSunUp = true;
         facts.push({ observationId: o.id, fact: 'sun-up', implicit: true });
       }
+      if (light === 'moon' && !implicitMoonUp) {
+        implicitMoonUp = true;
+        facts.push({ observationId: o.id, fact: 'sun-up', light: 'moon', implicit: true });
+      }
+      if (light === 'moon' && nightView && !implicitSunDown) {
+        implicitSunDown = true;
+        facts.push({ observationId: o.id, fact: 'sun-not-up', implicit: true });
+      }
+    };
+    if (o.kind === 'shadow-wedge') {
+      facts.push({ observationId: o.id, fact: 'wedge', planes: need(o.edges, `${f(i)}.edgesPx`, 'a wedge measured through the camera'), implicit: false, ...moonLight });
+      cameraPlanes.push(...o.edges!);
+      lightUp();
       return;
     }
     if (o.kind === 'object-shadow') {
-      facts.push({ observationId: o.id, fact: 'pair-side', planes: need(o.sides, `${f(i)}.shadowPx`, 'a pair measured through the camera'), implicit: false });
+      facts.push({ observationId: o.id, fact: 'pair-side', planes: need(o.sides, `${f(i)}.shadowPx`, 'a pair measured through the camera'), implicit: false, ...moonLight });
       cameraPlanes.push(...o.sides!, ...(o.circle ? [o.circle] : []));
     }
     const s = shadowEvidenceOf(o, i);
     if (!s) return;
     const count = evidenceResiduals(s.evidence, { azimuthDeg: 180, altitudeDeg: 30 }, 180).residuals.length;
-    shadows.push({ observationId: o.id, observationKind: o.kind, evidence: s.evidence, wallId: s.wallId, count });
+    shadows.push({ observationId: o.id, observationKind: o.kind, light, evidence: s.evidence, wallId: s.wallId, count });
     if (s.wallId) usedWalls.add(s.wallId);
-    if (s.wallId && WALL_SHADOW_KINDS.has(o.kind) && !implicitLit.has(s.wallId)) {
-      implicitLit.add(s.wallId);
-      facts.push({ observationId: o.id, fact: 'wall-lit', wallId: s.wallId, implicit: true });
+    if (s.wallId && WALL_SHADOW_KINDS.has(o.kind) && !implicitLit.has(`${light}:${s.wallId}`)) {
+      implicitLit.add(`${light}:${s.wallId}`);
+      facts.push({ observationId: o.id, fact: 'wall-lit', wallId: s.wallId, implicit: true, ...moonLight });
     }
-    if (!implicitSunUp) {
-      implicitSunUp = true;
-      facts.push({ observationId: o.id, fact: 'sun-up', implicit: true });
-    }
+    lightUp();
   });
   const nuisances: NuisanceSpec[] = [];
   const wallNuisance = new Map<string, number>();
@@ -398,7 +433,12 @@ export function termEvidence(model: EvidenceModel, t: ShadowTerm, nuisances: rea
 export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationContext): number[] {
   const out: number[] = [];
   for (const t of model.shadows) {
-    const r = evidenceResiduals(termEvidence(model, t, ctx.nuisances), ctx.sun, wallAzimuthOf(model, t.wallId, ctx.nuisances)).residuals;
+    const light = lightDirectionOf(t.light, ctx);
+    if (light === null) {
+      for (let k = 0; k < t.count; k += 1) out.push(0);
+      continue;
+    }
+    const r = evidenceResiduals(termEvidence(model, t, ctx.nuisances), light, wallAzimuthOf(model, t.wallId, ctx.nuisances)).residuals;
     for (const v of r) out.push(v);
   }
   for (const c of model.clocks) out.push(clockResidual(c, model, ctx));
@@ -412,13 +452,24 @@ export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationCont
   return out;
 }
 
-/** Soft residual of one fact (0 when it holds). */
-export function factResidual(model: EvidenceModel, f: FactTerm, ctx: EvaluationContext): number {
+/**
+ * The direction of a shadow's light at an evaluation: the sun's, or the moon's topocentric apparent
+ * place (MoonPosition carries the same azimuth and altitudes); null for the moon where the context holds none.
+ */
+export function lightDirectionOf(light: ShadowLight | undefined, ctx: { readonly sun: SolverSunDirection; readonly moon?: SolverSunDirection }): SolverSunDirection | null {
+  return light === 'moon' ? ctx.moon ?? null : ctx.sun;
+}
+
+/** Soft residual of one fact (0 when it holds; 0 for a fact of the moon's light where the context holds no moon). */
+export function factResidual(model: EvidenceModel, f: FactTerm, ctx: { readonly sun: SolverSunDirection; readonly moon?: SolverSunDirection; readonly nuisances: readonly number[] }): number {
+  if (f.fact === 'sun-not-up') return Math.max(0, ctx.sun.altitudeDeg) / FACT_TOLERANCE_DEG; // the sun's centre above the horizon, as the moon's facts
+  const light = lightDirectionOf(f.light, ctx);
+  if (light === null) return 0;
   if (f.fact === 'pair-side' || f.fact === 'wedge') {
     // one-sided, in sigmas of the clicks (skyPlanes.ts sideViolation); the camera's part through its nuisances
-    return sideViolation(f.planes ?? [], sunUnitVector(ctx.sun.azimuthDeg, ctx.sun.altitudeDeg), cameraErrorOf(model, ctx.nuisances)).sigmas;
+    return sideViolation(f.planes ?? [], sunUnitVector(light.azimuthDeg, light.altitudeDeg), cameraErrorOf(model, ctx.nuisances)).sigmas;
   }
-  return lightFactViolationDeg(f.fact, ctx.sun, wallAzimuthOf(model, f.wallId, ctx.nuisances)) / FACT_TOLERANCE_DEG; // = lightFactResidual(...).residuals[0]
+  return lightFactViolationDeg(f.fact, light, wallAzimuthOf(model, f.wallId, ctx.nuisances)) / FACT_TOLERANCE_DEG; // = lightFactResidual(...).residuals[0]
 }
 
 /** Split of a residual vector into chi-square (measured + priors) and the soft penalty (facts). */
@@ -479,7 +530,7 @@ export function rowSourcesIn(reduced: EvidenceModel, full: EvidenceModel): Int32
   }
   for (let k = 0; k < reduced.nuisances.length; k += 1) sources[i++] = -1;
   for (const f of reduced.facts) {
-    const k = full.facts.findIndex((g) => g.fact === f.fact && g.wallId === f.wallId);
+    const k = full.facts.findIndex((g) => g.fact === f.fact && g.wallId === f.wallId && g.light === f.light);
     if (k < 0) return null;
     sources[i++] = factStart + k;
   }
@@ -532,21 +583,27 @@ export function predictedValuesOf(term: ShadowTerm, sun: SolverSunDirection, wal
 }
 
 /** Plain words for a fact at a sun direction. */
-export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean, nuisances: readonly number[] = []): string {
+export function factNote(model: EvidenceModel, f: FactTerm, sun: SolverSunDirection, wallAzimuthDeg: number, satisfied: boolean, nuisances: readonly number[] = [], moon?: SolverSunDirection): string {
   const wallName = f.wallId ?? '';
+  if (f.fact === 'sun-not-up') {
+    return `the sun is ${satisfied ? 'below the horizon' : 'up'} (altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? ', as a view lit by the moon needs' : ''}`;
+  }
+  const body = f.light === 'moon' ? 'moon' : 'sun';
+  const light = f.light === 'moon' ? moon : sun;
+  if (light === undefined) return `the ${body} was not evaluated here`;
   if (f.fact === 'pair-side' || f.fact === 'wedge') {
     const where = f.fact === 'pair-side' ? "on the side of the pair's line where its shadow falls away from the light" : 'inside the wedge of its shadow';
-    if (satisfied) return `the sun lies ${where}`;
-    const v = sideViolation(f.planes ?? [], sunUnitVector(sun.azimuthDeg, sun.altitudeDeg), cameraErrorOf(model, nuisances));
-    return `the sun lies ${v.degrees.toFixed(1)} deg outside the bound it must keep (${where}; ${v.sigmas.toFixed(1)} sigma of the clicks)`;
+    if (satisfied) return `the ${body} lies ${where}`;
+    const v = sideViolation(f.planes ?? [], sunUnitVector(light.azimuthDeg, light.altitudeDeg), cameraErrorOf(model, nuisances));
+    return `the ${body} lies ${v.degrees.toFixed(1)} deg outside the bound it must keep (${where}; ${v.sigmas.toFixed(1)} sigma of the clicks)`;
   }
   if (f.fact === 'sun-up') {
     const term = model.clocks.find((c) => c.observationId === f.observationId);
-    const needs = term ? (term.observationKind === 'sundial' ? ', as a sundial read in sunshine needs' : ', as a clock read in daylight needs') : ', as a shadow needs';
-    return `the sun is ${satisfied ? 'up' : 'below the horizon'} (altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? needs : ''}`;
+    const needs = term ? (term.observationKind === 'sundial' ? ', as a sundial read in sunshine needs' : ', as a clock read in daylight needs') : f.light === 'moon' ? ', as a shadow cast by moonlight needs' : ', as a shadow needs';
+    return `the ${body} is ${satisfied ? 'up' : 'below the horizon'} (altitude ${light.altitudeDeg.toFixed(1)} deg)${f.implicit ? needs : ''}`;
   }
-  const hsa = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
+  const hsa = horizontalShadowAngleDeg(light.azimuthDeg, wallAzimuthDeg);
   const lit = f.fact === 'wall-lit';
-  const words = satisfied === lit ? 'lit' : 'in shade';
-  return `wall ${wallName} is ${words} (sun ${Math.abs(hsa).toFixed(0)} deg from its normal, altitude ${sun.altitudeDeg.toFixed(1)} deg)${f.implicit ? ', as a shadow on it needs' : ''}`;
+  const words = satisfied === lit ? (f.light === 'moon' ? 'lit by the moon' : 'lit') : 'in shade';
+  return `wall ${wallName} is ${words} (${body} ${Math.abs(hsa).toFixed(0)} deg from its normal, altitude ${light.altitudeDeg.toFixed(1)} deg)${f.implicit ? ', as a shadow on it needs' : ''}`;
 }

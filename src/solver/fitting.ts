@@ -131,9 +131,9 @@ export interface DatedContext {
   moonCalls: number;
 }
 
-/** True when the model holds evidence of the moon. */
+/** True when the model holds evidence of the moon: its place, look or facts, or a shadow cast by its light. */
 export function hasMoonEvidence(model: EvidenceModel): boolean {
-  return model.moons.length > 0 || model.moonFacts.length > 0;
+  return model.moons.length > 0 || model.moonFacts.length > 0 || model.shadows.some((t) => t.light === 'moon') || model.facts.some((f) => f.light === 'moon');
 }
 
 export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null, anchorJdUT: number, moonRows = true): DatedContext {

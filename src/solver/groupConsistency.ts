@@ -127,6 +127,10 @@ export function groupConsistency(scene: Scene, model: EvidenceModel, best: RawCa
     const ids = [...new Set(terms.map((t) => t.observationId))];
     const restIds = [...rows.keys()].filter((id) => !ids.includes(id));
     if (ids.length === 0 || restIds.length === 0) continue;
+    // The group's own light is one direction: a group whose shadows are cast by the sun and by the moon has none.
+    const lights = new Set(terms.map((t) => t.light));
+    if (lights.size > 1) continue;
+    const body = lights.has('moon') ? 'moon' : 'sun';
     const residualCount = terms.reduce((n, t) => n + t.count, 0);
     const rest = localRefitWithout(scene, model, best, assumed, win, new Set(ids));
     // the group's own sun with the nuisances the rest was refitted to (the camera's error, shared by the pairs of
@@ -141,7 +145,7 @@ export function groupConsistency(scene: Scene, model: EvidenceModel, best: RawCa
     const differs = p < LOO_P_THRESHOLD;
     const numbers = `Delta chi-square ${delta.toFixed(1)} for ${dof} degree${dof === 1 ? '' : 's'} of freedom, ${p < 1e-6 ? 'p < 0.000001' : `p = ${p.toPrecision(2)}`}`;
     const finding = differs
-      ? `the shadows of ${quoted(label)} do not share the light of ${restName}: ${numbers}; on their own they point to a sun at azimuth ${sun.azimuthDeg.toFixed(1)} deg, altitude ${sun.altitudeDeg.toFixed(1)} deg`
+      ? `the shadows of ${quoted(label)} do not share the light of ${restName}: ${numbers}; on their own they point to a ${body} at azimuth ${sun.azimuthDeg.toFixed(1)} deg, altitude ${sun.altitudeDeg.toFixed(1)} deg`
       : `the shadows of ${quoted(label)} agree with the light of ${restName}`;
     const sentence = differs
       ? `${finding} (another day or hour, another hand, or a misread shadow: an estimate under the stated assumptions, not a proof)`

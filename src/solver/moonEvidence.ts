@@ -125,7 +125,7 @@ export function moonResiduals(e: MoonEvidence, moon: MoonPosition): number[] {
 }
 
 /** Violation of a moon fact, degrees of altitude (0 when it holds). */
-export function moonFactViolationDeg(fact: MoonFactTerm['fact'], moon: MoonPosition): number {
+export function moonFactViolationDeg(fact: MoonFactTerm['fact'], moon: { readonly altitudeDeg: number }): number {
   return fact === 'moon-up' ? Math.max(0, -moon.altitudeDeg) : Math.max(0, moon.altitudeDeg);
 }
 

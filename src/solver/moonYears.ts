@@ -47,8 +47,8 @@ const SECOND_DAY_CUTOFF = 10;
  */
 const PHASE_SCREEN_CHI2 = 16;
 
-/** Chi-square of the drawn phases against the quick phase longitude l (sigmas widened by its allowance). */
-function quickPhaseChiSquare(terms: readonly MoonTerm[], l: number): number {
+/** Chi-square of the drawn phases against the quick phase longitude l (sigmas widened by its allowance); also used by src/solver/moonSearch.ts. */
+export function quickPhaseChiSquare(terms: readonly MoonTerm[], l: number): number {
   let chi = 0;
   for (const t of terms) {
     const e = t.evidence;

@@ -15,7 +15,7 @@ import type { DayWindow } from './window.js';
 import { assumedKind } from './candidates.js';
 import { hasMoonEvidence } from './fitting.js';
 import { moonStage } from './moonYears.js';
-import { UnsupportedError } from '../errors.js';
+import { moonSearch, needsMoonSearch } from './moonSearch.js';
 
 export interface SearchResult {
   readonly assumptions: readonly ClockAssumption[];
@@ -75,6 +75,7 @@ const STAGE_A_SHARE = 0.4;
 export const SEARCH_STAGE_WORDS = {
   grid: "searching the sky for the sun's possible places",
   dating: 'dating each place in every year of the window',
+  moon: "scanning every day of the window for the moon's place",
 } as const;
 
 const APPARENT: ClockKind = { kind: 'apparent' };
@@ -98,11 +99,8 @@ const KEEPINGS_BY_DIAL: Readonly<Record<6 | 12 | 24, readonly ClockKind[]>> = {
 export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: StageAGrids, onProgress?: (fraction: number, stage: string) => void): SearchResult {
   const assumptions = clockAssumptionsOf(model);
   const withMoon = hasMoonEvidence(model);
-  if (withMoon && model.shadows.length === 0 && model.clocks.length === 0) {
-    throw new UnsupportedError(
-      'The moon is the only measured evidence of this scene: this version dates the moon only together with evidence of the sun (a shadow, a sun direction or a clock), which finds the days and hours the moon is then fitted on in every year (docs/moon-evidence.md).',
-    );
-  }
+  // No shadow by sunlight: the sun's search has nothing to start from; every day is scanned with the moon (moonSearch.ts).
+  const byMoon = withMoon && needsMoonSearch(model);
   model.clocks.forEach((c) => {
     if (c.kept && c.kept.kind === 'zone') zoneReading(c.kept.zone, win.firstDayJd0 + 0.5, `clock ${c.observationId}`);
   });
@@ -130,6 +128,16 @@ export function searchCandidates(model: EvidenceModel, win: DayWindow, reuse?: S
     }
     const which = assumptions.length > 1 ? ` (clock assumption ${i + 1} of ${assumptions.length})` : '';
     const report = (share0: number, share: number, words: string) => onProgress && ((done: number, total: number) => onProgress((i + share0 + (share * done) / total) / assumptions.length, `${words}${which}`));
+    if (byMoon) {
+      onProgress?.(i / assumptions.length, `${SEARCH_STAGE_WORDS.moon}${which}`);
+      const ms = moonSearch(model, kind, i, win);
+      evaluations += ms.screenedInstants;
+      moonEvaluations += ms.moonEvaluations;
+      moonScreenedDays += ms.refinedDays;
+      moonRefinedYears += new Set(ms.candidates.map((c) => c.cycle)).size;
+      all.push(...dedupeByDayAndHour(ms.candidates));
+      return;
+    }
     const kept = sources === null ? undefined : reuse?.byAssumption.get(stageAGridKey(kind));
     const sa = stageA(model, kind, zoneOffset, obliquityDeg, kept === undefined || sources === null ? undefined : { grid: kept, sources }, report(0, STAGE_A_SHARE, SEARCH_STAGE_WORDS.grid));
     if (sa.grid !== null) grids.set(stageAGridKey(kind), sa.grid);

@@ -43,6 +43,7 @@ import { jdToCivilDate } from '../calendar/regions.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 import { hasMoonEvidence } from './fitting.js';
 import { moonYearsAnswer } from './moonAnswer.js';
+import { moonlightWords } from './moonSearch.js';
 
 /** Soft penalty above which the facts are said not to hold (a violation of 2 tolerances = 1 deg). */
 export const FACT_PENALTY_LIMIT = 4;
@@ -386,6 +387,11 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   onProgress?.(progressSteps - 1, progressSteps, SOLVE_STAGE_WORDS.answer);
   const top = families[0];
   const moon = best && hasMoonEvidence(model) ? moonYearsAnswer(s, dressed(s, best)) : undefined;
+  const moonlight = best ? moonlightWords(model, best.point) : null;
+  if (moonlight) {
+    notes.push(moonlight.words);
+    if (moonlight.sunUp && (status === 'fits' || status === 'marginal')) verdict += ` ${moonlight.words}`;
+  }
   if (moon) {
     notes.push(...moon.cautions);
     if (status === 'fits' || status === 'marginal') verdict += ` ${moon.words}`;

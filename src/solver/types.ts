@@ -35,6 +35,8 @@ export interface ResidualEntry {
   readonly observationKind: string;
   /** Which measured number: 'slope', 'depth-ratio', 'width-ratio', 'shadow-azimuth', 'length-ratio', 'distance-ratio', 'azimuth', 'altitude', 'reading', 'east', 'north', ... */
   readonly component: string;
+  /** The light of a shadow: 'moon' for a shadow cast by moonlight, 'sun' for sunlight; absent for clocks and the moon's own evidence. */
+  readonly light?: 'sun' | 'moon';
   readonly measured: number;
   readonly predicted: number;
   /** Unit of measured and predicted: 'deg', 'ratio', 'min', 'm'. */
@@ -52,7 +54,9 @@ export interface ResidualEntry {
 /** A fact without a number (wall lit or shaded, sun up) at a candidate. */
 export interface FactEntry {
   readonly observationId: string;
-  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'rod-side' | 'fin-side' | 'pair-side' | 'wedge' | 'moon-up' | 'moon-not-up';
+  readonly observationKind: 'wall-lit' | 'wall-shaded' | 'sun-up' | 'sun-not-up' | 'rod-side' | 'fin-side' | 'pair-side' | 'wedge' | 'moon-up' | 'moon-not-up';
+  /** 'moon' for a fact of a shadow cast by moonlight (then 'sun-up' says the moon is up); absent: the sun. */
+  readonly light?: 'moon';
   readonly satisfied: boolean;
   /** Soft penalty added to the objective, 0 when satisfied; not counted in the degrees of freedom. */
   readonly penalty: number;

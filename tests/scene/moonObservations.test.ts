@@ -51,8 +51,29 @@ describe('the moon in a scene file', () => {
       expect(refusal('  - { id: k, kind: moon-phase, illuminatedFraction: 1.2, sigma: 0.05 }')).toMatch(/illuminatedFraction/);
       expect(refusal('  - { id: k, kind: moon-phase, illuminatedFraction: 0.2 }')).toMatch(/sigma/);
     });
-    it('refuses shadows cast by moonlight, saying why', () => {
-      expect(refusal('  - { id: r, kind: rod-shadow, wall: gate-west, slopeDeg: 13, side: right, sigmaDeg: 1, light: moon }')).toMatch(/observations\[0\]\.light.*moonlight are not solved in this version/);
+    it('reads shadows cast by moonlight on every shadow kind, and keeps the sun as the default', () => {
+      const s = readSceneText(scene([
+        '  - { id: r, kind: rod-shadow, wall: gate-west, slopeDeg: 13, side: right, sigmaDeg: 1, light: moon }',
+        '  - { id: o, kind: overhang-shadow, wall: gate-west, depthRatio: 0.4, sigma: 0.05, light: moon }',
+        '  - { id: f, kind: fin-shadow, wall: gate-west, widthRatio: 0.4, side: left, sigma: 0.05, light: moon }',
+        '  - { id: p, kind: pole-shadow, shadowAzimuthDeg: 20, shadowAzimuthSigmaDeg: 1, light: moon }',
+        '  - { id: e, kind: eave-shadow, wall: gate-west, distanceRatio: 0.5, sigma: 0.05, light: moon }',
+        '  - { id: s, kind: shadow-points, caster: [0, 0, 2], shadow: [1, 1, 0], sigmaM: 0.05, light: moon }',
+        '  - { id: q, kind: pole-shadow, lengthRatio: 1.2, lengthRatioSigma: 0.05, light: sun }',
+        '  - { id: z, kind: sun-not-up }',
+      ].join('\n')), 'velmar.yaml');
+      // The sun, the default, is not written out: no "light" on a sunlit shadow.
+      expect(s.observations.map((o) => (o as { light?: string }).light ?? 'sun')).toEqual(['moon', 'moon', 'moon', 'moon', 'moon', 'moon', 'sun', 'sun']);
+      expect(s.observations[7].kind).toBe('sun-not-up');
+    });
+    it('refuses a light other than the sun or the moon, naming the field and what is allowed', () => {
+      expect(refusal('  - { id: r, kind: rod-shadow, wall: gate-west, slopeDeg: 13, side: right, sigmaDeg: 1, light: lamp }')).toMatch(/observations\[0\]\.light.*"sun" or "moon"/);
+    });
+    it('refuses a light on an observation that is not a shadow', () => {
+      expect(refusal('  - { id: d, kind: moon-phase, illuminatedFraction: 0.5, sigma: 0.05, light: moon }')).toMatch(/observations\[0\]\.light/);
+    });
+    it('refuses a moonlit point shadow above its caster, with the moon in the message', () => {
+      expect(refusal('  - { id: s, kind: shadow-points, caster: [0, 0, 1], shadow: [1, 1, 2], sigmaM: 0.05, light: moon }')).toMatch(/moon above the horizon/);
     });
     it('refuses the moon\'s direction in pixels, saying what to give instead', () => {
       expect(refusal('  - { id: m, kind: moon-direction, pixels: { fromPx: [1, 2], toPx: [3, 4] } }')).toMatch(/observations\[0\]\.pixels.*as numbers/);
