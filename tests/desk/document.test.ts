@@ -96,6 +96,21 @@ describe('the tools', () => {
     }
   });
 
+  it('every shadow tool offers the light, the sun by default, and writes light: moon for moonlight, as the reader reads it', () => {
+    const shadowTools = TOOLS.filter((t) => t.fields.some((f) => f.name === 'light'));
+    expect(shadowTools.map((t) => t.id).sort()).toEqual(['eave-shadow', 'fin-shadow', 'object-shadow', 'overhang-shadow', 'pole-shadow', 'rod-shadow', 'shadow-points', 'shadow-wedge']);
+    for (const t of shadowTools) expect(t.fields.find((f) => f.name === 'light')?.initial, t.id).toBe('sun');
+    const draft = emptyDraft('hall.png', 1600, 1200);
+    draft.walls = [{ id: 'west', azimuthDeg: 268.5 }];
+    const rod = TOOLS.find((t) => t.id === 'rod-shadow')!;
+    const result = rod.finish(draft, [[800, 515], [764, 569]], { id: 'bracket', wall: 'west', note: '', light: 'moon' });
+    if (typeof result === 'string') throw new Error(result);
+    const after = structuredClone(draft);
+    result.change(after);
+    expect(after.observations).toEqual([{ id: 'bracket', kind: 'rod-shadow', wall: 'west', light: 'moon', pixels: { fromPx: [800, 515], toPx: [764, 569] } }]);
+    expect(sceneYamlText(after)).toMatch(/light: moon/);
+  });
+
   it('the clicks of the shadow and figure tools make the structure of the scene file', () => {
     const draft = emptyDraft('hall.png', 1600, 1200);
     draft.walls = [{ id: 'west', azimuthDeg: 268.5 }];

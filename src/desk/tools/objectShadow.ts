@@ -6,7 +6,7 @@
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
-import { addObservation, pointValue, type DeskTool, type ToolValues } from './tool.js';
+import { addObservation, LIGHT_FIELD, withLight, pointValue, type DeskTool, type ToolValues } from './tool.js';
 
 export const objectShadowTool: DeskTool = {
   id: 'object-shadow',
@@ -15,6 +15,7 @@ export const objectShadowTool: DeskTool = {
   fields: [
     { name: 'id', label: 'name (id)', kind: 'text', initial: 'pair' },
     { name: 'group', label: 'group (optional: figures, buildings, ...)', kind: 'text', initial: '' },
+    LIGHT_FIELD,
     { name: 'note', label: 'note', kind: 'text', initial: '' },
   ],
   clicks: () => [
@@ -26,6 +27,7 @@ export const objectShadowTool: DeskTool = {
     const observation: Record<string, DraftValue> = { id, kind: 'object-shadow' };
     const group = (values.group ?? '').trim();
     if (group !== '') observation.group = group;
+    withLight(observation, values);
     observation.objectPx = pointValue(clicks[0]);
     observation.shadowPx = pointValue(clicks[1]);
     if ((values.note ?? '').trim() !== '') observation.note = values.note.trim();

@@ -8,7 +8,7 @@
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
-import { addObservation, pointValue, typedNumber, wallFromCamera, wallIndex, type DeskTool, type ToolValues } from './tool.js';
+import { addObservation, LIGHT_FIELD, withLight, pointValue, typedNumber, wallFromCamera, wallIndex, type DeskTool, type ToolValues } from './tool.js';
 
 /** True when the plane the pair is on comes from the camera alone (no clicked figure, a camera block). */
 function fromCamera(draft: Draft, values: ToolValues): boolean {
@@ -27,6 +27,7 @@ export const pointPairTool: DeskTool = {
     { name: 'wall', label: 'on wall', kind: 'wall', initial: '', when: (v) => v.on === 'wall' },
     { name: 'heightM', label: "caster's distance from the plane, m", kind: 'number', initial: '' },
     { name: 'heightSigmaM', label: 'its sigma, m', kind: 'number', initial: '0.02' },
+    LIGHT_FIELD,
     { name: 'note', label: 'note', kind: 'text', initial: '' },
   ],
   clicks(values: ToolValues, draft: Draft) {
@@ -53,6 +54,7 @@ export const pointPairTool: DeskTool = {
     }
     const observation: Record<string, DraftValue> = { id, kind: 'shadow-points' };
     if ((values.note ?? '').trim() !== '') observation.note = values.note.trim();
+    withLight(observation, values);
     observation.pixels = pixels;
     return addObservation(`add caster and shadow point ${id}`, observation);
   },

@@ -8,7 +8,7 @@
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
-import { addObservation, pointValue, typedNumber, wallFromCamera, wallIndex, type DeskTool, type ToolField, type ToolValues } from './tool.js';
+import { addObservation, LIGHT_FIELD, pointValue, typedNumber, wallFromCamera, wallIndex, withLight, type DeskTool, type ToolField, type ToolValues } from './tool.js';
 
 export interface ShadowToolSpec {
   readonly id: string;
@@ -32,6 +32,7 @@ export function shadowTool(spec: ShadowToolSpec): DeskTool {
     { name: 'id', label: 'name (id)', kind: 'text', initial: spec.id },
     ...(spec.onWall ? [{ name: 'wall', label: 'on wall', kind: 'wall' as const, initial: '' }] : []),
     ...spec.lengthFields,
+    LIGHT_FIELD,
     { name: 'note', label: 'note', kind: 'text', initial: '' },
   ];
   /** The points to click: the kind's own, plus the tip on a wall from the camera. */
@@ -54,6 +55,7 @@ export function shadowTool(spec: ShadowToolSpec): DeskTool {
       if (clicked.length === points.length) for (const f of spec.lengthFields) if ((values[f.name] ?? '').trim() !== '') pixels[f.name] = typedNumber(values[f.name]);
       const observation: Record<string, DraftValue> = { id, kind: spec.kind };
       if (spec.onWall) observation.wall = values.wall;
+      withLight(observation, values);
       if ((values.note ?? '').trim() !== '') observation.note = values.note.trim();
       observation.pixels = pixels;
       return addObservation(`add ${spec.name.toLowerCase()} ${id}`, observation);

@@ -6,7 +6,7 @@
  */
 import type { PixelPoint } from '../../scene/types.js';
 import { freshObservationId, type Draft, type DraftValue } from '../draft.js';
-import { addObservation, pointValue, typedNumber, type DeskTool, type ToolValues } from './tool.js';
+import { addObservation, LIGHT_FIELD, withLight, pointValue, typedNumber, type DeskTool, type ToolValues } from './tool.js';
 
 export const shadowWedgeTool: DeskTool = {
   id: 'shadow-wedge',
@@ -16,6 +16,7 @@ export const shadowWedgeTool: DeskTool = {
     { name: 'id', label: 'name (id)', kind: 'text', initial: 'wedge' },
     { name: 'group', label: 'group (optional: figures, buildings, ...)', kind: 'text', initial: '' },
     { name: 'sigmaPx', label: 'clicking sigma, px (optional: else the picture\'s)', kind: 'number', initial: '' },
+    LIGHT_FIELD,
     { name: 'note', label: 'note', kind: 'text', initial: '' },
   ],
   clicks: () => [
@@ -28,6 +29,7 @@ export const shadowWedgeTool: DeskTool = {
     const observation: Record<string, DraftValue> = { id, kind: 'shadow-wedge' };
     const group = (values.group ?? '').trim();
     if (group !== '') observation.group = group;
+    withLight(observation, values);
     observation.shadowPx = pointValue(clicks[0]);
     observation.edgesPx = [pointValue(clicks[1]), pointValue(clicks[2])];
     if ((values.sigmaPx ?? '').trim() !== '') observation.sigmaPx = typedNumber(values.sigmaPx);

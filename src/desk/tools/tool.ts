@@ -72,6 +72,14 @@ export function wallFromCamera(draft: Draft, wallId: string): boolean {
 }
 
 /** The transaction that appends one observation to the document, with its label for undo. */
+/** The light that casts a shadow, for every shadow tool: the sun (the default, not written) or the moon (docs/moon-evidence.md). */
+export const LIGHT_FIELD: ToolField = { name: 'light', label: 'light', kind: 'choice', choices: [['sun', 'the sun'], ['moon', 'the moon (moonlight)']], initial: 'sun' };
+
+/** `light: moon` on the observation when the tool's light is the moon; the sun, the default, is left out as the reader reads it. */
+export function withLight(observation: Record<string, DraftValue>, values: ToolValues): void {
+  if (values.light === 'moon') observation.light = 'moon';
+}
+
 export function addObservation(label: string, observation: Readonly<Record<string, DraftValue>>): ToolResult {
   return {
     label,
