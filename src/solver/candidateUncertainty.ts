@@ -69,7 +69,12 @@ function repUncertainty(rep: RepresentativeFit, cache: UncertaintyCache): RepUnc
   const ctx = rep.context;
   const c = rep.covariance;
   let result: RepUncertainty;
-  if (!c) {
+  if (!c && rep.moonInstant) {
+    // The moon's own search: the instant is fixed; the neighbouring days (the moon there about 50 minutes later) are scanned.
+    const m95 = Math.sqrt(DELTA_CHI2_1DOF_95) * rep.moonInstant.sigmaMinutes;
+    const hour = Number.isFinite(m95) ? `the hour on this day is known to +/-${m95 < 10 ? m95.toFixed(1) : m95.toFixed(0)} min (95%)` : 'the hour on this day has no sigma (the fit is singular)';
+    result = { cov2: null, fixes: true, linearity: Infinity, valid: false, reason: `the moon fixes an instant, not a day and an hour each (a day later it stands in the same place about 50 minutes later): ${hour}, and the neighbouring days are scanned instead of an ellipse`, sky: null };
+  } else if (!c) {
     result = { cov2: null, fixes: false, linearity: Infinity, valid: false, reason: FREE_REASON, sky: null };
   } else {
     const cov2: Covariance2 = { xx: c[0][0], xy: c[0][1], yy: c[1][1] };

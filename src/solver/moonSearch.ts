@@ -13,10 +13,11 @@
  * 3. refine each kept day with the whole evidence and the full moon (src/ephemeris/moonPosition.ts)
  *    by Levenberg-Marquardt in (minute, nuisances) on that civil day (src/solver/fitting.ts
  *    refineOnDay), then verify it with one exact evaluation (stageB.ts exactPoint).
- * The moon fixes an instant, not a day and an hour separately: a day later at the same hour it
- * stands about 12 deg further east. The candidate's covariance is that of the on-day fit in
- * (minute, nuisances), its day held (the day's variance set to that of one minute of time as a
- * stand-in for zero, so that the ellipse machinery applies): the ellipse is an interval of the hour.
+ * The moon fixes an instant, not a day and an hour each: a day later it stands at the same place
+ * about 50 minutes later. In the solver's (day, minute) the fit is singular, so a candidate carries no
+ * ellipse: the sigma of its minute on its day (from the on-day fit's Jacobian, Press et al., Numerical
+ * Recipes 3rd ed. 2007, section 15.5), and the profile scan over the neighbouring days
+ * (src/solver/candidateUncertainty.ts) says which days fit with their hours.
  */
 import type { ClockKind } from '../scene/types.js';
 import { covarianceFromJacobian } from '../math/leastSquares.js';
@@ -46,8 +47,6 @@ export const SCREEN_CUTOFF = 60;
 export const MAX_REFINED = 100;
 /** Below this quick altitude (degrees) the moon cannot light a shadow: the step is not evaluated further. */
 const BELOW_DEG = -2;
-/** The day's variance of a moon candidate, days^2: one minute of time, a stand-in for zero (see header). */
-const HELD_DAY_VARIANCE = (1 / 1440) ** 2;
 
 export interface MoonSearchResult {
   readonly candidates: RawCandidate[];
@@ -228,11 +227,9 @@ export function moonSearch(model: EvidenceModel, assumed: ClockKind | null, assu
     const ex = exactPoint(model, assumed, site, day, fit.x[1], fit.x.slice(2), fit.point.state.equationOfTimeMinutes);
     moonEvaluations += ctx.moonCalls + 1;
     const s = splitChiSquare(model, ex.point.residuals);
-    // The covariance of (minute, nuisances) on the day, put into (day, minute, nuisances) with the day held.
+    // The covariance of (minute, nuisances) on the day: the sigma of the minute (see the header).
     const onDay = covarianceFromJacobian(fit.lm.jacobian, fit.x.length - 1);
-    const covariance = onDay
-      ? [[HELD_DAY_VARIANCE, ...onDay.map(() => 0)], ...onDay.map((row) => [0, ...row])]
-      : null;
+    const sigmaMinutes = onDay && onDay[0][0] > 0 ? Math.sqrt(onDay[0][0]) : NaN;
     const civilYear = jdToCivilDate(win.calendar, day + 0.5).civil.year;
     const dated = { ...fit, x: [day, ...fit.x.slice(1)] };
     out.push({
@@ -251,7 +248,7 @@ export function moonSearch(model: EvidenceModel, assumed: ClockKind | null, assu
       objective: s.chiSquare + s.penalty,
       continuousDay: day,
       continuousMinutes: fit.x[1],
-      rep: { cycle: civilYear - win.fromYear, fit: dated, objective: s.chiSquare + s.penalty, covariance, context: ctx },
+      rep: { cycle: civilYear - win.fromYear, fit: dated, objective: s.chiSquare + s.penalty, covariance: null, context: ctx, moonInstant: { sigmaMinutes } },
       fit: { converged: fit.converged, iterations: fit.iterations },
       mapped: false,
       atWindowEdge: false,

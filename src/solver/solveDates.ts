@@ -43,7 +43,7 @@ import { jdToCivilDate } from '../calendar/regions.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 import { hasMoonEvidence } from './fitting.js';
 import { moonYearsAnswer } from './moonAnswer.js';
-import { moonlightWords } from './moonSearch.js';
+import { moonlightWords, needsMoonSearch } from './moonSearch.js';
 
 /** Soft penalty above which the facts are said not to hold (a violation of 2 tolerances = 1 deg). */
 export const FACT_PENALTY_LIMIT = 4;
@@ -393,7 +393,10 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     if (moonlight.sunUp && (status === 'fits' || status === 'marginal')) verdict += ` ${moonlight.words}`;
   }
   if (moon) {
-    notes.push(...moon.cautions);
+    // Searched by the moon alone (no sunlit shadow, src/solver/moonSearch.ts), the intervals are the moon's own: the
+    // caution that they are the sun's alone does not apply.
+    const byMoon = needsMoonSearch(model);
+    notes.push(...moon.cautions.filter((c) => !(byMoon && c.startsWith('The error ellipses and day intervals'))));
     if (status === 'fits' || status === 'marginal') verdict += ` ${moon.words}`;
     else if (moon.impossible.length > 0) verdict += ` ${moon.impossible.join(' ')}`;
   }

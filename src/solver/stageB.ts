@@ -56,6 +56,11 @@ export interface RepresentativeFit {
   /** Full covariance of [d, m, ...nuisances], or null when singular. */
   readonly covariance: number[][] | null;
   readonly context: DatedContext;
+  /**
+   * A candidate of the moon's own search (src/solver/moonSearch.ts): the moon fixes an instant, not a day and an
+   * hour each; covariance is then null and this gives the sigma of the minute on the candidate's day.
+   */
+  readonly moonInstant?: { readonly sigmaMinutes: number };
 }
 
 /** A candidate before it is dressed for the answer. */
