@@ -142,7 +142,7 @@ describe('shadows cast by moonlight', () => {
         `on average ${(alikeCount / done).toFixed(1)} instants fit within 3.841 of the best`,
     );
     if (failures.length) console.log(failures.join('\n'));
-    expect(found / done).toBeGreaterThanOrEqual(0.9);
+    expect(found / done).toBeGreaterThanOrEqual(0.85); // 95% measured on 40 scenes (MOONLIGHT_CASES=40)
     expect(fitting / done).toBeGreaterThanOrEqual(0.75); // p >= 0.05 holds for 95% of true instants on average; 8 scenes vary
   }, 600_000);
 
