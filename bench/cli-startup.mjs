@@ -2,7 +2,7 @@
 /**
  * Start-up of the command line against a bare `node -e 0`, measured side by side in one run
  * (median of N runs each, interleaved, so that other work on the machine hits every case alike).
- * Each command runs twice: as the package's `bin` runs it (dist/bin/heliochron.js, the bundle of
+ * Each command runs twice: as the package's `bin` runs it (dist/bin/heliochron.cjs, the bundle of
  * src/cli/build.mjs) and as tsc's modules (dist/cli/main.js), to show what the bundle saves.
  * Build first: npm run build (or npx tsc -p tsconfig.json && node src/cli/build.mjs).
  * Targets (issue: speed), as ratios to `node -e 0`: `date` on the bundled example at most 2.5x,
@@ -14,14 +14,14 @@
  *   branch before a change, in the same interleaved runs.
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir, loadavg, cpus } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
 
 const root = fileURLToPath(new URL('../', import.meta.url));
-const bin = `${root}dist/bin/heliochron.js`;
+const bin = `${root}${JSON.parse(readFileSync(`${root}package.json`, 'utf8')).bin.heliochron}`;
 const modules = `${root}dist/cli/main.js`;
 for (const file of [bin, modules]) {
   if (!existsSync(file)) {
