@@ -12,6 +12,8 @@
  * or with other V8 flags) or a missing cache file only cost the compile the cache would have saved:
  * the program then runs exactly as without a cache. The cache files and the script are made by the
  * same build and removed together by the next one.
+ * Only esbuild compiles this file (it is CommonJS once bundled): tsconfig.json leaves it out of tsc's
+ * dist/, tsconfig.test.json type-checks it.
  */
 import { readFileSync } from 'node:fs';
 import { join } from 'node:path';
