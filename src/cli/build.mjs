@@ -120,7 +120,6 @@ export async function buildCli({ metafile = false, write = true, codeCache = wri
   const folder = join(root, outDir);
   rmSync(folder, { recursive: true, force: true });
   mkdirSync(folder, { recursive: true });
-  // main.ts's '#!' line, which esbuild keeps first, is not needed in a script that is no program of its own.
   writeFileSync(join(folder, PROGRAM_FILE), programText(result));
   await build({
     ...common,
@@ -140,6 +139,7 @@ export async function buildCli({ metafile = false, write = true, codeCache = wri
  * String.raw template: write those with \u escapes).
  */
 export function programText(result) {
+  // main.ts's '#!' line, which esbuild keeps first, has no place in a script run inside the bin.
   const text = result.outputFiles[0].text.replace(/^#!.*\n/, '');
   const at = text.search(/[^\x00-\x7f]/);
   if (at >= 0) {
