@@ -2,7 +2,7 @@
 /**
  * Start-up of the command line against a bare `node -e 0`, measured side by side in one run
  * (median of N runs each, interleaved, so that other work on the machine hits every case alike).
- * Each command runs twice: as the package's `bin` runs it (dist/bin/heliochron.js, the bundle of
+ * Each command runs twice: as the package's `bin` runs it (dist/bin/heliochron.cjs, the bundle of
  * src/cli/build.mjs) and as tsc's modules (dist/cli/main.js), to show what the bundle saves.
  * Build first: npm run build (or npx tsc -p tsconfig.json && node src/cli/build.mjs).
  * Targets (issue: speed), as ratios to `node -e 0`: `date` on the bundled example at most 2.5x,
@@ -10,18 +10,21 @@
  * prints its CPU time (user + system, start-up included) when it ends; on a shared machine the CPU
  * ratio is the steadier figure, the elapsed one includes waiting for a core.
  * Usage: node bench/cli-startup.mjs [runs] [--before <checkout>]
- *   --before: also run another checkout's tsc build (<checkout>/dist/cli/main.js), e.g. the main
- *   branch before a change, in the same interleaved runs.
+ *   --before: also run another checkout's tsc build (<checkout>/dist/cli/main.js) and its bin
+ *   (the file its package.json names, when built), e.g. the main branch before a change, in the
+ *   same interleaved runs.
+ * The first line says whether V8 took the bin's code cache for each target command (src/cli/bin.ts).
  */
 import { spawnSync } from 'node:child_process';
-import { existsSync, mkdtempSync, rmSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir, loadavg, cpus } from 'node:os';
-import { join } from 'node:path';
+import { createRequire } from 'node:module';
+import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
 
 const root = fileURLToPath(new URL('../', import.meta.url));
-const bin = `${root}dist/bin/heliochron.js`;
+const bin = `${root}${JSON.parse(readFileSync(`${root}package.json`, 'utf8')).bin.heliochron}`;
 const modules = `${root}dist/cli/main.js`;
 for (const file of [bin, modules]) {
   if (!existsSync(file)) {
@@ -32,11 +35,23 @@ for (const file of [bin, modules]) {
 const positional = process.argv.slice(2).filter((a, i, all) => !a.startsWith('--') && all[i - 1] !== '--before');
 const runs = Number(positional[0] ?? 10);
 const beforeAt = process.argv.indexOf('--before');
-const before = beforeAt > 0 ? `${process.argv[beforeAt + 1].replace(/\/$/, '')}/dist/cli/main.js` : null;
+const beforeRoot = beforeAt > 0 ? `${process.argv[beforeAt + 1].replace(/\/$/, '')}/` : null;
+const before = beforeRoot === null ? null : `${beforeRoot}dist/cli/main.js`;
 if (before !== null && !existsSync(before)) {
   console.error(`bench/cli-startup.mjs: ${before} is missing; build that checkout first`);
   process.exit(1);
 }
+// The other checkout's bin too, when it has one built (its package.json names it).
+const beforeBin = beforeRoot === null ? null : `${beforeRoot}${JSON.parse(readFileSync(`${beforeRoot}package.json`, 'utf8')).bin?.heliochron}`;
+const hasBeforeBin = beforeBin !== null && existsSync(beforeBin);
+// Whether V8 takes the code cache that the bin gives each command (src/cli/bin.ts; made by npm run build, not by the tests' set-up).
+const binFolder = dirname(bin);
+const cacheWords = (args) => {
+  const { cachedDataFor, loadProgram } = createRequire(import.meta.url)(bin);
+  const data = cachedDataFor(binFolder, args);
+  if (data === undefined) return 'none (run npm run build to make the code caches)';
+  return loadProgram(binFolder, data).script.cachedDataRejected ? 'rejected by this Node' : 'taken';
+};
 const out = mkdtempSync(join(tmpdir(), 'heliochron-startup-'));
 const example = `${root}examples/marktgasse-print.yaml`;
 const commands = [
@@ -52,6 +67,7 @@ const cases = [
     { name: `${c.name} (bin)`, args: [bin, ...c.args], target: c.target },
     { name: `${c.name} (tsc modules)`, args: [modules, ...c.args] },
     ...(before === null ? [] : [{ name: `${c.name} (before)`, args: [before, ...c.args] }]),
+    ...(hasBeforeBin ? [{ name: `${c.name} (before, bin)`, args: [beforeBin, ...c.args] }] : []),
   ]),
 ];
 const cpuAtExit = `${root}bench/cpu-at-exit.cjs`;
@@ -69,6 +85,7 @@ const median = (xs) => {
   return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
 };
 
+console.log(`code cache of the bin (${bin.slice(root.length)}): ${commands.filter((c) => c.target !== undefined).map((c) => `${c.name.split(' ')[0]} ${cacheWords(c.args)}`).join(', ')}`);
 console.log(`machine: ${cpus().length} cores, load average ${loadavg()[0].toFixed(1)} at the start (other work on the machine slows every figure below)`);
 const times = cases.map(() => []);
 for (let i = 0; i < runs; i += 1) cases.forEach((c, k) => times[k].push(once(c.args))); // interleaved
@@ -82,5 +99,5 @@ for (const [k, c] of cases.entries()) {
   const ratio = m / base;
   const cpuRatio = cpu / baseCpu;
   const verdict = c.target === undefined ? '' : `   target <= ${c.target}x   ${ratio <= c.target ? 'met' : cpuRatio <= c.target ? 'met in CPU time, not elapsed' : 'NOT met'}`;
-  console.log(`${c.name.padEnd(28)} ${m.toFixed(1).padStart(7)} ms  x${ratio.toFixed(2).padEnd(5)}  CPU ${cpu.toFixed(1).padStart(6)} ms  x${cpuRatio.toFixed(2).padEnd(5)}${verdict}`);
+  console.log(`${c.name.padEnd(30)} ${m.toFixed(1).padStart(7)} ms  x${ratio.toFixed(2).padEnd(5)}  CPU ${cpu.toFixed(1).padStart(6)} ms  x${cpuRatio.toFixed(2).padEnd(5)}${verdict}`);
 }

@@ -55,7 +55,7 @@ for (let i = 0; i < RUNS; i += 1) {
   nodeMs.push(performance.now() - t);
 }
 
-const desk = spawn(process.execPath, [join(ROOT, 'dist/bin/heliochron.js'), 'desk', 'bench.yaml'], { cwd: folder, stdio: ['ignore', 'pipe', 'inherit'] });
+const desk = spawn(process.execPath, [join(ROOT, 'dist/bin/heliochron.cjs'), 'desk', 'bench.yaml'], { cwd: folder, stdio: ['ignore', 'pipe', 'inherit'] });
 const url = await new Promise((resolve) => desk.stdout.once('data', (d) => resolve(String(d).split('\n')[0])));
 const browser = await chromium.launch({
   executablePath: '/usr/bin/chromium',

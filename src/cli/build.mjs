@@ -1,60 +1,182 @@
 #!/usr/bin/env node
 /**
  * Build the command line into dist/bin with esbuild (the bundler of the desk's page,
- * src/desk/build.mjs): heliochron.js, the program the package's `bin` names, plus one file per
- * part that a command loads when it runs (the `import()` in each `*Spec.ts` becomes a split
- * point). A start then reads a handful of files instead of some 150 modules, and `sun` or
- * `calendar` never parses the solver, the charts, the report or the YAML reader.
+ * src/desk/build.mjs), for a fast start:
+ * - program.js: src/cli/main.ts and everything it imports in one script (CommonJS form, wrapped in
+ *   one function that src/cli/bin.ts calls). What a command imports with `import()` (its work, in
+ *   `*Command.ts`) is only initialised when the command runs, so `sun` or `calendar` never runs
+ *   the solver's, the charts' or the YAML reader's module code; Node's built-ins that the start
+ *   does not need (LAZY_BUILTINS) are loaded at their first use.
+ * - heliochron.cjs, the file the package's `bin` names (src/cli/bin.ts): it compiles program.js
+ *   with V8's code cache.
+ * - program.NAME.cache: the code cache of each case of WARM_UPS, made after running that case
+ *   once in a fresh process (so that the functions it ran are in the cache, not only the top
+ *   level): `heliochron sun ...` then reads back compiled code instead of parsing and compiling.
+ *   A cache that fails to build is left out with a warning (the program runs without it).
  * Run by `npm run build`, `npm ci` (the prepare script) and the tests' global set-up
- * (tests/helpers/buildCli.ts), after tsc; the library itself stays tsc's dist/ (index.js, node.js).
+ * (tests/helpers/buildCli.ts, without the caches), after tsc; the library itself stays tsc's
+ * dist/ (index.js, node.js).
  *
  * The files sit one folder below dist/ like dist/cli/main.js, so that the paths the program reads
  * relative to itself (../../package.json, ../../dist/desk-page/) hold for both.
- * Usage: node src/cli/build.mjs [--metafile]   (--metafile: print what each file holds)
+ * Usage: node src/cli/build.mjs [--metafile]   (--metafile: print what the program holds, largest first)
  */
 import { build } from 'esbuild';
-import { rmSync } from 'node:fs';
+import { execFile } from 'node:child_process';
+import { createRequire } from 'node:module';
+import { chmodSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { promisify } from 'node:util';
 
 const root = fileURLToPath(new URL('../../', import.meta.url));
 /** Where the program lands; `bin` in package.json names BIN_FILE. */
 export const BIN_DIR = 'dist/bin';
-export const BIN_FILE = `${BIN_DIR}/heliochron.js`;
+export const BIN_FILE = `${BIN_DIR}/heliochron.cjs`;
+/** The bundled program beside BIN_FILE (PROGRAM_FILE of src/cli/bin.ts). */
+export const PROGRAM_FILE = 'program.js';
 
 /**
- * Bundle the command line into dist/bin; returns esbuild's result (its metafile when asked).
- * With `write: false` nothing is written or removed (the files are in the result).
+ * Node built-ins that the program loads at their first use instead of at the start: commander
+ * requires node:child_process (for sub-commands kept in other files, which heliochron has none of)
+ * and the output writer node:crypto (for temporary names); loading them takes some milliseconds
+ * of every start.
  */
-export async function buildCli({ metafile = false, write = true } = {}) {
-  if (write) rmSync(`${root}${BIN_DIR}`, { recursive: true, force: true });
-  return build({
-    write,
-    absWorkingDir: root,
-    entryPoints: { heliochron: 'src/cli/main.ts' },
-    outdir: BIN_DIR,
-    chunkNames: '[name]-[hash]',
-    bundle: true,
-    splitting: true,
-    format: 'esm',
-    platform: 'node',
-    target: 'node20',
-    // Parsing less text is most of a faster start; names stay as written, so an internal error reads the same.
-    minifyWhitespace: true,
-    minifySyntax: true,
-    sourcemap: false,
-    legalComments: 'eof',
-    logLevel: 'warning',
+export const LAZY_BUILTINS = ['node:child_process', 'node:crypto'];
+
+/**
+ * The runs whose compiled code is cached: NAME (the command, or `start` for every other run) and
+ * the arguments of one typical case, run from the repository root; `{out}` is a temporary folder.
+ * Each cache is some hundreds of kilobytes to 1.4 MB (about 40% of that in the packed package):
+ * the commands with a speed target and `calendar`; the others (moon, check, chart, measure, desk)
+ * use the cache of `start` and compile the rest of what they run.
+ */
+export const WARM_UPS = [
+  { name: 'start', args: ['--help'] },
+  { name: 'sun', args: ['sun', '--lat', '47.62', '--lon', '9.35', '--elevation', '410', '--date', '1650-03-10', '--time', '10:30', '--clock', 'apparent'] },
+  { name: 'calendar', args: ['calendar', '1752-09-14', '--calendar', 'great-britain'] },
+  { name: 'date', args: ['date', 'examples/marktgasse-print.yaml'] },
+  { name: 'report', args: ['report', 'examples/marktgasse-print.yaml', '-o', '{out}/report.html', '--force'] },
+];
+
+/**
+ * An esbuild plugin: each of LAZY_BUILTINS becomes a module whose properties load the built-in
+ * when first read (the bundle reads an imported name at each use, `(0, import_x.name)(...)`).
+ */
+const lazyBuiltins = {
+  name: 'lazy-builtins',
+  setup(b) {
+    const filter = new RegExp(`^(${LAZY_BUILTINS.join('|')})$`);
+    b.onResolve({ filter }, (args) =>
+      args.namespace === 'lazy-builtin' ? { path: args.path, external: true } : { path: args.path, namespace: 'lazy-builtin' },
+    );
+    b.onLoad({ filter: /.*/, namespace: 'lazy-builtin' }, (args) => {
+      const names = Object.keys(createRequire(import.meta.url)(args.path));
+      return {
+        loader: 'js',
+        contents:
+          `let loaded; const load = () => (loaded ??= require(${JSON.stringify(args.path)}));\n` +
+          `for (const name of ${JSON.stringify(names)}) Object.defineProperty(module.exports, name, { enumerable: true, get: () => load()[name] });\n`,
+      };
+    });
+  },
+};
+
+const common = {
+  absWorkingDir: root,
+  bundle: true,
+  format: 'cjs',
+  platform: 'node',
+  target: 'node20',
+  // Less text to read; names stay as written, so an internal error reads the same.
+  minifyWhitespace: true,
+  minifySyntax: true,
+  sourcemap: false,
+  legalComments: 'eof',
+  logLevel: 'warning',
+};
+
+/**
+ * Bundle the command line into dist/bin (or `outDir`, a folder one below the repository's, as
+ * dist/bin is) and build the code caches of `warmUps` (names of WARM_UPS; none when `codeCache`
+ * is false). Returns esbuild's result for the program (its metafile when asked).
+ * With `write: false` nothing is written or removed (the program's text is in the result).
+ */
+export async function buildCli({ metafile = false, write = true, codeCache = write, outDir = BIN_DIR, warmUps = WARM_UPS.map((w) => w.name) } = {}) {
+  const result = await build({
+    ...common,
+    write: false,
+    entryPoints: ['src/cli/main.ts'],
+    outfile: `${outDir}/${PROGRAM_FILE}`,
     metafile,
-    // commander and yaml are CommonJS and require Node's built-ins: give them Node's own require.
-    banner: { js: "import { createRequire as __heliochronRequire } from 'node:module'; const require = __heliochronRequire(import.meta.url);" },
+    // The program is one function of (exports, require, module, programUrl): see src/cli/bin.ts.
+    define: { 'import.meta.url': 'programUrl' },
+    banner: { js: '(function (exports, require, module, programUrl) {' },
+    footer: { js: '})' },
+    plugins: [lazyBuiltins],
   });
+  if (!write) return result;
+  const folder = join(root, outDir);
+  rmSync(folder, { recursive: true, force: true });
+  mkdirSync(folder, { recursive: true });
+  writeFileSync(join(folder, PROGRAM_FILE), programText(result));
+  await build({
+    ...common,
+    entryPoints: ['src/cli/bin.ts'],
+    outfile: `${outDir}/heliochron.cjs`,
+    banner: { js: '#!/usr/bin/env node' },
+  });
+  chmodSync(join(folder, 'heliochron.cjs'), 0o755);
+  if (codeCache) await buildCodeCaches(folder, WARM_UPS.filter((w) => warmUps.includes(w.name)));
+  return result;
+}
+
+/**
+ * The program's text as written to PROGRAM_FILE. It must be ASCII: the bin reads it as Latin-1,
+ * which for ASCII text is the same string and is read about twice as fast as UTF-8 (esbuild
+ * escapes every other character in strings, but not inside a regular expression literal or a
+ * String.raw template: write those with \u escapes).
+ */
+export function programText(result) {
+  // main.ts's '#!' line, which esbuild keeps first, has no place in a script run inside the bin.
+  const text = result.outputFiles[0].text.replace(/^#!.*\n/, '');
+  const at = text.search(/[^\x00-\x7f]/);
+  if (at >= 0) {
+    throw new Error(`src/cli/build.mjs: the bundled program must be ASCII text, but has ${JSON.stringify(text.slice(Math.max(0, at - 60), at + 10))}: write that character as a \\u escape in its source`);
+  }
+  return text;
+}
+
+/** Run each warm-up in a fresh process (two at a time) that writes the code cache of its run. */
+async function buildCodeCaches(folder, warmUps) {
+  const run = promisify(execFile);
+  const out = mkdtempSync(join(tmpdir(), 'heliochron-warm-up-'));
+  const queue = [...warmUps];
+  const worker = async () => {
+    for (let w = queue.shift(); w !== undefined; w = queue.shift()) {
+      const args = w.args.map((a) => a.replace('{out}', out));
+      try {
+        await run(process.execPath, [fileURLToPath(new URL('./warmCodeCache.cjs', import.meta.url)), folder, w.name, ...args], { cwd: root, maxBuffer: 64 * 1024 * 1024 });
+      } catch (error) {
+        console.warn(`src/cli/build.mjs: no code cache for ${w.name} (the program runs without it): ${String(error.stderr || error.message).trim()}`);
+      }
+    }
+  };
+  try {
+    await Promise.all([worker(), worker()]);
+  } finally {
+    rmSync(out, { recursive: true, force: true });
+  }
 }
 
 if (import.meta.url === `file://${process.argv[1]}`) {
   const result = await buildCli({ metafile: process.argv.includes('--metafile') });
   if (result.metafile) {
     for (const [file, out] of Object.entries(result.metafile.outputs)) {
-      console.log(`${file}  ${(out.bytes / 1024).toFixed(0)} KB  imports: ${out.imports.filter((i) => !i.external).map((i) => `${i.path}${i.kind === 'dynamic-import' ? ' (when run)' : ''}`).join(', ')}`);
+      console.log(`${file}  ${(out.bytes / 1024).toFixed(0)} KB`);
+      const inputs = Object.entries(out.inputs).sort((a, b) => b[1].bytesInOutput - a[1].bytesInOutput);
+      for (const [input, { bytesInOutput }] of inputs) if (bytesInOutput > 0) console.log(`  ${(bytesInOutput / 1024).toFixed(1).padStart(7)} KB  ${input}`);
     }
   }
 }

@@ -104,10 +104,15 @@ function endQuietlyOnClosedPipe(stream: NodeJS.WriteStream): void {
   });
 }
 
-if (isMain()) {
+/**
+ * Run the program as a user's command does: output to the process's streams, the exit code set on
+ * the process when the run ends (70 for an internal error). The bundled program's start file
+ * (src/cli/bin.ts) calls this; so does this file when it is itself the program (tsc's dist/cli/main.js).
+ */
+export function runAsProgram(argv: readonly string[]): Promise<void> {
   endQuietlyOnClosedPipe(process.stdout);
   endQuietlyOnClosedPipe(process.stderr);
-  main(process.argv.slice(2)).then(
+  return main(argv).then(
     (code) => {
       process.exitCode = code;
     },
@@ -117,3 +122,5 @@ if (isMain()) {
     },
   );
 }
+
+if (isMain()) void runAsProgram(process.argv.slice(2));

@@ -26,9 +26,11 @@ export function coordinateWords(axis: CoordinateAxis): string {
 
 // Degrees, then optional minutes and seconds; each number may carry its mark (° deg, ' ′ min, " ″ '' sec).
 // Single-letter marks (d, m, s) are not read: a final "s" would be taken for south.
-const DEG_MARK = String.raw`(?:°|º|deg)`;
-const MIN_MARK = String.raw`(?:'|′|’|min)`;
-const SEC_MARK = String.raw`(?:"|″|”|''|′′|sec)`;
+// The marks beyond ASCII are written as \u escapes, so that the bundled command line stays ASCII text,
+// which Node reads faster at every start (src/cli/build.mjs).
+const DEG_MARK = '(?:\u00b0|\u00ba|deg)'; // ° º
+const MIN_MARK = "(?:'|\u2032|\u2019|min)"; // ′ ’
+const SEC_MARK = '(?:"|\u2033|\u201d|\'\'|\u2032\u2032|sec)'; // ″ ” ′′
 const NUMBER = String.raw`(\d+(?:\.\d*)?|\.\d+)`;
 const DMS = new RegExp(
   String.raw`^${NUMBER}\s*(${DEG_MARK})?(?:\s*${NUMBER}\s*(${MIN_MARK})?(?:\s*${NUMBER}\s*(${SEC_MARK})?)?)?$`,
@@ -69,7 +71,7 @@ export function parseCoordinate(value: unknown, axis: CoordinateAxis, field: str
   if (after && /\d/.test(after[1])) [text, letter] = [after[1], after[2].toUpperCase()];
   else if (before && /\d/.test(before[2])) [text, letter] = [before[2], before[1].toUpperCase()];
   let sign = 1;
-  const signed = /^([+\-−])\s*(.*)$/.exec(text);
+  const signed = /^([+\-\u2212])\s*(.*)$/.exec(text); // \u2212: the minus sign −
   if (signed) {
     if (letter !== undefined) {
       throw new InvalidInputError(field, value, words, `Give either a sign or the letter ${letter}, not both.`);

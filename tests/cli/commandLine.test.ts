@@ -252,7 +252,7 @@ describe('installed, heliochron runs from any folder', () => {
   const pkg = JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')) as { bin: Record<string, string>; files: string[] };
 
   it('the package names its bin and ships what the bin reads at run time', () => {
-    expect(pkg.bin.heliochron).toBe('dist/bin/heliochron.js');
+    expect(pkg.bin.heliochron).toBe('dist/bin/heliochron.cjs');
     for (const folder of ['dist', 'data', 'examples']) expect(pkg.files).toContain(folder);
   });
 

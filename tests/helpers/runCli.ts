@@ -1,5 +1,5 @@
 /**
- * Run the heliochron CLI in a test: as a user runs it, through the package's `bin` (dist/bin/heliochron.js,
+ * Run the heliochron CLI in a test: as a user runs it, through the package's `bin` (dist/bin/heliochron.cjs,
  * the bundle that tests/helpers/buildCli.ts builds before the tests), else through main() imported
  * from src/cli/main.ts.
  */

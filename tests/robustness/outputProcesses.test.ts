@@ -1,5 +1,5 @@
 /**
- * The command line as separate processes (the package's bin, dist/bin/heliochron.js, bundled before the tests): a full disk,
+ * The command line as separate processes (the package's bin, dist/bin/heliochron.cjs, bundled before the tests): a full disk,
  * system errors, two writers racing, signals, a reader that closes the pipe. Each run must end
  * with one plain line and exit 2, or succeed whole; never a partial file, a temporary file left
  * behind, or a stack trace. Mounting a small file system and mknod need root (the CI runs as root);

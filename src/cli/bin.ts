@@ -1,0 +1,77 @@
+/**
+ * The file the package's `bin` names (bundled by src/cli/build.mjs into dist/bin/heliochron.cjs, a
+ * CommonJS file: Node starts its ES module loader only for an ES module, which costs a start some
+ * milliseconds). It runs the command line, bundled into one script beside it (PROGRAM_FILE), through
+ * V8's code cache: the script is compiled by node:vm's Script with the cached data that the build
+ * made for the command asked for (`program.sun.cache` for `heliochron sun ...`, else
+ * `program.start.cache`), produced after running a typical case of that command, so that what the
+ * command runs is read back already compiled instead of being parsed and compiled again
+ * (Node.js documentation, vm module: `new vm.Script(code, { cachedData })`, `script.createCachedData()`).
+ *
+ * Nothing is written at run time. Cached data that V8 rejects (made by another Node or V8 version,
+ * or with other V8 flags) or a missing cache file only cost the compile the cache would have saved:
+ * the program then runs exactly as without a cache. The cache files and the script are made by the
+ * same build and removed together by the next one.
+ * Only esbuild compiles this file (it is CommonJS once bundled): tsconfig.json leaves it out of tsc's
+ * dist/, tsconfig.test.json type-checks it.
+ */
+import { readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import { pathToFileURL } from 'node:url';
+import { Script } from 'node:vm';
+
+/** The bundled command line (src/cli/main.ts and all it imports), beside this file. */
+export const PROGRAM_FILE = 'program.js';
+/** The cache file used when no command has one of its own (`--help`, `--version`, a mistyped command). */
+export const START_CACHE = 'start';
+
+/** The cache file of a command's runs, beside the program. */
+export function cacheFileName(name: string): string {
+  return `program.${name}.cache`;
+}
+
+/** What the bundled program exports (src/cli/main.ts). */
+export interface BundledProgram {
+  readonly runAsProgram: (argv: readonly string[]) => Promise<void>;
+}
+
+export interface LoadedProgram {
+  readonly program: BundledProgram;
+  /** The compiled script: `cachedDataRejected` tells whether given cached data was used; the build calls `createCachedData()`. */
+  readonly script: Script;
+}
+
+/**
+ * Compile and run the bundled program in this process. The script holds one function of
+ * (exports, require, module, programUrl); programUrl stands for the program's own `import.meta.url`
+ * (the bundle is built with `import.meta.url` defined as that name), so that the files it reads
+ * relative to itself (../../package.json, ../../dist/desk-page/) are found as from dist/cli/main.js.
+ */
+export function loadProgram(folder: string, cachedData: Buffer | undefined): LoadedProgram {
+  const file = join(folder, PROGRAM_FILE);
+  // ASCII text (src/cli/build.mjs checks it), so Latin-1 reads the same string, and faster than UTF-8.
+  const script = new Script(readFileSync(file, 'latin1'), { filename: file, cachedData });
+  const wrapper = script.runInThisContext() as (exports: object, req: NodeRequire, module: { exports: object }, programUrl: string) => void;
+  const programModule = { exports: {} };
+  wrapper(programModule.exports, require, programModule, pathToFileURL(file).href);
+  return { program: programModule.exports as BundledProgram, script };
+}
+
+/** The cached data for a run with these arguments, or undefined when there is none. */
+export function cachedDataFor(folder: string, argv: readonly string[]): Buffer | undefined {
+  const command = argv[0];
+  const names = command !== undefined && /^[a-z]+$/.test(command) ? [command, START_CACHE] : [START_CACHE];
+  for (const name of names) {
+    try {
+      return readFileSync(join(folder, cacheFileName(name)));
+    } catch {
+      // no cache for this command: try the next, else compile without one
+    }
+  }
+  return undefined;
+}
+
+if (require.main === module) {
+  const argv = process.argv.slice(2);
+  void loadProgram(__dirname, cachedDataFor(__dirname, argv)).program.runAsProgram(argv);
+}
