@@ -231,7 +231,7 @@ export function measureOverlaySvg(input: MeasureOverlayInput): string {
       .filter((m) => m.measurement.rectification.field === field)
       .map((m) => {
         const obs = input.scene.observations[observationIndex(m.field)];
-        const pixels = 'pixels' in obs ? obs.pixels : undefined;
+        const pixels = 'pixels' in obs && obs.kind !== 'moon-direction' ? obs.pixels : undefined;
         const p = predictions.get(m.field);
         const shadow: OverlayShadow = { label: m.measurement.id, fromPx: pixels!.fromPx, toPx: pixels!.toPx };
         return p && p.defined && p.direction ? { ...shadow, predictedDirection: p.direction } : shadow;

@@ -23,12 +23,18 @@
  * than its sampled spread). Which one was used is reported per value.
  */
 import { createRandom } from '../math/random.js';
+import { InvalidInputError } from '../errors.js';
 import type { Observation, Scene } from '../scene/types.js';
 import { isPixelObservation, measureContextOf, measureScenePixels } from './measureScene.js';
 import { shadowPointsSigmaM } from './pointPixels.js';
 import { monteCarloPixelObservation, type MeasuredQuantity, type PixelMeasurement, type PixelObservation } from './pixelObservations.js';
 import type { RectifiedPlane } from './planeInImage.js';
-import { hasObjectShadows, resolveSceneSun, type SceneSun } from './sceneSun.js';
+import { cameraInputOf, hasObjectShadows, resolveSceneSun, type SceneSun } from './sceneSun.js';
+import { monteCarloSpread } from './propagation.js';
+import { rectifyPlane } from './planeInImage.js';
+import { solveCamera } from './camera.js';
+import { moonCentreInWorkingFrame, moonThroughCamera, moonThroughPlane, type MoonFromPixels, type ResolvedMoonDirection } from './moonPixels.js';
+import { rectifySceneGround } from './measureScene.js';
 
 /** Monte Carlo samples drawn for a measurement whose first-order sigma is not reliable. */
 export const RESOLVE_MONTE_CARLO_SAMPLES = 1000;
@@ -67,6 +73,8 @@ export interface ResolvedScene {
   readonly measurements: readonly ResolvedMeasurement[];
   /** The picture's camera and the sun of each group of object-shadow pairs, when the scene has such pairs (sceneSun.ts). */
   readonly sceneSun?: SceneSun;
+  /** The moon's direction of each moon-direction observation given in pixels, in scene order (moonPixels.ts). */
+  readonly moonDirections?: readonly ResolvedMoonDirection[];
 }
 
 /** The measured quantities of a measurement in the order of its numeric fields. */
@@ -120,10 +128,13 @@ function numericObservation(m: PixelMeasurement, values: readonly ResolvedValue[
  * @example resolvePixelObservations(scene).scene.observations[1] // { kind: 'rod-shadow', slopeDeg: 41.2, side: 'left', sigmaDeg: 0.9, ... }
  */
 export function resolvePixelObservations(scene: Scene): ResolvedScene {
+  const moons = resolveMoonPixels(scene);
+  if (moons) scene = moons.scene;
+  const withMoons = moons ? { moonDirections: moons.resolved } : {};
   const { planes, measurements } = measureScenePixels(scene);
   const sceneSun = hasObjectShadows(scene) ? resolveSceneSun(scene) : undefined;
   if (sceneSun) scene = { ...scene, observations: sceneSun.observations };
-  if (measurements.length === 0) return { scene, planes, measurements: [], ...(sceneSun ? { sceneSun } : {}) };
+  if (measurements.length === 0) return { scene, planes, measurements: [], ...(sceneSun ? { sceneSun } : {}), ...withMoons };
   const resolved: ResolvedMeasurement[] = measurements.map(({ field, measurement }) => {
     const quantities = measuredQuantities(measurement);
     const reliable = quantities.every((q) => q.quantity.firstOrderReliable);
@@ -153,7 +164,54 @@ export function resolvePixelObservations(scene: Scene): ResolvedScene {
     const r = byField.get(`observations[${k}]`);
     return r ? numericObservation(r.measurement, r.values) : obs;
   });
-  return { scene: { ...scene, observations }, planes, measurements: resolved, ...(sceneSun ? { sceneSun } : {}) };
+  return { scene: { ...scene, observations }, planes, measurements: resolved, ...(sceneSun ? { sceneSun } : {}), ...withMoons };
+}
+
+/** The direction of one moon given in pixels: through its wall's figure, else the camera, else the ground's figure. */
+function moonDirectionOf(scene: Scene, centrePx: readonly [number, number], sigmaPx: number | undefined, wallId: string | undefined, field: string): MoonFromPixels {
+  const image = scene.image!;
+  const centre = moonCentreInWorkingFrame(centrePx, image, `${field}.pixels.centrePx`);
+  const sigma = sigmaPx ?? image.pixelSigmaPx;
+  if (wallId !== undefined) {
+    const index = scene.walls.findIndex((w) => w.id === wallId);
+    const wall = scene.walls[index];
+    if (!wall?.imagePlane) throw new InvalidInputError(`${field}.pixels.wall`, wallId, 'a wall of this scene with an imagePlane');
+    const plane = rectifyPlane(wall.imagePlane, image, 'wall', `walls[${index}].imagePlane`);
+    return moonThroughPlane(plane, wall.azimuthDeg, wall.azimuthSigmaDeg, centre, sigma, `${field}.pixels`);
+  }
+  if (scene.camera) return moonThroughCamera(solveCamera(cameraInputOf(scene)), centre, sigma);
+  if (!scene.groundPlane) throw new InvalidInputError(`${field}.pixels`, centrePx, 'the moon clicked in a picture with a camera block, a groundPlane, or a wall named with "wall" that has an imagePlane');
+  return moonThroughPlane(rectifySceneGround(scene, image, new Map()), undefined, 0, centre, sigma, `${field}.pixels`);
+}
+
+/**
+ * Every moon-direction observation given in pixels turned into azimuth and altitude with their sigmas (the larger of
+ * the first-order and the Monte Carlo spread when the first-order check fails, as for the planes' measurements).
+ * The correlation of azimuth and altitude is not carried into the scene (each keeps its own sigma). Null when there is none.
+ */
+function resolveMoonPixels(scene: Scene): { scene: Scene; resolved: ResolvedMoonDirection[] } | null {
+  if (!scene.observations.some((o) => o.kind === 'moon-direction' && o.pixels !== undefined)) return null;
+  const resolved: ResolvedMoonDirection[] = [];
+  const observations = scene.observations.map((o, k): Observation => {
+    if (o.kind !== 'moon-direction' || o.pixels === undefined) return o;
+    const field = `observations[${k}]`;
+    if (!scene.image) throw new InvalidInputError('image', undefined, 'a picture description (widthPx, heightPx, mirrored, pixelSigmaPx) when the moon is given in pixels', `${field} is given in pixels`);
+    const m = moonDirectionOf(scene, o.pixels.centrePx, o.pixels.sigmaPx, o.pixels.wallId, field);
+    let sigmas: [number, number] = [m.azimuthSigmaDeg, m.altitudeSigmaDeg];
+    let mcSigmas: [number, number] | undefined;
+    if (!m.firstOrderReliable) {
+      const mc = monteCarloSpread(m.f, m.p0, m.sigmas, [true, false], createRandom((scene.seed + k) >>> 0), RESOLVE_MONTE_CARLO_SAMPLES);
+      mcSigmas = [mc.sigmas[0], mc.sigmas[1]];
+      sigmas = [Math.max(sigmas[0], mcSigmas[0]), Math.max(sigmas[1], mcSigmas[1])];
+    }
+    resolved.push({
+      field, observationId: o.id, measured: m, sigmasDeg: sigmas, ...(mcSigmas ? { monteCarloSigmasDeg: mcSigmas } : {}),
+      sigmaSource: mcSigmas && (mcSigmas[0] > m.azimuthSigmaDeg || mcSigmas[1] > m.altitudeSigmaDeg) ? 'monte-carlo' : 'first-order',
+    });
+    const { pixels: _pixels, ...rest } = o;
+    return { ...rest, azimuthDeg: m.azimuthDeg, azimuthSigmaDeg: sigmas[0], altitudeDeg: m.altitudeDeg, altitudeSigmaDeg: sigmas[1] };
+  });
+  return { scene: { ...scene, observations }, resolved };
 }
 
 /** True when a scene has at least one observation given in pixels. */

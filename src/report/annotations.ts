@@ -140,6 +140,10 @@ export function sceneAnnotations(scene: Scene, pictureFile: string): AnnotationC
       items.push(annotation(id, `${o.id}: object point to its shadow`, o.kind, o.note, [shapeTarget(src, 'polyline', [o.objectPx, o.shadowPx])]));
       return;
     }
+    if (o.kind === 'moon-direction') {
+      if (o.pixels !== undefined) items.push(annotation(id, `${o.id}: the middle of the moon's disc`, o.kind, o.note, [pointTarget(src, o.pixels.centrePx)]));
+      return;
+    }
     if (!('pixels' in o) || o.pixels === undefined) return;
     const px = o.pixels;
     const segment = shapeTarget(src, 'polyline', [px.fromPx, px.toPx]);

@@ -146,6 +146,7 @@ function measuredWords(o: Observation): string {
     case 'sundial':
       return `sundial reads ${hhmm(o.readingMinutes)} in ${describeSundialHours(o.hours)}, precision ${o.precisionMinutes} min`;
     case 'moon-direction':
+      if (o.pixels !== undefined) return `the moon's centre clicked at [${o.pixels.centrePx.join(', ')}] px${o.pixels.wallId !== undefined ? `, through wall ${o.pixels.wallId}` : ''} (measured in the picture)`;
       return `moon azimuth ${deg(o.azimuthDeg)} +/- ${deg(o.azimuthSigmaDeg)}, altitude ${deg(o.altitudeDeg)} +/- ${deg(o.altitudeSigmaDeg)}`;
     case 'moon-phase':
       return o.phase !== undefined ? `the moon drawn as ${o.phase}, sigma ${deg(o.sigmaDeg)} of phase` : `the moon's lit fraction ${o.illuminatedFraction} +/- ${o.sigma}`;

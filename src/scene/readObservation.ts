@@ -12,7 +12,7 @@ import {
   SIGMA_FLOOR,
 } from './fields.js';
 import { needImage, PIXEL_SIGMA, readPixelPoint, readSegmentPart, SEGMENT_KEYS } from './readImage.js';
-import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, MoonPhaseObservation, NamedMoonPhase, Observation, ObservationKind, PlaneInImage, ShadowPointsPixels, SitePoint, SundialHours, SundialObservation, Wall } from './types.js';
+import type { CameraBlock, ClockObservation, EavePixels, ImageInfo, MoonPhaseObservation, MoonPixels, NamedMoonPhase, Observation, ObservationKind, PlaneInImage, ShadowPointsPixels, SitePoint, SundialHours, SundialObservation, Wall } from './types.js';
 
 export const OBSERVATION_KINDS: readonly ObservationKind[] = [
   'rod-shadow', 'overhang-shadow', 'fin-shadow', 'pole-shadow', 'eave-shadow', 'shadow-points',
@@ -118,6 +118,38 @@ function readMoonPhase(f: Fields, base: { id: string; note?: string; group?: str
   if (has(f, 'sigma')) throw new InvalidInputError(keyPath(f.path, 'sigma'), raw(f, 'sigma'), '"sigmaDeg" (degrees of phase longitude) with a named phase; "sigma" goes with an illuminated fraction');
   const phase = checkChoice(raw(f, 'phase'), keyPath(f.path, 'phase'), NAMED_MOON_PHASES, 'a named phase of the moon');
   return { ...base, kind: 'moon-phase', phase, sigmaDeg: optNum(f, 'sigmaDeg', PHASE_SIGMA, MOON_PHASE_DEFAULT_SIGMA_DEG) };
+}
+
+/**
+ * The pixel form of the moon's direction: its centre clicked, and what turns the pixel into a direction: a wall's
+ * imagePlane (`wall`), else the scene's camera block, else its groundPlane (src/image/moonPixels.ts).
+ */
+function readMoonPixels(f: Fields, ctx: ObservationContext): MoonPixels {
+  const path = keyPath(f.path, 'pixels');
+  const image = needImage(ctx.image, path, raw(f, 'pixels'));
+  const p = openFields(raw(f, 'pixels'), path, "the moon's pixel form", ['centrePx', 'sigmaPx', 'wall']);
+  if (!has(p, 'centrePx')) throw missing(p, 'centrePx', "the image point [xPx, yPx] of the middle of the moon's disc");
+  const centrePx = readPixelPoint(raw(p, 'centrePx'), keyPath(path, 'centrePx'), image);
+  const sigmaPx = optNum(p, 'sigmaPx', PIXEL_SIGMA);
+  let wallId: string | undefined;
+  if (has(p, 'wall')) {
+    const wall = wallRef(p, ctx);
+    if (wall.imagePlane === undefined) {
+      throw new InvalidInputError(
+        keyPath(path, 'wall'), wall.id, `a wall with an "imagePlane" (wall "${wall.id}" has none)`,
+        ctx.camera !== undefined
+          ? 'The moon is turned into a direction through the wall\'s clicked figure; leave "wall" out to use the scene\'s camera block.'
+          : 'The moon is turned into a direction through the wall\'s clicked figure (4 or more points of known shape on it), or through a camera block.',
+      );
+    }
+    wallId = wall.id;
+  } else if (ctx.camera === undefined && ctx.groundPlane === undefined) {
+    throw new InvalidInputError(
+      path, raw(f, 'pixels'), 'the moon clicked in a picture with a "camera" block, a "groundPlane", or a wall named with "wall" that has an "imagePlane"',
+      'A point in the sky lies on no plane: its pixel becomes a direction only through a camera, which the camera block gives, or which a wall\'s or the ground\'s figure seen at a slant gives (docs/moon-evidence.md).',
+    );
+  }
+  return { centrePx, ...(sigmaPx !== undefined ? { sigmaPx } : {}), ...(wallId !== undefined ? { wallId } : {}) };
 }
 
 /** The keys an observation of each kind may hold (for the schema test and the docs). */
@@ -504,11 +536,8 @@ export function readObservation(value: unknown, path: string, ctx: ObservationCo
       return { ...base, kind, objectPx, shadowPx, ...(sigmaPx !== undefined ? { sigmaPx } : {}) };
     }
     case 'moon-direction':
-      if (has(f, 'pixels')) {
-        throw new InvalidInputError(
-          keyPath(path, 'pixels'), raw(f, 'pixels'), 'the moon\'s direction as numbers (azimuthDeg, altitudeDeg and their sigmas); the pixel form is not read in this version',
-          'A point in the sky lies on no wall or ground plane; turning it into a direction needs the camera\'s pixel-to-sky mapping, which this version does not offer for the moon (docs/moon-evidence.md).',
-        );
+      if (pixelForm(f, ['azimuthDeg', 'azimuthSigmaDeg', 'altitudeDeg', 'altitudeSigmaDeg'], "moon's direction as numbers (azimuthDeg, altitudeDeg and their sigmas)")) {
+        return { ...base, kind, pixels: readMoonPixels(f, ctx) };
       }
       return { ...base, kind, ...readSkyDirection(f, "the moon's", "the moon's apparent altitude (of its centre) in degrees") };
     case 'moon-phase':

@@ -363,15 +363,34 @@ export interface SundialObservation extends ObservationBase {
 }
 
 /**
- * 13. The moon's direction in the sky (apparent: refracted altitude of its centre), estimated from the
- * picture by other means. The pixel form is not read in this version (docs/moon-evidence.md).
+ * 13. The moon's direction in the sky (apparent: refracted altitude of its centre): as numbers, or in
+ * pixels (its centre clicked in the picture, turned into a direction through the scene's camera or a wall's
+ * or the ground's figure: src/image/moonPixels.ts, before solving; docs/moon-evidence.md).
  */
-export interface MoonDirectionObservation extends ObservationBase {
-  readonly kind: 'moon-direction';
-  readonly azimuthDeg: number;
-  readonly azimuthSigmaDeg: number;
-  readonly altitudeDeg: number;
-  readonly altitudeSigmaDeg: number;
+export type MoonDirectionObservation = ObservationBase & { readonly kind: 'moon-direction' } & (
+  | {
+    readonly azimuthDeg: number;
+    readonly azimuthSigmaDeg: number;
+    readonly altitudeDeg: number;
+    readonly altitudeSigmaDeg: number;
+    readonly pixels?: undefined;
+  }
+  | {
+    readonly pixels: MoonPixels;
+    readonly azimuthDeg?: undefined;
+    readonly azimuthSigmaDeg?: undefined;
+    readonly altitudeDeg?: undefined;
+    readonly altitudeSigmaDeg?: undefined;
+  }
+);
+
+/** The moon's centre clicked in the picture, and what turns it into a direction. */
+export interface MoonPixels {
+  readonly centrePx: PixelPoint;
+  /** Clicking sigma of the centre, else the image's pixelSigmaPx. */
+  readonly sigmaPx?: number;
+  /** Through this wall's imagePlane; absent: through the scene's camera block, else its groundPlane. */
+  readonly wallId?: string;
 }
 
 /** The named phases a scholar may write (docs/moon-evidence.md gives the phase longitude of each). */

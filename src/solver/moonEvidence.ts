@@ -21,6 +21,7 @@
 import type { MoonFactObservation, NamedMoonPhase, Observation, Scene } from '../scene/types.js';
 import type { MoonPosition } from '../ephemeris/moonPosition.js';
 import { normalizeDeg180 } from '../math/angles.js';
+import { UnsupportedError } from '../errors.js';
 
 /** Phase longitude of each named phase, degrees; null for "crescent" / "gibbous" (folded, below). */
 export const NAMED_PHASE_LONGITUDE_DEG: Readonly<Record<NamedMoonPhase, number>> = {
@@ -72,6 +73,8 @@ export function moonTermsOf(scene: Scene, omit: ReadonlySet<string>): { terms: M
     if (omit.has(o.id)) continue;
     let e: MoonEvidence | null = null;
     if (o.kind === 'moon-direction') {
+      // The pixel form is turned into numbers before solving (src/image/resolvePixels.ts).
+      if (o.pixels !== undefined) throw new UnsupportedError(`observation ${o.id}: the moon's direction in pixels must be measured before it is fitted (resolvePixelObservations)`);
       e = { kind: 'moon-direction', azimuthDeg: o.azimuthDeg, azimuthSigmaDeg: o.azimuthSigmaDeg, altitudeDeg: o.altitudeDeg, altitudeSigmaDeg: o.altitudeSigmaDeg };
     } else if (o.kind === 'moon-phase') {
       e = o.phase !== undefined

@@ -38,7 +38,9 @@ function scenePoints(scene: Scene): PixelPoint[] {
   }
   for (const o of scene.observations) {
     if (o.kind === 'object-shadow') out.push(o.objectPx, o.shadowPx);
-    else if ('pixels' in o && o.pixels) {
+    else if (o.kind === 'moon-direction') {
+      if (o.pixels) out.push(o.pixels.centrePx);
+    } else if ('pixels' in o && o.pixels) {
       out.push(o.pixels.fromPx, o.pixels.toPx);
       if ('alongPx' in o.pixels) out.push(o.pixels.alongPx);
       if ('objectPx' in o.pixels && o.pixels.objectPx) out.push(o.pixels.objectPx);

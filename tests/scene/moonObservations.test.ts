@@ -75,11 +75,45 @@ describe('the moon in a scene file', () => {
     it('refuses a moonlit point shadow above its caster, with the moon in the message', () => {
       expect(refusal('  - { id: s, kind: shadow-points, caster: [0, 0, 1], shadow: [1, 1, 2], sigmaM: 0.05, light: moon }')).toMatch(/moon above the horizon/);
     });
-    it('refuses the moon\'s direction in pixels, saying what to give instead', () => {
-      expect(refusal('  - { id: m, kind: moon-direction, pixels: { fromPx: [1, 2], toPx: [3, 4] } }')).toMatch(/observations\[0\]\.pixels.*as numbers/);
+    it('refuses the moon\'s direction in pixels in a scene without a picture, naming the pixel form', () => {
+      expect(refusal('  - { id: m, kind: moon-direction, pixels: { centrePx: [1, 2] } }')).toMatch(/observations\[0\]\.pixels.*image/);
     });
     it('refuses a lit side of -180 (written as 180)', () => {
       expect(refusal('  - { id: t, kind: moon-lit-side, litSideDeg: -180, sigmaDeg: 10 }')).toMatch(/litSideDeg/);
+    });
+  });
+
+  describe('the moon in pixels', () => {
+    const pictured = (walls: string, observations: string): string => scene(observations)
+      .replace('walls:\n  - { id: gate-west, azimuthDeg: 262, azimuthSigmaDeg: 1 }', `image: { widthPx: 1600, heightPx: 1200 }\nwalls:\n${walls}`);
+    const figure = '  - { id: gate-west, azimuthDeg: 262, azimuthSigmaDeg: 1, imagePlane: { pointsPx: [[400, 500], [900, 560], [880, 1000], [420, 980]], widthM: 6, heightM: 4 } }';
+    const bare = '  - { id: gate-west, azimuthDeg: 262, azimuthSigmaDeg: 1 }';
+    const refusal = (walls: string, obs: string): string => {
+      try {
+        readSceneText(pictured(walls, obs), 'velmar.yaml');
+      } catch (e) {
+        return (e as Error).message;
+      }
+      return 'no refusal';
+    };
+    it('reads the clicked centre, its sigma and the wall it is measured through', () => {
+      const s = readSceneText(pictured(figure, '  - { id: m, kind: moon-direction, pixels: { centrePx: [1210, 180], sigmaPx: 2, wall: gate-west } }'), 'velmar.yaml');
+      expect(s.observations[0]).toEqual({ id: 'm', kind: 'moon-direction', pixels: { centrePx: [1210, 180], sigmaPx: 2, wallId: 'gate-west' } });
+    });
+    it('refuses numbers beside the pixel form', () => {
+      expect(refusal(figure, '  - { id: m, kind: moon-direction, azimuthDeg: 200, pixels: { centrePx: [1210, 180], wall: gate-west } }')).toMatch(/observations\[0\]\.azimuthDeg.*either the moon's direction as numbers .* or "pixels"/);
+    });
+    it('refuses a centre outside the picture, naming it', () => {
+      expect(refusal(figure, '  - { id: m, kind: moon-direction, pixels: { centrePx: [1700, 180], wall: gate-west } }')).toMatch(/observations\[0\]\.pixels\.centrePx/);
+    });
+    it('refuses a wall without its clicked figure', () => {
+      expect(refusal(bare, '  - { id: m, kind: moon-direction, pixels: { centrePx: [1210, 180], wall: gate-west } }')).toMatch(/observations\[0\]\.pixels\.wall.*"gate-west".*imagePlane/);
+    });
+    it('refuses a moon in pixels with neither a camera block, a ground plane nor a wall\'s figure, saying why', () => {
+      expect(refusal(bare, '  - { id: m, kind: moon-direction, pixels: { centrePx: [1210, 180] } }')).toMatch(/observations\[0\]\.pixels.*camera.*groundPlane.*lies on no plane/s);
+    });
+    it('refuses an unknown key of the pixel form with a suggestion', () => {
+      expect(refusal(figure, '  - { id: m, kind: moon-direction, pixels: { centerPx: [1210, 180], wall: gate-west } }')).toMatch(/centrePx/);
     });
   });
 });
