@@ -7,6 +7,12 @@
  * profile-likelihood scan over the day where the check fails (src/uncertainty/).
  * Mapped years share the covariance, check and scan of their representative year (the yearly
  * pattern repeats to within hours; stated in docs/solver.md).
+ *
+ * With evidence of the moon, the sun's yearly repeat does not hold for the moon: each candidate gets
+ * its own continuous fit in (d, m, nuisances) with the moon's rows at the instant jdUT(d, m), started
+ * from the candidate (src/solver/moonYears.ts), and its covariance, check and scan from that fit. The
+ * moon's place and phase change with the instant (about 0.5 deg an hour against the stars, 12 deg of
+ * phase a day), so they pin the hour and the day more tightly than the sun alone.
  */
 import type { CandidateUncertainty, DayMinuteEllipse, ProfileScan, SkyEllipse } from './types.js';
 import { angleDiffDeg } from '../math/angles.js';
@@ -15,7 +21,8 @@ import { ELLIPSE_LEVELS, ellipseAt, isPositiveDefinite, linearityError, LINEARIT
 import { profileScan } from '../uncertainty/profileScan.js';
 import { jdToCivilDate } from '../calendar/regions.js';
 import { splitChiSquare } from './evidenceModel.js';
-import { datedPoint, ensureTrack, refineOnDay } from './fitting.js';
+import { datedPoint, ensureTrack, hasMoonEvidence, newDatedContext, refineDated, refineOnDay } from './fitting.js';
+import { covarianceFromJacobian } from '../math/leastSquares.js';
 import { declinationRateOnTrack } from './sunModel.js';
 import type { RawCandidate, RepresentativeFit } from './stageB.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
@@ -42,8 +49,26 @@ interface RepUncertainty {
 /** Why there is neither ellipse nor scan when the fit is singular. */
 export const FREE_REASON = 'the evidence does not fix the day and the hour separately (the fit is singular): the day is free along a curve, so no ellipse or interval is given';
 
-/** Cache of per-representative results (one solve). */
-export type UncertaintyCache = Map<RepresentativeFit, RepUncertainty>;
+/** Cache of per-representative results (one solve); with the moon, per candidate (its own fit, `moonRep`). */
+export type UncertaintyCache = Map<RepresentativeFit | RawCandidate, RepUncertainty & { readonly moonRep?: RepresentativeFit }>;
+
+/**
+ * The fit a candidate's uncertainty is taken from: its representative year's (the sun's evidence alone), or with
+ * moon evidence its own continuous fit with the moon, from the candidate's day, minute and nuisances.
+ */
+function fitFor(raw: RawCandidate, cache: UncertaintyCache): { rep: RepresentativeFit; day: number; minutes: number } {
+  const model = raw.rep.context.model;
+  if (!hasMoonEvidence(model)) return { rep: raw.rep, day: raw.continuousDay, minutes: raw.continuousMinutes };
+  let rep = cache.get(raw)?.moonRep;
+  if (!rep) {
+    const ctx = newDatedContext(model, raw.rep.context.assumed, raw.point.jdUT);
+    const fit = refineDated(ctx, [raw.dayJd0, raw.apparentMinutes, ...raw.nuisances], 60, true);
+    const s = splitChiSquare(model, fit.point.residuals);
+    rep = { cycle: raw.cycle, fit, objective: s.chiSquare + s.penalty, covariance: covarianceFromJacobian(fit.lm.jacobian, fit.x.length), context: ctx };
+    cache.set(raw, { ...repUncertainty(rep, cache), moonRep: rep });
+  }
+  return { rep, day: rep.fit.x[0], minutes: rep.fit.x[1] };
+}
 
 function objective(rep: RepresentativeFit, r: readonly number[]): number {
   const s = splitChiSquare(rep.context.model, r);
@@ -165,7 +190,8 @@ function runProfile(rep: RepresentativeFit, win: DayWindow, u: RepUncertainty): 
 
 /** The uncertainty of one candidate (computed once per representative year and reused). */
 export function candidateUncertainty(raw: RawCandidate, win: DayWindow, cache: UncertaintyCache, forceProfile = false, allowProfile = true): CandidateUncertainty {
-  const u = repUncertainty(raw.rep, cache);
+  const own = fitFor(raw, cache);
+  const u = repUncertainty(own.rep, cache);
   const cov2 = u.cov2 ?? { xx: NaN, xy: NaN, yy: NaN };
   const ellipses: DayMinuteEllipse[] = ELLIPSE_LEVELS.map((lv) => {
     const e = ellipseAt(cov2, lv.deltaChiSquare);
@@ -188,11 +214,11 @@ export function candidateUncertainty(raw: RawCandidate, win: DayWindow, cache: U
   });
   let profile: ProfileScan | undefined;
   if (u.fixes && ((!u.valid && allowProfile) || forceProfile)) {
-    const p = runProfile(raw.rep, win, u);
+    const p = runProfile(own.rep, win, u);
     // Offsets are relative to the continuous optimum; carry them to this year's candidate day,
     // held to the window and made to hold the candidate's own day (a mapped year's day may fall
     // at the other end of its representative's interval).
-    const base = raw.continuousDay - raw.dayJd0;
+    const base = own.day - raw.dayJd0;
     const fromDays = Math.max(win.firstDayJd0 - raw.dayJd0, Math.min(0, Math.round(p.from + base)));
     const toDays = Math.min(win.lastDayJd0 - raw.dayJd0, Math.max(0, Math.round(p.to + base)));
     const dateOf = (offset: number) => {
@@ -227,7 +253,7 @@ export function candidateUncertainty(raw: RawCandidate, win: DayWindow, cache: U
     ellipses,
     skyCovariance: { azimuth2: sky.xx, azimuthAltitude: sky.xy, altitude2: sky.yy },
     skyEllipses,
-    centre: { days: raw.continuousDay - raw.dayJd0, localApparentMinutes: raw.continuousMinutes },
+    centre: { days: own.day - raw.dayJd0, localApparentMinutes: own.minutes },
     profile,
     fixesDayAndHour: u.fixes,
   };

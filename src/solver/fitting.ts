@@ -14,7 +14,7 @@
  */
 import type { ClockKind } from '../scene/types.js';
 import { levenbergMarquardt, type LeastSquaresResult } from '../math/leastSquares.js';
-import { normalizeDeg180 } from '../math/angles.js';
+import { normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import type { SunSite } from '../ephemeris/sunPosition.js';
 import { moonPosition, type MoonPosition } from '../ephemeris/moonPosition.js';
 import { deltaTSeconds } from '../time/deltaT.js';
@@ -123,8 +123,8 @@ export interface DatedContext {
   /** Counter of full-ephemeris calls (3 per track). */
   ephemerisCalls: number;
   /**
-   * Whether the moon's rows are evaluated (at whole civil days only: the moon needs the true instant,
-   * which a continuous day does not give). False in stage B, which fits the sun's evidence alone.
+   * Whether the moon's rows are evaluated (the true moon at whole civil days; between them interpolated at the same
+   * local apparent time: moonBetweenDays). Stage B fits the sun's evidence alone and leaves them out.
    */
   readonly moonRows: boolean;
   /** Counter of moon evaluations. */
@@ -152,6 +152,44 @@ export function moonAt(model: EvidenceModel, jdUT: number, nuisances: readonly n
   return moonPosition(jdUT, { latitudeDeg: latitudeOf(model, nuisances), longitudeDeg: longitudeOf(model, nuisances), elevationM: s.elevationM }, model.scene.air, { deltaTSeconds: deltaTSecondsNow });
 }
 
+/** a + t (b - a) on the circle of degrees (the difference wrapped to (-180, 180]). */
+function lerpDeg(a: number, b: number, t: number): number {
+  return a + t * normalizeDeg180(b - a);
+}
+
+/**
+ * The moon at (d, m): at a whole day, the moon at that day's instant of local apparent time m; between whole days,
+ * its place and look interpolated linearly in d between the neighbouring whole days at the same local apparent time,
+ * as the sun's declination is (sunModel.ts). So between days the moon moves against the sun (about 12 deg of phase and
+ * some 13 deg of sky a day at a fixed hour), not with the turning of the sky that jdUT(d, m) alone would give it.
+ */
+function moonBetweenDays(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[], jdUT: number): MoonPosition {
+  const lon = longitudeOf(c.model, nuisances);
+  const base = Math.round(dayJd0 - 0.5) + 0.5; // the nearest whole day (window.ts nearestDayJd0)
+  const delta = dayJd0 - base;
+  c.moonCalls += 1;
+  if (Math.abs(delta) < 1e-12) return moonAt(c.model, jdUT, nuisances);
+  const m0 = moonAt(c.model, instantOfApparentTime(c.track, base, apparentMinutes, lon).jdUT, nuisances);
+  const m1 = moonAt(c.model, instantOfApparentTime(c.track, base + Math.sign(delta), apparentMinutes, lon).jdUT, nuisances);
+  c.moonCalls += 1;
+  const t = Math.abs(delta);
+  const lerp = (a: number, b: number): number => a + t * (b - a);
+  return {
+    ...m0,
+    jdUT,
+    azimuthDeg: normalizeDeg360(lerpDeg(m0.azimuthDeg, m1.azimuthDeg, t)),
+    altitudeDeg: lerp(m0.altitudeDeg, m1.altitudeDeg),
+    geometricAltitudeDeg: lerp(m0.geometricAltitudeDeg, m1.geometricAltitudeDeg),
+    illuminatedFraction: lerp(m0.illuminatedFraction, m1.illuminatedFraction),
+    phaseAngleDeg: lerp(m0.phaseAngleDeg, m1.phaseAngleDeg),
+    elongationDeg: lerp(m0.elongationDeg, m1.elongationDeg),
+    phaseLongitudeDeg: normalizeDeg360(lerpDeg(m0.phaseLongitudeDeg, m1.phaseLongitudeDeg, t)),
+    brightLimbPositionAngleDeg: normalizeDeg360(lerpDeg(m0.brightLimbPositionAngleDeg, m1.brightLimbPositionAngleDeg, t)),
+    parallacticAngleDeg: lerpDeg(m0.parallacticAngleDeg, m1.parallacticAngleDeg, t),
+    brightLimbTiltFromVerticalDeg: normalizeDeg180(lerpDeg(m0.brightLimbTiltFromVerticalDeg, m1.brightLimbTiltFromVerticalDeg, t)),
+  };
+}
+
 /** Move the track so that it covers jdUT (a new track when jdUT is outside its reach). */
 export function ensureTrack(c: DatedContext, jdUT: number, reach = TRACK_REACH_DAYS - 0.5): void {
   if (Math.abs(jdUT - c.track.anchorJdUT) <= reach) return;
@@ -169,10 +207,7 @@ export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: num
   const { jdUT, state } = instantOfApparentTime(c.track, dayJd0, apparentMinutes, lon);
   const sun = sunFromDeclinationHourAngle(state.declinationDeg, (apparentMinutes - 720) / 4, latitudeOf(c.model, nuisances), c.model.scene.air);
   let moon: MoonPosition | undefined;
-  if (withMoon && c.moonRows) {
-    moon = moonAt(c.model, jdUT, nuisances);
-    c.moonCalls += 1;
-  }
+  if (withMoon && c.moonRows) moon = moonBetweenDays(c, dayJd0, apparentMinutes, nuisances, jdUT);
   const ctx: EvaluationContext = {
     sun,
     nuisances,
@@ -213,15 +248,17 @@ function normaliseDayMinute(x: number[]): number[] {
 
 /**
  * Continuous refinement in (d, m, nuisances); the track follows the fit (bounded: at most
- * MAX_TRACK_MOVES re-anchorings, each followed by a new LM run).
+ * MAX_TRACK_MOVES re-anchorings, each followed by a new LM run). The moon's rows are left out unless
+ * `withMoon` (the uncertainty of a candidate with moon evidence: the moon is then taken at the instant
+ * jdUT(d, m), which between whole days is a true instant; only the sun's declination is interpolated).
  */
-export function refineDated(c: DatedContext, x0: readonly number[], maxIterations = 60): DatedFit {
+export function refineDated(c: DatedContext, x0: readonly number[], maxIterations = 60, withMoon = false): DatedFit {
   let x = x0.slice();
   let iterations = 0;
   let lm: LeastSquaresResult | null = null;
   for (let move = 0; move <= MAX_TRACK_MOVES; move += 1) {
-    // The moon is left out of the continuous fit: between whole days its instant is not the true one.
-    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2), false).residuals as number[];
+    // The moon is left out of the search's continuous fit (stage B fits the sun's evidence alone).
+    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2), withMoon).residuals as number[];
     const lower = x.map(() => -Infinity);
     const upper = x.map(() => Infinity);
     lower[0] = x0[0] - MAX_DAY_MOVE;
@@ -234,13 +271,13 @@ export function refineDated(c: DatedContext, x0: readonly number[], maxIteration
     lm = levenbergMarquardt({ residuals: res, steps: datedSteps(c.model), lower, upper }, x, { maxIterations, tolerance: 1e-10 });
     iterations += lm.iterations;
     x = normaliseDayMinute(lm.x.slice());
-    const p = datedPoint(c, x[0], x[1], x.slice(2), false);
+    const p = datedPoint(c, x[0], x[1], x.slice(2), withMoon);
     if (Math.abs(p.jdUT - c.track.anchorJdUT) <= TRACK_REACH_DAYS - 0.5) {
       return { x, lm, point: p, iterations, converged: lm.converged };
     }
     ensureTrack(c, p.jdUT, 0);
   }
-  const p = datedPoint(c, x[0], x[1], x.slice(2), false);
+  const p = datedPoint(c, x[0], x[1], x.slice(2), withMoon);
   return { x, lm: lm!, point: p, iterations, converged: false };
 }
 
