@@ -16,6 +16,12 @@
  * for p >= 0.05 and the facts holding, doubtful for 0.001 <= p < 0.05, inconsistent below or when a
  * fact fails), and on its own (its chi-square with measured numbers minus what is fitted inside it).
  * The fit of the evidence as a whole is said apart.
+ *
+ * With evidence of the moon, a range or season is searched with the moon fitted at each year's own
+ * instants (search.ts, moonYears.ts), the edge days with the moon, and the uncertainty of the best fit
+ * with the moon (candidateUncertainty.ts); when the proposal spans several years, the verdict names
+ * each year's best fit against the best in the window (moonYearsWords), so that the years the moon
+ * rules out are named.
  */
 import type { AnswerFreedom, Candidate, CheckAbsoluteFit, CheckAnswer, CheckOverallFit, CheckRelativeFit, CheckVerdict, Proposal } from './types.js';
 import type { CivilDay, ClockKind, Scene } from '../scene/types.js';
@@ -28,7 +34,7 @@ import { YEARS_ALIKE_DELTA_CHI2 } from './families.js';
 import { MONTH_NAMES } from '../calendar/julianDay.js';
 import { clockToJdUT } from '../time/clock.js';
 import { buildEvidenceModel, longitudeOf, splitChiSquare, type EvidenceModel } from './evidenceModel.js';
-import { datedPoint, newDatedContext, refineDated, refineOnDay, type DatedContext } from './fitting.js';
+import { datedPoint, hasMoonEvidence, newDatedContext, refineDated, refineOnDay, type DatedContext } from './fitting.js';
 import { searchCandidates, clockAssumptionsOf } from './search.js';
 import { stageA } from './stageA.js';
 import { lowPrecisionSun } from './seasons.js';
@@ -280,7 +286,7 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
   let verdictText: string;
   if (!candidate) verdictText = `${what}: no instant there can be judged (no fit was found).`;
   else {
-    const where = `best within the proposal ${candidateDayWords(candidate)}${alikeYearsWords(foundInProposal, best, win)}`;
+    const where = `best within the proposal ${candidateDayWords(candidate)}${alikeYearsWords(foundInProposal, best, win)}${hasMoonEvidence(model) && globalBest ? moonYearsWords(foundInProposal, globalBest.chiSquare + globalBest.softPenalty, win) : ''}`;
     const failing = candidate.facts.filter((f) => !f.satisfied && f.penalty > 0.01).map((f) => f.note);
     const worst = [...candidate.residuals].sort((a, b) => Math.abs(b.normalised) - Math.abs(a.normalised))[0];
     const against = relative
@@ -328,6 +334,32 @@ export function checkProposal(scene: Scene, proposal: Proposal): CheckAnswer {
     overall,
     notes,
   };
+}
+
+/**
+ * With the moon's evidence, each year of a proposal that spans several years, judged by its best fit
+ * against the best in the window (Delta chi-square with 1 degree of freedom, as for the proposal): the years
+ * the moon rules out (p below NOTHING_FITS_P), those only doubtful, those that fit. Empty for a single year.
+ */
+function moonYearsWords(found: readonly RawCandidate[], bestObjective: number, win: DayWindow): string {
+  const byYear = new Map<number, number>();
+  for (const c of found) {
+    const year = jdToCivilDate(win.calendar, c.dayJd0 + 0.5).civil.year;
+    byYear.set(year, Math.min(byYear.get(year) ?? Infinity, c.objective));
+  }
+  if (byYear.size < 2) return '';
+  const years = [...byYear.entries()].sort((a, b) => a[0] - b[0]);
+  const words = (list: (readonly [number, number])[]): string =>
+    list.map(([y, o]) => `${formatYearBcAd(y)} (Delta chi-square ${Math.max(0, o - bestObjective).toFixed(1)})`).join(', ');
+  const p = (o: number): number => chiSquarePValue(Math.max(0, o - bestObjective), 1);
+  const out = years.filter(([, o]) => p(o) < NOTHING_FITS_P);
+  const doubtful = years.filter(([, o]) => p(o) >= NOTHING_FITS_P && p(o) < MARGINAL_P);
+  const fit = years.filter(([, o]) => p(o) >= MARGINAL_P);
+  const parts: string[] = [];
+  if (out.length) parts.push(`${out.length === years.length ? 'every year of the proposal' : 'the years'} the moon rules out: ${words(out)}`);
+  if (doubtful.length) parts.push(`doubtful: ${words(doubtful)}`);
+  if (fit.length && out.length + doubtful.length > 0) parts.push(`fitting: ${words(fit)}`);
+  return parts.length ? `; with the moon at each year's own instant, ${parts.join('; ')}` : '';
 }
 
 /**
