@@ -16,6 +16,11 @@ import { moonThroughCamera, moonThroughPlane, vectorToAzimuthAltitude } from '..
 import { monteCarloSpread } from '../../src/image/propagation.js';
 import { resolvePixelObservations } from '../../src/image/resolvePixels.js';
 import { InvalidInputError } from '../../src/errors.js';
+import { solveDates } from '../../src/solver/solveDates.js';
+import { sunPosition } from '../../src/ephemeris/sunPosition.js';
+import { moonPosition } from '../../src/ephemeris/moonPosition.js';
+import { predictPoleShadow } from '../../src/geometry/groundShadows.js';
+import { calendarDateToJd } from '../../src/calendar/julianDay.js';
 import { angleDiffDeg } from '../../src/math/angles.js';
 import type { ImageInfo, Scene } from '../../src/scene/types.js';
 import { boxPictures, cameraInputOf, sceneOfPicture } from './boxScene.js';
@@ -128,7 +133,7 @@ describe("the moon's direction from its clicked centre", () => {
     const pic = pictures(1303, 1)[0];
     const rng = createRandom(7);
     const nominal = moonThroughPlane(wallPlane(pic, null, 0), pic.wallAzimuthDeg, 0, pic.moonPx, 1, 'observations[0].pixels');
-    const n = 400;
+    const n = 250;
     let s0 = 0;
     let s1 = 0;
     for (let k = 0; k < n; k += 1) {
@@ -139,7 +144,7 @@ describe("the moon's direction from its clicked centre", () => {
     }
     const mc = [Math.sqrt(s0 / n), Math.sqrt(s1 / n)];
     console.log(`moon through a wall: first-order / Monte Carlo sigma, azimuth ${(nominal.azimuthSigmaDeg / mc[0]).toFixed(3)}, altitude ${(nominal.altitudeSigmaDeg / mc[1]).toFixed(3)} (first-order ${nominal.azimuthSigmaDeg.toFixed(3)}, ${nominal.altitudeSigmaDeg.toFixed(3)} deg)`);
-    // 400 draws: the sample sigma is good to about 1/sqrt(2 n) = 3.5% (common practice).
+    // 250 draws: the sample sigma is good to about 1/sqrt(2 n) = 4.5% (common practice).
     expect(nominal.azimuthSigmaDeg / mc[0]).toBeGreaterThan(0.85);
     expect(nominal.azimuthSigmaDeg / mc[0]).toBeLessThan(1.15);
     expect(nominal.altitudeSigmaDeg / mc[1]).toBeGreaterThan(0.85);
@@ -158,6 +163,43 @@ describe("the moon's direction from its clicked centre", () => {
     expect(nominal.azimuthSigmaDeg / mc.sigmas[0]).toBeLessThan(1.15);
     expect(nominal.altitudeSigmaDeg / mc.sigmas[1]).toBeGreaterThan(0.85);
     expect(nominal.altitudeSigmaDeg / mc.sigmas[1]).toBeLessThan(1.15);
+  });
+
+  it('dates a scene with the moon in pixels as the same scene with the measured azimuth and altitude typed in', () => {
+    // Velmar (fictional town), the first day from 1 August 1802 with the sun and the moon both well up at 16:00 local mean
+    // time: the sun's shadow and the moon of that instant (synthetic truth).
+    const site = { latitudeDeg: 47.62, longitudeDeg: 9.35, elevationM: 410, latitudeSigmaDeg: 0, longitudeSigmaDeg: 0 };
+    const first = calendarDateToJd({ calendar: 'gregorian', year: 1802, month: 8, day: 1 }) + (960 - 4 * site.longitudeDeg) / 1440;
+    let jdUT = first;
+    while (!(sunPosition(jdUT, site).altitudeDeg > 10 && moonPosition(jdUT, site).altitudeDeg > 10 && moonPosition(jdUT, site).elongationDeg > 40)) jdUT += 1;
+    expect(jdUT - first).toBeLessThan(30);
+    const sun = sunPosition(jdUT, site);
+    const moon = moonPosition(jdUT, site);
+    const rng = createRandom(1307);
+    let pic: MoonPicture | null = null;
+    while (!pic) pic = moonPicture(rng, moon.azimuthDeg, moon.altitudeDeg);
+    const pole = predictPoleShadow(sun);
+    const base: Scene = {
+      formatVersion: 1, title: 'Velmar, the harbour at dawn (synthetic)', site, calendar: { kind: 'gregorian' }, yearStart: 'jan1',
+      window: { fromYear: 1795, toYear: 1809 }, mapNorthCorrectionDeg: 0, seed: 1, image: IMAGE, walls: [],
+      groundPlane: { pointsPx: pic.groundPoints.map((p) => project(pic!.cam, p)!), planePointsM: pic.groundPoints.map((p) => [p[0], p[1]] as const) },
+      observations: [
+        { id: 'post', kind: 'pole-shadow', shadowAzimuthDeg: pole.shadowAzimuthDeg, shadowAzimuthSigmaDeg: 1, lengthRatio: pole.lengthRatio, lengthRatioSigma: 0.03 },
+        { id: 'moon', kind: 'moon-direction', pixels: { centrePx: pic.moonPx, sigmaPx: 2 } },
+        { id: 'phase', kind: 'moon-phase', illuminatedFraction: moon.illuminatedFraction, sigma: 0.05 },
+      ],
+    };
+    const measured = resolvePixelObservations(base).scene.observations[1];
+    if (measured.kind !== 'moon-direction' || measured.azimuthDeg === undefined) throw new Error('the moon was not measured');
+    expect(angleDiffDeg(measured.azimuthDeg, moon.azimuthDeg)).toBeCloseTo(0, 8);
+    const typed: Scene = { ...base, observations: base.observations.map((o) => (o.id === 'moon' ? measured : o)) };
+    const a = solveDates(base, { consistency: false, maxCandidates: 3 });
+    const b = solveDates(typed, { consistency: false, maxCandidates: 3 });
+    expect(a.candidates[0].civilDate).toEqual({ ...b.candidates[0].civilDate });
+    expect(a.candidates[0].civilDate.year).toBe(1802);
+    expect(a.candidates.map((c) => c.jdUT)).toEqual(b.candidates.map((c) => c.jdUT));
+    expect(a.candidates.map((c) => c.chiSquare)).toEqual(b.candidates.map((c) => c.chiSquare));
+    expect(a.candidates[0].uncertainty.covariance).toEqual(b.candidates[0].uncertainty.covariance);
   });
 
   describe('edge cases', () => {
