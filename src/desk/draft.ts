@@ -75,6 +75,7 @@ const PIXEL_POINT_WORDS: Readonly<Record<string, readonly (readonly [key: string
   'pole-shadow': [['fromPx', 'foot'], ['toPx', 'tip']],
   'eave-shadow': [['fromPx', 'foot'], ['alongPx', 'foot 2'], ['toPx', 'shadow line']],
   'shadow-points': [['fromPx', 'foot'], ['toPx', 'shadow'], ['objectPx', 'caster']],
+  'moon-direction': [['centrePx', 'moon centre']],
 };
 
 function planePoints(plane: DraftValue | undefined, owner: DraftPath, short: string, out: DraftPoint[]): void {

@@ -271,6 +271,13 @@ export function newMoonObservation(choice: string, n: number): Record<string, Dr
 
 /** The fields of one moon observation; the reader's messages beside them. */
 function moonFields(ctx: FormContext, kind: string, path: DraftPath): (HTMLElement | null)[] {
+  const clicked = getAt(ctx.draft, [...path, 'pixels', 'centrePx']);
+  if (kind === 'moon-direction' && getAt(ctx.draft, [...path, 'pixels']) !== undefined) {
+    return [
+      h('p', { class: 'small', text: `The moon's centre clicked at [${Array.isArray(clicked) ? clicked.join(', ') : '?'}] px (the Moon's centre tool); its azimuth and altitude are measured from the picture.` }),
+      field(ctx, { path: [...path, 'pixels', 'sigmaPx'], label: 'clicking sigma, px', kind: 'number', hint: "default: the picture's" }),
+    ];
+  }
   if (kind === 'moon-direction') {
     return [
       field(ctx, { path: [...path, 'azimuthDeg'], label: 'azimuth, deg (from true north, clockwise)', kind: 'number' }),

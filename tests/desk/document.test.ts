@@ -219,6 +219,23 @@ describe('the shadow wedge, the tip through the camera and the moon on the desk'
     expect(p.sceneSun!.observations.some((o) => o.kind === 'shadow-wedge' && o.id === 'brim')).toBe(true);
   });
 
+  it('places the moon\'s centre by one click, written in its pixel form, measured by the library through the camera as the command line measures it', () => {
+    const moon = tool('moon-centre');
+    expect(moon.clicks({}, korn)).toEqual(["Click the middle of the moon's disc (its centre, not the middle of its lit part)."]);
+    const after = applied(korn, 'moon-centre', [[1900, 240]], { id: 'moon', through: '', wall: '', sigmaPx: '2', note: '' });
+    expect(last(after)).toEqual({ id: 'moon', kind: 'moon-direction', pixels: { centrePx: [1900, 240], sigmaPx: 2 } });
+    const k = (after.observations as Draft[]).length - 1;
+    expect(draftPoints(after).filter((p) => p.owner[1] === k).map((p) => p.label)).toEqual(['moon moon centre']);
+    const scene = readSceneText(sceneYamlText(after), 'desk.yaml');
+    expect(scene.observations[k]).toEqual({ id: 'moon', kind: 'moon-direction', pixels: { centrePx: [1900, 240], sigmaPx: 2 } });
+    const resolved = resolvePixelObservations(scene);
+    expect(resolved.moonDirections?.map((m) => m.measured.through)).toEqual(['camera']);
+    const o = resolved.scene.observations[k];
+    expect(o.kind === 'moon-direction' ? o.altitudeDeg : undefined).toBeGreaterThan(0);
+    expect(moon.finish(korn, [[1900, 240]], { id: 'moon', through: 'wall', wall: 'no-such-wall', sigmaPx: '', note: '' })).toContain('Choose the wall');
+    expect(applied(korn, 'moon-centre', [[1900, 240]], { id: 'm2', through: 'wall', wall: 'kornhaus-front', sigmaPx: '', note: '' }).observations).toContainEqual({ id: 'm2', kind: 'moon-direction', pixels: { centrePx: [1900, 240], wall: 'kornhaus-front' } });
+  });
+
   it('a wedge of two edges in one direction is refused beside the wedge in the scene reader\'s or the camera\'s words', () => {
     const after = applied(korn, 'shadow-wedge', [[1616, 1110], [1480, 1010], [1344, 910]], { id: 'flat', group: '', sigmaPx: '', note: '' });
     const k = (after.observations as Draft[]).length - 1;

@@ -1,7 +1,8 @@
 /**
  * The desk's measuring tools, in the order of their buttons. One line per tool: the figures of
  * known size and their shadows (rod, overhang, fin, pole, eave line, caster and shadow point), then the picture's own perspective (vertical edges, wall
- * courses), object-shadow pairs on any surface and shadows whose casting point lies within a wedge.
+ * courses), object-shadow pairs on any surface and shadows whose casting point lies within a wedge, and the
+ * moon's centre.
  */
 import type { DeskTool } from './tool.js';
 import { groundFigureTool } from './groundFigure.js';
@@ -17,6 +18,7 @@ import { verticalEdgesTool } from './verticalEdges.js';
 import { wallCoursesTool } from './wallCourses.js';
 import { objectShadowTool } from './objectShadow.js';
 import { shadowWedgeTool } from './shadowWedge.js';
+import { moonCentreTool } from './moonCentre.js';
 
 export const TOOLS: readonly DeskTool[] = [
   wallFigureTool,
@@ -32,4 +34,5 @@ export const TOOLS: readonly DeskTool[] = [
   wallCoursesTool,
   objectShadowTool,
   shadowWedgeTool,
+  moonCentreTool,
 ];
