@@ -7,6 +7,8 @@ import { join } from 'node:path';
 import type { Browser } from 'playwright-core';
 import { parse } from 'yaml';
 import { launchChromium } from '../helpers/chromium.js';
+import { readSceneText } from '../../src/scene/readScene.js';
+import { resolvePixelObservations } from '../../src/image/resolvePixels.js';
 import { clickPixel, cli, expectShownAsMeasured, toolField, type MeasuredJson } from './deskPage.js';
 import { OUT_DIR, ROOT, prepareDeskTest, readView, startDesk, watch } from './deskSession.js';
 
@@ -131,4 +133,30 @@ describe('the shadow wedge and the moon on the desk in Chromium', () => {
     expect(watched.offMachine).toEqual([]);
     await context.close();
   }, 300_000);
+
+  it("places the moon's centre by one click (key m); the saved file holds its pixel form, which the library measures through the camera", async () => {
+    const context = await browser!.newContext({ viewport: { width: 1500, height: 1000 } });
+    const page = await context.newPage();
+    const watched = watch(page, deskUrl);
+    await page.goto(deskUrl);
+    await page.waitForSelector('body[data-ready="true"]');
+    const n = (parse(readFileSync(join(folder, 'kornplatz-figures.yaml'), 'utf8')) as { observations: unknown[] }).observations.length;
+    await page.locator('#viewer').focus();
+    await page.keyboard.press('m');
+    expect(await page.locator('#tool-buttons [data-tool="moon-centre"]').getAttribute('aria-pressed')).toBe('true');
+    expect(await page.locator('#instruction').textContent()).toContain("Moon's centre, click 1 of 1: Click the middle of the moon's disc");
+    await toolField(page, 'id', 'moon');
+    await clickPixel(page, [1900, 240]);
+    await page.keyboard.press('Escape');
+    await page.locator('#save-name').fill('kornplatz-moon-click.yaml');
+    await page.locator('#save').click();
+    await page.waitForFunction(() => document.getElementById('unsaved')!.textContent === '');
+    const saved = parse(readFileSync(join(folder, 'kornplatz-moon-click.yaml'), 'utf8')) as { observations: Record<string, unknown>[] };
+    expect(saved.observations[n]).toEqual({ id: 'moon', kind: 'moon-direction', pixels: { centrePx: [1900, 240] } });
+    const text = readFileSync(join(folder, 'kornplatz-moon-click.yaml'), 'utf8');
+    const resolved = resolvePixelObservations(readSceneText(text, 'kornplatz-moon-click.yaml'));
+    expect(resolved.moonDirections?.map((m) => [m.observationId, m.measured.through])).toEqual([['moon', 'camera']]);
+    expect(watched.errors).toEqual([]);
+    await context.close();
+  }, 120_000);
 });
