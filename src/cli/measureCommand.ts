@@ -17,6 +17,7 @@ import { rectifyPlane, type RectifiedPlane } from '../image/planeInImage.js';
 import { rectificationReport, LINEARITY_TOLERANCE } from '../image/pixelObservations.js';
 import { rectifySceneGround } from '../image/measureScene.js';
 import { measuredQuantities, resolvePixelObservations, type ResolvedMeasurement } from '../image/resolvePixels.js';
+import { describeMoonDirection, moonDirectionRecord } from '../image/moonPixels.js';
 import { describeSceneSun, sceneSunRecord } from '../image/sceneSun.js';
 import { MEASURED_VALUE_WORDS, PIXEL_KIND_WORDS } from '../image/measuredValueWords.js';
 import { annotationsText, sceneAnnotations } from '../report/annotations.js';
@@ -366,6 +367,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
         planes: planeRecords,
         observations: observationRecords,
         camera: resolved.sceneSun ? sceneSunRecord(resolved.sceneSun) : null,
+        moon: (resolved.moonDirections ?? []).map(moonDirectionRecord),
         best,
         overlay: overlayTarget ? { file: options.overlay, picture: picturePath ? (options.image ?? scene.image?.file ?? null) : null } : null,
         annotations: annotationsTarget ? { file: options.annotations, items: annotations!.total } : null,
@@ -373,6 +375,7 @@ export async function run(args: readonly string[], options: MeasureOptions, io: 
       }, null, 2)}\n`
     : renderText(scene, planeRecords, observationRecords, best, notes) +
       (resolved.sceneSun ? `\n${describeSceneSun(resolved.sceneSun).map(escapeControls).join('\n')}\n` : '') +
+      (resolved.moonDirections?.length ? `\nThe moon in pixels:\n${resolved.moonDirections.map((r) => `  ${escapeControls(describeMoonDirection(r))}`).join('\n')}\n` : '') +
       (annotationsTarget ? `Annotations (W3C Web Annotation, JSON-LD) of ${annotations!.total} clicked items written to ${escapeControls(options.annotations!)}.\n` : '') +
       (overlayTarget ? `Overlay written to ${escapeControls(options.overlay!)}${picture && picturePath ? ` (with the picture ${escapeControls(shownPath(picturePath, io.cwd))} embedded)` : ''}.\n` : '');
 

@@ -175,11 +175,12 @@ export function moonThroughPlane(plane: RectifiedPlane, wallAzimuthDeg: number |
   const p0 = [...planeP0, centre[0], centre[1], wallAzimuthDeg ?? 0];
   const sigmas = [...planeSigmas, sigmaPx, sigmaPx, plane.kind === 'wall' ? wallAzimuthSigmaDeg : 0];
   const where = plane.kind === 'wall' ? `the wall's figure (${plane.field})` : `the ground's figure (${plane.field})`;
+  const Where = `T${where.slice(1)}`;
   const nominal = cameraAt(p0);
   if (nominal === null) {
     throw new InvalidInputError(
       `${field}.wall`, plane.field, 'a wall or ground figure seen at a slant, whose lines converge in the picture',
-      `${where} gives no focal length: it is seen face-on or as a parallel (affine) view, where every focal length fits it alike, so it cannot turn the moon's pixel into a direction. Give the scene a camera block (vertical edges and wall courses), another figure, or the moon's azimuth and altitude as numbers`,
+      `${Where} gives no focal length: it is seen face-on or as a parallel (affine) view, where every focal length fits it alike, so it cannot turn the moon's pixel into a direction. Give the scene a camera block (vertical edges and wall courses), another figure, or the moon's azimuth and altitude as numbers`,
     );
   }
   // The focal length's own sigma from the plane's clicks: a plane near face-on fixes it poorly.
@@ -188,7 +189,7 @@ export function moonThroughPlane(plane: RectifiedPlane, wallAzimuthDeg: number |
   if (!(relative <= MAX_FOCAL_RELATIVE_SIGMA)) {
     throw new InvalidInputError(
       `${field}.wall`, plane.field, `a figure that fixes the focal length to within ${Math.round(100 * MAX_FOCAL_RELATIVE_SIGMA)}% (this one: ${Number.isFinite(relative) ? `${(100 * relative).toFixed(0)}%` : 'not at all'})`,
-      `${where} is seen too nearly face-on: its lines converge too little for the focal length (${nominal.focalLengthPx.toFixed(0)} px) to be known, so the moon's direction through it would be unreliable. Give the scene a camera block, a figure seen more at a slant, or the moon's azimuth and altitude as numbers`,
+      `${Where} is seen too nearly face-on: its lines converge too little for the focal length (${nominal.focalLengthPx.toFixed(0)} px) to be known, so the moon's direction through it would be unreliable. Give the scene a camera block, a figure seen more at a slant, or the moon's azimuth and altitude as numbers`,
     );
   }
   const f = (q: readonly number[]): number[] => {
@@ -212,4 +213,25 @@ export interface ResolvedMoonDirection {
   /** Monte Carlo spread (azimuth, altitude), present when the first-order sigmas are not reliable. */
   readonly monteCarloSigmasDeg?: readonly [number, number];
   readonly sigmaSource: 'first-order' | 'monte-carlo';
+}
+
+/**
+ * A measured moon in words, for `heliochron measure`.
+ * @example describeMoonDirection(r) // "moon (observations[5]): azimuth 251.70 +/- 0.16 deg, altitude 24.31 +/- 0.37 deg, through the camera ..."
+ */
+export function describeMoonDirection(r: ResolvedMoonDirection): string {
+  const m = r.measured;
+  const how = r.sigmaSource === 'monte-carlo' ? 'sigmas from a Monte Carlo of the clicks (the first-order ones bend within the clicking error)' : 'sigmas by first-order propagation of the clicks';
+  return `${r.observationId} (${r.field}), the moon's centre: azimuth ${m.azimuthDeg.toFixed(2)} +/- ${r.sigmasDeg[0].toFixed(2)} deg, apparent altitude ${m.altitudeDeg.toFixed(2)} +/- ${r.sigmasDeg[1].toFixed(2)} deg, ${m.note}; ${how}`;
+}
+
+/** A measured moon as plain data, for `heliochron measure --json`. */
+export function moonDirectionRecord(r: ResolvedMoonDirection): unknown {
+  const m = r.measured;
+  return {
+    id: r.observationId, field: r.field, through: m.through, azimuthDeg: m.azimuthDeg, altitudeDeg: m.altitudeDeg,
+    azimuthSigmaDeg: r.sigmasDeg[0], altitudeSigmaDeg: r.sigmasDeg[1], firstOrderSigmasDeg: [m.azimuthSigmaDeg, m.altitudeSigmaDeg],
+    ...(r.monteCarloSigmasDeg ? { monteCarloSigmasDeg: r.monteCarloSigmasDeg } : {}), sigmaSource: r.sigmaSource,
+    focalLengthPx: m.focalLengthPx, note: m.note,
+  };
 }

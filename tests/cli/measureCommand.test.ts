@@ -312,3 +312,22 @@ describe('heliochron measure --seed', () => {
     expect(out).toMatch(/seed 11 for any Monte Carlo run/);
   });
 });
+
+describe('heliochron measure with the moon in pixels', () => {
+  it('refuses the moon through a wall seen nearly face-on (the example\'s west front), saying why, with exit code 2', async () => {
+    const path = variant('moon-face-on', (t) => t.replace(/\nseed: 1890/, '\n  - { id: moon, kind: moon-direction, pixels: { centrePx: [1500, 150], sigmaPx: 2, wall: tanners-hall-west } }\nseed: 1890'));
+    const r = await measure([path]);
+    expect(r.code).toBe(2);
+    expect(r.out).toBe('');
+    expect(r.err).toMatch(/observations\[4\]\.pixels\.wall: "walls\[0\]\.imagePlane" is not allowed; expected a figure that fixes the focal length to within 25%.*The wall's figure \(walls\[0\]\.imagePlane\) is seen too nearly face-on/);
+  });
+  it('prints the moon measured through the ground\'s figure, and lists it in the JSON', async () => {
+    const path = variant('moon-in-pixels', (t) => t.replace(/\nseed: 1890/, '\n  - { id: moon, kind: moon-direction, pixels: { centrePx: [1500, 150], sigmaPx: 2 } }\nseed: 1890'));
+    const text = await measure([path]);
+    expect(text.err).toBe('');
+    expect(text.out).toMatch(/The moon in pixels:\n {2}moon \(observations\[\d+\]\), the moon's centre: azimuth \d+\.\d\d \+\/- \d+\.\d\d deg, apparent altitude -?\d+\.\d\d \+\/- \d+\.\d\d deg, through the ground's figure/);
+    const json = JSON.parse((await measure([path, '--json'])).out) as { moon: { id: string; through: string; azimuthSigmaDeg: number }[] };
+    expect(json.moon.map((m) => [m.id, m.through])).toEqual([['moon', 'plane']]);
+    expect(json.moon[0].azimuthSigmaDeg).toBeGreaterThan(0);
+  });
+});
