@@ -21,8 +21,8 @@ import { ELLIPSE_LEVELS, ellipseAt, isPositiveDefinite, linearityError, LINEARIT
 import { profileScan } from '../uncertainty/profileScan.js';
 import { jdToCivilDate } from '../calendar/regions.js';
 import { splitChiSquare } from './evidenceModel.js';
-import { datedPoint, ensureTrack, hasMoonEvidence, newDatedContext, refineDated, refineOnDay } from './fitting.js';
-import { covarianceFromJacobian } from '../math/leastSquares.js';
+import { datedPoint, datedSteps, ensureTrack, hasMoonEvidence, newDatedContext, refineOnDay, type DatedContext, type DatedFit } from './fitting.js';
+import { covarianceFromJacobian, levenbergMarquardt } from '../math/leastSquares.js';
 import { declinationRateOnTrack } from './sunModel.js';
 import type { RawCandidate, RepresentativeFit } from './stageB.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
@@ -52,6 +52,26 @@ export const FREE_REASON = 'the evidence does not fix the day and the hour separ
 /** Cache of per-representative results (one solve); with the moon, per candidate (its own fit, `moonRep`). */
 export type UncertaintyCache = Map<RepresentativeFit | RawCandidate, RepUncertainty & { readonly moonRep?: RepresentativeFit }>;
 
+/** With the moon, the continuous fit stays within this many days of the candidate's day (beyond, another lunation's place). */
+const MOON_FIT_REACH_DAYS = 1;
+
+/**
+ * The continuous fit of (d, m, nuisances) with the moon's rows, by bounded Levenberg-Marquardt within
+ * MOON_FIT_REACH_DAYS of the candidate's day and half a day of its minute (the moon between whole days:
+ * fitting.ts datedPoint).
+ */
+function refineNearCandidate(ctx: DatedContext, x0: readonly number[]): DatedFit {
+  ensureTrack(ctx, datedPoint(ctx, x0[0], x0[1], x0.slice(2), false).jdUT);
+  const lower = x0.map(() => -Infinity);
+  const upper = x0.map(() => Infinity);
+  lower[0] = x0[0] - MOON_FIT_REACH_DAYS;
+  upper[0] = x0[0] + MOON_FIT_REACH_DAYS;
+  lower[1] = x0[1] - 720;
+  upper[1] = x0[1] + 720;
+  const lm = levenbergMarquardt({ residuals: (p) => datedPoint(ctx, p[0], p[1], p.slice(2)).residuals as number[], steps: datedSteps(ctx.model), lower, upper }, x0, { maxIterations: 60, tolerance: 1e-10 });
+  return { x: lm.x, lm, point: datedPoint(ctx, lm.x[0], lm.x[1], lm.x.slice(2)), iterations: lm.iterations, converged: lm.converged };
+}
+
 /**
  * The fit a candidate's uncertainty is taken from: its representative year's (the sun's evidence alone), or with
  * moon evidence its own continuous fit with the moon, from the candidate's day, minute and nuisances.
@@ -62,7 +82,7 @@ function fitFor(raw: RawCandidate, cache: UncertaintyCache): { rep: Representati
   let rep = cache.get(raw)?.moonRep;
   if (!rep) {
     const ctx = newDatedContext(model, raw.rep.context.assumed, raw.point.jdUT);
-    const fit = refineDated(ctx, [raw.dayJd0, raw.apparentMinutes, ...raw.nuisances], 60, true);
+    const fit = refineNearCandidate(ctx, [raw.dayJd0, raw.apparentMinutes, ...raw.nuisances]);
     const s = splitChiSquare(model, fit.point.residuals);
     rep = { cycle: raw.cycle, fit, objective: s.chiSquare + s.penalty, covariance: covarianceFromJacobian(fit.lm.jacobian, fit.x.length), context: ctx };
     cache.set(raw, { ...repUncertainty(rep, cache), moonRep: rep });

@@ -248,17 +248,15 @@ function normaliseDayMinute(x: number[]): number[] {
 
 /**
  * Continuous refinement in (d, m, nuisances); the track follows the fit (bounded: at most
- * MAX_TRACK_MOVES re-anchorings, each followed by a new LM run). The moon's rows are left out unless
- * `withMoon` (the uncertainty of a candidate with moon evidence: the moon is then taken at the instant
- * jdUT(d, m), which between whole days is a true instant; only the sun's declination is interpolated).
+ * MAX_TRACK_MOVES re-anchorings, each followed by a new LM run).
  */
-export function refineDated(c: DatedContext, x0: readonly number[], maxIterations = 60, withMoon = false): DatedFit {
+export function refineDated(c: DatedContext, x0: readonly number[], maxIterations = 60): DatedFit {
   let x = x0.slice();
   let iterations = 0;
   let lm: LeastSquaresResult | null = null;
   for (let move = 0; move <= MAX_TRACK_MOVES; move += 1) {
     // The moon is left out of the search's continuous fit (stage B fits the sun's evidence alone).
-    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2), withMoon).residuals as number[];
+    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2), false).residuals as number[];
     const lower = x.map(() => -Infinity);
     const upper = x.map(() => Infinity);
     lower[0] = x0[0] - MAX_DAY_MOVE;
@@ -271,13 +269,13 @@ export function refineDated(c: DatedContext, x0: readonly number[], maxIteration
     lm = levenbergMarquardt({ residuals: res, steps: datedSteps(c.model), lower, upper }, x, { maxIterations, tolerance: 1e-10 });
     iterations += lm.iterations;
     x = normaliseDayMinute(lm.x.slice());
-    const p = datedPoint(c, x[0], x[1], x.slice(2), withMoon);
+    const p = datedPoint(c, x[0], x[1], x.slice(2), false);
     if (Math.abs(p.jdUT - c.track.anchorJdUT) <= TRACK_REACH_DAYS - 0.5) {
       return { x, lm, point: p, iterations, converged: lm.converged };
     }
     ensureTrack(c, p.jdUT, 0);
   }
-  const p = datedPoint(c, x[0], x[1], x.slice(2), withMoon);
+  const p = datedPoint(c, x[0], x[1], x.slice(2), false);
   return { x, lm: lm!, point: p, iterations, converged: false };
 }
 

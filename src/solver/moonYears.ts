@@ -20,7 +20,7 @@
  *    that day with the whole evidence (src/solver/fitting.ts refineOnDay); the other years keep
  *    their best screened day (they fit far worse: their objective is an upper bound of their best).
  * Every kept candidate is verified by one exact evaluation (stageB.ts exactPoint).
- * The ellipses of a candidate (candidateUncertainty.ts) stay those of the sun's evidence alone.
+ * The ellipses of a candidate come from its own continuous fit with the moon (candidateUncertainty.ts).
  */
 import type { ClockKind } from '../scene/types.js';
 import { latitudeOf, splitChiSquare, type EvidenceModel } from './evidenceModel.js';
