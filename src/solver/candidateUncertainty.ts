@@ -8,7 +8,8 @@
  * Mapped years share the covariance, check and scan of their representative year (the yearly
  * pattern repeats to within hours; stated in docs/solver.md).
  *
- * With evidence of the moon, the sun's yearly repeat does not hold for the moon: each candidate gets
+ * With evidence of the moon beside the sun's (not a night view's candidate from the moon's own search, whose
+ * instant is given with the day scanned), the sun's yearly repeat does not hold for the moon: each candidate gets
  * its own continuous fit in (d, m, nuisances) with the moon's rows at the instant jdUT(d, m), started
  * from the candidate (src/solver/moonYears.ts), and its covariance, check and scan from that fit. The
  * moon's place and phase change with the instant (about 0.5 deg an hour against the stars, 12 deg of
@@ -78,7 +79,8 @@ function refineNearCandidate(ctx: DatedContext, x0: readonly number[]): DatedFit
  */
 function fitFor(raw: RawCandidate, cache: UncertaintyCache): { rep: RepresentativeFit; day: number; minutes: number } {
   const model = raw.rep.context.model;
-  if (!hasMoonEvidence(model)) return { rep: raw.rep, day: raw.continuousDay, minutes: raw.continuousMinutes };
+  // A night view's candidate (the moon's own search, moonSearch.ts) keeps its instant's account: the day is scanned instead.
+  if (!hasMoonEvidence(model) || raw.rep.moonInstant) return { rep: raw.rep, day: raw.continuousDay, minutes: raw.continuousMinutes };
   let rep = cache.get(raw)?.moonRep;
   if (!rep) {
     const ctx = newDatedContext(model, raw.rep.context.assumed, raw.point.jdUT);
