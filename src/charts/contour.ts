@@ -22,15 +22,21 @@ export type Segment = readonly [readonly [number, number], readonly [number, num
 export function isolineSegments(field: SampledField, level: number): Segment[] {
   const { xs, ys, values } = field;
   const out: Segment[] = [];
+  // A row with no finite value at or below the level gives no segment with its neighbours: skipped whole.
+  const reaches = values.map((row) => !(Math.min(...row) > level));
   for (let j = 0; j + 1 < ys.length; j += 1) {
+    if (!reaches[j] && !reaches[j + 1]) continue;
+    const lower = values[j];
+    const upper = values[j + 1];
     for (let i = 0; i + 1 < xs.length; i += 1) {
-      const v0 = values[j][i]; // (x0, y0)
-      const v1 = values[j][i + 1]; // (x1, y0)
-      const v2 = values[j + 1][i + 1]; // (x1, y1)
-      const v3 = values[j + 1][i]; // (x0, y1)
-      if (!Number.isFinite(v0) || !Number.isFinite(v1) || !Number.isFinite(v2) || !Number.isFinite(v3)) continue;
+      const v0 = lower[i]; // (x0, y0)
+      const v1 = lower[i + 1]; // (x1, y0)
+      const v2 = upper[i + 1]; // (x1, y1)
+      const v3 = upper[i]; // (x0, y1)
       const code = (v0 > level ? 1 : 0) | (v1 > level ? 2 : 0) | (v2 > level ? 4 : 0) | (v3 > level ? 8 : 0);
+      // Most cells lie wholly on one side: tested first, as they give no segment whatever their corners.
       if (code === 0 || code === 15) continue;
+      if (!Number.isFinite(v0) || !Number.isFinite(v1) || !Number.isFinite(v2) || !Number.isFinite(v3)) continue;
       const x0 = xs[i];
       const x1 = xs[i + 1];
       const y0 = ys[j];
@@ -65,16 +71,32 @@ export function isolineSegments(field: SampledField, level: number): Segment[] {
 
 /** Horizontal runs of grid cells where `inside(j, i)` holds, one rectangle per run: [i0, i1) on row j. */
 export function cellRuns(rows: number, cols: number, inside: (j: number, i: number) => boolean): { j: number; i0: number; i1: number }[] {
-  const out: { j: number; i0: number; i1: number }[] = [];
+  return cellRunsByClass(rows, cols, (j, i) => (inside(j, i) ? 1 : -1))[1] ?? [];
+}
+
+/**
+ * The runs of cellRuns for every class at once, in one pass: `classOf(j, i)` gives a cell's class
+ * (a small whole number; negative: none), and entry k of the result lists the runs of class k, in
+ * the order cellRuns gives them (by row, then from left to right). `rowWithoutClass(j)`, when
+ * given, names rows known to hold no cell of any class, which are passed over unread.
+ */
+export function cellRunsByClass(
+  rows: number,
+  cols: number,
+  classOf: (j: number, i: number) => number,
+  rowWithoutClass?: (j: number) => boolean,
+): { j: number; i0: number; i1: number }[][] {
+  const out: { j: number; i0: number; i1: number }[][] = [];
   for (let j = 0; j < rows; j += 1) {
-    let start = -1;
-    for (let i = 0; i <= cols; i += 1) {
-      const on = i < cols && inside(j, i);
-      if (on && start < 0) start = i;
-      if (!on && start >= 0) {
-        out.push({ j, i0: start, i1: i });
-        start = -1;
-      }
+    if (rowWithoutClass?.(j) === true) continue;
+    let start = 0;
+    let current = cols > 0 ? classOf(j, 0) : -1;
+    for (let i = 1; i <= cols; i += 1) {
+      const k = i < cols ? classOf(j, i) : -1;
+      if (k === current) continue;
+      if (current >= 0) (out[current] ??= []).push({ j, i0: start, i1: i });
+      start = i;
+      current = k;
     }
   }
   return out;

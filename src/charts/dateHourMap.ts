@@ -7,7 +7,7 @@
  */
 import { formatMinutes } from '../time/clock.js';
 import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
-import { cellRuns, isolineSegments } from './contour.js';
+import { cellRunsByClass, isolineSegments } from './contour.js';
 import type { DateHourMapData, MapMarker } from './dateHourMapData.js';
 import { CHART_STYLE, FIT_BANDS, INK, OKABE_ITO, OUTSIDE_BANDS_LABEL, fitBandIndex } from './palette.js';
 import { linearScale, niceTicks, type LinearScale } from './scale.js';
@@ -38,9 +38,15 @@ interface GridPart {
 /** Filled cells, one rectangle per horizontal run of cells in the same band. */
 function bandCells(part: GridPart, x: LinearScale, y: LinearScale, prefix: string): string[] {
   const out: string[] = [];
+  const palest = FIT_BANDS[FIT_BANDS.length - 1].maxDeltaChiSquare;
+  const runsByBand = cellRunsByClass(
+    part.minutes.length,
+    part.dayOffsets.length,
+    (j, i) => fitBandIndex(part.deltaChiSquare[j][i]),
+    (j) => Math.min(...part.deltaChiSquare[j]) > palest, // every cell of the row beyond the palest band
+  );
   FIT_BANDS.forEach((band, b) => {
-    const runs = cellRuns(part.minutes.length, part.dayOffsets.length, (j, i) => fitBandIndex(part.deltaChiSquare[j][i]) === b);
-    const d = runs
+    const d = (runsByBand[b] ?? [])
       .map((r) => {
         const x0 = x(part.dayOffsets[r.i0] - part.dayStep / 2);
         const x1 = x(part.dayOffsets[r.i1 - 1] + part.dayStep / 2);

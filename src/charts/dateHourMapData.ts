@@ -12,7 +12,8 @@ import { civilDateToJd, jdToCivilDate, resolveCalendarRule, type ResolvedCalenda
 import { formatYearBcAd } from '../calendar/format.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, type EvidenceModel } from '../solver/evidenceModel.js';
-import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
+import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, finishDayMinuteCells, nuisancesOfCandidate, type DayMinuteGrid, type DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
+import { FIT_BANDS } from './palette.js';
 import { ellipsePoints } from './ellipse.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
 
@@ -159,16 +160,20 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
 
   // Observations measured in pixels become numbers first, as the solver takes them (src/image/resolvePixels.ts).
   const model = options.model ?? buildEvidenceModel(resolvePixelObservations(scene).scene);
-  const grid = chiSquareOnDayMinuteGrid(model, {
+  const closeUp = best ? closeUpGrid(model, best, rule, jan1) : undefined;
+  // The reference (the lowest value) is at most this before the whole year is computed.
+  const referenceBound = Math.min(closeUp ? closeUp.minimum : Infinity, best ? best.chiSquare + best.softPenalty : Infinity);
+  const spec = {
     dayJd0s: dayOffsets.map((d) => jan1 + d),
     minutes,
     assumedClock: assumedClockOfCandidate(best),
     nuisances: nuisancesOfCandidate(model, best),
     onProgress: options.onProgress,
-  });
-  const closeUp = best ? closeUpGrid(model, best, rule, jan1) : undefined;
-  const reference = Math.min(grid.minimum, closeUp ? closeUp.minimum : Infinity, best ? best.chiSquare + best.softPenalty : Infinity);
-  const deltaChiSquare = grid.values.map((row) => row.map((v) => v - reference));
+    ...(Number.isFinite(referenceBound) ? { ceiling: referenceBound + beyondBandsMargin(referenceBound) } : {}),
+  };
+  const grid = withContoursFinished(model, spec, chiSquareOnDayMinuteGrid(model, spec), referenceBound);
+  const reference = Math.min(grid.minimum, referenceBound);
+  const deltaChiSquare = grid.values.map((row) => deltaRow(row, reference));
 
   const allowed = scene.window.months && scene.window.months.length > 0 ? new Set(scene.window.months) : null;
   const months = MONTH_NAMES.map((name, k) => {
@@ -197,10 +202,54 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
     minuteStep,
     months,
     markers,
-    closeUp: closeUp ? { ...closeUp.data, deltaChiSquare: closeUp.values.map((row) => row.map((v) => v - reference)) } : undefined,
+    closeUp: closeUp ? { ...closeUp.data, deltaChiSquare: closeUp.values.map((row) => deltaRow(row, reference)) } : undefined,
     fromOtherYears: markers.filter((m) => !m.inMapYear).length,
     evaluations: grid.evaluations + (closeUp ? closeUp.evaluations : 0),
   };
+}
+
+/** A row of values less the reference; a row wholly unfinished (+Infinity) stays so without a pass over it. */
+function deltaRow(row: readonly number[], reference: number): number[] {
+  if (Number.isFinite(reference) && Math.min(...row) === Infinity) return new Array<number>(row.length).fill(Infinity);
+  return row.map((v) => v - reference);
+}
+
+/**
+ * How far above the reference a point can be left unfinished: beyond the palest band drawn
+ * (palette.ts), with a margin for rounding, so that it is drawn exactly as its true value would be.
+ */
+function beyondBandsMargin(reference: number): number {
+  return FIT_BANDS[FIT_BANDS.length - 1].maxDeltaChiSquare + 1e-6 * (1 + Math.abs(reference));
+}
+
+/** The largest level at which the map draws a contour (dateHourMap.ts: the 68% and 95% bounds). */
+const HIGHEST_CONTOUR = Math.max(FIT_BANDS[0].maxDeltaChiSquare, FIT_BANDS[1].maxDeltaChiSquare);
+
+/**
+ * The grid with every unfinished point computed that a contour line could run next to: a
+ * corner of a grid cell whose other corners include one at or below the highest contour level
+ * (marching squares interpolates along that cell's edges with the true values). Every other
+ * unfinished point stays +Infinity: beyond the palest band, it is drawn unshaded and away from
+ * any contour line whatever its value.
+ */
+function withContoursFinished(model: EvidenceModel, spec: DayMinuteGridSpec, grid: DayMinuteGrid, referenceBound: number): DayMinuteGrid {
+  if (grid.unfinished.length === 0) return grid;
+  const reference = Math.min(grid.minimum, referenceBound);
+  const v = grid.values;
+  const cells: [number, number][] = [];
+  const low = (x: number): boolean => x - reference <= HIGHEST_CONTOUR;
+  const rowLow = v.map((row) => low(Math.min(...row))); // false: no value of the row is low
+  for (let j = 0; j + 1 < v.length; j += 1) {
+    if (!rowLow[j] && !rowLow[j + 1]) continue;
+    const below = v[j];
+    const above = v[j + 1];
+    for (let i = 0; i + 1 < below.length; i += 1) {
+      if (!low(below[i]) && !low(below[i + 1]) && !low(above[i + 1]) && !low(above[i])) continue;
+      const corners: readonly (readonly [number, number, number])[] = [[j, i, below[i]], [j, i + 1, below[i + 1]], [j + 1, i + 1, above[i + 1]], [j + 1, i, above[i]]];
+      for (const [a, b, x] of corners) if (x === Infinity) cells.push([a, b]);
+    }
+  }
+  return finishDayMinuteCells(model, spec, grid, cells);
 }
 
 /** Offset of the first day of a month from 1 January; a month whose 1st fell in a reform gap starts at its first existing day. */
@@ -244,12 +293,16 @@ function closeUpGrid(model: EvidenceModel, best: Candidate, rule: ResolvedCalend
   const minuteStep = (2 * halfMinutes) / (CLOSE_UP_ROWS - 1);
   const dayOffsets = Array.from({ length: CLOSE_UP_COLUMNS }, (_, i) => dayRange[0] + i * dayStep);
   const minutes = Array.from({ length: CLOSE_UP_ROWS }, (_, j) => minuteRange[0] + j * minuteStep);
-  const grid = chiSquareOnDayMinuteGrid(model, {
+  // The reference is at most the best candidate's value: points far above it are left unfinished as in the whole year.
+  const referenceBound = best.chiSquare + best.softPenalty;
+  const spec = {
     dayJd0s: dayOffsets.map((d) => jan1 + d),
     minutes,
     assumedClock: assumedClockOfCandidate(best),
     nuisances: nuisancesOfCandidate(model, best),
-  });
+    ...(Number.isFinite(referenceBound) ? { ceiling: referenceBound + beyondBandsMargin(referenceBound) } : {}),
+  };
+  const grid = withContoursFinished(model, spec, chiSquareOnDayMinuteGrid(model, spec), referenceBound);
   const tickStep = [1, 2, 3, 5, 7, 10, 14, 21, 30].find((step) => (2 * halfDays) / step <= 5) ?? 30;
   const dayLabels: { offset: number; label: string }[] = [];
   for (let d = Math.ceil(dayRange[0] / tickStep) * tickStep; d <= dayRange[1]; d += tickStep) {

@@ -230,10 +230,11 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   let evaluations = 0;
   const bands: SkyBand[] = model.shadows.map((term) => {
     const wallAz = wallAzimuthOf(model, term.wallId, nuisances);
+    const evidence = termEvidence(model, term, nuisances);
     const values = altitudes.map((alt) =>
       azimuths.map((az) => {
         evaluations += 1;
-        const r = evidenceResiduals(termEvidence(model, term, nuisances), { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt }, wallAz);
+        const r = evidenceResiduals(evidence, { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt }, wallAz);
         if (!r.defined) return 99; // the shadow cannot arise there (wall in shade): far outside the band
         return r.residuals.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
       }),

@@ -10,7 +10,7 @@ import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand } from './dateCommand.js';
 import type { CliIo } from './io.js';
 import { progressLine, withProgressLine } from './progress.js';
-import { drawChart } from './drawChart.js';
+import { chartModel, drawChart } from './drawChart.js';
 import { ALL_CHARTS, CHART_KINDS, type ChartKind, type ChartOptions } from './chartSpec.js';
 
 /** The kind option, validated: one chart, or all three. */
@@ -45,11 +45,12 @@ export async function run(args: readonly string[], options: ChartOptions, io: Cl
     const files = chartFileNames(options.output, scenePath).map((f) => ({ ...f, target: checkOutputPath(f.file, options.force, fullPath, io) }));
     const scene = inScene(scenePath, () => resolvePixelObservations(read.scene).scene);
     const answer = withProgressLine(io, 'searching the window', (onProgress) => inScene(scenePath, () => solveDates(scene, { onProgress })));
+    const model = chartModel(scene); // one evidence model for every chart
     for (const f of files) {
       const progress = progressLine(io, `drawing the ${f.kind} chart`);
       let svg: string;
       try {
-        svg = drawChart(f.kind, scene, answer, progress.onProgress);
+        svg = drawChart(f.kind, scene, answer, progress.onProgress, undefined, model);
       } finally {
         progress.finish();
       }

@@ -9,7 +9,7 @@ import { basename } from 'node:path';
 import { InvalidInputError } from '../errors.js';
 import { solveDates } from '../solver/solveDates.js';
 import { REPORT_SOLVE_OPTIONS, renderHtmlReport } from '../report/html.js';
-import { drawChart } from './drawChart.js';
+import { drawReportCharts } from './drawChart.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { checkOutputPath, deliver, inScene, readSceneForCommand, sameLightOfFamilies } from './dateCommand.js';
 import { calendarReadings } from '../solver/calendarReadings.js';
@@ -40,11 +40,7 @@ export async function run(args: readonly string[], options: ReportOptions, io: C
   const progress = progressLine(io, 'drawing the date and hour map');
   let charts;
   try {
-    charts = {
-      map: drawChart('map', scene, answer, progress.onProgress, 'hc-map'),
-      sky: drawChart('sky', scene, answer, undefined, 'hc-sky'),
-      residuals: drawChart('residuals', scene, answer, undefined, 'hc-residuals'),
-    };
+    charts = drawReportCharts(scene, answer, progress.onProgress);
   } finally {
     progress.finish();
   }

@@ -1,14 +1,14 @@
 /**
  * The date solver in a Web Worker, so that the page stays responsive: the same calls as
  * `heliochron date`, `chart` and `check` (sceneFromData, solveDates, renderDateText,
- * drawChart, checkProposal, renderCheckText), on the desk's document.
+ * drawReportCharts, checkProposal, renderCheckText), on the desk's document.
  */
 import { readSceneText, sceneFromData } from '../scene/readScene.js';
 import { REPORT_SOLVE_OPTIONS, renderHtmlReport } from '../report/html.js';
 import { reportCommandLine } from '../cli/reportCommandLine.js';
 import { solveDates } from '../solver/solveDates.js';
 import { renderCheckText, renderDateText } from '../report/text.js';
-import { drawChart } from '../cli/drawChart.js';
+import { drawReportCharts } from '../cli/drawChart.js';
 import { checkProposal } from '../solver/checkDate.js';
 import { proposalFromOptions } from '../cli/proposalOptions.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
@@ -22,11 +22,7 @@ function reply(message: WorkerReply): void {
 function reportHtml(sceneText: string, sceneName: string, sha256: string, output: string): string {
   const scene = readSceneText(sceneText, sceneName);
   const answer = solveDates(scene, REPORT_SOLVE_OPTIONS);
-  const charts = {
-    map: drawChart('map', scene, answer, undefined, 'hc-map'),
-    sky: drawChart('sky', scene, answer, undefined, 'hc-sky'),
-    residuals: drawChart('residuals', scene, answer, undefined, 'hc-residuals'),
-  };
+  const charts = drawReportCharts(scene, answer);
   return renderHtmlReport({
     scene,
     answer,
@@ -78,13 +74,12 @@ function handle(request: WorkerRequest): void {
       const measured = resolvePixelObservations(scene).scene;
       reply({ id, kind: 'progress', stage: 'drawing the date and hour map', fraction: 0 });
       let last = 0;
-      const map = drawChart('map', measured, answer, (done, total) => {
+      charts = drawReportCharts(measured, answer, (done, total) => {
         if (done - last >= total / 20 || done === total) {
           last = done;
           reply({ id, kind: 'progress', stage: 'drawing the date and hour map', fraction: done / total });
         }
-      }, 'hc-map');
-      charts = { map, sky: drawChart('sky', measured, answer, undefined, 'hc-sky'), residuals: drawChart('residuals', measured, answer, undefined, 'hc-residuals') };
+      });
     }
     reply({ id, kind: 'date', answer, text, charts, solveMs });
   } catch (error) {

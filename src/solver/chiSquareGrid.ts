@@ -13,8 +13,10 @@
  */
 import type { ClockKind } from '../scene/types.js';
 import type { Candidate } from './types.js';
-import { longitudeOf, splitChiSquare, type EvidenceModel } from './evidenceModel.js';
-import { datedPoint, ensureTrack, newDatedContext } from './fitting.js';
+import { evidenceResiduals, type ShadowEvidence } from '../geometry/observationModels.js';
+import { factResidual, longitudeOf, splitChiSquare, termEvidence, wallAzimuthOf, type EvaluationContext, type EvidenceModel } from './evidenceModel.js';
+import { datedPoint, datedSun, ensureTrack, newDatedContext, type DatedContext } from './fitting.js';
+import type { SunTrack } from './sunModel.js';
 
 export interface DayMinuteGridSpec {
   /** Julian Days of local 0h of each civil day, ascending (x of the grid). */
@@ -27,6 +29,11 @@ export interface DayMinuteGridSpec {
   readonly nuisances: readonly number[];
   /** Called after each day column: (columns done, columns in all). */
   readonly onProgress?: (done: number, total: number) => void;
+  /**
+   * Points whose chi-square + penalty certainly exceeds this are not finished: their value is
+   * +Infinity and they are listed in `unfinished` (absent: every point is computed).
+   */
+  readonly ceiling?: number;
 }
 
 export interface DayMinuteGrid {
@@ -34,8 +41,13 @@ export interface DayMinuteGrid {
   readonly minutes: readonly number[];
   /** chi-square + soft penalty at (minutes[j], dayJd0s[i]): values[j][i]. */
   readonly values: readonly (readonly number[])[];
+  /** The smallest finished value. */
   readonly minimum: number;
   readonly evaluations: number;
+  /** Points left above the spec's ceiling, as [j, i] (minutes index, day index); empty without a ceiling. */
+  readonly unfinished: readonly (readonly [number, number])[];
+  /** The sun track each day column was evaluated with (finishing a point reuses it). */
+  readonly tracks: readonly SunTrack[];
 }
 
 /**
@@ -44,24 +56,104 @@ export interface DayMinuteGrid {
  */
 export function chiSquareOnDayMinuteGrid(model: EvidenceModel, spec: DayMinuteGridSpec): DayMinuteGrid {
   const values: number[][] = spec.minutes.map(() => new Array<number>(spec.dayJd0s.length).fill(NaN));
+  const unfinished: [number, number][] = [];
+  const tracks: SunTrack[] = [];
   let minimum = Infinity;
   let evaluations = 0;
-  if (spec.dayJd0s.length === 0) return { dayJd0s: [], minutes: spec.minutes, values, minimum, evaluations };
+  if (spec.dayJd0s.length === 0) return { dayJd0s: [], minutes: spec.minutes, values, minimum, evaluations, unfinished, tracks };
   const lon = longitudeOf(model, spec.nuisances);
   const context = newDatedContext(model, spec.assumedClock, spec.dayJd0s[0] + 0.5 - lon / 360);
+  const ceiling = spec.ceiling;
+  const shadows = shadowTermsAt(model, spec.nuisances);
   spec.dayJd0s.forEach((dayJd0, i) => {
     ensureTrack(context, dayJd0 + 0.5 - lon / 360);
+    tracks.push(context.track);
     spec.minutes.forEach((m, j) => {
-      const p = datedPoint(context, dayJd0, m, spec.nuisances);
-      const s = splitChiSquare(model, p.residuals);
-      const v = s.chiSquare + s.penalty;
+      evaluations += 1;
+      if (ceiling !== undefined && exceedsCeiling(context, shadows, dayJd0, m, spec.nuisances, ceiling)) {
+        values[j][i] = Infinity;
+        unfinished.push([j, i]);
+        return;
+      }
+      const v = valueAt(context, dayJd0, m, spec.nuisances);
       values[j][i] = v;
       if (v < minimum) minimum = v;
-      evaluations += 1;
     });
     spec.onProgress?.(i + 1, spec.dayJd0s.length);
   });
-  return { dayJd0s: spec.dayJd0s, minutes: spec.minutes, values, minimum, evaluations };
+  return { dayJd0s: spec.dayJd0s, minutes: spec.minutes, values, minimum, evaluations, unfinished, tracks };
+}
+
+/** chi-square + soft penalty of the dated model at one point. */
+function valueAt(context: DatedContext, dayJd0: number, minutes: number, nuisances: readonly number[]): number {
+  const s = splitChiSquare(context.model, datedPoint(context, dayJd0, minutes, nuisances).residuals);
+  return s.chiSquare + s.penalty;
+}
+
+/**
+ * True when the point's chi-square + penalty is certainly above the ceiling, judged from a part
+ * of its residual rows summed in the order splitChiSquare sums them: first the soft penalties of
+ * the facts (cheap; large wherever the sun is down or a wall whose shadow is measured is in
+ * shade), then the shadows' rows, which open the measured chi-square.
+ */
+function exceedsCeiling(context: DatedContext, shadows: readonly ShadowTermAt[], dayJd0: number, minutes: number, nuisances: readonly number[], ceiling: number): boolean {
+  const model = context.model;
+  const { state, sun } = datedSun(context, dayJd0, minutes, nuisances);
+  const ctx: EvaluationContext = {
+    sun,
+    nuisances,
+    apparentMinutes: minutes,
+    equationOfTimeMinutes: state.equationOfTimeMinutes,
+    assumedClock: context.assumed,
+    zoneOffsetMinutes: context.zoneOffset,
+  };
+  let penalty = 0;
+  for (const f of model.facts) {
+    const r = factResidual(model, f, ctx);
+    penalty += r * r;
+    if (penalty > ceiling) return true;
+  }
+  let sum = 0;
+  for (const t of shadows) {
+    const r = evidenceResiduals(t.evidence, sun, t.wallAzimuthDeg).residuals;
+    for (const v of r) sum += v * v;
+    if (sum > ceiling) return true;
+  }
+  return false;
+}
+
+/** A shadow term's evidence and wall azimuth at fixed nuisances, as evidenceResidualVector takes them. */
+interface ShadowTermAt {
+  readonly evidence: ShadowEvidence;
+  readonly wallAzimuthDeg: number;
+}
+
+function shadowTermsAt(model: EvidenceModel, nuisances: readonly number[]): ShadowTermAt[] {
+  return model.shadows.map((t) => ({ evidence: termEvidence(model, t, nuisances), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, nuisances) }));
+}
+
+/**
+ * The grid with the listed unfinished points computed exactly, each on the sun track its day column
+ * was evaluated with, so that the values are those a grid without a ceiling gives.
+ */
+export function finishDayMinuteCells(model: EvidenceModel, spec: DayMinuteGridSpec, grid: DayMinuteGrid, cells: readonly (readonly [number, number])[]): DayMinuteGrid {
+  if (cells.length === 0) return grid;
+  const values = grid.values.map((row) => row.slice());
+  const done = new Set<number>();
+  let minimum = grid.minimum;
+  let context: DatedContext | undefined;
+  for (const [j, i] of [...cells].sort((a, b) => a[1] - b[1] || a[0] - b[0])) {
+    const key = j * spec.dayJd0s.length + i;
+    if (done.has(key) || values[j][i] !== Infinity) continue;
+    done.add(key);
+    const track = grid.tracks[i];
+    if (context === undefined || context.track !== track) context = newDatedContext(model, spec.assumedClock, track.anchorJdUT, true, track);
+    const v = valueAt(context, spec.dayJd0s[i], spec.minutes[j], spec.nuisances);
+    values[j][i] = v;
+    if (v < minimum) minimum = v;
+  }
+  const unfinished = grid.unfinished.filter(([j, i]) => values[j][i] === Infinity && !done.has(j * spec.dayJd0s.length + i));
+  return { ...grid, values, minimum, unfinished };
 }
 
 /** Nuisance values of a candidate in the order of model.nuisances (the prior where the candidate has none). */

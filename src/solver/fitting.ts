@@ -136,10 +136,11 @@ export function hasMoonEvidence(model: EvidenceModel): boolean {
   return model.moons.length > 0 || model.moonFacts.length > 0 || model.shadows.some((t) => t.light === 'moon') || model.facts.some((f) => f.light === 'moon');
 }
 
-export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null, anchorJdUT: number, moonRows = true): DatedContext {
+/** A dated context with its track at anchorJdUT (`track`: one already made there, reused). */
+export function newDatedContext(model: EvidenceModel, assumed: ClockKind | null, anchorJdUT: number, moonRows = true, track?: SunTrack): DatedContext {
   const site = siteOf(model);
   return {
-    model, assumed, site, track: makeSunTrack(anchorJdUT, site, model.scene.deltaT), zoneOffset: zoneOffsetsAt(model, assumed, anchorJdUT), ephemerisCalls: 3,
+    model, assumed, site, track: track ?? makeSunTrack(anchorJdUT, site, model.scene.deltaT), zoneOffset: zoneOffsetsAt(model, assumed, anchorJdUT), ephemerisCalls: 3,
     moonRows: moonRows && hasMoonEvidence(model), moonCalls: 0,
   };
 }
@@ -198,14 +199,19 @@ export function ensureTrack(c: DatedContext, jdUT: number, reach = TRACK_REACH_D
   c.ephemerisCalls += 3;
 }
 
+/** The instant, solar state and sun direction of the dated model at (d, m, nuisances) with the current track (no residuals). */
+export function datedSun(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[]): { jdUT: number; state: SolarState; sun: SolverSunDirection } {
+  const { jdUT, state } = instantOfApparentTime(c.track, dayJd0, apparentMinutes, longitudeOf(c.model, nuisances));
+  const sun = sunFromDeclinationHourAngle(state.declinationDeg, (apparentMinutes - 720) / 4, latitudeOf(c.model, nuisances), c.model.scene.air);
+  return { jdUT, state, sun };
+}
+
 /**
  * Evaluate the dated model at (d, m, nuisances) with the current track; the moon's rows when the
  * context evaluates them and `withMoon` is not false (the continuous fit passes false).
  */
 export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[], withMoon = true): DatedPoint {
-  const lon = longitudeOf(c.model, nuisances);
-  const { jdUT, state } = instantOfApparentTime(c.track, dayJd0, apparentMinutes, lon);
-  const sun = sunFromDeclinationHourAngle(state.declinationDeg, (apparentMinutes - 720) / 4, latitudeOf(c.model, nuisances), c.model.scene.air);
+  const { jdUT, state, sun } = datedSun(c, dayJd0, apparentMinutes, nuisances);
   let moon: MoonPosition | undefined;
   if (withMoon && c.moonRows) moon = moonBetweenDays(c, dayJd0, apparentMinutes, nuisances, jdUT);
   const ctx: EvaluationContext = {

@@ -5,7 +5,7 @@ import type { Scene } from '../../src/scene/types.js';
 import type { DateAnswer } from '../../src/solver/types.js';
 import { solveDates } from '../../src/solver/solveDates.js';
 import { buildEvidenceModel } from '../../src/solver/evidenceModel.js';
-import { chiSquareOnDayMinuteGrid, nuisancesOfCandidate, assumedClockOfCandidate } from '../../src/solver/chiSquareGrid.js';
+import { chiSquareOnDayMinuteGrid, finishDayMinuteCells, nuisancesOfCandidate, assumedClockOfCandidate } from '../../src/solver/chiSquareGrid.js';
 import { civilDateToJd } from '../../src/calendar/regions.js';
 import { evidenceResiduals } from '../../src/geometry/observationModels.js';
 import { wallAzimuthOf } from '../../src/solver/evidenceModel.js';
@@ -70,6 +70,41 @@ describe('chi-square on a (day, minute) grid', () => {
     const calls: [number, number][] = [];
     chiSquareOnDayMinuteGrid(model, { dayJd0s: [2372000.5, 2372001.5, 2372002.5], minutes: [480, 490], assumedClock: null, nuisances: nuisancesOfCandidate(model, undefined), onProgress: (d, t) => calls.push([d, t]) });
     expect(calls).toEqual([[1, 3], [2, 3], [3, 3]]);
+  });
+  it('with a ceiling, leaves exactly the points above it unfinished, and finishing them gives the values of the grid without one', () => {
+    const best = answer.families[0].best;
+    const model = buildEvidenceModel(scene);
+    const day0 = civilDateToJd(scene.calendar, best.civilDate);
+    // 40 days around the best day (several sun tracks), from before sunrise to after sunset
+    const spec = {
+      dayJd0s: Array.from({ length: 40 }, (_, i) => day0 - 20 + i),
+      minutes: Array.from({ length: 50 }, (_, j) => 240 + 20 * j),
+      assumedClock: assumedClockOfCandidate(best),
+      nuisances: nuisancesOfCandidate(model, best),
+    };
+    const full = chiSquareOnDayMinuteGrid(model, spec);
+    const ceiling = best.chiSquare + best.softPenalty + 28.744; // the palest band of the map (palette.ts)
+    const capped = chiSquareOnDayMinuteGrid(model, { ...spec, ceiling });
+    let above = 0;
+    let below = 0;
+    full.values.forEach((row, j) =>
+      row.forEach((v, i) => {
+        if (capped.values[j][i] === Infinity) {
+          above += 1;
+          expect(v).toBeGreaterThan(ceiling);
+        } else {
+          below += 1;
+          expect(capped.values[j][i]).toBe(v); // the same number, to the last bit
+        }
+      }),
+    );
+    expect(above).toBe(capped.unfinished.length);
+    expect(above).toBeGreaterThan(100); // the night and the shaded wall: most of the grid
+    expect(below).toBeGreaterThan(0);
+    expect(capped.minimum).toBe(full.minimum);
+    const finished = finishDayMinuteCells(model, { ...spec, ceiling }, capped, capped.unfinished);
+    expect(finished.values).toEqual(full.values);
+    expect(finished.unfinished).toEqual([]);
   });
 });
 

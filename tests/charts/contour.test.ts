@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { cellRuns, isolineSegments } from '../../src/charts/contour.js';
+import { cellRuns, cellRunsByClass, isolineSegments } from '../../src/charts/contour.js';
 import { ellipsePoints, semiAxisVectors } from '../../src/charts/ellipse.js';
 import { expectClose } from '../helpers/expectClose.js';
 
@@ -31,6 +31,15 @@ describe('isolineSegments (marching squares)', () => {
       expect(isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[5, 5], [5, 5]] }, 1)).toEqual([]);
       expect(isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[0, NaN], [2, 2]] }, 1)).toEqual([]);
     });
+    it('draws the same segments through a row of values above the level whether they are large or +Infinity', () => {
+      // Rows that never reach the level are passed over whole; next to a row that does, their cells still count.
+      const xs = [0, 1, 2];
+      const ys = [0, 1, 2];
+      const finite = isolineSegments({ xs, ys, values: [[9, 9, 9], [0, 9, 9], [9, 9, 9]] }, 1);
+      expect(finite.length).toBe(2);
+      expect(isolineSegments({ xs, ys, values: [[Infinity, Infinity, Infinity], [0, 9, 9], [9, 9, 9]] }, 1)).toEqual(finite.slice(1));
+      expect(isolineSegments({ xs, ys, values: [[9, 9, 9], [9, 9, 9], [9, 9, 9]] }, 1)).toEqual([]);
+    });
     it('resolves a saddle cell into two segments', () => {
       expect(isolineSegments({ xs: [0, 1], ys: [0, 1], values: [[2, 0], [0, 2]] }, 1).length).toBe(2);
     });
@@ -49,6 +58,25 @@ describe('cellRuns', () => {
       { j: 0, i0: 3, i1: 4 },
       { j: 2, i0: 0, i1: 4 },
     ]);
+  });
+});
+
+describe('cellRunsByClass', () => {
+  it('gives for every class the runs cellRuns gives for that class alone', () => {
+    const classes = [
+      [0, 0, 1, -1, 1],
+      [-1, -1, -1, -1, -1],
+      [2, 2, 0, 0, 1],
+    ];
+    const byClass = cellRunsByClass(3, 5, (j, i) => classes[j][i]);
+    for (const k of [0, 1, 2]) expect(byClass[k]).toEqual(cellRuns(3, 5, (j, i) => classes[j][i] === k));
+    expect(byClass[0]).toEqual([{ j: 0, i0: 0, i1: 2 }, { j: 2, i0: 2, i1: 4 }]);
+  });
+  it('passes over the rows said to hold no class without reading them', () => {
+    const read: number[] = [];
+    const runs = cellRunsByClass(3, 2, (j) => (read.push(j), 0), (j) => j === 1);
+    expect(read).not.toContain(1);
+    expect(runs[0]).toEqual([{ j: 0, i0: 0, i1: 2 }, { j: 2, i0: 0, i1: 2 }]);
   });
 });
 
