@@ -24,7 +24,8 @@ import { moonPosition } from '../ephemeris/moonPosition.js';
 import { litSideWords, moonPhaseWords } from '../ephemeris/moonLook.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
-import { buildEvidenceModel, termEvidence, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
+import { WALL_SHADOW_KINDS, buildEvidenceModel, termEvidence, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
+import { isWallSunlit } from '../geometry/shadowAngles.js';
 import { nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
 import { ellipsePoints, semiAxisVectors } from './ellipse.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
@@ -231,10 +232,15 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   const bands: SkyBand[] = model.shadows.map((term) => {
     const wallAz = wallAzimuthOf(model, term.wallId, nuisances);
     const evidence = termEvidence(model, term, nuisances);
+    // A wall's shadow is defined only while its wall is sunlit (src/geometry/wallShadows.ts): elsewhere
+    // the band's value is known without the residual.
+    const onLitWallOnly = WALL_SHADOW_KINDS.has(evidence.kind);
     const values = altitudes.map((alt) =>
       azimuths.map((az) => {
         evaluations += 1;
-        const r = evidenceResiduals(evidence, { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt }, wallAz);
+        const sun = { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt };
+        if (onLitWallOnly && !isWallSunlit(sun, wallAz)) return 99;
+        const r = evidenceResiduals(evidence, sun, wallAz);
         if (!r.defined) return 99; // the shadow cannot arise there (wall in shade): far outside the band
         return r.residuals.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
       }),

@@ -8,7 +8,8 @@ import { buildEvidenceModel } from '../../src/solver/evidenceModel.js';
 import { chiSquareOnDayMinuteGrid, finishDayMinuteCells, nuisancesOfCandidate, assumedClockOfCandidate } from '../../src/solver/chiSquareGrid.js';
 import { civilDateToJd } from '../../src/calendar/regions.js';
 import { evidenceResiduals } from '../../src/geometry/observationModels.js';
-import { wallAzimuthOf } from '../../src/solver/evidenceModel.js';
+import { WALL_SHADOW_KINDS, wallAzimuthOf } from '../../src/solver/evidenceModel.js';
+import { isWallSunlit } from '../../src/geometry/shadowAngles.js';
 import { dateHourMapData, daylightMinuteRange } from '../../src/charts/dateHourMapData.js';
 import { skyChartData } from '../../src/charts/skyChartData.js';
 import { residualChartData, renderResidualChart } from '../../src/charts/residualChart.js';
@@ -161,6 +162,25 @@ describe('date-and-hour map data', () => {
 });
 
 describe('sky chart data', () => {
+  it("finds every wall shadow kind undefined wherever its wall is in shade, as the bands take it without the residual", () => {
+    // The bands set 99 at once where the wall is in shade (|HSA| >= 90 or the sun down; common practice, shadowAngles.ts).
+    const kinds = [
+      { kind: 'rod-shadow', slopeDeg: 40, side: 'right', sigmaDeg: 2 },
+      { kind: 'overhang-shadow', depthRatio: 0.8, sigma: 0.05 },
+      { kind: 'fin-shadow', widthRatio: 0.6, side: 'left', sigma: 0.05 },
+    ] as const;
+    expect(kinds.map((k) => k.kind).every((k) => WALL_SHADOW_KINDS.has(k))).toBe(true);
+    let shaded = 0;
+    for (let az = 0; az < 360; az += 7.5) {
+      for (let alt = -10; alt <= 85; alt += 5) {
+        const sun = { azimuthDeg: az, altitudeDeg: alt };
+        if (isWallSunlit(sun, 160)) continue;
+        shaded += 1;
+        for (const e of kinds) expect(evidenceResiduals(e, sun, 160).defined).toBe(false);
+      }
+    }
+    expect(shaded).toBeGreaterThan(500);
+  });
   it('puts the noon mark of local apparent time on the meridian (azimuth 180)', () => {
     // Local apparent noon is the meridian transit, hour angle 0 (definition of apparent solar time;
     // Explanatory Supplement to the Astronomical Almanac 1992, sec. 2.24).
