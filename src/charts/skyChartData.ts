@@ -20,6 +20,9 @@ import { civilDateToJd, resolveCalendarRule } from '../calendar/regions.js';
 import { formatYearBcAd } from '../calendar/format.js';
 import { normalizeDeg180, normalizeDeg360 } from '../math/angles.js';
 import { sunPosition, type SunSite } from '../ephemeris/sunPosition.js';
+import { fastSunPosition } from '../ephemeris/fastSun.js';
+import { deltaTSeconds } from '../time/deltaT.js';
+import { jdToDecimalYear } from '../time/timeScales.js';
 import { moonPosition } from '../ephemeris/moonPosition.js';
 import { litSideWords, moonPhaseWords } from '../ephemeris/moonLook.js';
 import { evidenceResiduals } from '../geometry/observationModels.js';
@@ -119,6 +122,22 @@ function instantOfApparentMinute(dayJd0: number, minutes: number, site: SunSite)
   return guess - e / 1440;
 }
 
+/**
+ * Geometric altitude of the fast sun (src/ephemeris/fastSun.ts) at a minute's first guess below
+ * which the sun of the full model is certainly below the -1 deg where a path is cut, at the
+ * apparent minute: the fast sun errs by 0.012 deg (years 1000-2100, more outside but far below
+ * a degree), the guess lies less than 30 minutes from the instant (the equation of time stays
+ * within about 20 minutes over the millennia), in which the altitude changes by at most
+ * 0.25 deg a minute (15 deg an hour), 7.5 deg; below -0.83 deg there is no refraction (refraction.ts).
+ */
+const SURELY_BELOW_PATH_DEG = -10;
+
+/** True when the sun at minute m of the day is certainly below the path's cut, judged by the fast sun (no full ephemeris call). */
+function surelyBelowPath(dayJd0: number, minutes: number, site: SunSite, deltaTSecondsNow: number): boolean {
+  const guess = dayJd0 + minutes / 1440 - site.longitudeDeg / 360;
+  return fastSunPosition(guess, site, deltaTSecondsNow, 'none').geometricAltitudeDeg < SURELY_BELOW_PATH_DEG;
+}
+
 function pathOfDay(mark: MarkedCandidate, scene: Scene, centre: number): SkyPath {
   const c = mark.candidate;
   const rule = resolveCalendarRule(scene.calendar);
@@ -126,7 +145,9 @@ function pathOfDay(mark: MarkedCandidate, scene: Scene, centre: number): SkyPath
   const site: SunSite = { latitudeDeg: scene.site.latitudeDeg, longitudeDeg: scene.site.longitudeDeg, elevationM: scene.site.elevationM };
   const points: [number, number][] = [];
   const hourMarks: { azimuthDeg: number; altitudeDeg: number; label: string }[] = [];
+  const deltaT = deltaTSeconds(jdToDecimalYear(dayJd0)); // the default model, as sunPosition below takes it
   for (let m = 0; m <= 1440; m += 10) {
+    if (surelyBelowPath(dayJd0, m, site, deltaT)) continue;
     const p = sunPosition(instantOfApparentMinute(dayJd0, m, site), site, scene.air);
     if (p.altitudeDeg < -1) continue;
     points.push([unwrapAzimuth(p.azimuthDeg, centre), p.altitudeDeg]);

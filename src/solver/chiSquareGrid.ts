@@ -30,8 +30,9 @@ export interface DayMinuteGridSpec {
   /** Called after each day column: (columns done, columns in all). */
   readonly onProgress?: (done: number, total: number) => void;
   /**
-   * Points whose chi-square + penalty certainly exceeds this are not finished: their value is
-   * +Infinity and they are listed in `unfinished` (absent: every point is computed).
+   * Points whose chi-square + penalty certainly exceeds this may be left unfinished: their value
+   * is +Infinity and they are listed in `unfinished` (absent: every point is computed). Every
+   * point at or under the ceiling is computed.
    */
   readonly ceiling?: number;
 }
@@ -68,9 +69,11 @@ export function chiSquareOnDayMinuteGrid(model: EvidenceModel, spec: DayMinuteGr
   spec.dayJd0s.forEach((dayJd0, i) => {
     ensureTrack(context, dayJd0 + 0.5 - lon / 360);
     tracks.push(context.track);
+    let belowBefore = false; // the point below in the column was at or under the ceiling
     spec.minutes.forEach((m, j) => {
       evaluations += 1;
-      if (ceiling !== undefined && exceedsCeiling(context, shadows, dayJd0, m, spec.nuisances, ceiling)) {
+      // Next to a point under the ceiling the test would most likely fail and its work be done twice: skipped there.
+      if (ceiling !== undefined && !belowBefore && exceedsCeiling(context, shadows, dayJd0, m, spec.nuisances, ceiling)) {
         values[j][i] = Infinity;
         unfinished.push([j, i]);
         return;
@@ -78,6 +81,7 @@ export function chiSquareOnDayMinuteGrid(model: EvidenceModel, spec: DayMinuteGr
       const v = valueAt(context, dayJd0, m, spec.nuisances);
       values[j][i] = v;
       if (v < minimum) minimum = v;
+      belowBefore = ceiling !== undefined && v <= ceiling;
     });
     spec.onProgress?.(i + 1, spec.dayJd0s.length);
   });

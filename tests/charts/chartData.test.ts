@@ -72,7 +72,7 @@ describe('chi-square on a (day, minute) grid', () => {
     chiSquareOnDayMinuteGrid(model, { dayJd0s: [2372000.5, 2372001.5, 2372002.5], minutes: [480, 490], assumedClock: null, nuisances: nuisancesOfCandidate(model, undefined), onProgress: (d, t) => calls.push([d, t]) });
     expect(calls).toEqual([[1, 3], [2, 3], [3, 3]]);
   });
-  it('with a ceiling, leaves exactly the points above it unfinished, and finishing them gives the values of the grid without one', () => {
+  it('with a ceiling, leaves only points above it unfinished, and finishing them gives the values of the grid without one', () => {
     const best = answer.families[0].best;
     const model = buildEvidenceModel(scene);
     const day0 = civilDateToJd(scene.calendar, best.civilDate);
