@@ -109,5 +109,6 @@ const beyond = (how) => cpuOf(`report (example) (${how})`) - cpuOf(`date (exampl
 console.log(
   `report beyond date, CPU: ${beyond('bin').toFixed(1)} ms (bin), ${beyond('tsc modules').toFixed(1)} ms (tsc modules)` +
     (before === null ? '' : `, ${beyond('before').toFixed(1)} ms (before)`) +
+    (hasBeforeBin ? `, ${beyond('before, bin').toFixed(1)} ms (before, bin)` : '') +
     `; the report target (<= 4x) leaves ${(4 * baseCpu - cpuOf('date (example) (bin)')).toFixed(1)} ms beyond date (bin)`,
 );
