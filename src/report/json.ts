@@ -231,6 +231,7 @@ export function candidateJson(c: Candidate, scene: Scene, familyId?: string) {
       present(
         {
           name: n.name,
+          unit: n.unit,
           priorDeg: roundTo(n.priorDeg, DIGITS.angleDeg),
           priorSigmaDeg: roundTo(n.priorSigmaDeg, DIGITS.angleDeg),
           fittedDeg: roundTo(n.fittedDeg, DIGITS.angleDeg),
@@ -361,6 +362,7 @@ const UNITS = {
   jd: 'Julian Day, UT',
   angles: 'degrees; azimuth clockwise from true north, altitude refracted',
   times: 'hh:mm, rounded to the minute; *Minutes fields in minutes after local midnight',
+  nuisances: 'in the unit of each entry: "deg" for a wall azimuth and the site latitude and longitude; "camera sigma" for a component of the camera\'s shared error (its *Deg fields are then in sigmas of that error, not degrees)',
 };
 
 /** The `date` answer as one plain object (stringify with stableJson). */

@@ -243,9 +243,10 @@ export function renderDateText(answer: DateAnswer, scene: Scene, options: DateTe
     if (best.residuals.length > 0) out.push(...residualTable(best.residuals).map((l) => `  ${l}`));
     for (const fact of best.facts) out.push(`  ${fact.satisfied ? 'holds' : 'FAILS'}: ${fact.observationId} - ${fact.note}`);
     if (best.nuisances.length > 0) {
-      const camera = best.nuisances.filter((n) => n.name.startsWith('camera:'));
+      // the camera's components are in sigmas of its error, not degrees (their unit says so)
+      const camera = best.nuisances.filter((n) => n.unit === 'camera sigma');
       for (const n of best.nuisances) {
-        if (!n.name.startsWith('camera:')) out.push(`  fitted ${n.name}: ${n.fittedDeg.toFixed(1)} deg (stated ${n.priorDeg.toFixed(1)} +/- ${n.priorSigmaDeg.toFixed(1)})`);
+        if (n.unit === 'deg') out.push(`  fitted ${n.name}: ${n.fittedDeg.toFixed(1)} deg (stated ${n.priorDeg.toFixed(1)} +/- ${n.priorSigmaDeg.toFixed(1)})`);
       }
       if (camera.length > 0) {
         const far = camera.some((n) => Math.abs(n.fittedDeg) > 3);

@@ -157,6 +157,7 @@ export function dressCandidate(raw: RawCandidate, id: string, rank: number, rela
   const cov = raw.rep.covariance;
   const nuisances: NuisanceEntry[] = model.nuisances.map((n, k) => ({
     name: n.name,
+    unit: n.kind === 'camera' ? 'camera sigma' : 'deg',
     priorDeg: n.priorDeg,
     priorSigmaDeg: n.sigmaDeg,
     fittedDeg: n.kind === 'latitude' ? latitudeOf(model, raw.nuisances) : raw.nuisances[k], // the latitude as used: held to [-90, 90]

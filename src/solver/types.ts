@@ -78,9 +78,21 @@ export interface CandidateTimes {
 }
 
 /** One nuisance parameter (with a Gaussian prior) at the candidate: prior and fitted value. */
+/**
+ * The unit of a nuisance's values: degrees for a wall's azimuth and the site's latitude and
+ * longitude; for a component of the camera's shared error, one sigma of that component
+ * (prior 0, sigma 1), not an angle.
+ */
+export type NuisanceUnit = 'deg' | 'camera sigma';
+
 export interface NuisanceEntry {
-  /** 'wall:<id>:azimuth', 'site:latitude', 'site:longitude'. */
+  /** 'wall:<id>:azimuth', 'site:latitude', 'site:longitude', 'camera:error-<k>'. */
   readonly name: string;
+  /**
+   * The unit of prior, fitted value and sigmas. The field names end in "Deg" for every entry (so that
+   * readers of the JSON keep working); for the camera's components the unit is 'camera sigma'.
+   */
+  readonly unit: NuisanceUnit;
   readonly priorDeg: number;
   readonly priorSigmaDeg: number;
   readonly fittedDeg: number;

@@ -61,7 +61,7 @@ export function candidate(over: Partial<Candidate> & { id: string; rank: number 
       { observationId: 'figure', observationKind: 'pole-shadow', component: 'shadow-azimuth', measured: 67, predicted: 154.36, unit: 'deg', sigma: 3, normalised: -29.12 },
     ],
     facts: [{ observationId: 'sign-bracket', observationKind: 'wall-lit', satisfied: true, penalty: 0, note: 'wall tanners-hall-front is lit (sun 36 deg from its normal)' }],
-    nuisances: [{ name: 'wall:tanners-hall-front:azimuth', priorDeg: 135, priorSigmaDeg: 1, fittedDeg: 135.1, posteriorSigmaDeg: 0.9 }],
+    nuisances: [{ name: 'wall:tanners-hall-front:azimuth', unit: 'deg', priorDeg: 135, priorSigmaDeg: 1, fittedDeg: 135.1, posteriorSigmaDeg: 0.9 }],
     uncertainty: {
       method: 'ellipse',
       ellipseValid: true,
