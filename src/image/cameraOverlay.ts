@@ -4,7 +4,11 @@
  * towards its family's vanishing point (dotted); each object-shadow line extended through its
  * shadow point towards the point where the group's shadow lines meet (the image of the sun, or of
  * the point opposite it), that point marked with its 95% error ellipse (Delta chi-square 5.991
- * for 2 degrees of freedom, NIST/SEMATECH chi-square table), one colour per group.
+ * for 2 degrees of freedom, NIST/SEMATECH chi-square table), one colour per group. A group of a
+ * single pair has no meeting point: its object-shadow line is drawn extended the same way, across
+ * the picture. A shadow wedge is drawn as the two lines from its shadow point through its edge
+ * points, extended across the picture, lightly filled between them (the object point lies in that
+ * angle) and labelled with its id; it takes the colour of its group's pairs when they have one.
  *
  * Colours (the Okabe-Ito set, Okabe and Ito 2008, Fig. 16): vanishing lines bluish green
  * #009E73; groups blue #0072B2, vermillion #D55E00, reddish purple #CC79A7, orange #E69F00, sky
@@ -42,6 +46,34 @@ function extend(a: Point2, b: Point2, image: ImageInfo): Point2 {
 
 function line(a: Point2, b: Point2, attrs: string): string {
   return `<line x1="${r1(a[0])}" y1="${r1(a[1])}" x2="${r1(b[0])}" y2="${r1(b[1])}" ${attrs}/>`;
+}
+
+function escapeXml(text: string): string {
+  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
+}
+
+/** A group's name in the key: `group "x"`, or the pairs without one. */
+const groupWords = (group: string, none: string): string => (group ? `group "${group}"` : none);
+
+/**
+ * A shadow wedge in picture pixels: the clicked lines from the shadow point to each edge point, their
+ * extensions across the picture, the light fill between them and the label. Points as clicked.
+ */
+function wedgeElements(id: string, shadowPx: Point2, edgesPx: readonly [Point2, Point2], colour: string, image: ImageInfo): string[] {
+  const far = edgesPx.map((e) => extend(shadowPx, e, image));
+  const out = [
+    `<path d="M${r1(shadowPx[0])} ${r1(shadowPx[1])} L${r1(far[0][0])} ${r1(far[0][1])} L${r1(far[1][0])} ${r1(far[1][1])} Z" fill="${colour}" fill-opacity="0.15" stroke="none"/>`,
+  ];
+  edgesPx.forEach((e, k) => {
+    out.push(line(shadowPx, e, `stroke="${colour}" stroke-width="2.5"`));
+    out.push(line(e, far[k], `stroke="${colour}" stroke-width="1.2" stroke-dasharray="10 6"`));
+  });
+  out.push(`<circle cx="${r1(shadowPx[0])}" cy="${r1(shadowPx[1])}" r="5" fill="${colour}"/>`);
+  out.push(
+    `<text x="${r1(shadowPx[0] + 8)}" y="${r1(shadowPx[1] + 18)}" font-family="sans-serif" font-size="14" fill="${colour}" ` +
+      `stroke="#ffffff" stroke-width="3" paint-order="stroke">${escapeXml(id)}</text>`,
+  );
+  return out;
 }
 
 /** The 95% ellipse of a point with covariance (px^2), as an SVG ellipse element. */
@@ -102,5 +134,41 @@ export function cameraOverlayElements(s: SceneSun, image: ImageInfo): { svg: str
       colour, dash: ' stroke-dasharray="10 6"',
     });
   });
+  // groups of one pair and shadow wedges: a wedge takes the colour of its group's pairs, other groups the next colours
+  const colours = new Map(s.groups.map((g, k) => [g.group, GROUP_COLOURS[k % GROUP_COLOURS.length]] as const));
+  const colourOf = (group: string): string => {
+    if (!colours.has(group)) colours.set(group, GROUP_COLOURS[colours.size % GROUP_COLOURS.length]);
+    return colours.get(group)!;
+  };
+  for (const single of s.singlePairs) {
+    const pair = s.pairsByField.get(single.field);
+    if (!pair) continue;
+    const colour = colourOf(single.group);
+    const [o, sh] = pair;
+    out.push(`<g class="single-pair" data-id="${escapeXml(single.id)}">`);
+    out.push(line(pic(o), pic(sh), `stroke="${colour}" stroke-width="3"`));
+    out.push(line(pic(sh), pic(extend(o, sh, image)), `stroke="${colour}" stroke-width="1.2" stroke-dasharray="10 6"`));
+    out.push(`<circle cx="${r1(pic(o)[0])}" cy="${r1(pic(o)[1])}" r="5" fill="${colour}"/>`);
+    out.push('</g>');
+    key.push({
+      text: `${groupWords(single.group, 'a pair without a group')}, one pair (${single.id}): object to shadow, dashed on across the picture (one pair meets no other)`,
+      colour, dash: ' stroke-dasharray="10 6"',
+    });
+  }
+  const wedgesByColour = new Map<string, string[]>();
+  for (const o of s.observations) {
+    if (o.kind !== 'shadow-wedge') continue;
+    const colour = colourOf(o.group ?? '');
+    out.push(`<g class="shadow-wedge" data-id="${escapeXml(o.id)}">`);
+    out.push(...wedgeElements(o.id, o.shadowPx, o.edgesPx, colour, image));
+    out.push('</g>');
+    wedgesByColour.set(colour, [...(wedgesByColour.get(colour) ?? []), o.id]);
+  }
+  for (const [colour, ids] of wedgesByColour) {
+    key.push({
+      text: `shadow wedge${ids.length > 1 ? 's' : ''} ${ids.join(', ')}: from the shadow point through the sides of the wedge that holds the casting point (shaded)`,
+      colour, dash: '',
+    });
+  }
   return { svg: out.join('\n'), key };
 }
