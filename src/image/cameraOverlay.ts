@@ -52,6 +52,9 @@ function escapeXml(text: string): string {
   return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 }
 
+/** Id of the clip path of the picture's area, written once before the first wedge. */
+const PICTURE_CLIP = 'heliochron-picture-area';
+
 /** A group's name in the key: `group "x"`, or the pairs without one. */
 const groupWords = (group: string, none: string): string => (group ? `group "${group}"` : none);
 
@@ -62,7 +65,8 @@ const groupWords = (group: string, none: string): string => (group ? `group "${g
 function wedgeElements(id: string, shadowPx: Point2, edgesPx: readonly [Point2, Point2], colour: string, image: ImageInfo): string[] {
   const far = edgesPx.map((e) => extend(shadowPx, e, image));
   const out = [
-    `<path d="M${r1(shadowPx[0])} ${r1(shadowPx[1])} L${r1(far[0][0])} ${r1(far[0][1])} L${r1(far[1][0])} ${r1(far[1][1])} Z" fill="${colour}" fill-opacity="0.15" stroke="none"/>`,
+    // the fill kept to the picture (the desk shows the overlay unclipped, for vanishing points outside it)
+    `<path d="M${r1(shadowPx[0])} ${r1(shadowPx[1])} L${r1(far[0][0])} ${r1(far[0][1])} L${r1(far[1][0])} ${r1(far[1][1])} Z" fill="${colour}" fill-opacity="0.15" stroke="none" clip-path="url(#${PICTURE_CLIP})"/>`,
   ];
   edgesPx.forEach((e, k) => {
     out.push(line(shadowPx, e, `stroke="${colour}" stroke-width="2.5"`));
@@ -158,6 +162,7 @@ export function cameraOverlayElements(s: SceneSun, image: ImageInfo): { svg: str
   const wedgesByColour = new Map<string, string[]>();
   for (const o of s.observations) {
     if (o.kind !== 'shadow-wedge') continue;
+    if (wedgesByColour.size === 0) out.push(`<clipPath id="${PICTURE_CLIP}"><rect x="0" y="0" width="${r1(image.widthPx)}" height="${r1(image.heightPx)}"/></clipPath>`);
     const colour = colourOf(o.group ?? '');
     out.push(`<g class="shadow-wedge" data-id="${escapeXml(o.id)}">`);
     out.push(...wedgeElements(o.id, o.shadowPx, o.edgesPx, colour, image));

@@ -73,6 +73,15 @@ describe('the shadow wedge and the moon on the desk in Chromium', () => {
     await clickPixel(page, WEDGE.edgesPx[1] as [number, number]);
     await page.keyboard.press('Escape');
     await expect.poll(() => page.locator(`li[data-item="observations[${n}]"] h4`).textContent()).toContain('brim: shadow and wedge');
+    // drawn by the library's overlay (src/image/cameraOverlay.ts), as `heliochron measure --overlay` draws it: each side
+    // clicked from the shadow point to its edge point, then dashed on; labelled with its id
+    const wedgeLines = page.locator('#overlay g.shadow-wedge[data-id="brim"] line');
+    await expect.poll(() => wedgeLines.count()).toBe(4);
+    const ends = async (k: number): Promise<number[]> => wedgeLines.nth(k).evaluate((l) => ['x1', 'y1', 'x2', 'y2'].map((a) => Number(l.getAttribute(a))));
+    expect(await ends(0)).toEqual([...WEDGE.shadowPx, ...WEDGE.edgesPx[0]]);
+    expect(await ends(2)).toEqual([...WEDGE.shadowPx, ...WEDGE.edgesPx[1]]);
+    expect(await page.locator('#overlay g.shadow-wedge[data-id="brim"] text').textContent()).toBe('brim');
+    await page.locator('#viewer').screenshot({ path: join(OUT_DIR, 'perspective-wedge-lines.png') });
 
     // the overhang on a wall from the camera: the tip as the third click, no depth in metres
     await page.locator('#viewer').focus();

@@ -127,8 +127,10 @@ describe('groups of one pair and shadow wedges on the overlay', () => {
       expect(Math.hypot(dashed[2] - wedge.shadowPx[0], dashed[3] - wedge.shadowPx[1])).toBeGreaterThan(Math.hypot(e[0] - wedge.shadowPx[0], e[1] - wedge.shadowPx[1]));
     });
     // the fill: a triangle from the shadow point to the two far ends
-    const path = /<path d="([^"]+)" fill="([^"]+)" fill-opacity="0.15"/.exec(body)!;
+    const path = /<path d="([^"]+)" fill="([^"]+)" fill-opacity="0.15" stroke="none" clip-path="url\(#([^)]+)\)"/.exec(body)!;
     expect(numbers(path[1])).toEqual([...wedge.shadowPx, lines[1][2], lines[1][3], lines[3][2], lines[3][3]]);
+    // kept to the picture's area (the desk shows the overlay unclipped)
+    expect(svg).toContain(`<clipPath id="${path[3]}"><rect x="0" y="0" width="${scene.image!.widthPx}" height="${scene.image!.heightPx}"/></clipPath>`);
     expect(body).toMatch(/<text [^>]*>hat-brim<\/text>/);
     // the colour of its group's pairs (the figures)
     const figures = s.groups.findIndex((g) => g.group === 'figures');
