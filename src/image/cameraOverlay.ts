@@ -19,6 +19,7 @@ import type { Point2 } from './homography.js';
 import { toPictureFrame } from './planeInImage.js';
 import type { SceneSun } from './sceneSun.js';
 import { symmetricEigen } from '../math/symmetricEigen.js';
+import { escapeXml } from './overlay.js';
 
 export const PERSPECTIVE_COLOUR = '#009E73';
 export const GROUP_COLOURS = ['#0072B2', '#D55E00', '#CC79A7', '#E69F00', '#56B4E9'] as const;
@@ -48,15 +49,20 @@ function line(a: Point2, b: Point2, attrs: string): string {
   return `<line x1="${r1(a[0])}" y1="${r1(a[1])}" x2="${r1(b[0])}" y2="${r1(b[1])}" ${attrs}/>`;
 }
 
-function escapeXml(text: string): string {
-  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-}
-
 /** Id of the clip path of the picture's area, written once before the first wedge. */
 const PICTURE_CLIP = 'heliochron-picture-area';
 
 /** A group's name in the key: `group "x"`, or the pairs without one. */
 const groupWords = (group: string, none: string): string => (group ? `group "${group}"` : none);
+
+/** An object-shadow pair in picture pixels: object to shadow, dashed on from the shadow to `end`, the object point marked. */
+function pairElements(objectPx: Point2, shadowPx: Point2, end: Point2, colour: string): string[] {
+  return [
+    line(objectPx, shadowPx, `stroke="${colour}" stroke-width="3"`),
+    line(shadowPx, end, `stroke="${colour}" stroke-width="1.2" stroke-dasharray="10 6"`),
+    `<circle cx="${r1(objectPx[0])}" cy="${r1(objectPx[1])}" r="5" fill="${colour}"/>`,
+  ];
+}
 
 /**
  * A shadow wedge in picture pixels: the clicked lines from the shadow point to each edge point, their
@@ -120,9 +126,7 @@ export function cameraOverlayElements(s: SceneSun, image: ImageInfo): { svg: str
       const pair = s.pairsByField.get(field);
       if (!pair) continue;
       const [o, sh] = pair;
-      out.push(line(pic(o), pic(sh), `stroke="${colour}" stroke-width="3"`));
-      out.push(line(pic(sh), pic(vp ?? extend(o, sh, image)), `stroke="${colour}" stroke-width="1.2" stroke-dasharray="10 6"`));
-      out.push(`<circle cx="${r1(pic(o)[0])}" cy="${r1(pic(o)[1])}" r="5" fill="${colour}"/>`);
+      out.push(...pairElements(pic(o), pic(sh), pic(vp ?? extend(o, sh, image)), colour));
     }
     if (vp) {
       out.push(`<circle cx="${r1(pic(vp)[0])}" cy="${r1(pic(vp)[1])}" r="6" fill="none" stroke="${colour}" stroke-width="2.5"/>`);
@@ -149,11 +153,7 @@ export function cameraOverlayElements(s: SceneSun, image: ImageInfo): { svg: str
     if (!pair) continue;
     const colour = colourOf(single.group);
     const [o, sh] = pair;
-    out.push(`<g class="single-pair" data-id="${escapeXml(single.id)}">`);
-    out.push(line(pic(o), pic(sh), `stroke="${colour}" stroke-width="3"`));
-    out.push(line(pic(sh), pic(extend(o, sh, image)), `stroke="${colour}" stroke-width="1.2" stroke-dasharray="10 6"`));
-    out.push(`<circle cx="${r1(pic(o)[0])}" cy="${r1(pic(o)[1])}" r="5" fill="${colour}"/>`);
-    out.push('</g>');
+    out.push(`<g class="single-pair" data-id="${escapeXml(single.id)}">`, ...pairElements(pic(o), pic(sh), pic(extend(o, sh, image)), colour), '</g>');
     key.push({
       text: `${groupWords(single.group, 'a pair without a group')}, one pair (${single.id}): object to shadow, dashed on across the picture (one pair meets no other)`,
       colour, dash: ' stroke-dasharray="10 6"',

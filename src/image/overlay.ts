@@ -51,7 +51,8 @@ function r1(v: number): string {
   return (Object.is(r, -0) ? 0 : r).toString();
 }
 
-function escapeXml(text: string): string {
+/** Text for SVG content and attributes, with &, <, > and " escaped. */
+export function escapeXml(text: string): string {
   return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
 }
 
