@@ -21,7 +21,7 @@ import { predictEaveShadow, predictFinShadow, predictOverhangShadow, predictPole
 import { sunUnitVector } from '../geometry/sunVector.js';
 import type { SunDirection } from '../geometry/sunVector.js';
 import { applyHomography, homogeneousW, type Point2 } from '../image/homography.js';
-import { OVERLAY_COLOURS, renderOverlaySvg, type OverlayPlane, type OverlayShadow } from '../image/overlay.js';
+import { OVERLAY_COLOURS, escapeXml, r1, renderOverlaySvg, type OverlayPlane, type OverlayShadow } from '../image/overlay.js';
 import { toPictureFrame, type RectifiedPlane } from '../image/planeInImage.js';
 import type { ResolvedMeasurement } from '../image/resolvePixels.js';
 import type { SceneSun } from '../image/sceneSun.js';
@@ -187,14 +187,6 @@ export function planeLabel(scene: Scene, planeField: string): string {
   return m ? scene.walls[Number(m[1])].id : 'ground';
 }
 
-function r1(v: number): string {
-  const r = Math.round(v * 10) / 10;
-  return (Object.is(r, -0) ? 0 : r).toString();
-}
-
-function escapeXml(text: string): string {
-  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-}
 
 /** A plane-frame line as picture pixels, or null when an end lies beyond the plane's horizon line. */
 function planeLineToPicture(plane: RectifiedPlane, line: readonly [Point2, Point2]): [Point2, Point2] | null {

@@ -12,6 +12,7 @@
  * Coordinates are rounded to 0.1 px so that the output is stable.
  */
 import type { ImageInfo, PixelPoint } from '../scene/types.js';
+import { escapeXml } from '../charts/svg.js';
 import { applyHomography, homogeneousW, type Point2 } from './homography.js';
 import { toPictureFrame, toWorkingFrame, type RectifiedPlane } from './planeInImage.js';
 
@@ -46,15 +47,14 @@ export interface OverlayInput {
   readonly picture?: { readonly bytes: Uint8Array; readonly mimeType: 'image/jpeg' | 'image/png' };
 }
 
-function r1(v: number): string {
+/** A pixel coordinate to one decimal, never "-0". */
+export function r1(v: number): string {
   const r = Math.round(v * 10) / 10;
   return (Object.is(r, -0) ? 0 : r).toString();
 }
 
-/** Text for SVG content and attributes, with &, <, > and " escaped. */
-export function escapeXml(text: string): string {
-  return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;');
-}
+/** Text for SVG content and attributes (one escaping for every picture and chart: src/charts/svg.ts). */
+export { escapeXml };
 
 function line(a: Point2, b: Point2, attrs: string): string {
   return `<line x1="${r1(a[0])}" y1="${r1(a[1])}" x2="${r1(b[0])}" y2="${r1(b[1])}" ${attrs}/>`;
