@@ -163,7 +163,12 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   if (hi0 - lo0 > 183) ords = ords.map((x) => ({ m: x.m, o: x.o < 183 ? x.o + 365 : x.o }));
   const first = ords.reduce((a, b) => (b.o < a.o ? b : a)).m;
   const last = ords.reduce((a, b) => (b.o > a.o ? b : a)).m;
-  const minutes = sorted.map((m) => m.apparentMinutes);
+  // A night's hours pass midnight (moonlit views): when the hours are spread over more than half a
+  // day, those of the morning are read as after midnight if that makes the span shorter ("21:08-00:06").
+  const plain = sorted.map((m) => m.apparentMinutes);
+  const wrapped = plain.map((m) => (m < 720 ? m + 1440 : m));
+  const spread = (xs: readonly number[]): number => Math.max(...xs) - Math.min(...xs);
+  const minutes = spread(plain) > 720 && spread(wrapped) < spread(plain) ? wrapped : plain;
   const fromMin = Math.min(...minutes);
   const toMin = Math.max(...minutes);
   const years = [...new Set(sorted.map((m) => m.year))];
@@ -192,7 +197,7 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const label = keepingsLabel(keepings);
   const yearsTold = yearsToldOf(byKeeping.get(best.assumptionIndex) ?? [best], ctx);
 
-  const time = hhmm(fromMin) === hhmm(toMin) ? hhmm(fromMin) : `${hhmm(fromMin)}-${hhmm(toMin)}`;
+  const time = hhmm(fromMin) === hhmm(toMin) ? hhmm(fromMin) : `${hhmm(fromMin)}-${hhmm(toMin)}${toMin >= 1440 ? ' (across midnight)' : ''}`;
   const days = monthDayText(first, last);
   const only = yearsTold.singledOut && years.length > 1 ? `; only ${formatYearBcAd(best.year)} fits as well (${yearsTold.singledOutBy})` : '';
   const summary = `${yearsText(years)}: ${days} (${calendarName(sorted[0].calendar)}), ${time} local apparent time; ${label}${only}`;

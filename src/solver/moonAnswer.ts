@@ -53,14 +53,16 @@ function fmtP(p: number | null): string {
   return p === null ? '' : `, p = ${p.toPrecision(2)}`;
 }
 
-/** "1744 (9 January, -19 years = -235 lunations, Delta chi-square 2.4), ...": each year that fits alike, the best one too. */
+/** "1744 (9 January, 235 lunations before the best, Delta chi-square 2.4), ...": each year that fits alike, the best one too. */
 export function alikeYearsText(alike: readonly MoonAlikeYear[]): string {
   return alike
     .map((a) => {
       const day = `${a.civilDate.day} ${MONTH_NAMES[a.civilDate.month - 1]}`;
       if (a.offsetYears === 0 && a.deltaChiSquare === 0) return `${formatYearBcAd(a.year)} (${day}, the best)`;
-      const lun = a.lunations === 0 ? '' : ` = ${a.lunations > 0 ? '+' : ''}${a.lunations} lunations`;
-      return `${formatYearBcAd(a.year)} (${day}, ${a.offsetYears > 0 ? '+' : ''}${a.offsetYears} years${lun}, Delta chi-square ${a.deltaChiSquare.toFixed(1)}${a.sameLight ? '' : ', another light'})`;
+      // Whole lunations between the two candidates' days; the years between them are read off the years themselves.
+      const n = Math.abs(a.lunations);
+      const lun = n === 0 ? 'the same lunation as the best' : `${n} lunation${n === 1 ? '' : 's'} ${a.lunations > 0 ? 'after' : 'before'} the best`;
+      return `${formatYearBcAd(a.year)} (${day}, ${lun}, Delta chi-square ${a.deltaChiSquare.toFixed(1)}${a.sameLight ? '' : ', another light'})`;
     })
     .join('; ');
 }

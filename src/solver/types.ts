@@ -305,6 +305,7 @@ export interface CandidateFamily {
   /** Earliest and latest month/day over the years (may wrap the year end). */
   readonly fromMonthDay: { readonly month: number; readonly day: number };
   readonly toMonthDay: { readonly month: number; readonly day: number };
+  /** Earliest and latest local apparent minute of the members; when they pass midnight (a night's hours), the latest is above 1440. */
   readonly fromLocalApparentMinutes: number;
   readonly toLocalApparentMinutes: number;
   /** The family's best member. */
