@@ -4,6 +4,8 @@
  * fits the evidence (Delta chi-square above the best fit, in the bands of palette.ts), the
  * candidates marked with their 68% and 95% error ellipses (or the profile-scan interval as a
  * bar when the ellipse does not hold), and a close-up around the best candidate.
+ * A scene lit by the moon alone (data.light 'moon') gets the moon's map: one year (the best candidate's), the hours
+ * of the night (from the evening's day on); title, caption, axes and notes say that the light is the moon's.
  */
 import { formatMinutes } from '../time/clock.js';
 import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
@@ -22,9 +24,14 @@ const MARK = OKABE_ITO.vermillion;
 /** Index in FIT_BANDS of "poor fit (3 to 5 sigma)", drawn stippled. */
 const POOR_FIT_BAND = 3;
 
-/** "07:00" for minutes of the day (whole hours and minutes). */
+/** "07:00" for minutes of the day (whole hours and minutes); past midnight (the moon's map) the next day's hour. */
 function hourLabel(minutes: number): string {
-  return formatMinutes(minutes).slice(0, 5);
+  return formatMinutes(minutes >= 1440 ? minutes - 1440 : minutes).slice(0, 5);
+}
+
+/** The hour axis's label: the moon's map runs from the evening to the next morning. */
+function hourAxisLabel(data: DateHourMapData): string {
+  return data.light === 'moon' ? 'local apparent time (hours, evening to morning)' : 'local apparent time (hours)';
 }
 
 interface GridPart {
@@ -166,11 +173,11 @@ function overviewPanel(data: DateHourMapData, prefix: string, unlabelled: string
   return group({ class: 'hc-panel hc-overview' }, [
     el('defs', {}, clipPathFor(clip, area)),
     group({ 'clip-path': `url(#${clip})` }, [...bandCells(data, x, y, prefix), ...bandOutlines(data, x, y), ...excluded, ...markerMarks(data.markers, x, y, true), ...labels.marks]),
-    bottomAxis(area, { scale: x, ticks: monthTicks, label: `${data.yearLabel}, ${data.calendarLabel} (month boundaries)`, grid: true }),
+    bottomAxis(area, { scale: x, ticks: monthTicks, label: `${data.yearLabel}, ${data.calendarLabel} (month boundaries${data.light === 'moon' ? '; a night under the day it begins' : ''})`, grid: true }),
     ...monthLabels,
-    leftAxis(area, { scale: y, ticks: hourTicks(data.minuteRange, 9), label: 'local apparent time (hours)', grid: true }),
+    leftAxis(area, { scale: y, ticks: hourTicks(data.minuteRange, 9), label: hourAxisLabel(data), grid: true }),
     plotFrame(area),
-    text(area.left, area.top - 6, 'The whole year', { class: 'hc-legend', 'font-weight': 'bold' }),
+    text(area.left, area.top - 6, data.light === 'moon' ? `The nights of ${data.yearLabel}` : 'The whole year', { class: 'hc-legend', 'font-weight': 'bold' }),
   ]);
 }
 
@@ -187,7 +194,7 @@ function closeUpPanel(data: DateHourMapData, prefix: string, unlabelled: string[
     el('defs', {}, clipPathFor(clip, area)),
     group({ 'clip-path': `url(#${clip})` }, [...bandCells(c, x, y, prefix), ...bandOutlines(c, x, y), ...markerMarks(data.markers, x, y, false), ...labels.marks]),
     bottomAxis(area, { scale: x, ticks: c.dayLabels.map((t) => ({ value: t.offset, label: t.label })), label: `day (${data.yearLabel})`, grid: true }),
-    leftAxis(area, { scale: y, ticks: hourTicks(c.minuteRange, 8), label: 'local apparent time (hours)', grid: true }),
+    leftAxis(area, { scale: y, ticks: hourTicks(c.minuteRange, 8), label: hourAxisLabel(data), grid: true }),
     plotFrame(area),
     text(area.left, area.top - 6, 'Close-up of the best candidate', { class: 'hc-legend', 'font-weight': 'bold' }),
   ]);
@@ -216,7 +223,13 @@ function legend(data: DateHourMapData, unlabelled: readonly string[], prefix: st
   const notes: string[] = [];
   if (data.months.some((m) => m.excluded)) notes.push('hatched: months outside the window stated in the scene');
   if (data.calendarReadingNote !== null) notes.push(...data.calendarReadingNote);
-  if (data.fromOtherYears > 0) notes.push(`open circles: best of a family in another year, placed on its day of the year`);
+  if (data.fromOtherYears > 0) {
+    notes.push(
+      data.light === 'moon'
+        ? `${data.fromOtherYears} marked candidate${data.fromOtherYears === 1 ? '' : 's'} of other years not placed: the moon's place differs every year; the report's tables give them`
+        : `open circles: best of a family in another year, placed on its day of the year`,
+    );
+  }
   if (unlabelled.length > 0) notes.push(`marks too crowded to label: ${unlabelled.join(', ')}; the report's table of families gives their days and hours`);
   parts.push(text(66, ly + 18, `Clock: ${data.clockLabel}.`, { class: 'hc-note' }));
   notes.forEach((note, k) => parts.push(text(66, ly + 32 + 14 * k, `${note[0].toUpperCase()}${note.slice(1)}.`, { class: 'hc-note' })));
@@ -238,8 +251,11 @@ export function renderDateHourMap(data: DateHourMapData, idPrefix = 'hc-map'): s
     { id: `${idPrefix}-hatch`, width: 6, height: 6, patternUnits: 'userSpaceOnUse', patternTransform: 'rotate(45)' },
     [el('rect', { width: 6, height: 6, fill: INK.paper, 'fill-opacity': 0.35 }), el('line', { x1: 0, y1: 0, x2: 0, y2: 6, stroke: INK.frame, 'stroke-width': 1.2 })],
   );
-  const title = `When the light fits: day and hour, ${data.titleYears}`;
-  const caption = `Shading: how well each day and hour of ${data.yearLabel} fits the evidence; vermilion: the best dates and hours with their error ellipses.`;
+  const title = data.light === 'moon' ? `When the moonlight fits: night and hour in ${data.titleYears} (the light is the moon\u2019s)` : `When the light fits: day and hour, ${data.titleYears}`;
+  const caption =
+    data.light === 'moon'
+      ? `Shading: how well the moon at each night and hour of ${data.yearLabel} fits the evidence; it differs every year, so the map holds for ${data.yearLabel} alone.`
+      : `Shading: how well each day and hour of ${data.yearLabel} fits the evidence; vermilion: the best dates and hours with their error ellipses.`;
   return svgDocument({
     width: WIDTH,
     height: HEIGHT,

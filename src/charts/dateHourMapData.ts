@@ -3,6 +3,12 @@
  * calendar), the fit of every (day, local apparent minute) cell as Delta chi-square above the
  * best, the month boundaries, and the candidates of that year with their error ellipses or
  * profile-scan intervals. Rendering is in dateHourMap.ts.
+ *
+ * A scene lit by the moon alone (src/solver/moonSearch.ts isLitByMoonAlone) gets the map of the moon: the moon's
+ * place at a day and hour differs from year to year, so the map holds for the best candidate's year alone. Its
+ * cells come from the same evidence model and evaluation as the solver's (chiSquareGrid.ts: the moon of the full
+ * ephemeris at every cell), its hours run from the earliest sunset of the year to the latest sunrise (a night is one
+ * column, under the day on whose evening it begins), and candidates of other years are not placed on it.
  */
 import { calendarReadingNote } from './calendarReadingLabel.js';
 import type { Scene } from '../scene/types.js';
@@ -13,6 +19,7 @@ import { formatYearBcAd } from '../calendar/format.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, type EvidenceModel } from '../solver/evidenceModel.js';
 import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, finishDayMinuteCells, nuisancesOfCandidate, type DayMinuteGrid, type DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
+import { isLitByMoonAlone } from '../solver/moonSearch.js';
 import { FIT_BANDS } from './palette.js';
 import { ellipsePoints } from './ellipse.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
@@ -48,6 +55,8 @@ export interface MapMarker {
 }
 
 export interface DateHourMapData {
+  /** The light the map is about: 'moon' for a scene lit by the moon alone (the hours of the night, the map's year alone). */
+  readonly light: 'sun' | 'moon';
   readonly year: number;
   readonly yearLabel: string;
   /** The years for the title: the drawn year only when the evidence singles it out, else "any year 1760-1790 (drawn on the days of 1784)". */
@@ -79,7 +88,7 @@ export interface DateHourMapData {
     /** Day offset -> "12 Jun" in the site's calendar. */
     readonly dayLabels: readonly { readonly offset: number; readonly label: string }[];
   };
-  /** Marked candidates of other years (placed on their month and day): how many. */
+  /** Marked candidates of other years (placed on their month and day; for the moon, not placed at all): how many. */
   readonly fromOtherYears: number;
   readonly evaluations: number;
 }
@@ -113,10 +122,30 @@ function dayOffsetOf(c: Candidate, year: number, jan1: number, rule: ResolvedCal
   return Math.min(civilDateToJd(rule, c.civilDate) - ownJan1, 365);
 }
 
-function markerOf(mark: MarkedCandidate, index: number, year: number, jan1: number, rule: ResolvedCalendar): MapMarker {
+/**
+ * Minutes of local apparent time of the moon's map: from the earliest sunset of the year to the latest sunrise
+ * (whole hours, with a margin), counted on from the evening's day (so past midnight above 1440); noon to noon
+ * where the sun does not rise or set every day. The nights outside it are never dark.
+ */
+export function nightMinuteRange(latitudeDeg: number): [number, number] {
+  // The shortest day's sunrise hour angle: cos H0 = |tan(phi)| tan(23.44 deg) (Meeus 1998, eq. 15.1 with h0 = 0, the
+  // declination of the winter solstice of the site's hemisphere; obliquity 23.44 deg, common practice).
+  const c = Math.abs(Math.tan((latitudeDeg * Math.PI) / 180)) * Math.tan((23.44 * Math.PI) / 180);
+  if (c >= 1) return [720, 2160];
+  const h0Minutes = ((Math.acos(c) * 180) / Math.PI) * 4 - 20; // 4 min per degree of hour angle; 20 min for refraction and margin
+  return [Math.max(720, Math.floor((720 + h0Minutes) / 60) * 60), Math.min(2160, Math.ceil((2160 - h0Minutes) / 60) * 60)];
+}
+
+/** Where a candidate sits on the moon's map: an hour before noon belongs to the night that began the day before. */
+function nightShift(minutes: number): { days: number; minutes: number } {
+  return minutes < 720 ? { days: -1, minutes: 1440 } : { days: 0, minutes: 0 };
+}
+
+function markerOf(mark: MarkedCandidate, index: number, year: number, jan1: number, rule: ResolvedCalendar, byMoon: boolean): MapMarker {
   const c = mark.candidate;
-  const dayOffset = dayOffsetOf(c, year, jan1, rule);
-  const m = c.times.localApparentMinutes;
+  const shift = byMoon ? nightShift(c.times.localApparentMinutes) : { days: 0, minutes: 0 };
+  const dayOffset = dayOffsetOf(c, year, jan1, rule) + shift.days;
+  const m = c.times.localApparentMinutes + shift.minutes;
   const u = c.uncertainty;
   const ellipses: MapEllipse[] = [];
   let interval: MapMarker['interval'];
@@ -130,10 +159,10 @@ function markerOf(mark: MarkedCandidate, index: number, year: number, jan1: numb
     interval = {
       fromDayOffset: dayOffset + p.fromDays,
       toDayOffset: dayOffset + p.toDays,
-      fromMinutes: p.fromLocalApparentMinutes,
-      toMinutes: p.toLocalApparentMinutes,
+      fromMinutes: p.fromLocalApparentMinutes + shift.minutes,
+      toMinutes: p.toLocalApparentMinutes + shift.minutes,
       open: p.open,
-      valley: p.points.map((q) => [dayOffset + q.days, q.localApparentMinutes] as const),
+      valley: p.points.map((q) => [dayOffset + q.days, q.localApparentMinutes + shift.minutes] as const),
     };
   }
   return { label: mark.label, id: c.id, best: index === 0, inMapYear: c.civilDate.year === year, dayOffset, minutes: m, ellipses, interval };
@@ -150,17 +179,18 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
   const jan1 = civilDateToJd(rule, { year, month: 1, day: 1 });
   const nextJan1 = civilDateToJd(rule, { year: year + 1, month: 1, day: 1 });
   const dayCount = nextJan1 - jan1;
+  // Observations measured in pixels become numbers first, as the solver takes them (src/image/resolvePixels.ts).
+  const model = options.model ?? buildEvidenceModel(resolvePixelObservations(scene).scene);
+  const byMoon = isLitByMoonAlone(model);
   const dayStep = options.dayStep ?? 1;
   const minuteStep = options.minuteStep ?? 5;
-  const minuteRange = daylightMinuteRange(scene.site.latitudeDeg);
+  const minuteRange: readonly [number, number] = byMoon ? nightMinuteRange(scene.site.latitudeDeg) : daylightMinuteRange(scene.site.latitudeDeg);
   const dayOffsets: number[] = [];
   for (let d = 0; d < dayCount; d += dayStep) dayOffsets.push(d);
   const minutes: number[] = [];
   for (let m = minuteRange[0]; m <= minuteRange[1] + 1e-9; m += minuteStep) minutes.push(m);
 
-  // Observations measured in pixels become numbers first, as the solver takes them (src/image/resolvePixels.ts).
-  const model = options.model ?? buildEvidenceModel(resolvePixelObservations(scene).scene);
-  const closeUp = best ? closeUpGrid(model, best, rule, jan1) : undefined;
+  const closeUp = best ? closeUpGrid(model, best, rule, jan1, byMoon ? { ...nightShift(best.times.localApparentMinutes), moon: true } : { days: 0, minutes: 0, moon: false }) : undefined;
   // The reference (the lowest value) is at most this before the whole year is computed.
   const referenceBound = Math.min(closeUp ? closeUp.minimum : Infinity, best ? best.chiSquare + best.softPenalty : Infinity);
   const spec = {
@@ -182,12 +212,18 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
     return { fromOffset: from, toOffset: to, name: name.slice(0, 3), excluded: allowed !== null && !allowed.has(k + 1) };
   });
 
-  const markers = markedCandidates(answer).map((mark, k) => markerOf(mark, k, year, jan1, rule));
+  // The moon's map holds for its year alone: candidates of other years are counted, not placed.
+  const marked = markedCandidates(answer);
+  const shown = byMoon ? marked.filter((mark) => mark.candidate.civilDate.year === year) : marked;
+  const markers = shown.map((mark, k) => markerOf(mark, k, year, jan1, rule, byMoon));
 
   return {
+    light: byMoon ? 'moon' : 'sun',
     year,
     yearLabel: formatYearBcAd(year),
-    titleYears: answer.moon
+    titleYears: byMoon
+      ? formatYearBcAd(year)
+      : answer.moon
       ? `${answer.moon.years.length > 1 ? `the years that fit with the moon: ${answer.moon.years.map((y) => formatYearBcAd(y)).join(', ')}` : `${formatYearBcAd(answer.moon.bestYear)}, the year the moon names`} (drawn on the days of ${formatYearBcAd(year)})`
       : answer.yearsWords && answer.yearsWords !== formatYearBcAd(year) ? `${answer.yearsWords} (drawn on the days of ${formatYearBcAd(year)})` : formatYearBcAd(year),
     calendarLabel: best ? (best.civilDate.calendar === 'julian' ? 'Julian calendar' : 'Gregorian calendar') : 'calendar of the site',
@@ -203,7 +239,7 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
     months,
     markers,
     closeUp: closeUp ? { ...closeUp.data, deltaChiSquare: closeUp.values.map((row) => deltaRow(row, reference)) } : undefined,
-    fromOtherYears: markers.filter((m) => !m.inMapYear).length,
+    fromOtherYears: byMoon ? marked.length - shown.length : markers.filter((m) => !m.inMapYear).length,
     evaluations: grid.evaluations + (closeUp ? closeUp.evaluations : 0),
   };
 }
@@ -274,8 +310,8 @@ const CLOSE_UP_ROWS = 61;
  * ellipse is invalid. Days are continuous here: between whole days the solver's dated model
  * interpolates the sun smoothly (src/solver/fitting.ts).
  */
-function closeUpGrid(model: EvidenceModel, best: Candidate, rule: ResolvedCalendar, jan1: number) {
-  const centreDay = civilDateToJd(rule, best.civilDate) - jan1;
+function closeUpGrid(model: EvidenceModel, best: Candidate, rule: ResolvedCalendar, jan1: number, shift: { readonly days: number; readonly minutes: number; readonly moon: boolean }) {
+  const centreDay = civilDateToJd(rule, best.civilDate) - jan1 + shift.days;
   const u = best.uncertainty;
   const e95 = u.ellipses.find((e) => e.probability > 0.9) ?? u.ellipses[u.ellipses.length - 1];
   let halfDays = e95 ? 3 * e95.halfWidthDays : 8;
@@ -284,9 +320,11 @@ function closeUpGrid(model: EvidenceModel, best: Candidate, rule: ResolvedCalend
     halfDays = 1.3 * Math.max(Math.abs(u.profile.fromDays), Math.abs(u.profile.toDays));
     halfMinutes = Math.max(halfMinutes, 1.3 * Math.abs(u.profile.toLocalApparentMinutes - u.profile.fromLocalApparentMinutes));
   }
-  halfDays = Math.min(60, Math.max(8, Number.isFinite(halfDays) ? halfDays : 8));
+  // The moon fixes the day (its place moves some 13 deg a day at a fixed hour): its close-up spans a few days only.
+  const minHalfDays = shift.moon ? 2 : 8;
+  halfDays = Math.min(60, Math.max(minHalfDays, Number.isFinite(halfDays) ? halfDays : minHalfDays));
   halfMinutes = Math.min(180, Math.max(30, Number.isFinite(halfMinutes) ? halfMinutes : 30));
-  const m0 = best.times.localApparentMinutes;
+  const m0 = best.times.localApparentMinutes + shift.minutes;
   const dayRange: [number, number] = [centreDay - halfDays, centreDay + halfDays];
   const minuteRange: [number, number] = [m0 - halfMinutes, m0 + halfMinutes];
   const dayStep = (2 * halfDays) / (CLOSE_UP_COLUMNS - 1);

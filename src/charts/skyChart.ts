@@ -7,6 +7,9 @@
  * `moon` option): the moon's path on the best day (grey, dash-dot, open circles at the whole hours) and
  * a small phase symbol at the best candidate's instant, its lit part white and turned as the observer
  * sees it, labelled and described in words under the chart.
+ * A scene lit by the moon alone (data.light 'moon') is drawn for the moon throughout: its bands are moon
+ * directions, the paths are the moon's on the candidates' days, and the candidates are marked by the moon's phase
+ * symbol at their instants; title, legend and notes say "moon", and nothing of the sun is drawn.
  */
 import { cosDeg, normalizeDeg360, sinDeg } from '../math/angles.js';
 import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
@@ -58,22 +61,31 @@ export function moonSymbol(cx: number, cy: number, r: number, illuminatedFractio
   ]);
 }
 
-/** The moon's path on the best day, with open circles at the whole hours of local apparent time. */
-function moonPathMarks(moon: SkyMoon, x: LinearScale, y: LinearScale): string {
+/** Dashes of the moon's paths on the candidates' days in a scene lit by the moon alone: the first as the moon layer's, then dashed and dotted. */
+const MOON_PATH_DASHES = [DASHES.dashDot, DASHES.dashed, DASHES.dotted] as const;
+
+/**
+ * The moon's path on the best day, with open circles at the whole hours of local apparent time.
+ * @param dash the path's dashes (the moon layer's dash-dot by default)
+ * @param hourLabels whether the hours are written beside the circles
+ */
+function moonPathMarks(moon: SkyMoon, x: LinearScale, y: LinearScale, dash: string | undefined = MOON_PATH.dash, hourLabels = false): string {
   return group({ class: 'hc-moon-path' }, [
-    ...moon.segments.map((seg) => el('path', { d: pathData(seg.map(([az, alt]) => [x(az), y(alt)])), fill: 'none', stroke: MOON_PATH.stroke, 'stroke-width': 1.3, 'stroke-dasharray': MOON_PATH.dash })),
+    ...moon.segments.map((seg) => el('path', { d: pathData(seg.map(([az, alt]) => [x(az), y(alt)])), fill: 'none', stroke: MOON_PATH.stroke, 'stroke-width': 1.3, 'stroke-dasharray': dash })),
     ...moon.hourMarks.map((h) => el('circle', { cx: x(h.azimuthDeg), cy: y(h.altitudeDeg), r: 2.2, fill: INK.paper, stroke: MOON_PATH.stroke, 'stroke-width': 1 })),
+    ...(hourLabels ? moon.hourMarks.map((h) => text(x(h.azimuthDeg), y(h.altitudeDeg) - 6, h.label, { class: 'hc-note', 'text-anchor': 'middle' })) : []),
   ]);
 }
 
-/** Two lines under the chart: the moon at the candidate in words, and how its path is drawn. */
-function moonNotes(moon: SkyMoon): string[] {
+/** Two lines under the chart: the moon at the candidate in words, and how its path is drawn (paths: a scene lit by the moon alone). */
+function moonNotes(moon: SkyMoon, paths?: readonly SkyMoon[]): string[] {
   const a = moon.at;
   const where = a.altitudeDeg < 0 ? `below the horizon (altitude ${num(a.altitudeDeg, 1)} deg), so not drawn` : `azimuth ${num(normalizeDeg360(a.azimuthDeg), 1)}, altitude ${num(a.altitudeDeg, 1)} deg`;
-  return [
-    `Moon at ${a.candidateLabel}: ${a.words}; ${where}.`,
-    `Moon path on ${moon.label}: grey dash-dot line, open circles at the whole hours of local apparent time.`,
-  ];
+  if (paths === undefined) return [`Moon at ${a.candidateLabel}: ${a.words}; ${where}.`, `Moon path on ${moon.label}: grey dash-dot line, open circles at the whole hours of local apparent time.`];
+  const how = paths.length > 1
+    ? `Moon paths on ${paths.map((p) => p.label).join(', ')}: grey lines (dash-dot, dashed, dotted),`
+    : `Moon path on ${moon.label}: grey dash-dot line,`;
+  return [`Moon at ${a.candidateLabel}: ${a.words}; ${where}.`, how, "each from 12 hours before its candidate's instant to 12 hours after; open circles at the whole hours of local apparent time."];
 }
 
 /** A band whose region is smaller than this across, in drawing units, could hide under a sun's mark: it gets a ring. */
@@ -145,9 +157,47 @@ function azimuthTicks(range: readonly [number, number]): { ticks: Tick[]; compas
   return { ticks, compass };
 }
 
-/** "shadow 300 deg, sun 120 deg". */
-function oppositeWords(o: NonNullable<SkyBand['opposite']>): string {
-  return `shadow ${num(o.shadowAzimuthDeg, 1)} deg, sun ${num(o.sunAzimuthDeg, 1)} deg`;
+/** "shadow 300 deg, sun 120 deg" (or "moon 120 deg" for a shadow cast by moonlight). */
+function oppositeWords(o: NonNullable<SkyBand['opposite']>, light: 'sun' | 'moon' = 'sun'): string {
+  return `shadow ${num(o.shadowAzimuthDeg, 1)} deg, ${light} ${num(o.sunAzimuthDeg, 1)} deg`;
+}
+
+/** The legend of a scene lit by the moon alone: its bands, the moon's paths and the moon at the candidates. */
+function moonLegend(data: SkyChartData): { svg: string; bottom: number } {
+  const left = AREA.left + AREA.width + 18;
+  let y = AREA.top + 4;
+  const parts: string[] = [text(left, y, 'Moon directions within', { class: 'hc-legend', 'font-weight': 'bold' })];
+  y += 14;
+  parts.push(text(left, y, '1 sigma of', { class: 'hc-legend', 'font-weight': 'bold' }));
+  y += 16;
+  data.bands.forEach((b, i) => {
+    const s = seriesStyle(i);
+    parts.push(el('rect', { x: left, y: y - 9, width: 22, height: 10, fill: s.color, 'fill-opacity': 0.16, stroke: s.color, 'stroke-width': 1.6, 'stroke-dasharray': s.dash }));
+    parts.push(text(left + 28, y, b.observationId, { class: 'hc-legend' }));
+    y += 15;
+    if (b.opposite) {
+      parts.push(text(left + 28, y - 2, 'drawn where the moon stood,', { class: 'hc-note' }));
+      parts.push(text(left + 28, y + 10, 'opposite the shadow:', { class: 'hc-note' }));
+      parts.push(text(left + 28, y + 22, oppositeWords(b.opposite, 'moon'), { class: 'hc-note' }));
+      y += 38;
+    }
+  });
+  y += 8;
+  parts.push(text(left, y, 'Moon path on', { class: 'hc-legend', 'font-weight': 'bold' }));
+  y += 16;
+  (data.moonPaths ?? []).forEach((p, i) => {
+    parts.push(el('path', { d: `M${left} ${y - 4}h22`, stroke: MOON_PATH.stroke, 'stroke-width': 1.3, 'stroke-dasharray': MOON_PATH_DASHES[i % 3], fill: 'none' }));
+    parts.push(text(left + 28, y, p.label, { class: 'hc-legend' }));
+    y += 15;
+  });
+  parts.push(el('circle', { cx: left + 11, cy: y - 4, r: 2.2, fill: INK.paper, stroke: MOON_PATH.stroke, 'stroke-width': 1 }));
+  parts.push(text(left + 28, y, 'whole hour, local apparent time', { class: 'hc-legend' }));
+  y += 23;
+  parts.push(moonSymbol(left + 11, y - 4, 7, 0.3, 60));
+  parts.push(text(left + 28, y, 'the moon at F1, F2, ...,', { class: 'hc-legend' }));
+  y += 13;
+  parts.push(text(left + 28, y, 'lit part white, as seen', { class: 'hc-legend' }));
+  return { svg: group({ class: 'hc-legend-block' }, parts), bottom: y };
 }
 
 function legend(data: SkyChartData): { svg: string; bottom: number } {
@@ -222,7 +272,7 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
     ]),
   );
   // The suns' labels, clear of each other, of the suns and of the hour labels of the first path.
-  const hourLabels = data.paths[0]?.hourMarks ?? [];
+  const hourLabels = data.paths[0]?.hourMarks ?? data.moonPaths?.[0]?.hourMarks ?? [];
   const hourBoxes = hourLabels.map((h) => {
     const w = textWidth(h.label, 10);
     return { x: x(h.azimuthDeg) - w / 2, y: y(h.altitudeDeg) - 6 - 8, width: w, height: 10 };
@@ -239,30 +289,40 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
       }),
   );
   const bounds = { x: AREA.left, y: AREA.top, width: AREA.width, height: AREA.height };
-  const moonUp = data.moon !== undefined && data.moon.at.altitudeDeg >= 0 ? data.moon : undefined;
+  const byMoon = data.light === 'moon';
+  // A scene lit by the moon alone: the moon at each candidate is drawn in place of the suns (below), so the layer's symbol is not drawn twice.
+  const moonUp = !byMoon && data.moon !== undefined && data.moon.at.altitudeDeg >= 0 ? data.moon : undefined;
+  const candidateMoons = (data.moons ?? []).filter((m) => m.altitudeDeg >= 0);
+  const moonRadius = (k: number): number => (k === 0 ? MOON_RADIUS : MOON_RADIUS - 2);
   const placement = placeLabels(
     [
       ...data.suns.map((s, k) => ({ anchor: [x(s.azimuthDeg), y(s.altitudeDeg)] as const, text: s.label, fontSize: 10.5, markRadius: k === 0 ? 5 : 4 })),
+      ...candidateMoons.map((m, k) => ({ anchor: [x(m.azimuthDeg), y(m.altitudeDeg)] as const, text: m.label, fontSize: 10.5, markRadius: moonRadius(k) + 1 })),
       ...(moonUp ? [{ anchor: [x(moonUp.at.azimuthDeg), y(moonUp.at.altitudeDeg)] as const, text: `moon ${moonUp.at.candidateLabel}`, fontSize: 10.5, markRadius: MOON_RADIUS + 1 }] : []),
     ],
     [...hourBoxes, ...ellipseBoxes],
     bounds,
   );
-  const title = 'Where the sun must have stood';
-  const caption = 'Coloured bands: the sun directions within 1 sigma of each measured shadow; black lines: the sun\u2019s path on the best days.';
+  const body = byMoon ? 'moon' : 'sun';
+  const title = byMoon ? 'Where the moon must have stood (the light is the moon\u2019s)' : 'Where the sun must have stood';
+  const caption = byMoon
+    ? 'Coloured bands: the moon directions within 1 sigma of each shadow cast by moonlight; grey lines: the moon\u2019s path on the best days.'
+    : 'Coloured bands: the sun directions within 1 sigma of each measured shadow; black lines: the sun\u2019s path on the best days.';
   const noteLines = data.bands
     .filter((b) => b.opposite)
-    .map((b) => `${b.observationId}: a pole's shadow points away from the sun, so its band lies at the sun's azimuth, opposite the shadow (${oppositeWords(b.opposite!)}).`);
+    .map((b) => `${b.observationId}: a pole's shadow points away from the ${body}, so its band lies at the ${body}'s azimuth, opposite the shadow (${oppositeWords(b.opposite!, body)}).`);
   const bandParts = data.bands.map((b, i) => bandMarks(b, i, x, y));
   const ringed = data.bands.filter((_, i) => bandParts[i].shown === 'ring').map((b) => b.observationId);
-  if (ringed.length > 0) noteLines.push(`${ringed.join(', ')}: smaller than a sun's mark, so ${ringed.length === 1 ? 'a ring in its colour shows where it lies' : 'rings in their colours show where they lie'}.`);
+  if (ringed.length > 0) noteLines.push(`${ringed.join(', ')}: smaller than a ${body}'s mark, so ${ringed.length === 1 ? 'a ring in its colour shows where it lies' : 'rings in their colours show where they lie'}.`);
   const thin = data.bands.filter((_, i) => bandParts[i].shown === 'not drawn').map((b) => b.observationId);
-  if (thin.length > 0) noteLines.push(`Not drawn: ${thin.join(', ')} (narrower than the chart's grid of sun directions, or nowhere in the sky shown).`);
-  if (data.moon) noteLines.push(...moonNotes(data.moon));
+  if (thin.length > 0) noteLines.push(`Not drawn: ${thin.join(', ')} (narrower than the chart's grid of ${body} directions, or nowhere in the sky shown).`);
+  if (data.moon) noteLines.push(...moonNotes(data.moon, byMoon ? data.moonPaths : undefined));
+  const below = (data.moons ?? []).filter((m) => m.altitudeDeg < 0).map((m) => m.label);
+  if (below.length > 0) noteLines.push(`The moon at ${below.join(', ')} is below the horizon, so not drawn.`);
   if (data.notes.length > 0) noteLines.push(`Not drawn: ${data.notes.join('; ')}.`);
   for (const line of data.calendarNote ?? []) noteLines.push(`${line[0].toUpperCase()}${line.slice(1)}.`);
   if (placement.unplaced.length > 0) noteLines.push(`Too crowded to label: ${placement.unplaced.map((u) => u.text).join(', ')}.`);
-  const key = legend(data);
+  const key = byMoon ? moonLegend(data) : legend(data);
   const notesTop = Math.max(NOTES_TOP, key.bottom + 24);
   const height = notesTop + 14 * noteLines.length + 8;
   const notes = noteLines.map((line, k) => text(AREA.left, notesTop + 14 * k, line, { class: 'hc-note' }));
@@ -280,8 +340,10 @@ export function renderSkyChart(data: SkyChartData, idPrefix = 'hc-sky'): string 
       group({ 'clip-path': `url(#${clip})` }, [
         ...bandParts.map((b) => b.under),
         ...paths,
-        ...(data.moon ? [moonPathMarks(data.moon, x, y)] : []),
+        ...(data.moon && !byMoon ? [moonPathMarks(data.moon, x, y)] : []),
+        ...(data.moonPaths ?? []).map((p, i) => moonPathMarks(p, x, y, MOON_PATH_DASHES[i % 3], i === 0)),
         ...suns,
+        ...candidateMoons.map((m, k) => moonSymbol(x(m.azimuthDeg), y(m.altitudeDeg), moonRadius(k), m.illuminatedFraction, m.brightLimbTiltFromVerticalDeg)),
         ...(moonUp ? [moonSymbol(x(moonUp.at.azimuthDeg), y(moonUp.at.altitudeDeg), MOON_RADIUS, moonUp.at.illuminatedFraction, moonUp.at.brightLimbTiltFromVerticalDeg)] : []),
         ...bandParts.map((b) => b.over),
         ...placedLabelMarks(placement.placed),

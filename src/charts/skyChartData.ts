@@ -8,6 +8,11 @@
  * candidate's day over the hours it is up, and its place, lit fraction and the tilt of its lit side at
  * the best candidate's instant, drawn as a small phase symbol (src/ephemeris/moonPosition.ts).
  *
+ * A scene lit by the moon alone (src/solver/moonSearch.ts isLitByMoonAlone) is drawn for the moon: each shadow's
+ * band is the same geometry of a light direction, taken as the moon's; the moon's paths on the candidates' days
+ * stand in for the sun's, and the moon at each candidate (its place and phase) for the candidates' suns. Nothing
+ * of the sun is drawn then (`light: 'moon'`).
+ *
  * The wall azimuths are those fitted at the best candidate. Clock readings and facts without
  * numbers (wall lit, sun up) are no band on the sky and are listed in the notes instead.
  * Rendering is in skyChart.ts.
@@ -30,6 +35,7 @@ import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { WALL_SHADOW_KINDS, buildEvidenceModel, termEvidence, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
 import { isWallSunlit } from '../geometry/shadowAngles.js';
 import { nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
+import { isLitByMoonAlone } from '../solver/moonSearch.js';
 import { ellipsePoints, semiAxisVectors } from './ellipse.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
 
@@ -82,7 +88,19 @@ export interface SkyMoon {
   };
 }
 
+/** The moon at one marked candidate's instant (a scene lit by the moon alone). */
+export interface SkyCandidateMoon {
+  readonly label: string;
+  readonly azimuthDeg: number;
+  readonly altitudeDeg: number;
+  readonly illuminatedFraction: number;
+  /** Tilt of the lit side from straight up, positive towards the observer's left (docs/conventions.md). */
+  readonly brightLimbTiltFromVerticalDeg: number;
+}
+
 export interface SkyChartData {
+  /** The light the bands and paths are drawn for: 'moon' for a scene lit by the moon alone. */
+  readonly light: 'sun' | 'moon';
   /** Which reading of a disputed calendar switch names the best days (src/charts/calendarReadingLabel.ts), or null. */
   readonly calendarNote: readonly string[] | null;
   /** Azimuth at the middle of the chart: 180 (sun paths around the south) or 0 (around the north). */
@@ -95,8 +113,12 @@ export interface SkyChartData {
   readonly suns: readonly SkySun[];
   readonly notes: readonly string[];
   readonly evaluations: number;
-  /** Present only when asked for (SkyChartOptions.moon). */
+  /** Present when asked for (SkyChartOptions.moon), and always for a scene lit by the moon alone (the best candidate's). */
   readonly moon?: SkyMoon;
+  /** A scene lit by the moon alone: the moon's paths on the candidates' days (in place of the sun's), best first. */
+  readonly moonPaths?: readonly SkyMoon[];
+  /** A scene lit by the moon alone: the moon at each marked candidate (in place of the suns). */
+  readonly moons?: readonly SkyCandidateMoon[];
 }
 
 export interface SkyChartOptions {
@@ -161,14 +183,21 @@ function pathOfDay(mark: MarkedCandidate, scene: Scene, centre: number): SkyPath
 /** Largest jump in unwrapped azimuth between neighbouring points of one piece of the moon's path, degrees. */
 const MOON_PATH_BREAK_DEG = 90;
 
-function moonOfCandidate(mark: MarkedCandidate, scene: Scene, centre: number): SkyMoon {
+/**
+ * The moon's path and look for a candidate: over its civil day (the moon layer), or, with `aroundInstant` (a scene
+ * lit by the moon alone), over the 24 hours centred on the candidate's instant, so that the path is that of its own
+ * night and not half of the night before.
+ */
+function moonOfCandidate(mark: MarkedCandidate, scene: Scene, centre: number, aroundInstant = false): SkyMoon {
   const c = mark.candidate;
   const dayJd0 = civilDateToJd(resolveCalendarRule(scene.calendar), c.civilDate);
   const site: SunSite = { latitudeDeg: scene.site.latitudeDeg, longitudeDeg: scene.site.longitudeDeg, elevationM: scene.site.elevationM };
   const segments: [number, number][][] = [];
   const hourMarks: { azimuthDeg: number; altitudeDeg: number; label: string }[] = [];
   let piece: [number, number][] = [];
-  for (let m = 0; m <= 1440; m += 10) {
+  // Minutes of local apparent time on the candidate's day: whole 10 minutes from 12 hours before its instant to 12 hours after.
+  const from = aroundInstant ? Math.ceil((c.times.localApparentMinutes - 720) / 10) * 10 : 0;
+  for (let m = from; m <= from + 1440; m += 10) {
     const p = moonPosition(instantOfApparentMinute(dayJd0, m, site), site, scene.air, { deltaTModel: scene.deltaT });
     const point: [number, number] = [unwrapAzimuth(p.azimuthDeg, centre), p.altitudeDeg];
     const last = piece[piece.length - 1];
@@ -177,7 +206,7 @@ function moonOfCandidate(mark: MarkedCandidate, scene: Scene, centre: number): S
       piece = [];
     }
     if (p.altitudeDeg >= -1) piece.push(point);
-    if (m % 60 === 0 && p.altitudeDeg > 0) hourMarks.push({ azimuthDeg: point[0], altitudeDeg: point[1], label: `${m / 60}h` });
+    if (m % 60 === 0 && p.altitudeDeg > 0) hourMarks.push({ azimuthDeg: point[0], altitudeDeg: point[1], label: `${aroundInstant ? (((m / 60) % 24) + 24) % 24 : m / 60}h` });
   }
   if (piece.length > 1) segments.push(piece);
   const at = moonPosition(c.jdUT, site, scene.air, { deltaTModel: scene.deltaT });
@@ -195,6 +224,16 @@ function moonOfCandidate(mark: MarkedCandidate, scene: Scene, centre: number): S
       words: `${moonPhaseWords(at.phaseLongitudeDeg)}, ${Math.round(100 * at.illuminatedFraction)}% lit, lit side ${litSideWords(at.brightLimbTiltFromVerticalDeg)}`,
     },
   };
+}
+
+/** The moon at a marked candidate's instant: the solver's own (Candidate.moon), else from the ephemeris. */
+function candidateMoon(mark: MarkedCandidate, scene: Scene, centre: number): SkyCandidateMoon {
+  const c = mark.candidate;
+  const m = c.moon;
+  if (m) return { label: mark.label, azimuthDeg: unwrapAzimuth(m.azimuthDeg, centre), altitudeDeg: m.altitudeDeg, illuminatedFraction: m.illuminatedFraction, brightLimbTiltFromVerticalDeg: m.litSideTiltDeg };
+  const site: SunSite = { latitudeDeg: scene.site.latitudeDeg, longitudeDeg: scene.site.longitudeDeg, elevationM: scene.site.elevationM };
+  const p = moonPosition(c.jdUT, site, scene.air, { deltaTModel: scene.deltaT });
+  return { label: mark.label, azimuthDeg: unwrapAzimuth(p.azimuthDeg, centre), altitudeDeg: p.altitudeDeg, illuminatedFraction: p.illuminatedFraction, brightLimbTiltFromVerticalDeg: p.brightLimbTiltFromVerticalDeg };
 }
 
 /** The marked candidates on different days of the year (month and day), at most max. */
@@ -228,13 +267,16 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   const marked = markedCandidates(answer);
   const best = marked[0]?.candidate;
   const centre = scene.site.latitudeDeg >= 0 ? 180 : 0;
-  const paths = distinctDays(marked, options.maxPaths ?? 3).map((m) => pathOfDay(m, scene, centre));
-  const moon = options.moon === true && marked[0] !== undefined ? moonOfCandidate(marked[0], scene, centre) : undefined;
+  const byMoon = isLitByMoonAlone(model);
+  const days = distinctDays(marked, options.maxPaths ?? 3);
+  const paths = byMoon ? [] : days.map((m) => pathOfDay(m, scene, centre));
+  const moonPaths = byMoon ? days.map((m) => moonOfCandidate(m, scene, centre, true)) : [];
+  const moon = byMoon ? moonPaths[0] : options.moon === true && marked[0] !== undefined ? moonOfCandidate(marked[0], scene, centre) : undefined;
 
   let azMin = centre - 90;
   let azMax = centre + 90;
   let altMax = 30;
-  for (const points of [...paths.map((p) => p.points), ...(moon?.segments ?? [])]) {
+  for (const points of [...paths.map((p) => p.points), ...(moon?.segments ?? []), ...moonPaths.flatMap((p) => p.segments)]) {
     for (const [az, alt] of points) {
       azMin = Math.min(azMin, az);
       azMax = Math.max(azMax, az);
@@ -276,7 +318,7 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
     return { observationId: term.observationId, label: `${term.observationId} (${words}${term.wallId ? `, wall ${term.wallId}` : ''})`, azimuths, altitudes, values, ...opposite };
   });
 
-  const suns: SkySun[] = marked.map(({ label, candidate: c }) => ({
+  const suns: SkySun[] = byMoon ? [] : marked.map(({ label, candidate: c }) => ({
     label,
     azimuthDeg: unwrapAzimuth(c.sun.azimuthDeg, centre),
     altitudeDeg: c.sun.altitudeDeg,
@@ -294,5 +336,6 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
   }
   const explicitFacts = model.facts.filter((f) => !f.implicit);
   if (explicitFacts.length > 0) notes.push(`facts without numbers (${explicitFacts.map((f) => f.observationId).join(', ')}) are not drawn`);
-  return { centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, calendarNote: calendarReadingNote(scene), evaluations, ...(moon ? { moon } : {}) };
+  const moonMarks = byMoon ? { moonPaths, moons: marked.map((m) => candidateMoon(m, scene, centre)) } : {};
+  return { light: byMoon ? 'moon' : 'sun', ...moonMarks, centreAzimuthDeg: centre, azimuthRange, altitudeRange, bands, paths, suns, notes, calendarNote: calendarReadingNote(scene), evaluations, ...(moon ? { moon } : {}) };
 }

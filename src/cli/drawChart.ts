@@ -11,6 +11,7 @@ import { renderDateHourMap } from '../charts/dateHourMap.js';
 import { skyChartData } from '../charts/skyChartData.js';
 import { renderSkyChart } from '../charts/skyChart.js';
 import { residualChartData, renderResidualChart } from '../charts/residualChart.js';
+import { chartLightOfModel } from '../charts/chartLight.js';
 import type { ChartKind } from './chartSpec.js';
 
 /**
@@ -38,10 +39,14 @@ export function drawChart(kind: ChartKind, scene: Scene, answer: DateAnswer, onP
   }
 }
 
-/** The three charts of the HTML report (`heliochron report` and the desk), on one evidence model. */
-export function drawReportCharts(scene: Scene, answer: DateAnswer, onProgress?: (done: number, total: number) => void): { map: string; sky: string; residuals: string } {
+/**
+ * The three charts of the HTML report (`heliochron report` and the desk), on one evidence model, and the light they
+ * are drawn for ('moon' for a scene lit by the moon alone: src/charts/chartLight.ts).
+ */
+export function drawReportCharts(scene: Scene, answer: DateAnswer, onProgress?: (done: number, total: number) => void): { map: string; sky: string; residuals: string; light: 'sun' | 'moon' } {
   const model = chartModel(scene);
   return {
+    light: chartLightOfModel(model),
     map: drawChart('map', scene, answer, onProgress, 'hc-map', model),
     sky: drawChart('sky', scene, answer, undefined, 'hc-sky', model),
     residuals: drawChart('residuals', scene, answer, undefined, 'hc-residuals', model),

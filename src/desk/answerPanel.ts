@@ -136,8 +136,8 @@ export class AnswerPanel {
     $('answer-area').dataset.firstCandidate = reply.answer.candidates[0] ? candidateCaption(reply.answer.candidates[0]) : '';
     if (reply.charts) {
       fill($('charts'), [
-        h('figure', {}, [svgNode(reply.charts.map), h('figcaption', { text: 'Where the evidence fits: dates across, hours up.' })]),
-        h('figure', {}, [svgNode(reply.charts.sky), h('figcaption', { text: 'The sun in the sky at the candidates.' })]),
+        h('figure', {}, [svgNode(reply.charts.map), h('figcaption', { text: reply.charts.light === 'moon' ? 'Where the moon\u2019s evidence fits in the best candidate\u2019s year: days across, the hours of the night up.' : 'Where the evidence fits: dates across, hours up.' })]),
+        h('figure', {}, [svgNode(reply.charts.sky), h('figcaption', { text: reply.charts.light === 'moon' ? 'The moon in the sky at the candidates (the light of this scene is the moon\u2019s).' : 'The sun in the sky at the candidates.' })]),
         h('figure', {}, [svgNode(reply.charts.residuals), h('figcaption', { text: 'How far each observation lies from the best candidate, in sigmas.' })]),
       ]);
     }

@@ -24,7 +24,8 @@ export type WorkerReply =
       readonly answer: DateAnswer;
       /** The text answer of `heliochron date`. */
       readonly text: string;
-      readonly charts: { readonly map: string; readonly sky: string; readonly residuals: string } | null;
+      /** The charts; `light` is 'moon' when they are drawn for the moon (a scene lit by the moon alone, src/charts/chartLight.ts). */
+      readonly charts: { readonly map: string; readonly sky: string; readonly residuals: string; readonly light: 'sun' | 'moon' } | null;
       /** Time the solve took in the worker, ms. */
       readonly solveMs: number;
     }

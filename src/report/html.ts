@@ -19,6 +19,7 @@ import { MONTH_NAMES, WEEKDAY_NAMES } from '../calendar/julianDay.js';
 import { describeClockKind, formatClockKind } from '../time/clock.js';
 import { describeSundialHours } from '../time/hourSystems.js';
 import { escapeXml } from '../charts/svg.js';
+import { chartLightOf } from '../charts/chartLight.js';
 import {
   CAUTION,
   calendarRuleWords,
@@ -46,6 +47,8 @@ export interface ReportCharts {
   readonly map: string;
   readonly sky: string;
   readonly residuals: string;
+  /** The light the map and sky chart are drawn for (src/charts/chartLight.ts); worked out from the scene when absent. */
+  readonly light?: 'sun' | 'moon';
 }
 
 export interface Reproducibility {
@@ -341,12 +344,18 @@ function answerSection(scene: Scene, answer: DateAnswer): string {
   return `<section id="answer"><h2>The answer</h2>${families}${moon}${candidates}${replacedList}</section>`;
 }
 
-function chartsSection(charts: ReportCharts): string {
-  const figure = (id: string, svg: string, caption: string): string => `<figure id="${id}">${svg}<figcaption>${caption}</figcaption></figure>`;
+/**
+ * The pictures with their captions; for a scene lit by the moon alone (light 'moon') the captions of the moon's map
+ * and sky chart, and in place of a chart left empty (no SVG given) a sentence saying that it could not be drawn.
+ */
+function chartsSection(charts: ReportCharts, light: 'sun' | 'moon'): string {
+  const figure = (id: string, svg: string, caption: string): string =>
+    svg === '' ? `<figure id="${id}"><p class="note">This picture could not be drawn for this scene.</p><figcaption>${caption}</figcaption></figure>` : `<figure id="${id}">${svg}<figcaption>${caption}</figcaption></figure>`;
+  const moon = light === 'moon';
   return `<section id="charts"><h2>Pictures of the answer</h2>
-<p>The three pictures are drawn from the same estimate as the tables. The words in <em>italics</em> are explained in the list that follows them.</p>
-${figure('figure-map', charts.map, MAP_CAPTION)}
-${figure('figure-sky', charts.sky, SKY_CAPTION)}
+<p>The three pictures are drawn from the same estimate as the tables. The words in <em>italics</em> are explained in the list that follows them.${moon ? ' The light of this scene is the moon\u2019s: the map and the sky chart are drawn for the moon, not the sun.' : ''}</p>
+${figure('figure-map', charts.map, moon ? MOON_MAP_CAPTION : MAP_CAPTION)}
+${figure('figure-sky', charts.sky, moon ? MOON_SKY_CAPTION : SKY_CAPTION)}
 ${figure('figure-residuals', charts.residuals, RESIDUALS_CAPTION)}
 </section>
 ${glossarySection()}`;
@@ -376,6 +385,25 @@ const SKY_CAPTION =
   'best day of each family (solid, dashed, dotted), with a dot at each whole hour of local apparent time. The yellow dots are the sun at F1, F2, ..., ' +
   'each with black ellipses of direction holding 68% (solid) and 95% (dashed); where several lie together, their labels are set beside them with thin ' +
   'grey lines to their own dots. A clock fixes the hour, not the direction of the sun, and facts without numbers (a wall in shade) are not drawn.';
+
+/** How to read the moon's date-and-hour map of a scene lit by the moon alone (src/charts/dateHourMap.ts). */
+const MOON_MAP_CAPTION =
+  '<strong>The date-and-hour map of the moon.</strong> The light of this scene is the moon\u2019s, and the moon\u2019s place at a given day and hour ' +
+  'differs from year to year: the map is drawn for one year, that of the best candidate, and holds for that year alone. Across: the days of that ' +
+  'year, with the month boundaries of the calendar in force; up: the hour in local apparent time, from the earliest sunset of the year to the ' +
+  'latest sunrise, so that a night is one column, under the day on whose evening it begins. Each small cell is shaded by how well the moon of that night and hour agrees with all the ' +
+  'evidence at once (its <em>Delta chi-square</em> above the best fit, the same sum the solver uses): darkest blue within 1 <em>sigma</em> (68%), then ' +
+  'within 95%, then within 99.7%; the palest blue, dotted, is a poor fit; white does not fit, daylight hours included. Vermilion dots mark the best ' +
+  'candidates of that year; candidates of other years are listed in the tables, not placed. The right panel enlarges the nights around F1.';
+
+/** How to read the moon's sky chart of a scene lit by the moon alone (src/charts/skyChart.ts). */
+const MOON_SKY_CAPTION =
+  '<strong>The sky chart of the moon.</strong> Across: the moon\u2019s azimuth, its compass direction in degrees clockwise from true north; up: its ' +
+  'altitude above the horizon in degrees, with refraction. Each shadow cast by moonlight allows only certain positions of the moon: its band, in its ' +
+  'own colour and outline style, holds the moon positions that agree with it within 1 sigma (a pole\u2019s shadow points away from the moon, so its ' +
+  'band lies opposite the shadow). The grey lines are the moon\u2019s course through the night of each of the best candidates, from 12 hours before ' +
+  'its instant to 12 hours after, with an open circle at each whole hour of local apparent time. The small discs are the moon at F1, F2, ..., its ' +
+  'lit part white and turned as the observer sees it.';
 
 /** How to read the residuals chart (src/charts/residualChart.ts). */
 const RESIDUALS_CAPTION =
@@ -468,7 +496,7 @@ ${readings}${questionSection(scene)}
 ${assumptionsSection(scene, answer)}
 ${evidenceSection(scene, answer)}
 ${answerSection(scene, answer)}
-${sameLight}${chartsSection(charts)}
+${sameLight}${chartsSection(charts, charts.light ?? chartLightOf(scene))}
 ${consistencySection(answer)}
 ${cautionSection(answer)}
 ${reproducibilitySection(reproducibility)}

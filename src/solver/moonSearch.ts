@@ -33,7 +33,7 @@ import {
   evidenceResidualVector, factResidual, FACT_TOLERANCE_DEG, splitChiSquare, termEvidence, wallAzimuthOf,
   type EvaluationContext, type EvidenceModel,
 } from './evidenceModel.js';
-import { newDatedContext, refineOnDay, siteOf, zoneOffsetsAt } from './fitting.js';
+import { hasMoonEvidence, newDatedContext, refineOnDay, siteOf, zoneOffsetsAt } from './fitting.js';
 import { moonFactViolationDeg } from './moonEvidence.js';
 import { quickPhaseChiSquare } from './moonYears.js';
 import { exactPoint, type RawCandidate } from './stageB.js';
@@ -59,6 +59,14 @@ export interface MoonSearchResult {
 /** True when the scene's shadows are all cast by moonlight (or there are none) and the moon is observed: the sun's search cannot start. */
 export function needsMoonSearch(model: EvidenceModel): boolean {
   return !model.shadows.some((t) => t.light === 'sun');
+}
+
+/**
+ * True for a scene lit by the moon alone: evidence of the moon and no shadow cast by sunlight, so that it is
+ * dated by the moon's own search. Its charts are drawn for the moon, not the sun (src/charts).
+ */
+export function isLitByMoonAlone(model: EvidenceModel): boolean {
+  return hasMoonEvidence(model) && needsMoonSearch(model);
 }
 
 interface DayBest {
