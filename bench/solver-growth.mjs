@@ -1,7 +1,7 @@
 #!/usr/bin/env node
 /**
  * How the date solver's work grows with the window, on every bundled example (issue: speed).
- * Run after `npx tsc -p tsconfig.json`:  node bench/solver-growth.mjs
+ * Run after `npx tsc -p tsconfig.json`:  node bench/solver-growth.mjs [--before <checkout>]
  *
  * Each example is solved with its own evidence, restrictions and calendar, over a 500-year window
  * (1400-1899) and a 3000-year one (-1100 to 1899), and the bench prints, each beside its target:
@@ -10,7 +10,8 @@
  * 2. the warm solve time of the 3000-year window over the 500-year one (medians of 5 interleaved
  *    runs after a warm-up, consistency test on). Target <= 6.5x (linear growth would be 6x).
  * 3. the first solve in a fresh process against the warm solve of the same scene (the 500-year
- *    bench scene of bench/solver-window.mjs). Target <= 3x.
+ *    bench scene of bench/solver-window.mjs). Target <= 3x. With --before <checkout>, that checkout's own
+ *    bench script runs the same fresh processes, alternating with this one's, and both are printed.
  * 4. peak memory (maximum resident set) of a fresh process that solves the Marktgasse example
  *    over 3000 years, against a fresh process that loads the same modules and solves nothing.
  *    Target <= 1.5x.
@@ -113,16 +114,26 @@ for (const file of files) {
 }
 
 console.log('3. First solve in a fresh process against the warm solve (bench/solver-window.mjs scene, 500 years, leave-one-out off); target <= 3x');
+// With --before <checkout>: that checkout's own bench script (its dist) runs the same child, the two alternating.
+const beforeAt = process.argv.indexOf('--before');
+const beforeScript = beforeAt > 0 ? `${process.argv[beforeAt + 1].replace(/\/$/, '')}/bench/solver-growth.mjs` : null;
 const firsts = [];
-for (let i = 0; i < 3; i += 1) {
+const beforeFirsts = [];
+for (let i = 0; i < 5; i += 1) {
   const r = spawnSync(process.execPath, [fileURLToPath(import.meta.url), '--child-first'], { encoding: 'utf8' });
   firsts.push(JSON.parse(r.stdout));
+  if (beforeScript) beforeFirsts.push(JSON.parse(spawnSync(process.execPath, [beforeScript, '--child-first'], { encoding: 'utf8' }).stdout));
 }
-const first = median(firsts.map((f) => f.first));
-const warm = median(firsts.map((f) => f.warm));
-const firstCpu = median(firsts.map((f) => f.firstCpu));
-const warmCpu = median(firsts.map((f) => f.warmCpu));
-console.log(`   first ${first.toFixed(0)} ms, warm ${warm.toFixed(1)} ms (medians of 3 fresh processes): ${(first / warm).toFixed(1)}x   target <= 3x   ${first / warm <= 3 ? 'met' : 'NOT met'}; in CPU time (garbage collection included) first ${firstCpu.toFixed(0)} ms, warm ${warmCpu.toFixed(1)} ms: ${(firstCpu / warmCpu).toFixed(1)}x`);
+const firstLine = (list) => {
+  const first = median(list.map((f) => f.first));
+  const warm = median(list.map((f) => f.warm));
+  const firstCpu = median(list.map((f) => f.firstCpu));
+  const warmCpu = median(list.map((f) => f.warmCpu));
+  return { first, warm, firstCpu, warmCpu, words: `first ${first.toFixed(0)} ms, warm ${warm.toFixed(1)} ms (medians of ${list.length} fresh processes): ${(first / warm).toFixed(1)}x   target <= 3x   ${first / warm <= 3 ? 'met' : 'NOT met'}; in CPU time (garbage collection included) first ${firstCpu.toFixed(0)} ms, warm ${warmCpu.toFixed(1)} ms: ${(firstCpu / warmCpu).toFixed(1)}x   ${firstCpu / warmCpu <= 3 ? 'met' : 'NOT met'}` };
+};
+const { first, warm, words } = firstLine(firsts);
+console.log(`   ${words}`);
+if (beforeScript) console.log(`   before (${beforeScript}): ${firstLine(beforeFirsts).words}`);
 
 console.log('4. Peak memory (max resident set) of a 3000-year solve of marktgasse-print.yaml against Node with the same modules loaded; target <= 1.5x');
 const rss = (extra) => JSON.parse(spawnSync(process.execPath, [fileURLToPath(import.meta.url), '--child-memory', ...extra], { encoding: 'utf8' }).stdout).maxRssKb;

@@ -60,23 +60,36 @@ export function predictPoleShadow(sun: SunDirection): PoleShadowPrediction {
  * with sigma_alt = sigma_ratio / (1 + ratio^2) (first-order propagation of the cotangent).
  */
 export function poleShadowResidual(m: PoleShadowMeasurement, sun: SunDirection): ResidualSet {
-  const p = predictPoleShadow(sun);
-  const residuals: number[] = [];
+  const values = new Float64Array(2);
+  const residuals = Array.from(values.subarray(0, poleShadowResidualValues(m, sun, values, 0)));
   const partials: PartialsRow[] = [];
   const labels: string[] = [];
   if (m.shadowAzimuthDeg !== undefined && m.shadowAzimuthSigmaDeg !== undefined) {
-    residuals.push(normalizeDeg180(p.shadowAzimuthDeg - m.shadowAzimuthDeg) / m.shadowAzimuthSigmaDeg);
     partials.push([1 / m.shadowAzimuthSigmaDeg, 0, 0]);
     labels.push('pole shadow azimuth');
   }
   if (m.lengthRatio !== undefined && m.lengthRatioSigma !== undefined) {
-    const sigmaDeg = ratioSigmaToAngleSigmaDeg(m.lengthRatio, m.lengthRatioSigma);
-    // Sign so that it equals (predicted ratio - observed ratio) / sigma to first order (the ratio falls as the altitude rises).
-    residuals.push((Math.atan2(1, m.lengthRatio) * DEG_PER_RAD - sun.altitudeDeg) / sigmaDeg);
-    partials.push([0, -1 / sigmaDeg, 0]);
+    partials.push([0, -1 / ratioSigmaToAngleSigmaDeg(m.lengthRatio, m.lengthRatioSigma), 0]);
     labels.push('pole shadow length (as altitude)');
   }
-  return { residuals, partials, labels, defined: p.defined };
+  return { residuals, partials, labels, defined: sun.altitudeDeg > 0 };
+}
+
+/**
+ * The residuals of poleShadowResidual alone (no partials), written into `out` from index `at`, for
+ * the solver's sums; returns how many (1 or 2).
+ */
+export function poleShadowResidualValues(m: PoleShadowMeasurement, sun: SunDirection, out: Float64Array, at: number): number {
+  let i = at;
+  if (m.shadowAzimuthDeg !== undefined && m.shadowAzimuthSigmaDeg !== undefined) {
+    out[i++] = normalizeDeg180(normalizeDeg360(sun.azimuthDeg + 180) - m.shadowAzimuthDeg) / m.shadowAzimuthSigmaDeg;
+  }
+  if (m.lengthRatio !== undefined && m.lengthRatioSigma !== undefined) {
+    const sigmaDeg = ratioSigmaToAngleSigmaDeg(m.lengthRatio, m.lengthRatioSigma);
+    // Sign so that it equals (predicted ratio - observed ratio) / sigma to first order (the ratio falls as the altitude rises).
+    out[i++] = (Math.atan2(1, m.lengthRatio) * DEG_PER_RAD - sun.altitudeDeg) / sigmaDeg;
+  }
+  return i - at;
 }
 
 /** Sun directions giving exactly this pole shadow: a point (both parts), a vertical line (azimuth), a circle of altitude (length). */
@@ -145,15 +158,21 @@ export function predictEaveShadow(sun: SunDirection, wallAzimuthDeg: number, pro
 export function eaveShadowResidual(m: EaveShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): ResidualSet {
   const p = predictEaveShadow(sun, wallAzimuthDeg, m.projectionRatio);
   const hsaDeg = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
-  const cotObserved = m.projectionRatio - m.distanceRatio;
-  const sigmaDeg = ratioSigmaToAngleSigmaDeg(cotObserved, m.sigma);
+  const sigmaDeg = ratioSigmaToAngleSigmaDeg(m.projectionRatio - m.distanceRatio, m.sigma);
   const d = verticalShadowAnglePartials(sun.altitudeDeg, hsaDeg);
   return {
-    residuals: [normalizeDeg180(p.verticalShadowAngleDeg - Math.atan2(1, cotObserved) * DEG_PER_RAD) / sigmaDeg],
+    residuals: [eaveShadowResidualValue(m, sun, wallAzimuthDeg)],
     partials: [[d.dHsa / sigmaDeg, d.dAlt / sigmaDeg, -d.dHsa / sigmaDeg]],
     labels: ['eave shadow line distance (as vertical shadow angle)'],
     defined: p.defined && d.ok,
   };
+}
+
+/** The residual of eaveShadowResidual alone (no partials), for the solver's sums. */
+export function eaveShadowResidualValue(m: EaveShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): number {
+  const cotObserved = m.projectionRatio - m.distanceRatio;
+  const vsaDeg = verticalShadowAngleDeg(sun.altitudeDeg, horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg));
+  return normalizeDeg180(vsaDeg - Math.atan2(1, cotObserved) * DEG_PER_RAD) / ratioSigmaToAngleSigmaDeg(cotObserved, m.sigma);
 }
 
 /**

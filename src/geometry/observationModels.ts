@@ -12,25 +12,29 @@ import {
   predictShadowPoints,
   sunDirectionLocus,
   sunDirectionResidual,
+  sunDirectionResidualValues,
   type ShadowPointsMeasurement,
   type ShadowPointsPrediction,
   type SunDirectionMeasurement,
 } from './pointShadows.js';
 import type { ResidualSet } from './residuals.js';
-import { planeDistanceDeg, planeNormalAt, sunCircleLocus, sunCircleResidual, type SunCircleMeasurement } from './skyPlanes.js';
+import { planeDistanceDeg, planeNormalAt, sunCircleLocus, sunCircleResidual, sunCircleResidualValue, type SunCircleMeasurement } from './skyPlanes.js';
 import { sunUnitVector } from './sunVector.js';
 import type { SkyLocus } from './skyLocus.js';
 import type { SunDirection } from './sunVector.js';
 import {
   finShadowLocus,
   finShadowResidual,
+  finShadowResidualValue,
   overhangShadowLocus,
   overhangShadowResidual,
+  overhangShadowResidualValue,
   predictFinShadow,
   predictOverhangShadow,
   predictRodShadow,
   rodShadowLocus,
   rodShadowResidual,
+  rodShadowResidualValue,
   type FinShadowMeasurement,
   type FinShadowPrediction,
   type OverhangShadowMeasurement,
@@ -41,8 +45,10 @@ import {
 import {
   eaveShadowLocus,
   eaveShadowResidual,
+  eaveShadowResidualValue,
   poleShadowLocus,
   poleShadowResidual,
+  poleShadowResidualValues,
   predictEaveShadow,
   predictPoleShadow,
   type EaveShadowMeasurement,
@@ -137,6 +143,41 @@ export function evidenceResiduals(evidence: ShadowEvidence, sun: SunDirection, w
       return sunCircleResidual(evidence, sun);
     default:
       return lightFactResidual(evidence.kind, sun, wallAzimuthDeg, evidence.toleranceDeg ?? DEFAULT_FACT_TOLERANCE_DEG);
+  }
+}
+
+/**
+ * The residuals of evidenceResiduals alone, written into `out` from index `at`; returns how many.
+ * The same numbers, bit for bit (each kind's residual set takes its values from the same function),
+ * without partials or labels: the solver's inner loops sum them and never use the partials.
+ */
+export function evidenceResidualValues(evidence: ShadowEvidence, sun: SunDirection, wallAzimuthDeg: number, out: Float64Array, at: number): number {
+  switch (evidence.kind) {
+    case 'rod-shadow':
+      out[at] = rodShadowResidualValue(evidence, sun, wallAzimuthDeg);
+      return 1;
+    case 'overhang-shadow':
+      out[at] = overhangShadowResidualValue(evidence, sun, wallAzimuthDeg);
+      return 1;
+    case 'fin-shadow':
+      out[at] = finShadowResidualValue(evidence, sun, wallAzimuthDeg);
+      return 1;
+    case 'pole-shadow':
+      return poleShadowResidualValues(evidence, sun, out, at);
+    case 'eave-shadow':
+      out[at] = eaveShadowResidualValue(evidence, sun, wallAzimuthDeg);
+      return 1;
+    case 'sun-direction':
+      sunDirectionResidualValues(evidence, sun, out, at);
+      return 2;
+    case 'sun-circle':
+      out[at] = sunCircleResidualValue(evidence, sun);
+      return 1;
+    default: {
+      const r = evidenceResiduals(evidence, sun, wallAzimuthDeg).residuals;
+      for (let k = 0; k < r.length; k += 1) out[at + k] = r[k];
+      return r.length;
+    }
   }
 }
 

@@ -144,11 +144,10 @@ export interface SunDirectionMeasurement {
 
 /** Two residuals: wrapped azimuth difference and altitude difference, each over its sigma. */
 export function sunDirectionResidual(m: SunDirectionMeasurement, sun: SunDirection): ResidualSet {
+  const values = new Float64Array(2);
+  sunDirectionResidualValues(m, sun, values, 0);
   return {
-    residuals: [
-      normalizeDeg180(sun.azimuthDeg - m.azimuthDeg) / m.azimuthSigmaDeg,
-      (sun.altitudeDeg - m.altitudeDeg) / m.altitudeSigmaDeg,
-    ],
+    residuals: [values[0], values[1]],
     partials: [
       [1 / m.azimuthSigmaDeg, 0, 0],
       [0, 1 / m.altitudeSigmaDeg, 0],
@@ -156,6 +155,12 @@ export function sunDirectionResidual(m: SunDirectionMeasurement, sun: SunDirecti
     labels: ['sun azimuth', 'sun altitude'],
     defined: true,
   };
+}
+
+/** The two residuals of sunDirectionResidual alone, written into `out` at `at` and `at + 1`, for the solver's sums. */
+export function sunDirectionResidualValues(m: SunDirectionMeasurement, sun: SunDirection, out: Float64Array, at: number): void {
+  out[at] = normalizeDeg180(sun.azimuthDeg - m.azimuthDeg) / m.azimuthSigmaDeg;
+  out[at + 1] = (sun.altitudeDeg - m.altitudeDeg) / m.altitudeSigmaDeg;
 }
 
 /** The stated direction itself. */

@@ -98,14 +98,15 @@ export interface SunCircleMeasurement {
  * @example sunCircleResidual({ circle: { normal: [0, 0, 1], clickCovariance: [[1e-4,0,0],[0,1e-4,0],[0,0,1e-4]], cameraSensitivity: [] } }, { azimuthDeg: 0, altitudeDeg: 1 }).residuals[0] // 1.745 (1 deg over 0.573 deg)
  */
 export function sunCircleResidual(m: SunCircleMeasurement, sun: SunDirection): ResidualSet {
-  const z = m.cameraError ?? [];
-  const residualsOf = (trial: SunDirection): number[] => {
-    const s = sunUnitVector(trial.azimuthDeg, trial.altitudeDeg);
-    const sigma = Math.max(planeClickSigmaDeg(m.circle, s), MIN_PLANE_SIGMA_DEG);
-    return [planeDistanceDeg(planeNormalAt(m.circle, z), s) / sigma];
-  };
-  const partials: PartialsRow[] = centralDifferencePartials((trial) => residualsOf(trial), sun, 0).map((r) => [r[0], r[1], 0]);
-  return { residuals: residualsOf(sun), partials, labels: ['distance of the sun from the great circle of an object-shadow pair'], defined: true };
+  const partials: PartialsRow[] = centralDifferencePartials((trial) => [sunCircleResidualValue(m, trial)], sun, 0).map((r) => [r[0], r[1], 0]);
+  return { residuals: [sunCircleResidualValue(m, sun)], partials, labels: ['distance of the sun from the great circle of an object-shadow pair'], defined: true };
+}
+
+/** The residual of sunCircleResidual alone (no partials: those cost six more evaluations), for the solver's sums. */
+export function sunCircleResidualValue(m: SunCircleMeasurement, sun: SunDirection): number {
+  const s = sunUnitVector(sun.azimuthDeg, sun.altitudeDeg);
+  const sigma = Math.max(planeClickSigmaDeg(m.circle, s), MIN_PLANE_SIGMA_DEG);
+  return planeDistanceDeg(planeNormalAt(m.circle, m.cameraError ?? []), s) / sigma;
 }
 
 /**

@@ -82,6 +82,24 @@ export function rodDirectionFromSlope(slopeDeg: number, side: Side): number {
 }
 
 /**
+ * The residual of rodShadowResidual alone (no partials): the number the solver sums, computed
+ * without building the residual set. With a side, the wrapped difference of directions on the
+ * frontal view times -1 on the right; without, the difference of slopes; over sigmaDeg.
+ */
+export function rodShadowResidualValue(m: RodShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): number {
+  const hsaDeg = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
+  const { x, y } = rodDirection(sun, hsaDeg);
+  if (m.side !== undefined) {
+    // On the right the direction is minus the slope: turn the sign so that the residual runs as
+    // (predicted slope - measured slope) on both sides, as for every other measured number
+    // (docs/conventions.md); chi-square is unchanged.
+    const toSlope = m.side === 'right' ? -1 : 1;
+    return (toSlope * normalizeDeg180(atan2Deg(y, x) - rodDirectionFromSlope(m.slopeDeg, m.side))) / m.sigmaDeg;
+  }
+  return (atan2Deg(-y, Math.abs(x)) - m.slopeDeg) / m.sigmaDeg;
+}
+
+/**
  * Residual of a rod's shadow. With a side: the wrapped difference of shadow
  * directions on the frontal view (continuous through HSA = 0), over sigmaDeg, times -1 on the
  * right (so that it runs as predicted minus measured slope on both sides).
@@ -97,20 +115,15 @@ export function rodShadowResidual(m: RodShadowMeasurement, sun: SunDirection, wa
   const ch = cosDeg(hsaDeg);
   const q = ca * ca * sh * sh + sa * sa;
   const ok = q > TINY_NORM_SQUARED;
-  let residual: number;
+  const residual = rodShadowResidualValue(m, sun, wallAzimuthDeg);
   let dAlt: number;
   let dHsa: number;
   if (m.side !== undefined) {
-    // On the right the direction is minus the slope: turn the sign so that the residual runs as
-    // (predicted slope - measured slope) on both sides, as for every other measured number
-    // (docs/conventions.md); chi-square is unchanged.
     const toSlope = m.side === 'right' ? -1 : 1;
-    residual = (toSlope * normalizeDeg180(p.directionDeg - rodDirectionFromSlope(m.slopeDeg, m.side))) / m.sigmaDeg;
     dAlt = ok ? (toSlope * -sh) / q : 0;
     dHsa = ok ? (toSlope * sa * ca * ch) / q : 0;
   } else {
     const sign = Math.sign(sh);
-    residual = (p.slopeDeg - m.slopeDeg) / m.sigmaDeg;
     dAlt = ok ? Math.abs(sh) / q : 0;
     dHsa = ok ? (-sa * ca * sign * ch) / q : 0;
   }
@@ -197,15 +210,20 @@ export function verticalShadowAnglePartials(altitudeDeg: number, hsaDeg: number)
  */
 export function overhangShadowResidual(m: OverhangShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): ResidualSet {
   const hsaDeg = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
-  const vsaDeg = verticalShadowAngleDeg(sun.altitudeDeg, hsaDeg);
   const sigmaDeg = ratioSigmaToAngleSigmaDeg(m.depthRatio, m.sigma);
   const d = verticalShadowAnglePartials(sun.altitudeDeg, hsaDeg);
   return {
-    residuals: [normalizeDeg180(vsaDeg - Math.atan(m.depthRatio) * DEG_PER_RAD) / sigmaDeg],
+    residuals: [overhangShadowResidualValue(m, sun, wallAzimuthDeg)],
     partials: [[d.dHsa / sigmaDeg, d.dAlt / sigmaDeg, -d.dHsa / sigmaDeg]],
     labels: ['overhang shadow depth (as vertical shadow angle)'],
     defined: isWallSunlit(sun, wallAzimuthDeg) && d.ok,
   };
+}
+
+/** The residual of overhangShadowResidual alone (no partials), for the solver's sums. */
+export function overhangShadowResidualValue(m: OverhangShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): number {
+  const vsaDeg = verticalShadowAngleDeg(sun.altitudeDeg, horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg));
+  return normalizeDeg180(vsaDeg - Math.atan(m.depthRatio) * DEG_PER_RAD) / ratioSigmaToAngleSigmaDeg(m.depthRatio, m.sigma);
 }
 
 /** Sun directions giving exactly this overhang shadow: tan(alt) = depthRatio cos(HSA), |HSA| < 90. */
@@ -263,26 +281,28 @@ export function predictFinShadow(sun: SunDirection, wallAzimuthDeg: number): Fin
 export function finShadowResidual(m: FinShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): ResidualSet {
   const hsaDeg = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
   const sigmaDeg = ratioSigmaToAngleSigmaDeg(m.widthRatio, m.sigma);
+  const dHsa = m.side !== undefined ? (m.side === 'right' ? 1 : -1) / sigmaDeg : Math.sign(hsaDeg) / sigmaDeg;
+  return {
+    residuals: [finShadowResidualValue(m, sun, wallAzimuthDeg)],
+    partials: [[dHsa, 0, -dHsa]],
+    labels: ['fin shadow width (as horizontal shadow angle)'],
+    defined: isWallSunlit(sun, wallAzimuthDeg),
+  };
+}
+
+/** The residual of finShadowResidual alone (no partials), for the solver's sums. */
+export function finShadowResidualValue(m: FinShadowMeasurement, sun: SunDirection, wallAzimuthDeg: number): number {
+  const hsaDeg = horizontalShadowAngleDeg(sun.azimuthDeg, wallAzimuthDeg);
+  const sigmaDeg = ratioSigmaToAngleSigmaDeg(m.widthRatio, m.sigma);
   const observedDeg = Math.atan(m.widthRatio) * DEG_PER_RAD;
-  let residual: number;
-  let dHsa: number;
   if (m.side !== undefined) {
     // On the left the HSA is minus the angle of the ratio: turn the sign so that the residual runs as
     // (predicted angle - measured angle) on both sides, as for every other measured number
     // (docs/conventions.md); chi-square is unchanged.
     const toRatio = m.side === 'right' ? 1 : -1;
-    residual = (toRatio * normalizeDeg180(hsaDeg - toRatio * observedDeg)) / sigmaDeg;
-    dHsa = toRatio / sigmaDeg;
-  } else {
-    residual = (Math.abs(hsaDeg) - observedDeg) / sigmaDeg;
-    dHsa = Math.sign(hsaDeg) / sigmaDeg;
+    return (toRatio * normalizeDeg180(hsaDeg - toRatio * observedDeg)) / sigmaDeg;
   }
-  return {
-    residuals: [residual],
-    partials: [[dHsa, 0, -dHsa]],
-    labels: ['fin shadow width (as horizontal shadow angle)'],
-    defined: isWallSunlit(sun, wallAzimuthDeg),
-  };
+  return (Math.abs(hsaDeg) - observedDeg) / sigmaDeg;
 }
 
 /** Sun directions giving exactly this fin shadow: HSA = +/- atan(widthRatio), any altitude above the horizon. */

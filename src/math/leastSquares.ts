@@ -64,20 +64,19 @@ export function centralDifferenceJacobian(
   steps?: readonly number[],
 ): number[][] {
   const n = x.length;
-  const columns: number[][] = [];
+  const rows: number[][] = [];
+  const xp = x.slice();
   for (let j = 0; j < n; j += 1) {
     const h = steps?.[j] ?? 1e-6 * (Math.abs(x[j]) + 1e-3);
-    const xp = x.slice();
-    const xm = x.slice();
-    xp[j] += h;
-    xm[j] -= h;
+    xp[j] = x[j] + h;
     const rp = residuals(xp);
-    const rm = residuals(xm);
-    columns.push(rp.map((v, i) => (v - rm[i]) / (2 * h)));
+    xp[j] = x[j] - h;
+    const rm = residuals(xp);
+    xp[j] = x[j];
+    // Rows filled column by column (one row per residual, as the first column gives their number).
+    if (j === 0) for (let i = 0; i < rp.length; i += 1) rows.push(new Array<number>(n));
+    for (let i = 0; i < rows.length; i += 1) rows[i][j] = (rp[i] - rm[i]) / (2 * h);
   }
-  const m = columns.length > 0 ? columns[0].length : 0;
-  const rows: number[][] = [];
-  for (let i = 0; i < m; i += 1) rows.push(columns.map((c) => c[i]));
   return rows;
 }
 
@@ -122,7 +121,7 @@ export function levenbergMarquardt(
   while (iterations < maxIterations) {
     iterations += 1;
     const a = jtj.map((row, i) => row.map((v, j) => (i === j ? v + lambda * (v > 0 ? v : 1e-12) : v)));
-    const dx = solveSmallSystem(a, jtr.map((v) => -v));
+    const dx = solveInPlace(a, jtr.map((v) => -v)); // a is this step's own copy
     if (dx === null) {
       lambda *= 10;
       if (lambda > LAMBDA_CEILING) break;
@@ -188,8 +187,12 @@ export function covarianceFromJacobian(jac: readonly number[][], n: number): num
  * @example solveSmallSystem([[2, 0], [0, 4]], [2, 8]) // [1, 2]
  */
 export function solveSmallSystem(a: readonly (readonly number[])[], b: readonly number[]): number[] | null {
+  return solveInPlace(a.map((row) => row.slice()), b);
+}
+
+/** solveSmallSystem on a matrix the caller gives away: its rows are overwritten by the LU factors. */
+function solveInPlace(lu: number[][], b: readonly number[]): number[] | null {
   const n = b.length;
-  const lu = a.map((row) => row.slice());
   const piv = Array.from({ length: n }, (_, i) => i);
   const col = new Array<number>(n);
   for (let j = 0; j < n; j += 1) {

@@ -39,7 +39,7 @@
 import { predictHourSystemClock } from './hourSystemPrediction.js';
 import { InvalidInputError } from '../errors.js';
 import type { ClockKind, Observation, Scene, ShadowLight } from '../scene/types.js';
-import { evidenceResiduals, predictEvidence, type ShadowEvidence } from '../geometry/observationModels.js';
+import { evidenceResiduals, evidenceResidualValues, predictEvidence, type ShadowEvidence } from '../geometry/observationModels.js';
 import { lightFactViolationDeg, type LightFact } from '../geometry/lightFacts.js';
 import { horizontalShadowAngleDeg } from '../geometry/shadowAngles.js';
 import { planeClickSigmaDeg, sideViolation, type SkyPlane } from '../geometry/skyPlanes.js';
@@ -426,30 +426,52 @@ export function termEvidence(model: EvidenceModel, t: ShadowTerm, nuisances: rea
   return t.evidence.kind === 'sun-circle' ? { ...t.evidence, cameraError: cameraErrorOf(model, nuisances) } : t.evidence;
 }
 
+/** How many residual rows the model has: measured (shadows, clocks, the moon), nuisance priors, facts (the sun's, then the moon's). */
+export function residualRowCount(model: EvidenceModel): number {
+  return model.measuredCount + model.nuisances.length + model.facts.length + model.moonFacts.length;
+}
+
 /**
  * Residual vector: measured (shadows, clocks, the moon), then nuisance priors, then soft facts (the
  * sun's, then the moon's). The moon's rows are 0 when the context holds no moon.
  */
 export function evidenceResidualVector(model: EvidenceModel, ctx: EvaluationContext): number[] {
+  const n = residualRowCount(model);
+  if (scratch.length < n) scratch = new Float64Array(2 * n);
+  writeEvidenceResiduals(model, ctx, scratch, 0);
   const out: number[] = [];
+  for (let i = 0; i < n; i += 1) out.push(scratch[i]);
+  return out;
+}
+
+/** The rows of one evaluation before they are copied out (the writer stores into typed arrays only: one kind of store in the hot loop). */
+let scratch = new Float64Array(64);
+
+/**
+ * The residual vector of evidenceResidualVector written into `out` from index `at` (the same numbers,
+ * bit for bit), for the solver's inner loops: a buffer kept between evaluations, and no partials
+ * computed (src/geometry/observationModels.ts evidenceResidualValues).
+ */
+export function writeEvidenceResiduals(model: EvidenceModel, ctx: EvaluationContext, out: Float64Array, at: number): void {
+  let i = at;
   for (const t of model.shadows) {
     const light = lightDirectionOf(t.light, ctx);
     if (light === null) {
-      for (let k = 0; k < t.count; k += 1) out.push(0);
+      for (let k = 0; k < t.count; k += 1) out[i++] = 0;
       continue;
     }
-    const r = evidenceResiduals(termEvidence(model, t, ctx.nuisances), light, wallAzimuthOf(model, t.wallId, ctx.nuisances)).residuals;
-    for (const v of r) out.push(v);
+    const evidence = t.evidence.kind === 'sun-circle' ? termEvidence(model, t, ctx.nuisances) : t.evidence;
+    i += evidenceResidualValues(evidence, light, wallAzimuthOf(model, t.wallId, ctx.nuisances), out, i);
   }
-  for (const c of model.clocks) out.push(clockResidual(c, model, ctx));
+  for (const c of model.clocks) out[i++] = clockResidual(c, model, ctx);
   for (const t of model.moons) {
-    if (ctx.moon) for (const v of moonResiduals(t.evidence, ctx.moon)) out.push(v);
-    else for (let k = 0; k < t.count; k += 1) out.push(0);
+    if (ctx.moon) for (const v of moonResiduals(t.evidence, ctx.moon)) out[i++] = v;
+    else for (let k = 0; k < t.count; k += 1) out[i++] = 0;
   }
-  model.nuisances.forEach((n, k) => out.push((ctx.nuisances[k] - n.priorDeg) / n.sigmaDeg));
-  for (const f of model.facts) out.push(factResidual(model, f, ctx));
-  for (const f of model.moonFacts) out.push(ctx.moon ? moonFactViolationDeg(f.fact, ctx.moon) / FACT_TOLERANCE_DEG : 0);
-  return out;
+  const nuisances = model.nuisances;
+  for (let k = 0; k < nuisances.length; k += 1) out[i++] = (ctx.nuisances[k] - nuisances[k].priorDeg) / nuisances[k].sigmaDeg;
+  for (const f of model.facts) out[i++] = factResidual(model, f, ctx);
+  for (const f of model.moonFacts) out[i++] = ctx.moon ? moonFactViolationDeg(f.fact, ctx.moon) / FACT_TOLERANCE_DEG : 0;
 }
 
 /**

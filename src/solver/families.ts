@@ -116,9 +116,16 @@ function bestByYear(members: readonly FamilyMember[]): Map<number, number> {
 /** Whether the family's years are told apart (by the members of the best keeping). */
 export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext): YearsTold {
   const byYear = bestByYear(members);
-  const best = Math.min(...byYear.values());
-  const alikeYears = [...byYear].filter(([, o]) => o <= best + YEARS_ALIKE_DELTA_CHI2).map(([y]) => y).sort((a, b) => a - b);
-  const spreadChiSquare = Math.max(...[...byYear.values()].map((o) => o - best));
+  // Loops, not spreads of the map: a family holds a member for every year of the window.
+  let best = Infinity;
+  for (const o of byYear.values()) best = Math.min(best, o);
+  const alikeYears: number[] = [];
+  let spreadChiSquare = -Infinity;
+  for (const [y, o] of byYear) {
+    if (o <= best + YEARS_ALIKE_DELTA_CHI2) alikeYears.push(y);
+    spreadChiSquare = Math.max(spreadChiSquare, o - best);
+  }
+  alikeYears.sort((a, b) => a - b);
   if (alikeYears.length > 1) {
     const words = ctx.moonEvidence
       ? `${yearListText(alikeYears)} (the light and the moon together cannot tell these years apart)`
@@ -156,7 +163,8 @@ function keepingsLabel(keepings: readonly FamilyKeeping[]): string {
 /** Build one family from its members (at least one; several keepings allowed). */
 export function buildFamily(id: string, rank: number, members: readonly FamilyMember[], ctx: FamilyContext, perYear: boolean): CandidateFamily {
   const sorted = [...members].sort((a, b) => a.year - b.year || a.objective - b.objective);
-  const best = [...members].sort((a, b) => a.objective - b.objective)[0];
+  // The first member of lowest objective (what a stable sort by objective puts first), by one pass.
+  const best = members.reduce((x, y) => (y.objective < x.objective ? y : x));
   let ords = sorted.map((m) => ({ m, o: ordinal(m.month, m.day) }));
   const lo0 = Math.min(...ords.map((x) => x.o));
   const hi0 = Math.max(...ords.map((x) => x.o));

@@ -22,6 +22,7 @@ import { jdToDecimalYear } from '../time/timeScales.js';
 import { zoneOffsetMinutes } from '../time/clock.js';
 import {
   evidenceResidualVector,
+  writeEvidenceResiduals,
   latitudeOf,
   longitudeOf,
   type EvidenceModel,
@@ -47,14 +48,19 @@ export function siteOf(model: EvidenceModel): SunSite {
   return { latitudeDeg: s.latitudeDeg, longitudeDeg: s.longitudeDeg, elevationM: s.elevationM };
 }
 
+/** The zone offsets of a fit without zone clocks: none is asked for (0, as an unknown zone). */
+const NO_ZONE_OFFSETS = (_zone: string): number => 0;
+
 /** Zone offsets held fixed over one fit (taken at one instant). */
 export function zoneOffsetsAt(model: EvidenceModel, assumed: ClockKind | null, jdUT: number): (zone: string) => number {
-  const zones = new Map<string, number>();
+  let zones: Map<string, number> | null = null;
   for (const c of model.clocks) {
     const kind = c.kept ?? assumed;
-    if (kind && kind.kind === 'zone' && !zones.has(kind.zone)) zones.set(kind.zone, zoneOffsetMinutes(kind.zone, jdUT));
+    if (kind && kind.kind === 'zone' && !zones?.has(kind.zone)) (zones ??= new Map()).set(kind.zone, zoneOffsetMinutes(kind.zone, jdUT));
   }
-  return (zone: string) => zones.get(zone) ?? 0;
+  if (zones === null) return NO_ZONE_OFFSETS;
+  const found = zones;
+  return (zone: string) => found.get(zone) ?? 0;
 }
 
 // ------------------------------------------------------------ stage A
@@ -66,19 +72,29 @@ export interface StageAContext {
   readonly zoneOffset: (zone: string) => number;
 }
 
-/** Residual vector at x = [declination, hour angle, ...nuisances]. */
-export function stageAResiduals(c: StageAContext, x: readonly number[]): number[] {
-  const nuis = x.slice(2);
-  const sun = sunFromDeclinationHourAngle(x[0], x[1], latitudeOf(c.model, nuis), c.model.scene.air);
-  const ctx: EvaluationContext = {
-    sun,
-    nuisances: nuis,
-    apparentMinutes: 720 + 4 * x[1],
+/** The evaluation context of stage A at (declination, hour angle, nuisances). */
+function stageAContextAt(c: StageAContext, declinationDeg: number, hourAngleDeg: number, nuisances: readonly number[]): EvaluationContext {
+  return {
+    sun: sunFromDeclinationHourAngle(declinationDeg, hourAngleDeg, latitudeOf(c.model, nuisances), c.model.scene.air),
+    nuisances,
+    apparentMinutes: 720 + 4 * hourAngleDeg,
     equationOfTimeMinutes: null,
     assumedClock: c.assumed,
     zoneOffsetMinutes: c.zoneOffset,
   };
-  return evidenceResidualVector(c.model, ctx);
+}
+
+/** Residual vector at x = [declination, hour angle, ...nuisances]. */
+export function stageAResiduals(c: StageAContext, x: readonly number[]): number[] {
+  return evidenceResidualVector(c.model, stageAContextAt(c, x[0], x[1], x.slice(2)));
+}
+
+/**
+ * The residual vector of stageAResiduals written into `out` from index `at` (the same numbers, bit for
+ * bit), with the nuisances given apart: for stage A's grid, which evaluates some 1,700 points.
+ */
+export function writeStageAResiduals(c: StageAContext, declinationDeg: number, hourAngleDeg: number, nuisances: readonly number[], out: Float64Array, at: number): void {
+  writeEvidenceResiduals(c.model, stageAContextAt(c, declinationDeg, hourAngleDeg, nuisances), out, at);
 }
 
 export function stageASteps(model: EvidenceModel): number[] {
@@ -214,6 +230,7 @@ export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: num
   const { jdUT, state, sun } = datedSun(c, dayJd0, apparentMinutes, nuisances);
   let moon: MoonPosition | undefined;
   if (withMoon && c.moonRows) moon = moonBetweenDays(c, dayJd0, apparentMinutes, nuisances, jdUT);
+  // One shape of context and point, with the moon or without (then `moon` is undefined): no spread in the inner loops.
   const ctx: EvaluationContext = {
     sun,
     nuisances,
@@ -221,9 +238,9 @@ export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: num
     equationOfTimeMinutes: state.equationOfTimeMinutes,
     assumedClock: c.assumed,
     zoneOffsetMinutes: c.zoneOffset,
-    ...(moon ? { moon } : {}),
+    moon,
   };
-  return { dayJd0, apparentMinutes, nuisances, jdUT, state, sun, ...(moon ? { moon } : {}), residuals: evidenceResidualVector(c.model, ctx) };
+  return { dayJd0, apparentMinutes, nuisances, jdUT, state, sun, moon, residuals: evidenceResidualVector(c.model, ctx) };
 }
 
 export function datedSteps(model: EvidenceModel): number[] {

@@ -13,6 +13,7 @@
  */
 import type {
   AnswerFreedom,
+  ClockAssumption,
   AnswerStatus,
   Candidate,
   CandidateFamily,
@@ -155,31 +156,57 @@ function restrictionWords(scene: Scene, win: DayWindow): string | null {
   return parts.length ? parts.join('; ') : null;
 }
 
+/**
+ * A kept candidate as a family member. A class, not an object literal with a getter: the search keeps
+ * a member for every year of the window, and a literal with a getter is built by a slow path.
+ */
+class KeptMember implements FamilyMember {
+  readonly objective: number;
+  readonly year: number;
+  readonly month: number;
+  readonly day: number;
+  readonly calendar: 'julian' | 'gregorian';
+  readonly apparentMinutes: number;
+  readonly weight: number;
+  readonly chiSquare: number;
+  readonly penalty: number;
+  readonly assumptionIndex: number;
+  readonly assumption: ClockAssumption;
+  constructor(
+    private readonly s: Solved,
+    private readonly raw: RawCandidate,
+    civil: { readonly year: number; readonly month: number; readonly day: number },
+    calendar: 'julian' | 'gregorian',
+  ) {
+    this.objective = raw.objective;
+    this.year = civil.year;
+    this.month = civil.month;
+    this.day = civil.day;
+    this.calendar = calendar;
+    this.apparentMinutes = ((raw.apparentMinutes % 1440) + 1440) % 1440;
+    this.weight = s.weights.get(raw) ?? 0;
+    this.chiSquare = raw.chiSquare;
+    this.penalty = raw.penalty;
+    this.assumptionIndex = raw.assumptionIndex;
+    this.assumption = s.search.assumptions[raw.assumptionIndex];
+  }
+  candidate(): Candidate {
+    return dressed(this.s, this.raw);
+  }
+  /** Taken only for the members a family names (its best, each keeping's best): a p-value costs an incomplete gamma function. */
+  get pValue(): number | null {
+    return pOf(this.s.model, this.raw.chiSquare);
+  }
+}
+
 /** All families, best first (keepings of one light joined), before the maxFamilies cut. */
 function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
   const groups = new Map<string, FamilyMember[]>();
   for (const raw of s.kept) {
     const answer = jdToCivilDate(s.win.calendar, raw.dayJd0 + 0.5);
-    const civil = { ...answer.civil, calendar: answer.date.calendar };
-    const key = `${raw.trackKey}|${civil.calendar}`;
-    const member: FamilyMember = {
-      candidate: () => dressed(s, raw),
-      objective: raw.objective,
-      year: civil.year,
-      month: civil.month,
-      day: civil.day,
-      calendar: civil.calendar,
-      apparentMinutes: ((raw.apparentMinutes % 1440) + 1440) % 1440,
-      weight: s.weights.get(raw) ?? 0,
-      chiSquare: raw.chiSquare,
-      penalty: raw.penalty,
-      // Taken only for the members a family names (its best, each keeping's best): a p-value costs an incomplete gamma function.
-      get pValue() {
-        return pOf(s.model, raw.chiSquare);
-      },
-      assumptionIndex: raw.assumptionIndex,
-      assumption: s.search.assumptions[raw.assumptionIndex],
-    };
+    const calendar = answer.date.calendar;
+    const member = new KeptMember(s, raw, answer.civil, calendar);
+    const key = `${raw.trackKey}|${calendar}`;
     const group = groups.get(key);
     if (group) group.push(member);
     else groups.set(key, [member]);

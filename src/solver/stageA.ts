@@ -15,8 +15,8 @@
  * numbers, bit for bit, as evaluating the grid afresh).
  */
 import type { ClockKind } from '../scene/types.js';
-import type { EvidenceModel } from './evidenceModel.js';
-import { refineStageA, stageAResiduals, type StageAContext } from './fitting.js';
+import { residualRowCount, type EvidenceModel } from './evidenceModel.js';
+import { refineStageA, writeStageAResiduals, type StageAContext } from './fitting.js';
 
 export interface StageAMinimum {
   readonly declinationDeg: number;
@@ -61,12 +61,6 @@ const HA_STEP_DEG = 5;
 /** Minima kept: at most this many, and only those within this much of the best. */
 export const MAX_STAGE_A_MINIMA = 10;
 export const STAGE_A_CUTOFF = 60;
-
-function sumSquares(r: readonly number[]): number {
-  let s = 0;
-  for (const v of r) s += v * v;
-  return s;
-}
 
 /**
  * Every local minimum of the year-independent chi-square, refined and ranked.
@@ -165,20 +159,21 @@ function gridValues(
     }
     return { grid, kept: null, summed: true };
   }
-  let values: Float64Array | null = null;
-  let rowCount = 0;
-  const x = [0, 0, ...prior];
+  // Every residual row of every point, kept for reruns when there are at most MAX_KEPT_GRID_ROWS rows;
+  // else one point's rows at a time. Written in place: no array per point.
+  const rowCount = residualRowCount(c.model);
+  const keep = rowCount <= MAX_KEPT_GRID_ROWS;
+  const values = keep ? new Float64Array(decs.length * nHa * rowCount) : null;
+  const scratch = keep ? null : new Float64Array(rowCount);
   for (let i = 0; i < decs.length; i += 1) {
+    const row = grid[i];
     for (let j = 0; j < nHa; j += 1) {
-      x[0] = decs[i];
-      x[1] = has[j];
-      const r = stageAResiduals(c, x);
-      if (values === null && r.length <= MAX_KEPT_GRID_ROWS) {
-        rowCount = r.length;
-        values = new Float64Array(decs.length * nHa * rowCount);
-      }
-      if (values !== null) values.set(r, (i * nHa + j) * rowCount);
-      grid[i][j] = sumSquares(r);
+      const buffer = values ?? (scratch as Float64Array);
+      const base = values === null ? 0 : (i * nHa + j) * rowCount;
+      writeStageAResiduals(c, decs[i], has[j], prior, buffer, base);
+      let sum = 0;
+      for (let k = 0; k < rowCount; k += 1) sum += buffer[base + k] * buffer[base + k];
+      row[j] = sum;
     }
     onProgress?.(i + 1, decs.length);
   }
