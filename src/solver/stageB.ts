@@ -121,7 +121,7 @@ export function exactPoint(
 ): { point: DatedPoint; sun: SunPosition } {
   const lon = longitudeOf(model, nuisances);
   const approxJdUT = dayJd0 + (minutes - equationOfTimeGuessMinutes) / 1440 - lon / 360;
-  const sun = sunPosition(approxJdUT, { ...site, longitudeDeg: lon }, model.scene.air, { deltaTModel: model.scene.deltaT });
+  const sun = sunPosition(approxJdUT, { latitudeDeg: site.latitudeDeg, longitudeDeg: lon, elevationM: site.elevationM }, model.scene.air, { deltaTModel: model.scene.deltaT });
   const track: SunTrack = {
     anchorJdUT: approxJdUT,
     declinationDeg: [sun.declinationDeg, sun.declinationDeg, sun.declinationDeg],
@@ -306,12 +306,14 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           }
         }
         const w = hi.cycle === lo.cycle ? 0 : (k - lo.cycle) / (hi.cycle - lo.cycle);
-        const x = lo.fit.x.map((v, i) => {
+        const x: number[] = [];
+        for (let i = 0; i < lo.fit.x.length; i += 1) {
+          const v = lo.fit.x[i];
           const a = i === 0 ? v - lo.cycle * TROPICAL_YEAR_DAYS : v;
           const b = i === 0 ? hi.fit.x[0] - hi.cycle * TROPICAL_YEAR_DAYS : hi.fit.x[i];
           const mixed = a + w * (b - a);
-          return i === 0 ? mixed + k * TROPICAL_YEAR_DAYS : mixed;
-        });
+          x.push(i === 0 ? mixed + k * TROPICAL_YEAR_DAYS : mixed);
+        }
         const objective = lo.objective + w * (hi.objective - lo.objective);
         return { x, objective, rep: w < 0.5 ? lo : hi, mapped: true, lo, hi, w };
       };
