@@ -161,34 +161,34 @@ function restrictionWords(scene: Scene, win: DayWindow): string | null {
  * a member for every year of the window, and a literal with a getter is built by a slow path.
  */
 class KeptMember implements FamilyMember {
-  readonly objective: number;
-  readonly year: number;
-  readonly month: number;
-  readonly day: number;
-  readonly calendar: 'julian' | 'gregorian';
   readonly apparentMinutes: number;
-  readonly weight: number;
-  readonly chiSquare: number;
-  readonly penalty: number;
-  readonly assumptionIndex: number;
-  readonly assumption: ClockAssumption;
   constructor(
     private readonly s: Solved,
     private readonly raw: RawCandidate,
-    civil: { readonly year: number; readonly month: number; readonly day: number },
-    calendar: 'julian' | 'gregorian',
+    readonly year: number,
+    readonly month: number,
+    readonly day: number,
+    readonly calendar: 'julian' | 'gregorian',
   ) {
-    this.objective = raw.objective;
-    this.year = civil.year;
-    this.month = civil.month;
-    this.day = civil.day;
-    this.calendar = calendar;
     this.apparentMinutes = ((raw.apparentMinutes % 1440) + 1440) % 1440;
-    this.weight = s.weights.get(raw) ?? 0;
-    this.chiSquare = raw.chiSquare;
-    this.penalty = raw.penalty;
-    this.assumptionIndex = raw.assumptionIndex;
-    this.assumption = s.search.assumptions[raw.assumptionIndex];
+  }
+  get objective(): number {
+    return this.raw.objective;
+  }
+  get chiSquare(): number {
+    return this.raw.chiSquare;
+  }
+  get penalty(): number {
+    return this.raw.penalty;
+  }
+  get weight(): number {
+    return this.s.weights.get(this.raw) ?? 0;
+  }
+  get assumptionIndex(): number {
+    return this.raw.assumptionIndex;
+  }
+  get assumption(): ClockAssumption {
+    return this.s.search.assumptions[this.raw.assumptionIndex];
   }
   candidate(): Candidate {
     return dressed(this.s, this.raw);
@@ -205,7 +205,7 @@ function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
   for (const raw of s.kept) {
     const answer = jdToCivilDate(s.win.calendar, raw.dayJd0 + 0.5);
     const calendar = answer.date.calendar;
-    const member = new KeptMember(s, raw, answer.civil, calendar);
+    const member = new KeptMember(s, raw, answer.civil.year, answer.civil.month, answer.civil.day, calendar);
     const key = `${raw.trackKey}|${calendar}`;
     const group = groups.get(key);
     if (group) group.push(member);
