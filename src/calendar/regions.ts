@@ -423,6 +423,15 @@ export function jdToCivilDate(rule: CalendarRule | ResolvedCalendar, jd: number)
   return { date, dayFraction, reckoning, civil };
 }
 
+/**
+ * The civil day (its name in the reckoning in force) of a JD: jdToCivilDate(rule, jd).civil alone,
+ * without the calendar date beside it (for loops over many days, such as the solver's allowed months).
+ * @example jdToCivilDay({ kind: 'region', regionId: 'great-britain' }, 2361221.5) // 14 September 1752
+ */
+export function jdToCivilDay(rule: CalendarRule | ResolvedCalendar, jd: number): CivilDay {
+  return jdToReckoningDay(jd, reckoningInForce(rule, jd)).day;
+}
+
 const DATE_ALLOWED = 'a day that was in civil use under the stated calendar';
 
 /**

@@ -37,7 +37,7 @@ import { instantOfSolarLongitude, longitudesOfDeclination, lowPrecisionSun, TROP
 import { parabola, solarStateOnTrack, type SunTrack } from './sunModel.js';
 import type { StageAMinimum } from './stageA.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
-import { jdToCivilDate } from '../calendar/regions.js';
+import { jdToCivilDay } from '../calendar/regions.js';
 
 /** Years between representative years in a long window. */
 export const REP_SPACING = 50;
@@ -180,10 +180,10 @@ function farDistance(win: DayWindow, centre: number, from: number, side: -1 | 1)
     if (isDayAllowed(win, day)) return k;
     let step = 1;
     if (win.months !== null && day >= win.firstDayJd0 && day <= win.lastDayJd0) {
-      const civil = jdToCivilDate(win.calendar, day + 0.5).civil;
+      const civil = jdToCivilDay(win.calendar, day + 0.5);
       if (!win.months.has(civil.month)) {
         const skip = side < 0 ? civil.day : Math.max(1, 29 - civil.day); // days 1..d, or d..28, are of this month
-        const end = jdToCivilDate(win.calendar, day + side * (skip - 1) + 0.5).civil;
+        const end = jdToCivilDay(win.calendar, day + side * (skip - 1) + 0.5);
         if (skip > 1 && end.month === civil.month && end.year === civil.year) step = skip;
       }
     }

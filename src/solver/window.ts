@@ -5,7 +5,7 @@
  */
 import { InvalidInputError } from '../errors.js';
 import type { CivilDay, Scene } from '../scene/types.js';
-import { civilDateToJd, jdToCivilDate, resolveCalendarRule, type ResolvedCalendar } from '../calendar/regions.js';
+import { civilDateToJd, jdToCivilDay, resolveCalendarRule, type ResolvedCalendar } from '../calendar/regions.js';
 import { weekdayOfJd } from '../calendar/julianDay.js';
 
 export interface DayWindow {
@@ -55,7 +55,7 @@ export function dayWindowOf(scene: Scene, bounds?: { from?: CivilDay; to?: Civil
 export function isDayAllowed(win: DayWindow, dayJd0: number): boolean {
   if (dayJd0 < win.firstDayJd0 - 1e-9 || dayJd0 > win.lastDayJd0 + 1e-9) return false;
   if (win.weekday !== null && weekdayOfJd(dayJd0 + 0.5) !== win.weekday) return false;
-  if (win.months !== null && !win.months.has(jdToCivilDate(win.calendar, dayJd0 + 0.5).civil.month)) return false;
+  if (win.months !== null && !win.months.has(jdToCivilDay(win.calendar, dayJd0 + 0.5).month)) return false;
   return true;
 }
 
