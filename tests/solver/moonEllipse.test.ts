@@ -16,8 +16,8 @@
  * run (figures from 1500 draws in docs/moon-evidence.md).
  *
  * The ellipse describes the neighbourhood of the candidate's own day. A draw whose best candidate lies on
- * another day (a lunation or a year of lunations away: a miss of the search, not of the ellipse; about 3
- * draws in 1000, docs/moon-evidence.md) is counted apart and must fit worse than the true day would.
+ * another day (a year of lunations away, at the window's start: a miss of the search, not of the ellipse; 1 draw
+ * in 1,500, docs/moon-evidence.md) is counted apart and must fit worse than the true day would.
  */
 import { describe, expect, it } from 'vitest';
 import type { Observation, Scene } from '../../src/scene/types.js';
@@ -126,7 +126,7 @@ describe('error ellipses with the moon', () => {
     );
     expect(smallerDay).toBe(k);
     expect(smallerArea).toBe(k);
-    // A miss of the search is rare (about 3 in 1000 draws, docs/moon-evidence.md): at most 2 in 60 by the binomial (common practice).
+    // A miss of the search is rare (1 in 1,500 draws, docs/moon-evidence.md): at most 2 in 60 (common practice: a binomial bound).
     expect(otherDay).toBeLessThanOrEqual(Math.max(2, Math.ceil(0.01 * n)));
     // Four standard errors either side (see the header): chi-square(2) has mean 2 and variance 4.
     const se = 2 / Math.sqrt(k);
