@@ -162,9 +162,10 @@ export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
   const words = years.length <= 1
     ? `The moon names ${formatYearBcAd(bestYear)}: every other year of this light fits worse by more than ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square.${repeatWords}`
     : `The moon leaves ${yearListText(years)} alike (within ${DELTA_CHI2_1DOF_95.toFixed(2)} in chi-square of the best, ${formatYearBcAd(bestYear)}): ${alikeYearsText(alike)}.${repeatWords}`;
+  // The candidates' error ellipses and day intervals include the moon's evidence (candidateUncertainty.ts), so no caution
+  // about them is needed here.
   const cautions = [
     "The moon is fitted at each candidate's own instant in every year of the window, never mapped from another year (astronomy-engine's lunar theory, about 1 arcminute); the years it names are an estimate conditional on the drawn moon being the moon of that hour, not a painter's convention or a moon added in the studio.",
-    "The error ellipses and day intervals of the candidates are those of the sun's evidence alone: the moon narrows the day and the hour more than they show.",
   ];
   return { bestYear, years, alike, words, nearRepeats, impossible: impossibleMoon(s, best), cautions };
 }

@@ -7,7 +7,8 @@
  * roughly after 8 years, 99 lunations), so it is evaluated per year and never mapped. For each
  * stage-B candidate (one per family track and year):
  * 1. screen: every allowed whole day within 4 sigma of the year's sun-only optimum (at least 2, at
- *    most MAX_MOON_DAYS days either side), at the minute the sun's fit predicts for that day (its
+ *    most MAX_MOON_DAYS days either side), and every day within MAX_MOON_DAYS whose sun's declination lies
+ *    within 4 sigma of the optimum's (near a solstice these reach further: declinationReach), at the minute the sun's fit predicts for that day (its
  *    conditional mean): days whose quick phase (Meeus eq. 48.4) misses a drawn phase by more than
  *    4 sigma are passed over, the others evaluated with the full sun and moon; where a direction of
  *    the moon is drawn, also at the minute that brings the moon nearest its drawn place as the sky
@@ -30,6 +31,9 @@ import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
 import { moonPhaseLongitudeApproxDeg, MOON_PHASE_APPROX_ALLOWANCE_DEG } from '../ephemeris/moonPhaseApprox.js';
 import { normalizeDeg180, sinDeg, cosDeg } from '../math/angles.js';
 import type { MoonTerm } from './moonEvidence.js';
+import { fastSunPosition } from '../ephemeris/fastSun.js';
+import { deltaTSeconds } from '../time/deltaT.js';
+import { jdToDecimalYear } from '../time/timeScales.js';
 
 /** Most days either side of a year's sun-only optimum screened for the moon (beyond, the other branch of the solstice takes over). */
 export const MAX_MOON_DAYS = 45;
@@ -131,16 +135,39 @@ function minuteOnDay(c: RawCandidate, day: number): number {
   return Number.isFinite(shift) && Math.abs(shift) <= 240 ? c.continuousMinutes + shift : c.continuousMinutes;
 }
 
+/**
+ * Days beyond the reach in days whose sun's declination still lies within DAY_REACH_SIGMAS sigmas of the
+ * optimum's (the sigma in declination = the day's sigma times the declination's rate there). Near a solstice
+ * the declination changes ever more slowly, so the days that fit the shadows reach further than the
+ * linearised day's sigma says (a true day 3 days before the solstice lay 4.2 of those sigmas from its
+ * branch's optimum and was passed over: docs/moon-evidence.md). Declination by the low-precision sun
+ * (Meeus 1998, ch. 25: src/ephemeris/fastSun.ts), at the candidate's minute.
+ */
+function declinationReach(model: EvidenceModel, c: RawCandidate, sd: number): (day: number) => boolean {
+  if (!Number.isFinite(sd)) return () => false;
+  const site = { latitudeDeg: model.scene.site.latitudeDeg, longitudeDeg: model.scene.site.longitudeDeg, elevationM: model.scene.site.elevationM };
+  const dt = deltaTSeconds(jdToDecimalYear(c.point.jdUT), model.scene.deltaT);
+  const offset = c.point.jdUT - c.continuousDay; // the instant's fraction of the day, held for every day
+  const dec = (d: number): number => fastSunPosition(d + offset, site, dt, 'none').declinationDeg;
+  const d0 = dec(c.continuousDay);
+  const rate = Math.abs(dec(c.continuousDay + 1) - dec(c.continuousDay - 1)) / 2;
+  const limit = DAY_REACH_SIGMAS * sd * rate;
+  return (day: number) => Math.abs(dec(day) - d0) <= limit;
+}
+
 function screenYear(model: EvidenceModel, ctx: DatedContext, c: RawCandidate, win: DayWindow): Screened[] {
   const cov = c.rep.covariance;
   // Near a solstice the sun hardly fixes the day (the covariance is huge or singular): then the widest reach.
   const sd = cov && cov[0][0] > 0 && Number.isFinite(cov[0][0]) ? Math.sqrt(cov[0][0]) : Infinity;
   const reach = Math.min(MAX_MOON_DAYS, Math.max(2, Math.ceil(DAY_REACH_SIGMAS * sd)));
   const centre = nearestDayJd0(c.continuousDay);
+  const nearDeclination = declinationReach(model, c, sd);
   const phased = model.moons.some((t) => t.evidence.kind === 'moon-fraction' || t.evidence.kind === 'moon-named-phase');
   const days: { day: number; minutes: number; quick: number }[] = [];
-  for (let day = centre - reach; day <= centre + reach; day += 1) {
+  const wide = Number.isFinite(sd) ? MAX_MOON_DAYS : reach;
+  for (let day = centre - wide; day <= centre + wide; day += 1) {
     if (!isDayAllowed(win, day)) continue;
+    if (Math.abs(day - centre) > reach && !nearDeclination(day)) continue;
     const minutes = minuteOnDay(c, day);
     // The instant, near enough for the quick phase: local apparent time less the longitude (the equation of time left out).
     const quick = phased ? quickPhaseChiSquare(model.moons, moonPhaseLongitudeApproxDeg(day + minutes / 1440 - model.scene.site.longitudeDeg / 360)) : 0;

@@ -44,7 +44,7 @@ import { jdToCivilDate } from '../calendar/regions.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 import { hasMoonEvidence } from './fitting.js';
 import { moonYearsAnswer } from './moonAnswer.js';
-import { moonlightWords, needsMoonSearch } from './moonSearch.js';
+import { moonlightWords } from './moonSearch.js';
 
 /** Soft penalty above which the facts are said not to hold (a violation of 2 tolerances = 1 deg). */
 export const FACT_PENALTY_LIMIT = 4;
@@ -255,7 +255,11 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
   const notes: string[] = [
     'Every candidate is an estimate conditional on the stated assumptions (site, wall azimuths, measurements and their sigmas, what a clock kept); weigh it with the documentary evidence and expert judgement.',
     'Relative weights are exp(-chi2/2) normalised over the candidates shown; they do not include the size of each ellipse.',
-    'Mapped years share the ellipse of the nearest representative year that was refined in full.',
+    // With the moon no year is mapped for its uncertainty: each candidate has its own fit with the moon
+    // (candidateUncertainty.ts fitFor), so the note on shared ellipses is given only for the sun's evidence alone.
+    hasMoonEvidence(model)
+      ? "Each candidate's error ellipse and day interval come from its own fit with the moon's evidence, in its own year; none is shared with another year."
+      : 'Mapped years share the ellipse of the nearest representative year that was refined in full.',
   ];
   if (s.edgeDropped > 0) {
     notes.push(
@@ -420,10 +424,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
     if (moonlight.sunUp && (status === 'fits' || status === 'marginal')) verdict += ` ${moonlight.words}`;
   }
   if (moon) {
-    // Searched by the moon alone (no sunlit shadow, src/solver/moonSearch.ts), the intervals are the moon's own: the
-    // caution that they are the sun's alone does not apply.
-    const byMoon = needsMoonSearch(model);
-    notes.push(...moon.cautions.filter((c) => !(byMoon && c.startsWith('The error ellipses and day intervals'))));
+    notes.push(...moon.cautions);
     if (status === 'fits' || status === 'marginal') verdict += ` ${moon.words}`;
     else if (moon.impossible.length > 0) verdict += ` ${moon.impossible.join(' ')}`;
   }

@@ -79,11 +79,17 @@ describe('fischertor-crescent.yaml: the moon names the year', () => {
     expect(text).toContain('Years that fit: 1817 alone');
     expect(text).toContain('A painted moon may be a convention');
   });
+  it('says that each candidate\'s ellipse is its own fit with the moon, and nothing of shared or sun-only ellipses', () => {
+    // The ellipses include the moon (src/solver/candidateUncertainty.ts; calibrated in tests/solver/moonEllipse.test.ts).
+    expect(answer.notes).toContain("Each candidate's error ellipse and day interval come from its own fit with the moon's evidence, in its own year; none is shared with another year.");
+    expect(answer.notes.some((n) => n.includes('Mapped years share the ellipse') || n.includes("sun's evidence alone"))).toBe(false);
+  });
   it('without the moon, leaves the years open', () => {
     const sunOnly: Scene = { ...scene, observations: scene.observations.filter((o) => !o.kind.startsWith('moon')) };
     const a = solveDates(sunOnly, { consistency: false });
     expect(a.families[0].yearsTold.singledOut).toBe(false);
     expect(a.families[0].yearsTold.alikeYears.length).toBeGreaterThan(20);
+    expect(a.notes).toContain('Mapped years share the ellipse of the nearest representative year that was refined in full.');
   });
 });
 
