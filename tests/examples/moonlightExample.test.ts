@@ -82,6 +82,7 @@ describe('kornmarkt-moonlight.yaml: moonlight names a short list of nights, the 
     const best = answer.candidates[0];
     expect(best.civilDate).toEqual({ calendar: 'gregorian', year: 1821, month: 1, day: 14 });
     expectClose(best.times.localApparentMinutes, TRUTH.apparentMinutes, 5, 'local apparent time, minutes');
+    expectClose(best.chiSquare, 0.14, 0.05, 'best chi-square');
     expect(answer.consistency.flaggedIds).toEqual([]);
   });
   it('leaves four nights of four years alike, each a single night, and says so', () => {
@@ -89,6 +90,11 @@ describe('kornmarkt-moonlight.yaml: moonlight names a short list of nights, the 
     const nights = answer.moon?.alike.map((a) => [a.civilDate.year, a.civilDate.month, a.civilDate.day]);
     expect(nights).toEqual([[1821, 1, 14], [1822, 2, 2], [1836, 1, 29], [1837, 1, 17]]);
     expect(answer.moon?.alike.every((a) => a.deltaChiSquare < 3.841)).toBe(true);
+    // The figures quoted in examples/README.md, example (e).
+    const delta = (y: number) => answer.moon?.alike.find((a) => a.year === y)?.deltaChiSquare ?? NaN;
+    expectClose(delta(1822), 1.0, 0.2, 'Delta chi-square of 1822');
+    expectClose(delta(1836), 1.9, 0.2, 'Delta chi-square of 1836');
+    expectClose(delta(1837), 2.2, 0.2, 'Delta chi-square of 1837');
     expect(answer.families[0].yearsTold.singledOut).toBe(false);
     // The near-repeats 8 and 11 years after and before; 1813 and 1832 fit far worse.
     expect(answer.moon?.nearRepeats.map((n) => n.year).sort()).toEqual([1813, 1829, 1832]);
@@ -97,6 +103,9 @@ describe('kornmarkt-moonlight.yaml: moonlight names a short list of nights, the 
       expect(r?.fitsAlike).toBe(false);
       expect(r?.deltaChiSquare ?? 0).toBeGreaterThan(3.841);
     }
+    expectClose(answer.moon?.nearRepeats.find((n) => n.year === 1813)?.deltaChiSquare ?? NaN, 51.5, 1, 'Delta chi-square of 1813');
+    expectClose(answer.moon?.nearRepeats.find((n) => n.year === 1832)?.deltaChiSquare ?? NaN, 40.4, 1, 'Delta chi-square of 1832');
+    expect(answer.moon?.nearRepeats.find((n) => n.year === 1829)?.deltaChiSquare).toBeNull();
     const text = renderDateText(answer, scene);
     expect(text).toContain('1821, 1822, 1836 and 1837 (the light and the moon together cannot tell these years apart)');
     expect(text).toContain('A painted moon may be a convention');
