@@ -162,9 +162,10 @@ function measuredWords(o: Observation): string {
   }
 }
 
-function questionSection(scene: Scene): string {
+/** The question; a scene lit by the moon alone (src/charts/chartLight.ts) asks about its moonlight. */
+function questionSection(scene: Scene, light: 'sun' | 'moon'): string {
   return `<section id="question"><h2>The question</h2>
-<p>On what dates and at what hours could the sunlight shown in <em>${h(scene.title)}</em> have fallen? Searched: ${h(windowWords(scene))}.</p></section>`;
+<p>On what dates and at what hours could the ${light === 'moon' ? 'moonlight' : 'sunlight'} shown in <em>${h(scene.title)}</em> have fallen? Searched: ${h(windowWords(scene))}.</p></section>`;
 }
 
 function clockWords(scene: Scene, answer: DateAnswer): string {
@@ -478,6 +479,7 @@ export function renderHtmlReport(input: HtmlReportInput): string {
   const { scene, answer, charts, reproducibility } = input;
   const readings = input.calendarReadings ? calendarReadingsSection(input.calendarReadings) : '';
   const sameLight = input.sameLight ? sameLightSection(input.sameLight, answer) : '';
+  const light = charts.light ?? chartLightOf(scene);
   return `<!DOCTYPE html>
 <html lang="en">
 <head>
@@ -492,11 +494,11 @@ export function renderHtmlReport(input: HtmlReportInput): string {
 <p class="subtitle">When could this light have fallen? A report of heliochron ${h(reproducibility.version)}.</p>
 <div class="verdict status-${answer.status}" id="verdict"><span class="status">${h(answer.status.replace('-', ' '))}</span><br>${h(answer.verdict)}</div></header>
 <main>
-${readings}${questionSection(scene)}
+${readings}${questionSection(scene, light)}
 ${assumptionsSection(scene, answer)}
 ${evidenceSection(scene, answer)}
 ${answerSection(scene, answer)}
-${sameLight}${chartsSection(charts, charts.light ?? chartLightOf(scene))}
+${sameLight}${chartsSection(charts, light)}
 ${consistencySection(answer)}
 ${cautionSection(answer)}
 ${reproducibilitySection(reproducibility)}

@@ -144,5 +144,9 @@ describe('the charts of a scene lit by the moon alone', () => {
     expect(charts).not.toContain('Where the sun must have stood');
     expect(charts).not.toContain('When the light fits');
     expect(charts).not.toContain('The sky chart.</strong> Across: the sun');
+    // The question asks about the moonlight, not the sunlight, of a scene lit by the moon alone.
+    const question = html.slice(html.indexOf('id="question"'), html.indexOf('</section>', html.indexOf('id="question"')));
+    expect(question).toContain('could the moonlight shown in');
+    expect(question).not.toContain('sunlight');
   });
 });
