@@ -256,6 +256,7 @@ function familyJson(f: CandidateFamily, scene: Scene, allYears: boolean) {
       singledOut: f.yearsTold.singledOut,
       alikeYears: [...f.yearsTold.alikeYears],
       spreadChiSquare: roundTo(f.yearsTold.spreadChiSquare, DIGITS.chiSquare),
+      alikeSpreadChiSquare: roundTo(f.yearsTold.alikeSpreadChiSquare, DIGITS.chiSquare),
       ...(f.yearsTold.singledOutBy === undefined ? {} : { singledOutBy: f.yearsTold.singledOutBy }),
       words: f.yearsTold.words,
     },

@@ -5,7 +5,7 @@
  */
 import type { DateAnswer } from '../solver/types.js';
 import { formatYearBcAd } from '../calendar/format.js';
-import { alikeYearsText } from '../solver/moonAnswer.js';
+import { alikeYearsText, NO_CANDIDATE_THAT_YEAR } from '../solver/moonAnswer.js';
 
 /** Lines about the moon, or none when the answer holds no evidence of the moon. */
 export function moonReportLines(answer: DateAnswer): string[] {
@@ -19,7 +19,7 @@ export function moonReportLines(answer: DateAnswer): string[] {
   );
   for (const n of moon.nearRepeats) {
     const fit = n.deltaChiSquare === null
-      ? 'no candidate of this light that year'
+      ? NO_CANDIDATE_THAT_YEAR
       : `Delta chi-square ${n.refined ? '' : 'at most '}${n.deltaChiSquare.toFixed(1)}${n.pValue === null ? '' : `, p = ${n.pValue.toPrecision(2)}`}: ${n.fitsAlike ? 'fits as well' : n.refined ? 'fits worse' : 'fits far worse (screened, not refined)'}`;
     out.push(`Near-repeat ${formatYearBcAd(n.year)} (${n.offsetYears > 0 ? '+' : ''}${n.offsetYears} years, the ${n.cycle} return of the phase): ${fit}.`);
   }

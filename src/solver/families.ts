@@ -121,8 +121,12 @@ export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext
   for (const o of byYear.values()) best = Math.min(best, o);
   const alikeYears: number[] = [];
   let spreadChiSquare = -Infinity;
+  let alikeSpreadChiSquare = 0;
   for (const [y, o] of byYear) {
-    if (o <= best + YEARS_ALIKE_DELTA_CHI2) alikeYears.push(y);
+    if (o <= best + YEARS_ALIKE_DELTA_CHI2) {
+      alikeYears.push(y);
+      alikeSpreadChiSquare = Math.max(alikeSpreadChiSquare, o - best);
+    }
     spreadChiSquare = Math.max(spreadChiSquare, o - best);
   }
   alikeYears.sort((a, b) => a - b);
@@ -130,7 +134,7 @@ export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext
     const words = ctx.moonEvidence
       ? `${yearListText(alikeYears)} (the light and the moon together cannot tell these years apart)`
       : `${yearsText(alikeYears)} (the light alone cannot tell these years apart)`;
-    return { singledOut: false, alikeYears, spreadChiSquare, words };
+    return { singledOut: false, alikeYears, spreadChiSquare, alikeSpreadChiSquare, words };
   }
   const year = alikeYears[0];
   let by: string;
@@ -146,7 +150,7 @@ export function yearsToldOf(members: readonly FamilyMember[], ctx: FamilyContext
   } else {
     by = 'the window: no other year of it has this light on an allowed day';
   }
-  return { singledOut: true, alikeYears, spreadChiSquare, singledOutBy: by, words: `${formatYearBcAd(year)} (singled out by ${by})` };
+  return { singledOut: true, alikeYears, spreadChiSquare, alikeSpreadChiSquare, singledOutBy: by, words: `${formatYearBcAd(year)} (singled out by ${by})` };
 }
 
 /** The keepings of a family in words: "clock kept local mean time (best chi2 3.31) or local apparent (sundial) time (best chi2 4.11); tried: ...". */
@@ -165,7 +169,11 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const sorted = [...members].sort((a, b) => a.year - b.year || a.objective - b.objective);
   // The first member of lowest objective (what a stable sort by objective puts first), by one pass.
   const best = members.reduce((x, y) => (y.objective < x.objective ? y : x));
-  let ords = sorted.map((m) => ({ m, o: ordinal(m.month, m.day) }));
+  // With the moon the years differ in fit (src/solver/moonYears.ts): the days and hours shown are
+  // those of the years that fit alike, never of years the moon rules out.
+  const alikeOfBest = ctx.moonEvidence ? new Set(yearsToldOf(members.filter((m) => m.assumptionIndex === best.assumptionIndex), ctx).alikeYears) : null;
+  const spanned = alikeOfBest ? sorted.filter((m) => alikeOfBest.has(m.year) && m.objective <= best.objective + YEARS_ALIKE_DELTA_CHI2) : sorted;
+  let ords = spanned.map((m) => ({ m, o: ordinal(m.month, m.day) }));
   const lo0 = Math.min(...ords.map((x) => x.o));
   const hi0 = Math.max(...ords.map((x) => x.o));
   if (hi0 - lo0 > 183) ords = ords.map((x) => ({ m: x.m, o: x.o < 183 ? x.o + 365 : x.o }));
@@ -173,7 +181,7 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const last = ords.reduce((a, b) => (b.o > a.o ? b : a)).m;
   // A night's hours pass midnight (moonlit views): when the hours are spread over more than half a
   // day, those of the morning are read as after midnight if that makes the span shorter ("21:08-00:06").
-  const plain = sorted.map((m) => m.apparentMinutes);
+  const plain = spanned.map((m) => m.apparentMinutes);
   const wrapped = plain.map((m) => (m < 720 ? m + 1440 : m));
   const spread = (xs: readonly number[]): number => Math.max(...xs) - Math.min(...xs);
   const minutes = spread(plain) > 720 && spread(wrapped) < spread(plain) ? wrapped : plain;
@@ -208,7 +216,11 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const time = hhmm(fromMin) === hhmm(toMin) ? hhmm(fromMin) : `${hhmm(fromMin)}-${hhmm(toMin)}${toMin >= 1440 ? ' (across midnight)' : ''}`;
   const days = monthDayText(first, last);
   const only = yearsTold.singledOut && years.length > 1 ? `; only ${formatYearBcAd(best.year)} fits as well (${yearsTold.singledOutBy})` : '';
-  const summary = `${yearsText(years)}: ${days} (${calendarName(sorted[0].calendar)}), ${time} local apparent time; ${label}${only}`;
+  const ruledOut = years.length - new Set(spanned.map((m) => m.year)).size;
+  const yearsPart = alikeOfBest && ruledOut > 0
+    ? `${yearListText(spanned.map((m) => m.year))} (the years that fit alike; ${ruledOut} other year${ruledOut === 1 ? '' : 's'} of this light fit${ruledOut === 1 ? 's' : ''} worse by more than ${YEARS_ALIKE_DELTA_CHI2.toFixed(2)} in chi-square)`
+    : yearsText(years);
+  const summary = `${yearsPart}: ${days} (${calendarName(spanned[0].calendar)}), ${time} local apparent time; ${label}${only}`;
   const bestCandidate = best.candidate();
   const headline = yearsTold.singledOut
     ? `${best.day} ${MONTH_NAMES[best.month - 1]} ${formatYearBcAd(best.year)} (${calendarName(best.calendar)}), ${hhmm(best.apparentMinutes)} local apparent time (the year singled out by ${yearsTold.singledOutBy})`

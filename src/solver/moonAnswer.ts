@@ -106,6 +106,9 @@ function impossibleMoon(s: Solved, best: Candidate): string[] {
 /** Mean synodic month, days (Meeus, Astronomical Algorithms, 2nd ed. 1998, eq. 49.1, at J2000). */
 const SYNODIC_MONTH_DAYS = 29.530589;
 
+/** A near-repeat year with no candidate: the search kept none of its days (none came close to the evidence). */
+export const NO_CANDIDATE_THAT_YEAR = 'no day of that year kept as a candidate: none of its allowed days came close to the evidence';
+
 /** The moon's answer about the years, from a solve whose best raw candidate is `best` (dressed). */
 export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
   const raw = s.kept[0];
@@ -156,7 +159,7 @@ export function moonYearsAnswer(s: Solved, best: Candidate): MoonYearsAnswer {
   nearRepeats.sort((a, b) => Math.abs(a.offsetYears) - Math.abs(b.offsetYears) || a.offsetYears - b.offsetYears);
   const repeatWords = nearRepeats.length
     ? ` Its near-repeats in the window: ${nearRepeats
-        .map((n) => `${formatYearBcAd(n.year)} (${n.cycle.replace(/ \(.*\)/, '')}: ${n.deltaChiSquare === null ? 'no candidate of this light' : `Delta chi-square ${n.refined ? '' : 'at most '}${n.deltaChiSquare.toFixed(1)}${fmtP(n.pValue)}${n.fitsAlike ? ', fits as well' : ''}`})`)
+        .map((n) => `${formatYearBcAd(n.year)} (${n.cycle.replace(/ \(.*\)/, '')}: ${n.deltaChiSquare === null ? NO_CANDIDATE_THAT_YEAR : `Delta chi-square ${n.refined ? '' : 'at most '}${n.deltaChiSquare.toFixed(1)}${fmtP(n.pValue)}${n.fitsAlike ? ', fits as well' : ''}`})`)
         .join('; ')}.`
     : ' No near-repeat of the moon (8, 11, 19, 27 or 38 years) falls inside the window.';
   const words = years.length <= 1

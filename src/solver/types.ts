@@ -273,6 +273,8 @@ export interface YearsTold {
   readonly alikeYears: readonly number[];
   /** Largest difference in chi-square (plus penalty) between the best and any other year of the best keeping; 0 with one year. */
   readonly spreadChiSquare: number;
+  /** Largest difference in chi-square (plus penalty) between the best and the other years alike (at most 3.841); 0 with one year. */
+  readonly alikeSpreadChiSquare: number;
   /** What singled the year out, in words; present only when singledOut. */
   readonly singledOutBy?: string;
   /** The years in words: "any year 1760-1790 (the light alone cannot tell these years apart)", "1784 (...)". */

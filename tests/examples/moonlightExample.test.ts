@@ -96,6 +96,12 @@ describe('kornmarkt-moonlight.yaml: moonlight names a short list of nights, the 
     expectClose(delta(1836), 1.9, 0.2, 'Delta chi-square of 1836');
     expectClose(delta(1837), 2.2, 0.2, 'Delta chi-square of 1837');
     expect(answer.families[0].yearsTold.singledOut).toBe(false);
+    // The family's days and hours are those of the four nights (examples/README.md, example (e)), not of the 22 years kept.
+    const family = answer.families[0];
+    expect(family.summary.startsWith('1821, 1822, 1836 and 1837 (the years that fit alike; 18 other years of this light fit worse')).toBe(true);
+    expect([family.fromMonthDay, family.toMonthDay]).toEqual([{ month: 1, day: 14 }, { month: 2, day: 2 }]);
+    expect(family.toLocalApparentMinutes - family.fromLocalApparentMinutes).toBeLessThan(10);
+    expect(family.yearsTold.alikeSpreadChiSquare).toBeLessThan(3.841);
     // The near-repeats 8 and 11 years after and before; 1813 and 1832 fit far worse.
     expect(answer.moon?.nearRepeats.map((n) => n.year).sort()).toEqual([1813, 1829, 1832]);
     for (const y of [1813, 1832]) {

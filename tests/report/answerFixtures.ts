@@ -119,7 +119,7 @@ export function family(best: Candidate, over: Partial<CandidateFamily> = {}): Ca
     clockAssumption: best.clockAssumption,
     clockAssumptionLabel: best.clockAssumptionLabel,
     keepings: [{ clockAssumption: best.clockAssumption, clockAssumptionLabel: best.clockAssumptionLabel, bestChiSquare: best.chiSquare, bestPValue: best.pValue, fit: 'fits', yearCount: 21 }],
-    yearsTold: { singledOut: false, alikeYears: [1765, 1766, 1767], spreadChiSquare: 0.01, words: 'any year 1765-1785 (the light alone cannot tell these years apart)' },
+    yearsTold: { singledOut: false, alikeYears: [1765, 1766, 1767], spreadChiSquare: 0.01, alikeSpreadChiSquare: 0.01, words: 'any year 1765-1785 (the light alone cannot tell these years apart)' },
     headline: '29-30 July (Gregorian), any year 1765-1785 (the light alone cannot tell these years apart), 07:59-08:01 local apparent time',
     calendar: best.civilDate.calendar,
     fromYear: 1765,
