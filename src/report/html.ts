@@ -183,10 +183,10 @@ function assumptionsSection(scene: Scene, answer: DateAnswer): string {
     ['Site', `${siteWords(scene)}${scene.site.latitudeSigmaDeg > 0 || scene.site.longitudeSigmaDeg > 0 ? ` (uncertainty ${scene.site.latitudeSigmaDeg} deg in latitude, ${scene.site.longitudeSigmaDeg} deg in longitude, fitted)` : ''}`],
     ['Calendar', `${calendarRuleWords(scene.calendar)}; ${yearStartWords(scene.yearStart)}. ${dualStyleWords(scene) ?? 'Dates are written in the calendar in force at the site that day.'}`],
     ['Time-keeping', clockWords(scene, answer)],
-    ['Delta T', best ? `${deltaTWords(best, scene)}; Delta T moves the sun along its path by only 0.041 arcseconds per second, far below any shadow measurement.` : `${deltaTModelName(scene.deltaT)} (no candidate to evaluate it at).`],
+    ['Delta T', best ? `${deltaTWords(best, scene)}; Delta T moves the sun along its path by only 0.041 arcseconds per second, far below any shadow measurement${answer.moon ? ', and the moon by about 0.55 arcseconds per second (13.2 deg a day), still far below any drawn moon' : ''}.` : `${deltaTModelName(scene.deltaT)} (no candidate to evaluate it at).`],
     ['Refraction', refractionWords(scene)],
     ['Map north', `map bearings are turned by ${scene.mapNorthCorrectionDeg >= 0 ? '+' : ''}${scene.mapNorthCorrectionDeg} deg to true north (as stated in the scene)`],
-    ['Ephemeris', `the sun from astronomy-engine (VSOP87, IAU 2006 precession, IAU 2000B nutation), topocentric apparent place${sunAccuracyWords(scene) ? `; ${sunAccuracyWords(scene)}` : ''}`],
+    ['Ephemeris', `the sun from astronomy-engine (VSOP87, IAU 2006 precession, IAU 2000B nutation), topocentric apparent place${sunAccuracyWords(scene) ? `; ${sunAccuracyWords(scene)}` : ''}${answer.moon ? "; the moon from astronomy-engine's lunar theory (about 1 arcminute), with the lunar secular acceleration of lunar laser ranging, topocentric apparent place (docs/moon.md)" : ''}`],
   ];
   const walls = scene.walls.map((w) =>
     row([h(w.id), n(`${w.azimuthDeg.toFixed(1)} deg`), n(w.azimuthSigmaDeg > 0 ? `${w.azimuthSigmaDeg} deg` : 'exact'), h(w.azimuthSource), h(w.note ?? '')]),

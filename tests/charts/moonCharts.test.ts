@@ -148,5 +148,10 @@ describe('the charts of a scene lit by the moon alone', () => {
     const question = html.slice(html.indexOf('id="question"'), html.indexOf('</section>', html.indexOf('id="question"')));
     expect(question).toContain('could the moonlight shown in');
     expect(question).not.toContain('sunlight');
+    // The assumptions name the moon's theory and what Delta T does to the moon (its mean motion 13.176 deg a
+    // day, Meeus, Astronomical Algorithms, 2nd ed. 1998, eq. 47.1: 0.549 arcseconds per second).
+    const assumptions = html.slice(html.indexOf('id="assumptions"'), html.indexOf('</section>', html.indexOf('id="assumptions"')));
+    expect(assumptions).toContain('the moon from astronomy-engine&#39;s lunar theory'); // the apostrophe escaped in HTML
+    expect(assumptions).toContain('the moon by about 0.55 arcseconds per second');
   });
 });
