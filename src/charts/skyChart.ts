@@ -162,6 +162,24 @@ function oppositeWords(o: NonNullable<SkyBand['opposite']>, light: 'sun' | 'moon
   return `shadow ${num(o.shadowAzimuthDeg, 1)} deg, ${light} ${num(o.sunAzimuthDeg, 1)} deg`;
 }
 
+/** The legend's entry of each band (with where its light stood, for a shadow drawn opposite); returns the next line's y. */
+function bandLegendEntries(data: SkyChartData, parts: string[], left: number, top: number, light: 'sun' | 'moon'): number {
+  let y = top;
+  data.bands.forEach((b, i) => {
+    const s = seriesStyle(i);
+    parts.push(el('rect', { x: left, y: y - 9, width: 22, height: 10, fill: s.color, 'fill-opacity': 0.16, stroke: s.color, 'stroke-width': 1.6, 'stroke-dasharray': s.dash }));
+    parts.push(text(left + 28, y, b.observationId, { class: 'hc-legend' }));
+    y += 15;
+    if (b.opposite) {
+      parts.push(text(left + 28, y - 2, `drawn where the ${light} stood,`, { class: 'hc-note' }));
+      parts.push(text(left + 28, y + 10, 'opposite the shadow:', { class: 'hc-note' }));
+      parts.push(text(left + 28, y + 22, oppositeWords(b.opposite, light), { class: 'hc-note' }));
+      y += 38;
+    }
+  });
+  return y;
+}
+
 /** The legend of a scene lit by the moon alone: its bands, the moon's paths and the moon at the candidates. */
 function moonLegend(data: SkyChartData): { svg: string; bottom: number } {
   const left = AREA.left + AREA.width + 18;
@@ -170,18 +188,7 @@ function moonLegend(data: SkyChartData): { svg: string; bottom: number } {
   y += 14;
   parts.push(text(left, y, '1 sigma of', { class: 'hc-legend', 'font-weight': 'bold' }));
   y += 16;
-  data.bands.forEach((b, i) => {
-    const s = seriesStyle(i);
-    parts.push(el('rect', { x: left, y: y - 9, width: 22, height: 10, fill: s.color, 'fill-opacity': 0.16, stroke: s.color, 'stroke-width': 1.6, 'stroke-dasharray': s.dash }));
-    parts.push(text(left + 28, y, b.observationId, { class: 'hc-legend' }));
-    y += 15;
-    if (b.opposite) {
-      parts.push(text(left + 28, y - 2, 'drawn where the moon stood,', { class: 'hc-note' }));
-      parts.push(text(left + 28, y + 10, 'opposite the shadow:', { class: 'hc-note' }));
-      parts.push(text(left + 28, y + 22, oppositeWords(b.opposite, 'moon'), { class: 'hc-note' }));
-      y += 38;
-    }
-  });
+  y = bandLegendEntries(data, parts, left, y, 'moon');
   y += 8;
   parts.push(text(left, y, 'Moon path on', { class: 'hc-legend', 'font-weight': 'bold' }));
   y += 16;
@@ -205,18 +212,7 @@ function legend(data: SkyChartData): { svg: string; bottom: number } {
   let y = AREA.top + 4;
   const parts: string[] = [text(left, y, 'Within 1 sigma of', { class: 'hc-legend', 'font-weight': 'bold' })];
   y += 16;
-  data.bands.forEach((b, i) => {
-    const s = seriesStyle(i);
-    parts.push(el('rect', { x: left, y: y - 9, width: 22, height: 10, fill: s.color, 'fill-opacity': 0.16, stroke: s.color, 'stroke-width': 1.6, 'stroke-dasharray': s.dash }));
-    parts.push(text(left + 28, y, b.observationId, { class: 'hc-legend' }));
-    y += 15;
-    if (b.opposite) {
-      parts.push(text(left + 28, y - 2, 'drawn where the sun stood,', { class: 'hc-note' }));
-      parts.push(text(left + 28, y + 10, 'opposite the shadow:', { class: 'hc-note' }));
-      parts.push(text(left + 28, y + 22, oppositeWords(b.opposite), { class: 'hc-note' }));
-      y += 38;
-    }
-  });
+  y = bandLegendEntries(data, parts, left, y, 'sun');
   y += 8;
   parts.push(text(left, y, 'Sun path on', { class: 'hc-legend', 'font-weight': 'bold' }));
   y += 16;

@@ -13,29 +13,18 @@ import { sunPosition } from '../../src/ephemeris/sunPosition.js';
 import { moonPosition } from '../../src/ephemeris/moonPosition.js';
 import { predictRodShadow } from '../../src/geometry/wallShadows.js';
 import { predictPoleShadow } from '../../src/geometry/groundShadows.js';
-import { calendarDateToJd } from '../../src/calendar/julianDay.js';
 import { renderDateText } from '../../src/report/text.js';
 import type { Observation, Scene } from '../../src/scene/types.js';
 import { expectClose } from '../helpers/expectClose.js';
+import { observationOf, truthJdUT as exampleTruthJdUT } from './exampleTruth.js';
 
 const FILE = fileURLToPath(new URL('../../examples/fischertor-crescent.yaml', import.meta.url));
 const scene = readSceneFile(FILE);
 /** The true instant: 16 August 1817 (Gregorian), 18:30 local apparent time. */
 const TRUTH = { year: 1817, month: 8, day: 16, apparentMinutes: 18 * 60 + 30 };
 
-function truthJdUT(): number {
-  const day0 = calendarDateToJd({ calendar: 'gregorian', year: TRUTH.year, month: TRUTH.month, day: TRUTH.day });
-  let jd = day0 + TRUTH.apparentMinutes / 1440 - scene.site.longitudeDeg / 360;
-  // jdUT = d + (m - E) / 1440 - longitude / 360 (src/solver/sunModel.ts), iterated on E.
-  for (let i = 0; i < 3; i += 1) jd = day0 + (TRUTH.apparentMinutes - sunPosition(jd, scene.site).equationOfTimeMinutes) / 1440 - scene.site.longitudeDeg / 360;
-  return jd;
-}
-
-const obs = <K extends Observation['kind']>(id: string, kind: K): Extract<Observation, { kind: K }> => {
-  const o = scene.observations.find((x) => x.id === id);
-  if (!o || o.kind !== kind) throw new Error(`no ${kind} ${id}`);
-  return o as Extract<Observation, { kind: K }>;
-};
+const truthJdUT = (): number => exampleTruthJdUT(scene, TRUTH);
+const obs = <K extends Observation['kind']>(id: string, kind: K): Extract<Observation, { kind: K }> => observationOf(scene, id, kind);
 
 describe('fischertor-crescent.yaml: the numbers are the forward models at the true instant, rounded', () => {
   const jd = truthJdUT();
