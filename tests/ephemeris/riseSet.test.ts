@@ -54,3 +54,27 @@ describe('sunEvents edge cases: polar day and night', () => {
     expect(sunEvents(2460665.5, { ...arctic, latitudeDeg: -78.2 }).polar).toBe('day');
   });
 });
+
+describe('sunEvents precision: rise and set found to better than 0.01 s of time, so times printed to the second cannot round differently', () => {
+  // Residual of a root in seconds: (altitude - h0) over the altitude's rate, the rate by a central difference of the model itself.
+  const residualSeconds = (jdUT: number, site: typeof velmar): number => {
+    const f = (t: number): number => sunPosition(t, site, 'none').geometricAltitudeDeg - SUNRISE_ALTITUDE_DEG;
+    const h = 1e-5; // days
+    return Math.abs(f(jdUT) / ((f(jdUT + h) - f(jdUT - h)) / (2 * h))) * 86400;
+  };
+  it('holds at latitudes from the equator to beyond the polar circles, on days through the year and across centuries', () => {
+    let checked = 0;
+    for (const latitudeDeg of [-66.4, -50, -20, 0, 23.4, 47.62, 60, 65.5, 66.4, 66.8, 68])
+      for (const jd0 of [2323000.5, 2323080.5, 2323171.5, 2323265.5, 2451545.5, 2451720.5]) {
+        const site = { latitudeDeg, longitudeDeg: 9.35, elevationM: 0 };
+        const e = sunEvents(jd0 - site.longitudeDeg / 360, site);
+        for (const jd of [e.sunriseJdUT, e.sunsetJdUT]) {
+          if (jd === null) continue;
+          expect(residualSeconds(jd, site), `latitude ${latitudeDeg}, JD ${jd0}`).toBeLessThan(0.01);
+          checked += 1;
+        }
+        expect(Math.abs(sunPosition(e.transitJdUT, site, 'none').hourAngleDeg / 360) * 86400, 'transit').toBeLessThan(0.01);
+      }
+    expect(checked).toBeGreaterThan(100); // most of the 132 rises and sets exist; polar days and nights at 66.8 and 68 deg have none
+  });
+});
