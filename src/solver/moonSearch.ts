@@ -192,7 +192,9 @@ function screenDays(model: EvidenceModel, assumed: ClockKind | null, win: DayWin
  * with a loose phase both days may fit).
  */
 function daysToRefine(days: readonly DayBest[], win: DayWindow): DayBest[] {
-  const best = Math.min(...days.map((d) => d.objective));
+  // A loop, not a spread: a long window holds a day for every night of it (over a million in 3000 years).
+  let best = Infinity;
+  for (const d of days) best = Math.min(best, d.objective);
   const within = days.filter((d) => d.objective <= best + SCREEN_CUTOFF).sort((x, y) => x.objective - y.objective);
   const chosen = new Set(within.slice(0, MAX_REFINED));
   const seenYears = new Set<number>();
