@@ -171,7 +171,14 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const best = members.reduce((x, y) => (y.objective < x.objective ? y : x));
   // With the moon the years differ in fit (src/solver/moonYears.ts): the days and hours shown are
   // those of the years that fit alike, never of years the moon rules out.
-  const alikeOfBest = ctx.moonEvidence ? new Set(yearsToldOf(members.filter((m) => m.assumptionIndex === best.assumptionIndex), ctx).alikeYears) : null;
+  const byKeeping = new Map<number, FamilyMember[]>();
+  for (const m of members) {
+    const list = byKeeping.get(m.assumptionIndex);
+    if (list) list.push(m);
+    else byKeeping.set(m.assumptionIndex, [m]);
+  }
+  const yearsTold = yearsToldOf(byKeeping.get(best.assumptionIndex) ?? [best], ctx);
+  const alikeOfBest = ctx.moonEvidence ? new Set(yearsTold.alikeYears) : null;
   const spanned = alikeOfBest ? sorted.filter((m) => alikeOfBest.has(m.year) && m.objective <= best.objective + YEARS_ALIKE_DELTA_CHI2) : sorted;
   let ords = spanned.map((m) => ({ m, o: ordinal(m.month, m.day) }));
   const lo0 = Math.min(...ords.map((x) => x.o));
@@ -191,12 +198,6 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const fromYear = sorted[0].year;
   const toYear = sorted[sorted.length - 1].year;
 
-  const byKeeping = new Map<number, FamilyMember[]>();
-  for (const m of members) {
-    const list = byKeeping.get(m.assumptionIndex);
-    if (list) list.push(m);
-    else byKeeping.set(m.assumptionIndex, [m]);
-  }
   const keepings: FamilyKeeping[] = [...byKeeping.values()]
     .map((list) => {
       const b = list.reduce((x, y) => (y.objective < x.objective ? y : x));
@@ -211,7 +212,6 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
     })
     .sort((a, b) => a.bestChiSquare - b.bestChiSquare);
   const label = keepingsLabel(keepings);
-  const yearsTold = yearsToldOf(byKeeping.get(best.assumptionIndex) ?? [best], ctx);
 
   const time = hhmm(fromMin) === hhmm(toMin) ? hhmm(fromMin) : `${hhmm(fromMin)}-${hhmm(toMin)}${toMin >= 1440 ? ' (across midnight)' : ''}`;
   const days = monthDayText(first, last);

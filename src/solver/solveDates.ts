@@ -408,9 +408,8 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
         (consistency.flaggedIds.length ? ` Flagged as disagreeing with the rest: ${consistency.flaggedIds.join(', ')}.` : '');
       if (!top.yearsTold.singledOut && top.yearsTold.alikeYears.length > 1) {
         notes.push(
-          hasMoonEvidence(model)
-            ? `The years of a family fit alike (family 1: within ${top.yearsTold.alikeSpreadChiSquare.toFixed(2)} in chi-square): the order of its years among the candidates is no preference; the light and the moon together leave these years open.`
-            : `The years of a family fit alike (family 1: within ${top.yearsTold.alikeSpreadChiSquare.toFixed(2)} in chi-square): the order of its years among the candidates is no preference, and the light alone does not date the picture to one year.`,
+          `The years of a family fit alike (family 1: within ${top.yearsTold.alikeSpreadChiSquare.toFixed(2)} in chi-square): the order of its years among the candidates is no preference` +
+            (hasMoonEvidence(model) ? '; the light and the moon together leave these years open.' : ', and the light alone does not date the picture to one year.'),
         );
       }
     }
