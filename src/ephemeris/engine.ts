@@ -29,12 +29,23 @@ export type DeltaTChoice = DeltaTModel | number;
 
 let inForce: DeltaTChoice = DEFAULT_DELTA_T_MODEL;
 
-/** Delta T in seconds at a UT Julian Day by the model (or fixed value) in force (its sigma is not needed here). */
-function deltaTInForce(jdUT: number): number {
-  return typeof inForce === 'number' ? inForce : modelDeltaTSeconds(jdToDecimalYear(jdUT), inForce);
+/** Delta T in seconds at a UT Julian Day by a model or fixed value (its sigma is not needed here). */
+function deltaTByChoice(jdUT: number, choice: DeltaTChoice): number {
+  return typeof choice === 'number' ? choice : modelDeltaTSeconds(jdToDecimalYear(jdUT), choice);
 }
 
-SetDeltaTFunction((ut: number) => deltaTInForce(ut + J2000_JD));
+SetDeltaTFunction((ut: number) => deltaTByChoice(ut + J2000_JD, inForce));
+
+/**
+ * Delta T in seconds that astronomy-engine's Delta T hook returns for `ut` (days of UT since
+ * J2000.0, the library's own argument) inside withDeltaT(choice, ...): by `choice`, or by the
+ * choice in force when it is undefined. For code that evaluates the library's formulas itself
+ * (src/ephemeris/sunOfDate.ts) and must make the same times without a closure.
+ * @example deltaTSecondsAtUt(0, 67) // 67
+ */
+export function deltaTSecondsAtUt(ut: number, choice: DeltaTChoice | undefined): number {
+  return deltaTByChoice(ut + J2000_JD, choice ?? inForce);
+}
 
 /**
  * Run one synchronous computation with the given Delta T model or fixed value in force for

@@ -20,6 +20,10 @@
  * reading is), Delta T only moves the sun along its orbit, 0.041" per second of Delta T:
  * even a 720 s sigma at -1000 is 0.008 deg. (Were the instant known in TT, each second of
  * Delta T would turn the Earth by 15".)
+ * Evaluation: the same numbers are computed by src/ephemeris/sunOfDate.ts, which performs the
+ * library's floating-point operations in its order without making its objects (about six times
+ * faster, nearly no garbage); `sunPositionByEngine` keeps the library's own calls as the reference
+ * (tests/ephemeris/sunOfDate.test.ts checks that every field is the same double).
  * Leaves out: refraction below the horizon (see refraction.ts), the horizon dip of a raised observer.
  */
 import { Body, EquatorFromVector, Horizon, Observer, ObserverVector, RotateVector, Rotation_EQJ_EQD, SiderealTime, Vector, GeoVector, type AstroTime } from 'astronomy-engine';
@@ -28,6 +32,7 @@ import { normalizeDeg180 } from '../math/angles.js';
 import type { DeltaTModel } from '../time/deltaT.js';
 import { astroTimeFromJdUT, withDeltaT } from './engine.js';
 import { refractionDeg } from './refraction.js';
+import { sunOfDate } from './sunOfDate.js';
 
 /** A site on the Earth: degrees (latitude north positive, longitude east positive), metres above sea level. */
 export interface SunSite {
@@ -99,6 +104,36 @@ export function equationOfTimeFromRaMinutes(jdUT: number, gastHours: number, raH
  *   { pressureHPa: 820, temperatureC: 11 }, { deltaTSeconds: 67 }).azimuthDeg // 194.340
  */
 export function sunPosition(jdUT: number, site: SunSite, air?: Air | 'none', options?: SunPositionOptions): SunPosition {
+  const { latitudeDeg, longitudeDeg, elevationM } = site;
+  // What the library would refuse (a non-finite number, a latitude beyond the poles) goes to it, to throw its own error.
+  if (!(Number.isFinite(jdUT) && Number.isFinite(longitudeDeg) && Number.isFinite(elevationM) && latitudeDeg >= -90 && latitudeDeg <= 90)) {
+    return sunPositionByEngine(jdUT, site, air, options);
+  }
+  const deltaTSeconds = options?.deltaTSeconds;
+  const sun = sunOfDate(jdUT, site, deltaTSeconds ?? options?.deltaTModel, deltaTSeconds, options?.topocentric !== false);
+  const geometricAltitudeDeg = sun.geometricAltitudeDeg;
+  if (!(Number.isFinite(geometricAltitudeDeg) && Number.isFinite(sun.azimuthDeg) && Number.isFinite(sun.raHours) && Number.isFinite(sun.geocentricRaHours))) {
+    return sunPositionByEngine(jdUT, site, air, options);
+  }
+  return {
+    jdUT,
+    jdTT: sun.jdTT,
+    azimuthDeg: sun.azimuthDeg,
+    altitudeDeg: geometricAltitudeDeg + refractionDeg(geometricAltitudeDeg, air),
+    geometricAltitudeDeg,
+    declinationDeg: sun.decDeg,
+    rightAscensionDeg: sun.raHours * 15,
+    hourAngleDeg: normalizeDeg180(15 * sun.gastHours + longitudeDeg - 15 * sun.raHours),
+    equationOfTimeMinutes: equationOfTimeFromRaMinutes(jdUT, sun.gastHours, sun.geocentricRaHours),
+  };
+}
+
+/**
+ * sunPosition by astronomy-engine's own calls (GeoVector, Rotation_EQJ_EQD, ObserverVector,
+ * EquatorFromVector, Horizon, SiderealTime): the reference that sunPosition reproduces
+ * (tests/ephemeris/sunOfDate.test.ts), and the path that throws the library's errors for invalid input.
+ */
+export function sunPositionByEngine(jdUT: number, site: SunSite, air?: Air | 'none', options?: SunPositionOptions): SunPosition {
   return withDeltaT(options?.deltaTSeconds ?? options?.deltaTModel, () => sunPositionInForce(jdUT, site, air, options));
 }
 
