@@ -84,21 +84,26 @@ export function dayOfYear(date: CalendarDate): number {
  * @example calendarDateToJd({ calendar: 'gregorian', year: 2000, month: 1, day: 1 }, 0.5) // 2451545
  */
 export function calendarDateToJd(date: CalendarDate, dayFraction = 0): number {
+  return civilDayToJd(date.calendar, date.year, date.month, date.day) + dayFraction;
+}
+
+/** calendarDateToJd from plain numbers (no date object), for hot loops: the same arithmetic, Meeus (1998) eq. (7.1). */
+export function civilDayToJd(calendar: CalendarKind, year: number, month: number, day: number): number {
   // Move early years forward by whole 400-year cycles (same weekday pattern and leap pattern).
-  const shiftCycles = date.year < SAFE_MIN_YEAR ? Math.ceil((SAFE_MIN_YEAR - date.year) / 400) : 0;
-  let y = date.year + 400 * shiftCycles;
-  let m = date.month;
+  const shiftCycles = year < SAFE_MIN_YEAR ? Math.ceil((SAFE_MIN_YEAR - year) / 400) : 0;
+  let y = year + 400 * shiftCycles;
+  let m = month;
   if (m <= 2) {
     y -= 1;
     m += 12;
   }
   let b = 0;
-  if (date.calendar === 'gregorian') {
+  if (calendar === 'gregorian') {
     const a = Math.floor(y / 100);
     b = 2 - a + Math.floor(a / 4);
   }
-  const jd0 = Math.floor(365.25 * (y + 4716)) + Math.floor(30.6001 * (m + 1)) + date.day + b - 1524.5;
-  return jd0 - shiftCycles * cycleDays(date.calendar) + dayFraction;
+  const jd0 = Math.floor(365.25 * (y + 4716)) + Math.floor(30.6001 * (m + 1)) + day + b - 1524.5;
+  return jd0 - shiftCycles * cycleDays(calendar);
 }
 
 /**
@@ -108,6 +113,25 @@ export function calendarDateToJd(date: CalendarDate, dayFraction = 0): number {
  * B = A + 1524, C = INT((B - 122.1) / 365.25), D = INT(365.25 C), E = INT((B - D) / 30.6001).
  * @example jdToCalendarDate(2436116.31, 'gregorian') // 1957-10-04, dayFraction 0.81
  */
+/** The year (astronomical numbering) of the civil date containing jd: jdToCalendarDate's year without its objects (Meeus 1998, ch. 7, p. 63). */
+export function calendarYearOfJd(jd: number, calendar: CalendarKind): number {
+  const z0 = Math.floor(jd + 0.5);
+  const safeZ = 1000000; // as in jdToCalendarDate
+  const shiftCycles = z0 < safeZ ? Math.ceil((safeZ - z0) / cycleDays(calendar)) : 0;
+  const z = z0 + shiftCycles * cycleDays(calendar);
+  let a = z;
+  if (calendar === 'gregorian') {
+    const alpha = Math.floor((z - 1867216.25) / 36524.25);
+    a = z + 1 + alpha - Math.floor(alpha / 4);
+  }
+  const b = a + 1524;
+  const c = Math.floor((b - 122.1) / 365.25);
+  const d = Math.floor(365.25 * c);
+  const e = Math.floor((b - d) / 30.6001);
+  const month = e < 14 ? e - 1 : e - 13;
+  return (month > 2 ? c - 4716 : c - 4715) - 400 * shiftCycles;
+}
+
 export function jdToCalendarDate(jd: number, calendar: CalendarKind): { date: CalendarDate; dayFraction: number } {
   const z0 = Math.floor(jd + 0.5);
   const dayFraction = jd + 0.5 - z0;

@@ -8,7 +8,7 @@
  * before then are Julian), the Gregorian from then on. (The Morrison et al. spline's year is
  * continuous; the calendar's year differs from it by under two weeks, under 1 s of Delta T.)
  */
-import { calendarDateToJd, jdToCalendarDate, ROME_FIRST_GREGORIAN_JD, type CalendarKind } from '../calendar/julianDay.js';
+import { calendarYearOfJd, civilDayToJd, ROME_FIRST_GREGORIAN_JD, type CalendarKind } from '../calendar/julianDay.js';
 import { ConvergenceError } from '../errors.js';
 import { DEFAULT_DELTA_T_MODEL, deltaT, deltaTSeconds, type DeltaTModel, type DeltaTValue } from './deltaT.js';
 
@@ -22,10 +22,10 @@ export const SECONDS_PER_DAY = 86400;
  */
 export function jdToDecimalYear(jd: number): number {
   const calendar: CalendarKind = jd < ROME_FIRST_GREGORIAN_JD ? 'julian' : 'gregorian';
-  const { date } = jdToCalendarDate(jd, calendar);
-  const start = calendarDateToJd({ calendar, year: date.year, month: 1, day: 1 });
-  const next = calendarDateToJd({ calendar, year: date.year + 1, month: 1, day: 1 });
-  return date.year + (jd - start) / (next - start);
+  const year = calendarYearOfJd(jd, calendar);
+  const start = civilDayToJd(calendar, year, 1, 1);
+  const next = civilDayToJd(calendar, year + 1, 1, 1);
+  return year + (jd - start) / (next - start);
 }
 
 /** Delta T (TT - UT) at an instant given as a UT Julian Day, with its sigma, by the named model. */

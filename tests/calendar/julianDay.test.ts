@@ -5,6 +5,8 @@ import * as astronomiaJulian from 'astronomia/julian';
 import {
   ROME_FIRST_GREGORIAN_JD,
   calendarDateToJd,
+  calendarYearOfJd,
+  civilDayToJd,
   dayOfYear,
   daysInMonth,
   isLeapYear,
@@ -121,5 +123,19 @@ describe('edge cases', () => {
       const far = calendarDateToJd({ calendar, year: 100000, month: 12, day: 31 });
       expect(jdToCalendarDate(far, calendar).date).toEqual({ calendar, year: 100000, month: 12, day: 31 });
     }
+  });
+});
+
+describe('number-only helpers for hot loops', () => {
+  // The same arithmetic as the object forms (Meeus 1998, eq. 7.1 and ch. 7 p. 63); checked against them exactly.
+  it('calendarYearOfJd is the year of jdToCalendarDate, and civilDayToJd is calendarDateToJd, at random instants -4000..3000', () => {
+    fc.assert(
+      fc.property(fc.double({ min: 260000, max: 2817000, noNaN: true }), fc.constantFrom<CalendarKind>('julian', 'gregorian'), (jd, calendar) => {
+        const { date } = jdToCalendarDate(jd, calendar);
+        expect(calendarYearOfJd(jd, calendar)).toBe(date.year);
+        expect(civilDayToJd(calendar, date.year, date.month, date.day)).toBe(calendarDateToJd(date));
+      }),
+      { numRuns: 5000 },
+    );
   });
 });
