@@ -1,7 +1,8 @@
 #!/usr/bin/env node
 /**
  * How the date solver's work grows with the window, on every bundled example (issue: speed).
- * Run after `npx tsc -p tsconfig.json`:  node bench/solver-growth.mjs [--before <checkout>]
+ * Run after `npx tsc -p tsconfig.json` and `node src/cli/build.mjs`:
+ *   node bench/solver-growth.mjs [--before <checkout>] [--only-first] [--runs <n>]
  *
  * Each example is solved with its own evidence, restrictions and calendar, over a 500-year window
  * (1400-1899) and a 3000-year one (-1100 to 1899), and the bench prints, each beside its target:
@@ -10,13 +11,19 @@
  * 2. the warm solve time of the 3000-year window over the 500-year one (medians of 5 interleaved
  *    runs after a warm-up, consistency test on). Target <= 6.5x (linear growth would be 6x).
  * 3. the first solve in a fresh process against the warm solve of the same scene (the 500-year
- *    bench scene of bench/solver-window.mjs). Target <= 3x. With --before <checkout>, that checkout's own
- *    bench script runs the same fresh processes, alternating with this one's, and both are printed.
+ *    bench scene of bench/solver-window.mjs; medians of --runs fresh processes, 7 unless given). Target <= 3x.
+ *    Beside elapsed time, CPU time of the process (every thread: V8's optimising compiler and the
+ *    garbage collector's helpers run beside the main thread) and of the main thread alone (Linux).
+ *    Then the same as the command-line user meets it (bench/first-solve-cli.cjs): the bundled program
+ *    loaded with its code cache as the bin loads it, the first `date examples/marktgasse-print.yaml`
+ *    of the process against the warm ones. With --before <checkout>, that checkout's own bench script
+ *    runs the same fresh processes (and bench/first-solve-cli.cjs that checkout's bundle), alternating
+ *    with this one's, and both are printed. --only-first runs part 3 alone.
  * 4. peak memory (maximum resident set) of a fresh process that solves the Marktgasse example
  *    over 3000 years, against a fresh process that loads the same modules and solves nothing.
  *    Target <= 1.5x.
  */
-import { readdirSync, statSync } from 'node:fs';
+import { readdirSync, readFileSync, statSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { readSceneFile } from '../dist/cli/sceneFile.js';
@@ -44,6 +51,15 @@ function exampleFiles() {
 
 const median = (xs) => [...xs].sort((a, b) => a - b)[Math.floor(xs.length / 2)];
 
+/** CPU time of this process's main thread so far, ms (Linux: schedstat's first field, nanoseconds on the CPU); NaN elsewhere. */
+function mainThreadMs() {
+  try {
+    return Number(readFileSync(`/proc/self/task/${process.pid}/schedstat`, 'latin1').split(' ')[0]) / 1e6;
+  } catch {
+    return NaN;
+  }
+}
+
 /** Warm solve times of two scenes, interleaved so that other work on the machine hits both alike. */
 function timeSolvePair(a, b, runs) {
   solveDates(a); // warm-up
@@ -66,20 +82,26 @@ if (args.has('--child-first')) {
   const cpuMs = (c) => (c.user + c.system) / 1000;
   const t0 = performance.now();
   const c0 = process.cpuUsage();
+  const m0 = mainThreadMs();
   solveDates(benchScene, { consistency: false });
+  const firstMain = mainThreadMs() - m0;
   const firstCpu = cpuMs(process.cpuUsage(c0));
   const first = performance.now() - t0;
   for (let i = 0; i < 5; i += 1) solveDates(benchScene, { consistency: false });
   const ts = [];
   const cs = [];
+  const ms = [];
   for (let i = 0; i < 7; i += 1) {
     const t = performance.now();
     const c = process.cpuUsage();
+    const m = mainThreadMs();
     solveDates(benchScene, { consistency: false });
+    ms.push(mainThreadMs() - m);
     cs.push(cpuMs(process.cpuUsage(c)));
     ts.push(performance.now() - t);
   }
-  console.log(JSON.stringify({ first, warm: median(ts), firstCpu, warmCpu: median(cs) }));
+  const orNull = (x) => (Number.isFinite(x) ? x : null);
+  console.log(JSON.stringify({ first, warm: median(ts), firstCpu, warmCpu: median(cs), firstMain: orNull(firstMain), warmMain: orNull(median(ms)) }));
   process.exit(0);
 }
 if (args.has('--child-memory')) {
@@ -87,6 +109,11 @@ if (args.has('--child-memory')) {
   const scene = withWindow(readSceneFile(`${root}examples/marktgasse-print.yaml`), -1100, 1899);
   if (!args.has('--idle')) solveDates(scene);
   console.log(JSON.stringify({ maxRssKb: process.resourceUsage().maxRSS }));
+  process.exit(0);
+}
+
+if (args.has('--only-first')) {
+  firstSolvePart();
   process.exit(0);
 }
 
@@ -118,27 +145,62 @@ for (const file of files) {
   console.log(`   ${file.slice(root.length + 9).padEnd(44)} ${t500.toFixed(0).padStart(5)} ms -> ${t3000.toFixed(0).padStart(6)} ms: ${ratio.toFixed(2)}x   ${ratio <= 6.5 ? 'met' : 'NOT met'}   (fastest runs: ${(t.bMin / t.aMin).toFixed(2)}x)`);
 }
 
-console.log('3. First solve in a fresh process against the warm solve (bench/solver-window.mjs scene, 500 years, leave-one-out off); target <= 3x');
-// With --before <checkout>: that checkout's own bench script (its dist) runs the same child, the two alternating.
-const beforeAt = process.argv.indexOf('--before');
-const beforeScript = beforeAt > 0 ? `${process.argv[beforeAt + 1].replace(/\/$/, '')}/bench/solver-growth.mjs` : null;
-const firsts = [];
-const beforeFirsts = [];
-for (let i = 0; i < 5; i += 1) {
-  const r = spawnSync(process.execPath, [fileURLToPath(import.meta.url), '--child-first'], { encoding: 'utf8' });
-  firsts.push(JSON.parse(r.stdout));
-  if (beforeScript) beforeFirsts.push(JSON.parse(spawnSync(process.execPath, [beforeScript, '--child-first'], { encoding: 'utf8' }).stdout));
+const { first, warm } = firstSolvePart();
+
+/**
+ * Part 3: the first solve of fresh processes against their warm solves, printed; returns the medians of this checkout's
+ * library figures (elapsed ms). With --before <checkout>: that checkout's own bench script (its dist) runs the same
+ * child, and bench/first-solve-cli.cjs its bundle, each alternating with this checkout's.
+ */
+function firstSolvePart() {
+  console.log(`3. First solve in a fresh process against the warm solve (bench/solver-window.mjs scene, 500 years, leave-one-out off); target <= 3x`);
+  const beforeAt = process.argv.indexOf('--before');
+  const beforeRoot = beforeAt > 0 ? process.argv[beforeAt + 1].replace(/\/$/, '') : null;
+  const beforeScript = beforeRoot ? `${beforeRoot}/bench/solver-growth.mjs` : null;
+  const runsAt = process.argv.indexOf('--runs');
+  const runs = runsAt > 0 ? Math.max(1, Number(process.argv[runsAt + 1])) : 7;
+  const child = (command) => {
+    const r = spawnSync(process.execPath, command, { encoding: 'utf8' });
+    if (r.status !== 0) throw new Error(`${command.join(' ')} failed: ${r.stderr}`);
+    return JSON.parse(r.stdout);
+  };
+  const cliChild = `${root}bench/first-solve-cli.cjs`;
+  const lib = [];
+  const libBefore = [];
+  const cli = [];
+  const cliBefore = [];
+  for (let i = 0; i < runs; i += 1) {
+    lib.push(child([fileURLToPath(import.meta.url), '--child-first']));
+    if (beforeScript) libBefore.push(child([beforeScript, '--child-first']));
+  }
+  for (let i = 0; i < runs; i += 1) {
+    cli.push(child([cliChild, root]));
+    if (beforeRoot) cliBefore.push(child([cliChild, beforeRoot]));
+  }
+  const ratioWords = (a, b) => `first ${a.toFixed(0)} ms, warm ${b.toFixed(1)} ms: ${(a / b).toFixed(1)}x`;
+  const firstLine = (list) => {
+    const m = (k) => median(list.map((f) => f[k]));
+    const first = m('first');
+    const warm = m('warm');
+    const main = list.every((f) => typeof f.firstMain === 'number' && typeof f.warmMain === 'number')
+      ? `; main thread's CPU ${ratioWords(m('firstMain'), m('warmMain'))}`
+      : '';
+    return {
+      first,
+      warm,
+      words:
+        `elapsed ${ratioWords(first, warm)}   target <= 3x   ${first / warm <= 3 ? 'met' : 'NOT met'} (medians of ${list.length} fresh processes)\n` +
+        `      CPU of every thread (compiler and garbage collector included) ${ratioWords(m('firstCpu'), m('warmCpu'))}${main}`,
+    };
+  };
+  const mine = firstLine(lib);
+  console.log(`   library (dist/, no code cache): ${mine.words}`);
+  if (beforeScript) console.log(`   before, ${beforeScript}: ${firstLine(libBefore).words}`);
+  const cliLine = (list) => `${firstLine(list).words}; the program loaded in ${median(list.map((f) => f.load)).toFixed(0)} ms${list.some((f) => f.cacheRejected) ? ', its code cache REJECTED in some runs' : ''}`;
+  console.log(`   command line (bundle with its code cache, \`date examples/marktgasse-print.yaml --json\` in one process, leave-one-out on): ${cliLine(cli)}`);
+  if (beforeRoot) console.log(`   before, ${beforeRoot}/dist/bin: ${cliLine(cliBefore)}`);
+  return mine;
 }
-const firstLine = (list) => {
-  const first = median(list.map((f) => f.first));
-  const warm = median(list.map((f) => f.warm));
-  const firstCpu = median(list.map((f) => f.firstCpu));
-  const warmCpu = median(list.map((f) => f.warmCpu));
-  return { first, warm, firstCpu, warmCpu, words: `first ${first.toFixed(0)} ms, warm ${warm.toFixed(1)} ms (medians of ${list.length} fresh processes): ${(first / warm).toFixed(1)}x   target <= 3x   ${first / warm <= 3 ? 'met' : 'NOT met'}; in CPU time (garbage collection included) first ${firstCpu.toFixed(0)} ms, warm ${warmCpu.toFixed(1)} ms: ${(firstCpu / warmCpu).toFixed(1)}x   ${firstCpu / warmCpu <= 3 ? 'met' : 'NOT met'}` };
-};
-const { first, warm, words } = firstLine(firsts);
-console.log(`   ${words}`);
-if (beforeScript) console.log(`   before (${beforeScript}): ${firstLine(beforeFirsts).words}`);
 
 console.log('4. Peak memory (max resident set) of a 3000-year solve of marktgasse-print.yaml against Node with the same modules loaded; target <= 1.5x');
 const rss = (extra) => JSON.parse(spawnSync(process.execPath, [fileURLToPath(import.meta.url), '--child-memory', ...extra], { encoding: 'utf8' }).stdout).maxRssKb;

@@ -110,6 +110,7 @@ function exceedsCeiling(context: DatedContext, shadows: readonly ShadowTermAt[],
     equationOfTimeMinutes: state.equationOfTimeMinutes,
     assumedClock: context.assumed,
     zoneOffsetMinutes: context.zoneOffset,
+    moon: undefined, // the shape of datedPoint's context (src/solver/fitting.ts)
   };
   let penalty = 0;
   for (const f of model.facts) {

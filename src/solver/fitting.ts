@@ -81,6 +81,7 @@ function stageAContextAt(c: StageAContext, declinationDeg: number, hourAngleDeg:
     equationOfTimeMinutes: null,
     assumedClock: c.assumed,
     zoneOffsetMinutes: c.zoneOffset,
+    moon: undefined, // no moon here, but the field present: one shape of context with datedPoint's, so that the residual writers stay optimised (V8 hidden classes)
   };
 }
 

@@ -104,6 +104,7 @@ function screenObjective(model: EvidenceModel, assumed: ClockKind | null, zoneOf
     equationOfTimeMinutes: sun.equationOfTimeMinutes,
     assumedClock: assumed,
     zoneOffsetMinutes: zoneOffset,
+    moon: undefined, // the shape of datedPoint's context (src/solver/fitting.ts)
   };
   // Then the sun's rows, the clocks and the sun's facts (the moon's rows are 0 without a moon in the context).
   const split = splitChiSquare(model, evidenceResidualVector(model, ctx));

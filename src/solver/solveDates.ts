@@ -161,15 +161,22 @@ function restrictionWords(scene: Scene, win: DayWindow): string | null {
  * a member for every year of the window, and a literal with a getter is built by a slow path.
  */
 class KeptMember implements FamilyMember {
-  readonly apparentMinutes: number;
-  constructor(
-    private readonly s: Solved,
-    private readonly raw: RawCandidate,
-    readonly year: number,
-    readonly month: number,
-    readonly day: number,
-    readonly calendar: 'julian' | 'gregorian',
-  ) {
+  // Fields declared only (`declare`: nothing emitted) and set once in the constructor: emitted ES2022 class
+  // fields would first hold undefined, and V8 would then widen them to untyped fields when the numbers come.
+  private declare readonly s: Solved;
+  private declare readonly raw: RawCandidate;
+  declare readonly year: number;
+  declare readonly month: number;
+  declare readonly day: number;
+  declare readonly calendar: 'julian' | 'gregorian';
+  declare readonly apparentMinutes: number;
+  constructor(s: Solved, raw: RawCandidate, year: number, month: number, day: number, calendar: 'julian' | 'gregorian') {
+    this.s = s;
+    this.raw = raw;
+    this.year = year;
+    this.month = month;
+    this.day = day;
+    this.calendar = calendar;
     this.apparentMinutes = ((raw.apparentMinutes % 1440) + 1440) % 1440;
   }
   get objective(): number {
