@@ -143,20 +143,7 @@ function gridValues(
   const nHa = has.length;
   const grid = decs.map(() => new Float64Array(nHa));
   if (reuse !== undefined && reuse.grid.obliquityDeg === obliquityDeg) {
-    const { values, rowCount } = reuse.grid;
-    const sources = reuse.sources;
-    for (let i = 0; i < decs.length; i += 1) {
-      for (let j = 0; j < nHa; j += 1) {
-        const base = (i * nHa + j) * rowCount;
-        let sum = 0;
-        for (let k = 0; k < sources.length; k += 1) {
-          const v = sources[k] < 0 ? 0 : values[base + sources[k]];
-          sum += v * v;
-        }
-        grid[i][j] = sum;
-      }
-      onProgress?.(i + 1, decs.length);
-    }
+    sumKeptGrid(grid, reuse, onProgress);
     return { grid, kept: null, summed: true };
   }
   // Every residual row of every point, kept for reruns when there are at most MAX_KEPT_GRID_ROWS rows;
@@ -164,7 +151,46 @@ function gridValues(
   const rowCount = residualRowCount(c.model);
   const keep = rowCount <= MAX_KEPT_GRID_ROWS;
   const values = keep ? new Float64Array(decs.length * nHa * rowCount) : null;
-  const scratch = keep ? null : new Float64Array(rowCount);
+  evaluateGrid(c, decs, has, prior, grid, values, rowCount, onProgress);
+  return { grid, kept: values === null ? null : { obliquityDeg, rowCount, values }, summed: false };
+}
+
+// The two loops over the grid are functions of their own, apart from gridValues' returns: V8 compiles a long
+// loop while it runs (on-stack replacement), and code compiled there before a return was ever reached
+// deoptimises at that return on every later solve.
+
+/** Chi-square plus penalty at every grid point, summed from the kept rows of a previous grid (the rows `reuse.sources` names). */
+function sumKeptGrid(grid: Float64Array[], reuse: StageAGridReuse, onProgress?: (done: number, total: number) => void): void {
+  const { values, rowCount } = reuse.grid;
+  const sources = reuse.sources;
+  for (let i = 0; i < grid.length; i += 1) {
+    const nHa = grid[i].length;
+    for (let j = 0; j < nHa; j += 1) {
+      const base = (i * nHa + j) * rowCount;
+      let sum = 0;
+      for (let k = 0; k < sources.length; k += 1) {
+        const v = sources[k] < 0 ? 0 : values[base + sources[k]];
+        sum += v * v;
+      }
+      grid[i][j] = sum;
+    }
+    onProgress?.(i + 1, grid.length);
+  }
+}
+
+/** Chi-square plus penalty at every grid point, evaluated; every point's rows written to `values` when given. */
+function evaluateGrid(
+  c: StageAContext,
+  decs: readonly number[],
+  has: readonly number[],
+  prior: readonly number[],
+  grid: Float64Array[],
+  values: Float64Array | null,
+  rowCount: number,
+  onProgress?: (done: number, total: number) => void,
+): void {
+  const nHa = has.length;
+  const scratch = values === null ? new Float64Array(rowCount) : null;
   for (let i = 0; i < decs.length; i += 1) {
     const row = grid[i];
     for (let j = 0; j < nHa; j += 1) {
@@ -177,5 +203,4 @@ function gridValues(
     }
     onProgress?.(i + 1, decs.length);
   }
-  return { grid, kept: values === null ? null : { obliquityDeg, rowCount, values }, summed: false };
 }
