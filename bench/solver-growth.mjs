@@ -23,7 +23,7 @@
  *    over 3000 years, against a fresh process that loads the same modules and solves nothing.
  *    Target <= 1.5x.
  */
-import { readdirSync, readFileSync, statSync } from 'node:fs';
+import { existsSync, readdirSync, readFileSync, statSync } from 'node:fs';
 import { spawnSync } from 'node:child_process';
 import { fileURLToPath } from 'node:url';
 import { readSceneFile } from '../dist/cli/sceneFile.js';
@@ -175,7 +175,7 @@ function firstSolvePart() {
   }
   for (let i = 0; i < runs; i += 1) {
     cli.push(child([cliChild, root]));
-    if (beforeRoot) cliBefore.push(child([cliChild, beforeRoot]));
+    if (beforeRoot && existsSync(`${beforeRoot}/dist/bin/program.js`)) cliBefore.push(child([cliChild, beforeRoot]));
   }
   const ratioWords = (a, b) => `first ${a.toFixed(0)} ms, warm ${b.toFixed(1)} ms: ${(a / b).toFixed(1)}x`;
   const firstLine = (list) => {
@@ -198,7 +198,7 @@ function firstSolvePart() {
   if (beforeScript) console.log(`   before, ${beforeScript}: ${firstLine(libBefore).words}`);
   const cliLine = (list) => `${firstLine(list).words}; the program loaded in ${median(list.map((f) => f.load)).toFixed(0)} ms${list.some((f) => f.cacheRejected) ? ', its code cache REJECTED in some runs' : ''}`;
   console.log(`   command line (bundle with its code cache, \`date examples/marktgasse-print.yaml --json\` in one process, leave-one-out on): ${cliLine(cli)}`);
-  if (beforeRoot) console.log(`   before, ${beforeRoot}/dist/bin: ${cliLine(cliBefore)}`);
+  if (beforeRoot) console.log(`   before, ${beforeRoot}/dist/bin: ${cliBefore.length > 0 ? cliLine(cliBefore) : 'no bundle there (node src/cli/build.mjs makes it)'}`);
   return mine;
 }
 
