@@ -20,6 +20,7 @@ import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, type EvidenceModel } from '../solver/evidenceModel.js';
 import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, finishDayMinuteCells, nuisancesOfCandidate, type DayMinuteGrid, type DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
 import { isLitByMoonAlone } from '../solver/moonSearch.js';
+import { mapGrid } from './mapGrid.js';
 import { FIT_BANDS } from './palette.js';
 import { ellipsePoints } from './ellipse.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
@@ -201,7 +202,7 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
     onProgress: options.onProgress,
     ...(Number.isFinite(referenceBound) ? { ceiling: referenceBound + beyondBandsMargin(referenceBound) } : {}),
   };
-  const grid = withContoursFinished(model, spec, chiSquareOnDayMinuteGrid(model, spec), referenceBound);
+  const grid = withContoursFinished(model, spec, gridOf(model, spec), referenceBound);
   const reference = Math.min(grid.minimum, referenceBound);
   const deltaChiSquare = grid.values.map((row) => deltaRow(row, reference));
 
@@ -242,6 +243,11 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
     fromOtherYears: byMoon ? marked.length - shown.length : markers.filter((m) => !m.inMapYear).length,
     evaluations: grid.evaluations + (closeUp ? closeUp.evaluations : 0),
   };
+}
+
+/** The grid of a spec: with a ceiling, mapGrid.ts (far points left unfinished by blocks); without, every point. */
+function gridOf(model: EvidenceModel, spec: DayMinuteGridSpec): DayMinuteGrid {
+  return spec.ceiling !== undefined ? mapGrid(model, { ...spec, ceiling: spec.ceiling }) : chiSquareOnDayMinuteGrid(model, spec);
 }
 
 /** A row of values less the reference; a row wholly unfinished (+Infinity) stays so without a pass over it. */
@@ -340,7 +346,7 @@ function closeUpGrid(model: EvidenceModel, best: Candidate, rule: ResolvedCalend
     nuisances: nuisancesOfCandidate(model, best),
     ...(Number.isFinite(referenceBound) ? { ceiling: referenceBound + beyondBandsMargin(referenceBound) } : {}),
   };
-  const grid = withContoursFinished(model, spec, chiSquareOnDayMinuteGrid(model, spec), referenceBound);
+  const grid = withContoursFinished(model, spec, gridOf(model, spec), referenceBound);
   const tickStep = [1, 2, 3, 5, 7, 10, 14, 21, 30].find((step) => (2 * halfDays) / step <= 5) ?? 30;
   const dayLabels: { offset: number; label: string }[] = [];
   for (let d = Math.ceil(dayRange[0] / tickStep) * tickStep; d <= dayRange[1]; d += tickStep) {

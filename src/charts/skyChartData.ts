@@ -30,13 +30,12 @@ import { deltaTSeconds } from '../time/deltaT.js';
 import { jdToDecimalYear } from '../time/timeScales.js';
 import { moonPosition } from '../ephemeris/moonPosition.js';
 import { litSideWords, moonPhaseWords } from '../ephemeris/moonLook.js';
-import { evidenceResiduals } from '../geometry/observationModels.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { WALL_SHADOW_KINDS, buildEvidenceModel, termEvidence, wallAzimuthOf, type EvidenceModel } from '../solver/evidenceModel.js';
-import { isWallSunlit } from '../geometry/shadowAngles.js';
 import { nuisancesOfCandidate } from '../solver/chiSquareGrid.js';
 import { isLitByMoonAlone } from '../solver/moonSearch.js';
 import { ellipsePoints, semiAxisVectors } from './ellipse.js';
+import { skyBandValues } from './skyBandValues.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
 
 export interface SkyBand {
@@ -47,7 +46,11 @@ export interface SkyBand {
    * says so ("the sun stands opposite the shadow: shadow 300 deg, sun 120 deg").
    */
   readonly opposite?: { readonly shadowAzimuthDeg: number; readonly sunAzimuthDeg: number };
-  /** Grid azimuths (in the chart's unwrapped azimuth), altitudes, and max |normalised residual| values[j][i]. */
+  /**
+   * Grid azimuths (in the chart's unwrapped azimuth), altitudes, and max |normalised residual| values[j][i]
+   * (99 where the shadow cannot arise). Exact within the band and next to it; away from it a value above 1
+   * (skyBandValues.ts: where the shadow cannot arise, the formula's value may stand there instead of 99).
+   */
   readonly azimuths: readonly number[];
   readonly altitudes: readonly number[];
   readonly values: readonly (readonly number[])[];
@@ -298,16 +301,8 @@ export function skyChartData(scene: Scene, answer: DateAnswer, options: SkyChart
     // A wall's shadow is defined only while its wall is sunlit (src/geometry/wallShadows.ts): elsewhere
     // the band's value is known without the residual.
     const onLitWallOnly = WALL_SHADOW_KINDS.has(evidence.kind);
-    const values = altitudes.map((alt) =>
-      azimuths.map((az) => {
-        evaluations += 1;
-        const sun = { azimuthDeg: ((az % 360) + 360) % 360, altitudeDeg: alt };
-        if (onLitWallOnly && !isWallSunlit(sun, wallAz)) return 99;
-        const r = evidenceResiduals(evidence, sun, wallAz);
-        if (!r.defined) return 99; // the shadow cannot arise there (wall in shade): far outside the band
-        return r.residuals.reduce((m, v) => Math.max(m, Math.abs(v)), 0);
-      }),
-    );
+    evaluations += altitudes.length * azimuths.length;
+    const values = skyBandValues(evidence, wallAz, onLitWallOnly, azimuths, altitudes, term.count);
     const words = COMPONENT_WORDS[term.observationKind] ?? term.observationKind;
     const e = term.evidence;
     // A pole's shadow points away from the sun: shadow azimuth = sun azimuth + 180 (groundShadows.ts).
