@@ -22,13 +22,31 @@ export type Segment = readonly [readonly [number, number], readonly [number, num
 export function isolineSegments(field: SampledField, level: number): Segment[] {
   const { xs, ys, values } = field;
   const out: Segment[] = [];
-  // A row with no finite value at or below the level gives no segment with its neighbours: skipped whole.
-  const reaches = values.map((row) => !(Math.min(...row) > level));
+  // A square gives a segment only when a corner is not above the level (at or below it, or NaN):
+  // on each row, the first and last such column; a pair of rows with none is skipped whole, and
+  // otherwise only the squares between them are looked at (in the same order).
+  const first: number[] = [];
+  const last: number[] = [];
+  for (const row of values) {
+    let a = -1;
+    let b = -1;
+    // (Math.min is NaN when a value is: then the row is read.)
+    const none = Math.min(...row) > level;
+    for (let i = 0; !none && i < row.length; i += 1) {
+      if (row[i] > level) continue;
+      if (a < 0) a = i;
+      b = i;
+    }
+    first.push(a);
+    last.push(b);
+  }
   for (let j = 0; j + 1 < ys.length; j += 1) {
-    if (!reaches[j] && !reaches[j + 1]) continue;
+    if (first[j] < 0 && first[j + 1] < 0) continue;
     const lower = values[j];
     const upper = values[j + 1];
-    for (let i = 0; i + 1 < xs.length; i += 1) {
+    const from = Math.max(0, Math.min(first[j] < 0 ? Infinity : first[j], first[j + 1] < 0 ? Infinity : first[j + 1]) - 1);
+    const to = Math.max(last[j], last[j + 1]); // the square (i, i + 1) with i + 1 = to is the last to hold such a corner
+    for (let i = from; i + 1 < xs.length && i <= to; i += 1) {
       const v0 = lower[i]; // (x0, y0)
       const v1 = lower[i + 1]; // (x1, y0)
       const v2 = upper[i + 1]; // (x1, y1)

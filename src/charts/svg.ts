@@ -18,7 +18,11 @@ export function num(x: number, digits = 1): string {
   const factor = 10 ** digits;
   const rounded = Math.round(x * factor) / factor;
   if (rounded === 0) return '0';
-  return String(Number(rounded.toFixed(digits)));
+  // The shortest text of `rounded` itself: the same as String(Number(rounded.toFixed(digits))), since
+  // rounded is the double nearest k / 10^digits, toFixed writes that decimal (or one within half a
+  // unit of the last place the double holds), and reading it back gives the same double
+  // (ECMA-262 Number::toString and Number.prototype.toFixed); tests/charts/svg.test.ts checks both ways agree.
+  return String(rounded);
 }
 
 /**

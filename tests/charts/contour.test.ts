@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { cellRuns, cellRunsByClass, isolineSegments } from '../../src/charts/contour.js';
 import { ellipsePoints, semiAxisVectors } from '../../src/charts/ellipse.js';
 import { expectClose } from '../helpers/expectClose.js';
@@ -103,5 +104,45 @@ describe('ellipse points', () => {
     const points = ellipsePoints([0, 0], a, b, 8);
     expect(points.length).toBe(9);
     expect(points[8]).toEqual(points[0]);
+  });
+});
+
+describe('isolineSegments looks only between the cells at or below the level', () => {
+  /** Every square scanned, the form before rows and columns were skipped (the reference). */
+  function everySquare(xs: readonly number[], ys: readonly number[], values: readonly (readonly number[])[], level: number) {
+    const out: [number, number, number, number][] = [];
+    for (let j = 0; j + 1 < ys.length; j += 1) {
+      for (let i = 0; i + 1 < xs.length; i += 1) {
+        const corners = [values[j][i], values[j][i + 1], values[j + 1][i + 1], values[j + 1][i]];
+        const code = corners.reduce((c, v, k) => c | (v > level ? 1 << k : 0), 0);
+        if (code === 0 || code === 15 || !corners.every(Number.isFinite)) continue;
+        out.push([j, i, code, 0]);
+      }
+    }
+    return out;
+  }
+  it('gives the segments of every crossed square, in the same order, on random fields with NaN and Infinity (property test)', () => {
+    const cell = fc.oneof(fc.double({ min: -3, max: 3, noNaN: true }), fc.constant(NaN), fc.constant(Infinity), fc.constant(99));
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 7 }), fc.integer({ min: 1, max: 7 }), fc.array(cell, { minLength: 49, maxLength: 49 }), fc.double({ min: -1, max: 1, noNaN: true }), (cols, rows, flat, level) => {
+        const xs = grid(Math.max(2, cols), 0, 1).slice(0, cols);
+        const ys = grid(Math.max(2, rows), 0, 1).slice(0, rows);
+        const values = ys.map((_, j) => xs.map((__, i) => flat[j * 7 + i]));
+        const segments = isolineSegments({ xs, ys, values }, level);
+        // Each crossed square gives one segment, or two for a saddle (codes 5 and 10), in the order of the squares.
+        const expected = everySquare(xs, ys, values, level).flatMap(([j, i, code]) => (code === 5 || code === 10 ? [[j, i], [j, i]] : [[j, i]]));
+        expect(segments.length).toBe(expected.length);
+        segments.forEach(([p, q], k) => {
+          const [j, i] = expected[k];
+          for (const [x, y] of [p, q]) {
+            expect(x).toBeGreaterThanOrEqual(xs[i]);
+            expect(x).toBeLessThanOrEqual(xs[i + 1]);
+            expect(y).toBeGreaterThanOrEqual(ys[j]);
+            expect(y).toBeLessThanOrEqual(ys[j + 1]);
+          }
+        });
+      }),
+      { numRuns: 3000 },
+    );
   });
 });

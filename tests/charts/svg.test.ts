@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import fc from 'fast-check';
 import { el, escapeXml, num, pathData, svgDocument, text } from '../../src/charts/svg.js';
 
 describe('num', () => {
@@ -8,6 +9,20 @@ describe('num', () => {
     expect(num(3)).toBe('3');
     expect(num(2.5, 0)).toBe('3');
     expect(num(1.23456, 3)).toBe('1.235');
+  });
+  it('writes the same text as reading back toFixed would (the form it had before; property test)', () => {
+    // The earlier form, String(Number(rounded.toFixed(digits))) (ECMA-262 Number.prototype.toFixed), kept here as the reference.
+    const before = (x: number, digits: number): string => {
+      if (!Number.isFinite(x)) return '0';
+      const rounded = Math.round(x * 10 ** digits) / 10 ** digits;
+      return rounded === 0 ? '0' : String(Number(rounded.toFixed(digits)));
+    };
+    fc.assert(
+      fc.property(fc.oneof(fc.double(), fc.double({ min: -2000, max: 2000 }), fc.integer({ min: -100000, max: 100000 }).map((k) => k / 20)), fc.integer({ min: 0, max: 4 }), (x, digits) => {
+        expect(num(x, digits)).toBe(before(x, digits));
+      }),
+      { numRuns: 20000 },
+    );
   });
   it('never writes a negative zero, NaN or Infinity', () => {
     expect(num(-0.04)).toBe('0');
