@@ -18,7 +18,7 @@ import { civilDateToJd, jdToCivilDate, resolveCalendarRule, type ResolvedCalenda
 import { formatYearBcAd } from '../calendar/format.js';
 import { resolvePixelObservations } from '../image/resolvePixels.js';
 import { buildEvidenceModel, type EvidenceModel } from '../solver/evidenceModel.js';
-import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, finishDayMinuteCells, nuisancesOfCandidate, type DayMinuteGrid, type DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
+import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, nuisancesOfCandidate, type DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
 import { isLitByMoonAlone } from '../solver/moonSearch.js';
 import { mapGrid } from './mapGrid.js';
 import { FIT_BANDS } from './palette.js';
@@ -202,7 +202,7 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
     onProgress: options.onProgress,
     ...(Number.isFinite(referenceBound) ? { ceiling: referenceBound + beyondBandsMargin(referenceBound) } : {}),
   };
-  const grid = withContoursFinished(model, spec, gridOf(model, spec), referenceBound);
+  const grid = gridOf(model, spec, referenceBound);
   const reference = Math.min(grid.minimum, referenceBound);
   const deltaChiSquare = grid.values.map((row) => deltaRow(row, reference));
 
@@ -245,9 +245,12 @@ export function dateHourMapData(scene: Scene, answer: DateAnswer, options: DateH
   };
 }
 
-/** The grid of a spec: with a ceiling, mapGrid.ts (far points left unfinished by blocks); without, every point. */
-function gridOf(model: EvidenceModel, spec: DayMinuteGridSpec): DayMinuteGrid {
-  return spec.ceiling !== undefined ? mapGrid(model, { ...spec, ceiling: spec.ceiling }) : chiSquareOnDayMinuteGrid(model, spec);
+/**
+ * The grid of a spec: with a ceiling, mapGrid.ts (points far beyond the palest band left unfinished, by
+ * blocks, and every point a contour line could run next to finished); without, every point.
+ */
+function gridOf(model: EvidenceModel, spec: DayMinuteGridSpec, referenceBound: number): { readonly values: readonly (readonly number[])[]; readonly minimum: number; readonly evaluations: number } {
+  return spec.ceiling !== undefined ? mapGrid(model, { ...spec, ceiling: spec.ceiling }, { referenceBound, level: HIGHEST_CONTOUR }) : chiSquareOnDayMinuteGrid(model, spec);
 }
 
 /** A row of values less the reference; a row wholly unfinished (+Infinity) stays so without a pass over it. */
@@ -266,33 +269,6 @@ function beyondBandsMargin(reference: number): number {
 
 /** The largest level at which the map draws a contour (dateHourMap.ts: the 68% and 95% bounds). */
 const HIGHEST_CONTOUR = Math.max(FIT_BANDS[0].maxDeltaChiSquare, FIT_BANDS[1].maxDeltaChiSquare);
-
-/**
- * The grid with every unfinished point computed that a contour line could run next to: a
- * corner of a grid cell whose other corners include one at or below the highest contour level
- * (marching squares interpolates along that cell's edges with the true values). Every other
- * unfinished point stays +Infinity: beyond the palest band, it is drawn unshaded and away from
- * any contour line whatever its value.
- */
-function withContoursFinished(model: EvidenceModel, spec: DayMinuteGridSpec, grid: DayMinuteGrid, referenceBound: number): DayMinuteGrid {
-  if (grid.unfinished.length === 0) return grid;
-  const reference = Math.min(grid.minimum, referenceBound);
-  const v = grid.values;
-  const cells: [number, number][] = [];
-  const low = (x: number): boolean => x - reference <= HIGHEST_CONTOUR;
-  const rowLow = v.map((row) => low(Math.min(...row))); // false: no value of the row is low
-  for (let j = 0; j + 1 < v.length; j += 1) {
-    if (!rowLow[j] && !rowLow[j + 1]) continue;
-    const below = v[j];
-    const above = v[j + 1];
-    for (let i = 0; i + 1 < below.length; i += 1) {
-      if (!low(below[i]) && !low(below[i + 1]) && !low(above[i + 1]) && !low(above[i])) continue;
-      const corners: readonly (readonly [number, number, number])[] = [[j, i, below[i]], [j, i + 1, below[i + 1]], [j + 1, i + 1, above[i + 1]], [j + 1, i, above[i]]];
-      for (const [a, b, x] of corners) if (x === Infinity) cells.push([a, b]);
-    }
-  }
-  return finishDayMinuteCells(model, spec, grid, cells);
-}
 
 /** Offset of the first day of a month from 1 January; a month whose 1st fell in a reform gap starts at its first existing day. */
 function safeOffset(rule: ResolvedCalendar, year: number, month: number, jan1: number): number {
@@ -346,7 +322,7 @@ function closeUpGrid(model: EvidenceModel, best: Candidate, rule: ResolvedCalend
     nuisances: nuisancesOfCandidate(model, best),
     ...(Number.isFinite(referenceBound) ? { ceiling: referenceBound + beyondBandsMargin(referenceBound) } : {}),
   };
-  const grid = withContoursFinished(model, spec, gridOf(model, spec), referenceBound);
+  const grid = gridOf(model, spec, referenceBound);
   const tickStep = [1, 2, 3, 5, 7, 10, 14, 21, 30].find((step) => (2 * halfDays) / step <= 5) ?? 30;
   const dayLabels: { offset: number; label: string }[] = [];
   for (let d = Math.ceil(dayRange[0] / tickStep) * tickStep; d <= dayRange[1]; d += tickStep) {

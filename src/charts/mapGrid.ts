@@ -23,9 +23,17 @@
  * (src/geometry/lightFacts.ts), an angle from a great circle, which changes by at most the arc the
  * sun moves: so each such residual is at least r_c - delta / FACT_TOLERANCE_DEG everywhere in the
  * block, and when the sum of the squares of these lower bounds exceeds the ceiling, so does every
- * point of the block (the penalty is part of the value, the other rows add squares). Such a block
- * is left unfinished whole; any other is split in two, and a block of a few points is tested point
- * by point. A margin of 1e-6 deg in delta covers rounding.
+ * point of the block (the penalty is part of the value, the other rows add squares). Some shadows'
+ * rows are bounded alike and add their squares (shadowRowBounds): a pole's shadow length and a
+ * stated sun altitude are linear in the apparent altitude (src/geometry/groundShadows.ts,
+ * pointShadows.ts), which changes by at most delta; a pole's shadow azimuth and a stated sun
+ * azimuth change by at most 2 asin(sin(delta / 2) / cos h_max), h_max the largest |altitude| in
+ * the block (haversine formula: hav d = hav(dh) + cos h1 cos h2 hav(dA) >= cos^2 h_max hav(dA);
+ * R. W. Sinnott, "Virtues of the Haversine", Sky and Telescope 68, 1984, p. 159); an object-shadow
+ * pair's residual is the sun's distance from a great circle (1 deg per deg) over a sigma of at most
+ * sqrt(trace C) (src/geometry/skyPlanes.ts; the largest eigenvalue of a covariance is at most its
+ * trace). Such a block is left unfinished whole; any other is split in two, and a block of a few
+ * points is tested point by point. A margin of 1e-6 deg in delta covers rounding.
  *
  * Then single points, as the solver's grid tests them: the facts' penalty, then the shadows' rows
  * in the order the value sums them (src/solver/evidenceModel.ts splitChiSquare), each a partial sum
@@ -36,10 +44,14 @@
  */
 import { refractionDeg, NO_REFRACTION_BELOW_DEG } from '../ephemeris/refraction.js';
 import { evidenceResidualValues, type ShadowEvidence } from '../geometry/observationModels.js';
+import { ratioSigmaToAngleSigmaDeg } from '../geometry/residuals.js';
+import { MIN_PLANE_SIGMA_DEG, planeDistanceDeg, planeNormalAt } from '../geometry/skyPlanes.js';
+import { sunUnitVector } from '../geometry/sunVector.js';
+import { DEG_PER_RAD, RAD_PER_DEG } from '../math/angles.js';
 import { FACT_TOLERANCE_DEG, factResidual, longitudeOf, splitChiSquare, termEvidence, wallAzimuthOf, type EvidenceModel, type FactTerm } from '../solver/evidenceModel.js';
 import { datedPoint, datedSun, ensureTrack, newDatedContext, type DatedContext } from '../solver/fitting.js';
 import { instantOfApparentTime, solarStateOnTrack, type SunTrack } from '../solver/sunModel.js';
-import type { DayMinuteGrid, DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
+import type { DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
 
 /** Blocks of at most this many points are tested point by point. */
 const SMALL_BLOCK = 6;
@@ -69,17 +81,80 @@ interface ShadowAt {
 }
 
 /**
- * The grid of the map (see header); spec.ceiling must be given.
+ * The sum of the squares of lower bounds of a shadow's |rows| anywhere within delta degrees of arc
+ * (apparent altitude within delta too) of the sun c, whose rows are `rows` (see header); 0 for
+ * the kinds not bounded here.
+ */
+function shadowRowBounds(evidence: ShadowEvidence, rows: Float64Array, sun: { readonly altitudeDeg: number; readonly azimuthDeg: number }, deltaDeg: number): number {
+  const low = (r: number, change: number): number => {
+    const v = Math.abs(r) - change;
+    return v > 0 ? v * v : 0;
+  };
+  // Largest change of azimuth within delta of arc, degrees (header: haversine); 180 when the block may reach a pole of the sky.
+  const azimuthChange = (): number => {
+    const hMax = Math.abs(sun.altitudeDeg) + deltaDeg;
+    const c = hMax >= 90 ? 0 : Math.cos(hMax * RAD_PER_DEG);
+    const x = Math.sin((deltaDeg / 2) * RAD_PER_DEG) / c;
+    return !(x < 1) ? 180 : 2 * Math.asin(x) * DEG_PER_RAD;
+  };
+  switch (evidence.kind) {
+    case 'pole-shadow': {
+      let i = 0;
+      let sum = 0;
+      if (evidence.shadowAzimuthDeg !== undefined && evidence.shadowAzimuthSigmaDeg !== undefined) sum += low(rows[i++], azimuthChange() / evidence.shadowAzimuthSigmaDeg);
+      if (evidence.lengthRatio !== undefined && evidence.lengthRatioSigma !== undefined) sum += low(rows[i++], deltaDeg / ratioSigmaToAngleSigmaDeg(evidence.lengthRatio, evidence.lengthRatioSigma));
+      return sum;
+    }
+    case 'sun-direction':
+      return low(rows[0], azimuthChange() / evidence.azimuthSigmaDeg) + low(rows[1], deltaDeg / evidence.altitudeSigmaDeg);
+    case 'sun-circle': {
+      const c = evidence.circle.clickCovariance;
+      const sigmaMax = Math.max(Math.sqrt(c[0][0] + c[1][1] + c[2][2]) * DEG_PER_RAD, MIN_PLANE_SIGMA_DEG);
+      const distance = Math.abs(planeDistanceDeg(planeNormalAt(evidence.circle, evidence.cameraError ?? []), sunUnitVector(sun.azimuthDeg, sun.altitudeDeg)));
+      return Number.isFinite(sigmaMax) ? low(distance / sigmaMax, deltaDeg / sigmaMax) : 0;
+    }
+    default:
+      return 0;
+  }
+}
+
+/** The grid of the map: values[j][i] at minutes[j] of day column i, +Infinity where left unfinished. */
+export interface MapGrid {
+  readonly values: readonly (readonly number[])[];
+  /** The smallest finished value. */
+  readonly minimum: number;
+  /** Points of the grid (each evaluated or left unfinished). */
+  readonly evaluations: number;
+  /** How many points are left unfinished (each above the ceiling). */
+  readonly left: number;
+  /** The sun track each day column is evaluated with (as the solver's grid makes them). */
+  readonly tracks: readonly SunTrack[];
+}
+
+/** Where a contour line could run: finished at every point next to a value at most `level` above the reference. */
+export interface ContourFinish {
+  /** The reference (the lowest value) is at most this. */
+  readonly referenceBound: number;
+  /** The highest contour level drawn, above the reference. */
+  readonly level: number;
+}
+
+/**
+ * The grid of the map (see header); spec.ceiling must be given. With `contours`, every unfinished
+ * point that a contour line could run next to is then computed exactly: a corner of a grid square
+ * whose other corners include one at or under the level above the reference (marching squares
+ * interpolates along that square's edges with the true values, contour.ts). Every other unfinished
+ * point stays +Infinity: beyond the palest band, drawn unshaded and away from any contour line.
  * @example mapGrid(model, { dayJd0s, minutes, assumedClock: null, nuisances: priorsOf(model), ceiling: 40 }).values
  */
-export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readonly ceiling: number }): DayMinuteGrid {
+export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readonly ceiling: number }, contours?: ContourFinish): MapGrid {
   const cols = spec.dayJd0s.length;
   const rows = spec.minutes.length;
   const values: number[][] = spec.minutes.map(() => new Array<number>(cols).fill(NaN));
-  const unfinished: [number, number][] = [];
   const tracks: SunTrack[] = [];
   let minimum = Infinity;
-  if (cols === 0) return { dayJd0s: [], minutes: spec.minutes, values, minimum, evaluations: 0, unfinished, tracks };
+  let left = 0;
+  if (cols === 0) return { values, minimum, evaluations: 0, left, tracks };
   const { nuisances, ceiling, minutes, dayJd0s } = spec;
   const lon = longitudeOf(model, nuisances);
   // The sun tracks of the columns, made in the order the solver's grid makes them (the same anchors, so the same bits).
@@ -95,12 +170,13 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
   const shadows: ShadowAt[] = model.shadows
     .filter((t) => t.light !== 'moon') // a shadow of the moon is left out: the partial sum stays a lower bound
     .map((t) => ({ evidence: termEvidence(model, t, nuisances), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, nuisances) }));
+  const boundable = angleFacts.length > 0 || shadows.some((t) => t.evidence.kind === 'pole-shadow' || t.evidence.kind === 'sun-direction' || t.evidence.kind === 'sun-circle');
   const rowsOut = new Float64Array(Math.max(8, model.measuredCount));
   const refraction2 = 2 * largestRefractionDeg(model);
 
   const leave = (j: number, i: number): void => {
     values[j][i] = Infinity;
-    unfinished.push([j, i]);
+    left += 1;
   };
   const factContext = (c: DatedContext, i: number, j: number) => {
     const { state, sun } = datedSun(c, dayJd0s[i], minutes[j], nuisances);
@@ -125,13 +201,16 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
     return false;
   };
 
-  const point = (i: number, j: number): void => {
-    if (exceeds(i, j)) return leave(j, i);
-    // chi-square + penalty of the dated model, as the solver's grid values a point (chiSquareGrid.ts valueAt)
+  /** chi-square + penalty of the dated model, as the solver's grid values a point (chiSquareGrid.ts valueAt). */
+  const finish = (i: number, j: number): void => {
     const s = splitChiSquare(model, datedPoint(contexts[i], dayJd0s[i], minutes[j], nuisances).residuals);
     const v = s.chiSquare + s.penalty;
     values[j][i] = v;
     if (v < minimum) minimum = v;
+  };
+  const point = (i: number, j: number): void => {
+    if (exceeds(i, j)) leave(j, i);
+    else finish(i, j);
   };
 
   /**
@@ -165,7 +244,7 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
   }
 
   const block = (i0: number, i1: number, j0: number, j1: number): void => {
-    if ((i1 - i0) * (j1 - j0) <= SMALL_BLOCK || angleFacts.length === 0) {
+    if ((i1 - i0) * (j1 - j0) <= SMALL_BLOCK || !boundable) {
       for (let i = i0; i < i1; i += 1) for (let j = j0; j < j1; j += 1) point(i, j);
       return;
     }
@@ -188,11 +267,17 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
       const r = rc - delta / FACT_TOLERANCE_DEG;
       if (r > 0) bound += r * r;
     }
+    for (const t of shadows) {
+      if (t.evidence.kind !== 'pole-shadow' && t.evidence.kind !== 'sun-direction' && t.evidence.kind !== 'sun-circle') continue;
+      const n = evidenceResidualValues(t.evidence, ctx.sun, t.wallAzimuthDeg, rowsOut, 0);
+      for (let k = 0; k < n; k += 1) atCentre += rowsOut[k] * rowsOut[k];
+      bound += shadowRowBounds(t.evidence, rowsOut, ctx.sun, delta);
+    }
     if (bound > ceiling) {
       for (let i = i0; i < i1; i += 1) for (let j = j0; j < j1; j += 1) leave(j, i);
       return;
     }
-    // Where the facts leave the centre itself under the ceiling, smaller blocks would seldom fare better.
+    // Where the bounded rows leave the centre itself under the ceiling, smaller blocks would seldom fare better.
     if (atCentre <= ceiling && (i1 - i0) * (j1 - j0) <= MIXED_BLOCK) {
       for (let i = i0; i < i1; i += 1) for (let j = j0; j < j1; j += 1) point(i, j);
       return;
@@ -214,5 +299,26 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
     for (let j0 = 0; j0 < rows; j0 += FIRST_BLOCK_ROWS) block(i0, i1, j0, Math.min(rows, j0 + FIRST_BLOCK_ROWS));
     spec.onProgress?.(i1, cols);
   }
-  return { dayJd0s, minutes, values, minimum, evaluations: rows * cols, unfinished, tracks };
+  if (contours !== undefined && left > 0) {
+    // The squares with a corner at or under the level (dateHourMapData.ts draws contours up to it); rows with none passed over.
+    const reference = Math.min(minimum, contours.referenceBound);
+    const low = (x: number): boolean => x - reference <= contours.level;
+    const rowLow = values.map((row) => low(Math.min(...row)));
+    const cells: [number, number][] = [];
+    for (let j = 0; j + 1 < rows; j += 1) {
+      if (!rowLow[j] && !rowLow[j + 1]) continue;
+      const below = values[j];
+      const above = values[j + 1];
+      for (let i = 0; i + 1 < cols; i += 1) {
+        if (!low(below[i]) && !low(below[i + 1]) && !low(above[i + 1]) && !low(above[i])) continue;
+        for (const [b, a] of [[j, i], [j, i + 1], [j + 1, i + 1], [j + 1, i]] as const) if (values[b][a] === Infinity) cells.push([b, a]);
+      }
+    }
+    for (const [j, i] of cells) {
+      if (values[j][i] !== Infinity) continue; // listed twice
+      finish(i, j);
+      left -= 1;
+    }
+  }
+  return { values, minimum, evaluations: rows * cols, left, tracks };
 }
