@@ -23,16 +23,9 @@
  * (src/geometry/lightFacts.ts), an angle from a great circle, which changes by at most the arc the
  * sun moves: so each such residual is at least r_c - delta / FACT_TOLERANCE_DEG everywhere in the
  * block, and when the sum of the squares of these lower bounds exceeds the ceiling, so does every
- * point of the block (the penalty is part of the value, the other rows add squares). Some shadows'
- * rows are bounded alike and add their squares (shadowRowBounds): a pole's shadow length and a
- * stated sun altitude are linear in the apparent altitude (src/geometry/groundShadows.ts,
- * pointShadows.ts), which changes by at most delta; a pole's shadow azimuth and a stated sun
- * azimuth change by at most 2 asin(sin(delta / 2) / cos h_max), h_max the largest |altitude| in
- * the block (haversine formula: hav d = hav(dh) + cos h1 cos h2 hav(dA) >= cos^2 h_max hav(dA);
- * R. W. Sinnott, "Virtues of the Haversine", Sky and Telescope 68, 1984, p. 159); an object-shadow
- * pair's residual is the sun's distance from a great circle (1 deg per deg) over a sigma of at most
- * sqrt(trace C) (src/geometry/skyPlanes.ts; the largest eigenvalue of a covariance is at most its
- * trace). Such a block is left unfinished whole; any other is split in two, and a block of a few
+ * point of the block (the penalty is part of the value, the other rows add squares). The rows of
+ * most kinds of shadow are bounded alike (residualBounds.ts) and add their squares. Such a block
+ * is left unfinished whole; any other is split in two, and a block of a few
  * points is tested point by point. A margin of 1e-6 deg in delta covers rounding.
  *
  * Then single points, as the solver's grid tests them: the facts' penalty, then the shadows' rows
@@ -44,10 +37,7 @@
  */
 import { refractionDeg, NO_REFRACTION_BELOW_DEG } from '../ephemeris/refraction.js';
 import { evidenceResidualValues, type ShadowEvidence } from '../geometry/observationModels.js';
-import { ratioSigmaToAngleSigmaDeg } from '../geometry/residuals.js';
-import { MIN_PLANE_SIGMA_DEG, planeDistanceDeg, planeNormalAt } from '../geometry/skyPlanes.js';
-import { sunUnitVector } from '../geometry/sunVector.js';
-import { DEG_PER_RAD, RAD_PER_DEG } from '../math/angles.js';
+import { isBoundedKind, rowLowerBounds } from './residualBounds.js';
 import { FACT_TOLERANCE_DEG, factResidual, longitudeOf, splitChiSquare, termEvidence, wallAzimuthOf, type EvidenceModel, type FactTerm } from '../solver/evidenceModel.js';
 import { datedPoint, datedSun, ensureTrack, newDatedContext, type DatedContext } from '../solver/fitting.js';
 import { instantOfApparentTime, solarStateOnTrack, type SunTrack } from '../solver/sunModel.js';
@@ -78,44 +68,6 @@ function largestRefractionDeg(model: EvidenceModel): number {
 interface ShadowAt {
   readonly evidence: ShadowEvidence;
   readonly wallAzimuthDeg: number;
-}
-
-/**
- * The sum of the squares of lower bounds of a shadow's |rows| anywhere within delta degrees of arc
- * (apparent altitude within delta too) of the sun c, whose rows are `rows` (see header); 0 for
- * the kinds not bounded here.
- */
-function shadowRowBounds(evidence: ShadowEvidence, rows: Float64Array, sun: { readonly altitudeDeg: number; readonly azimuthDeg: number }, deltaDeg: number): number {
-  const low = (r: number, change: number): number => {
-    const v = Math.abs(r) - change;
-    return v > 0 ? v * v : 0;
-  };
-  // Largest change of azimuth within delta of arc, degrees (header: haversine); 180 when the block may reach a pole of the sky.
-  const azimuthChange = (): number => {
-    const hMax = Math.abs(sun.altitudeDeg) + deltaDeg;
-    const c = hMax >= 90 ? 0 : Math.cos(hMax * RAD_PER_DEG);
-    const x = Math.sin((deltaDeg / 2) * RAD_PER_DEG) / c;
-    return !(x < 1) ? 180 : 2 * Math.asin(x) * DEG_PER_RAD;
-  };
-  switch (evidence.kind) {
-    case 'pole-shadow': {
-      let i = 0;
-      let sum = 0;
-      if (evidence.shadowAzimuthDeg !== undefined && evidence.shadowAzimuthSigmaDeg !== undefined) sum += low(rows[i++], azimuthChange() / evidence.shadowAzimuthSigmaDeg);
-      if (evidence.lengthRatio !== undefined && evidence.lengthRatioSigma !== undefined) sum += low(rows[i++], deltaDeg / ratioSigmaToAngleSigmaDeg(evidence.lengthRatio, evidence.lengthRatioSigma));
-      return sum;
-    }
-    case 'sun-direction':
-      return low(rows[0], azimuthChange() / evidence.azimuthSigmaDeg) + low(rows[1], deltaDeg / evidence.altitudeSigmaDeg);
-    case 'sun-circle': {
-      const c = evidence.circle.clickCovariance;
-      const sigmaMax = Math.max(Math.sqrt(c[0][0] + c[1][1] + c[2][2]) * DEG_PER_RAD, MIN_PLANE_SIGMA_DEG);
-      const distance = Math.abs(planeDistanceDeg(planeNormalAt(evidence.circle, evidence.cameraError ?? []), sunUnitVector(sun.azimuthDeg, sun.altitudeDeg)));
-      return Number.isFinite(sigmaMax) ? low(distance / sigmaMax, deltaDeg / sigmaMax) : 0;
-    }
-    default:
-      return 0;
-  }
 }
 
 /** The grid of the map: values[j][i] at minutes[j] of day column i, +Infinity where left unfinished. */
@@ -170,8 +122,9 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
   const shadows: ShadowAt[] = model.shadows
     .filter((t) => t.light !== 'moon') // a shadow of the moon is left out: the partial sum stays a lower bound
     .map((t) => ({ evidence: termEvidence(model, t, nuisances), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, nuisances) }));
-  const boundable = angleFacts.length > 0 || shadows.some((t) => t.evidence.kind === 'pole-shadow' || t.evidence.kind === 'sun-direction' || t.evidence.kind === 'sun-circle');
+  const boundable = angleFacts.length > 0 || shadows.some((t) => isBoundedKind(t.evidence.kind));
   const rowsOut = new Float64Array(Math.max(8, model.measuredCount));
+  const lowerOut = new Float64Array(rowsOut.length);
   const refraction2 = 2 * largestRefractionDeg(model);
 
   const leave = (j: number, i: number): void => {
@@ -268,10 +221,10 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
       if (r > 0) bound += r * r;
     }
     for (const t of shadows) {
-      if (t.evidence.kind !== 'pole-shadow' && t.evidence.kind !== 'sun-direction' && t.evidence.kind !== 'sun-circle') continue;
+      if (!isBoundedKind(t.evidence.kind)) continue;
       const n = evidenceResidualValues(t.evidence, ctx.sun, t.wallAzimuthDeg, rowsOut, 0);
       for (let k = 0; k < n; k += 1) atCentre += rowsOut[k] * rowsOut[k];
-      bound += shadowRowBounds(t.evidence, rowsOut, ctx.sun, delta);
+      if (rowLowerBounds(t.evidence, ctx.sun, t.wallAzimuthDeg, delta, rowsOut, lowerOut)) for (let k = 0; k < n; k += 1) bound += lowerOut[k] * lowerOut[k];
     }
     if (bound > ceiling) {
       for (let i = i0; i < i1; i += 1) for (let j = j0; j < j1; j += 1) leave(j, i);
