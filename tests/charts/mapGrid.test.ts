@@ -131,7 +131,7 @@ describe('the map grid leaves blocks beyond the palest band unfinished (mapGrid.
             `  - { id: rod, kind: rod-shadow, wall: a, slopeDeg: ${s.slopeDeg}, side: ${s.right ? 'right' : 'left'}, sigmaDeg: 2 }`,
             `  - { id: post, kind: pole-shadow, shadowAzimuthDeg: ${s.poleAzimuthDeg}, shadowAzimuthSigmaDeg: 3, lengthRatio: ${s.lengthRatio}, lengthRatioSigma: 0.1 }`,
             `  - { id: side, kind: ${s.shaded ? 'wall-shaded' : 'wall-lit'}, wall: b }`,
-            ...(s.wallShadows ? [`  - { id: cornice, kind: overhang-shadow, wall: a, depthRatio: ${s.lengthRatio / 2}, sigma: 0.05 }`, `  - { id: pier, kind: fin-shadow, wall: b, widthRatio: ${s.lengthRatio / 3}, sigma: 0.05 }`] : []),
+            ...(s.wallShadows ? [`  - { id: cornice, kind: overhang-shadow, wall: a, depthRatio: ${s.lengthRatio / 2}, sigma: 0.05 }`, `  - { id: pier, kind: fin-shadow, wall: b, widthRatio: ${s.lengthRatio / 3}, side: ${s.right ? 'left' : 'right'}, sigma: 0.05 }`] : []),
             ...(s.stated ? [`  - { id: stated, kind: sun-direction, azimuthDeg: ${s.poleAzimuthDeg}, azimuthSigmaDeg: 4, altitudeDeg: ${s.slopeDeg / 2}, altitudeSigmaDeg: 3 }`] : []),
           ].join('\n'),
           'random.yaml',
