@@ -119,3 +119,28 @@ export function cellRunsByClass(
   }
   return out;
 }
+
+/**
+ * The runs of cellRuns for the cells whose value is at or below `level` (not NaN), read straight
+ * from the values: the same runs, in the same order, as
+ * cellRunsByClass(rows, cols, (j, i) => (values[j][i] <= level ? 0 : -1))[0] ?? [].
+ * @example runsAtOrBelow([[2, 0.5, 0.7, 3]], 1) // [{ j: 0, i0: 1, i1: 3 }]
+ */
+export function runsAtOrBelow(values: readonly (readonly number[])[], level: number): { j: number; i0: number; i1: number }[] {
+  const out: { j: number; i0: number; i1: number }[] = [];
+  for (let j = 0; j < values.length; j += 1) {
+    const row = values[j];
+    if (Math.min(...row) > level) continue; // no cell of the row at or below the level (NaN: the row is read)
+    let start = -1;
+    for (let i = 0; i < row.length; i += 1) {
+      if (row[i] <= level) {
+        if (start < 0) start = i;
+      } else if (start >= 0) {
+        out.push({ j, i0: start, i1: i });
+        start = -1;
+      }
+    }
+    if (start >= 0) out.push({ j, i0: start, i1: row.length });
+  }
+  return out;
+}

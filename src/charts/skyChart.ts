@@ -13,7 +13,7 @@
  */
 import { cosDeg, normalizeDeg360, sinDeg } from '../math/angles.js';
 import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
-import { cellRunsByClass, isolineSegments } from './contour.js';
+import { isolineSegments, runsAtOrBelow } from './contour.js';
 import { CHART_STYLE, DASHES, INK, OKABE_ITO, seriesStyle } from './palette.js';
 import { linearScale, niceTicks, type LinearScale } from './scale.js';
 import type { SkyBand, SkyChartData, SkyMoon } from './skyChartData.js';
@@ -102,13 +102,7 @@ function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale)
   const style = seriesStyle(index);
   const da = band.azimuths.length > 1 ? band.azimuths[1] - band.azimuths[0] : 1;
   const dh = band.altitudes.length > 1 ? band.altitudes[1] - band.altitudes[0] : 1;
-  const runs =
-    cellRunsByClass(
-      band.altitudes.length,
-      band.azimuths.length,
-      (j, i) => (band.values[j][i] <= 1 ? 0 : -1),
-      (j) => Math.min(...band.values[j]) > 1, // no cell of the row within 1 sigma
-    )[0] ?? [];
+  const runs = runsAtOrBelow(band.values, 1); // the cells within 1 sigma
   const fill = runs
     .map((r) => {
       const x0 = x(band.azimuths[r.i0] - da / 2);

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { cellRuns, cellRunsByClass, isolineSegments } from '../../src/charts/contour.js';
+import { cellRuns, cellRunsByClass, isolineSegments, runsAtOrBelow } from '../../src/charts/contour.js';
 import { ellipsePoints, semiAxisVectors } from '../../src/charts/ellipse.js';
 import { expectClose } from '../helpers/expectClose.js';
 
@@ -141,6 +141,21 @@ describe('isolineSegments looks only between the cells at or below the level', (
             expect(y).toBeLessThanOrEqual(ys[j + 1]);
           }
         });
+      }),
+      { numRuns: 3000 },
+    );
+  });
+});
+
+describe('runsAtOrBelow', () => {
+  it('gives the runs of cellRunsByClass for the cells at or below a level, NaN and Infinity among them (property test)', () => {
+    const cell = fc.oneof(fc.double({ min: -3, max: 3, noNaN: true }), fc.constant(NaN), fc.constant(Infinity), fc.constant(1));
+    fc.assert(
+      fc.property(fc.array(fc.array(cell, { minLength: 0, maxLength: 9 }), { minLength: 0, maxLength: 6 }), fc.double({ min: -1, max: 2, noNaN: true }), (ragged, level) => {
+        const cols = ragged.length > 0 ? Math.min(...ragged.map((r) => r.length)) : 0;
+        const values = ragged.map((r) => r.slice(0, cols));
+        const reference = cellRunsByClass(values.length, cols, (j, i) => (values[j][i] <= level ? 0 : -1))[0] ?? [];
+        expect(runsAtOrBelow(values, level)).toEqual(reference);
       }),
       { numRuns: 3000 },
     );
