@@ -102,7 +102,7 @@ export interface ContourFinish {
 export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readonly ceiling: number }, contours?: ContourFinish): MapGrid {
   const cols = spec.dayJd0s.length;
   const rows = spec.minutes.length;
-  const values: number[][] = spec.minutes.map(() => new Array<number>(cols).fill(NaN));
+  const values: number[][] = spec.minutes.map(() => spec.dayJd0s.map(() => NaN)); // packed arrays of doubles (quicker to read than holey ones)
   const tracks: SunTrack[] = [];
   let minimum = Infinity;
   let left = 0;
