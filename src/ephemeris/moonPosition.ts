@@ -118,9 +118,14 @@ export function parallacticAngleDeg(latitudeDeg: number, hourAngleDeg: number, d
  * 40 s late: measured on Meeus Example 49.a).
  */
 export function moonPhaseLongitudeDeg(time: AstroTime): number {
+  return phaseLongitudeOfVectors(time, geocentricMoonOfDate(time), geocentricSunOfDate(time));
+}
+
+/** moonPhaseLongitudeDeg from the moon's and the sun's geocentric vectors of date at `time`, already at hand (the same numbers). */
+function phaseLongitudeOfVectors(time: AstroTime, moonGeo: Vector, sunGeo: Vector): number {
   const toEcliptic = Rotation_EQD_ECT(time);
-  const moon = SphereFromVector(RotateVector(toEcliptic, geocentricMoonOfDate(time)));
-  const sun = SphereFromVector(RotateVector(toEcliptic, geocentricSunOfDate(time)));
+  const moon = SphereFromVector(RotateVector(toEcliptic, moonGeo));
+  const sun = SphereFromVector(RotateVector(toEcliptic, sunGeo));
   return normalizeDeg360(moon.lon - sun.lon);
 }
 
@@ -154,7 +159,8 @@ function moonPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | un
   const moonDist = moonGeo.Length();
   const phaseAngleDeg = atan2Deg(sunDist * sinDeg(elongationDeg), moonDist - sunDist * cosDeg(elongationDeg));
   const illuminatedFraction = (1 + cosDeg(phaseAngleDeg)) / 2;
-  const phaseLongitudeDeg = moonPhaseLongitudeDeg(time);
+  // The same vectors as above: moonPhaseLongitudeDeg(time) would compute both again (the costliest part of a call).
+  const phaseLongitudeDeg = phaseLongitudeOfVectors(time, moonGeo, sunGeo);
 
   // Bright limb from geocentric places (Meeus ch. 48) ...
   const limbGeoDeg = brightLimbPositionAngleDeg(eqSun.ra * 15, eqSun.dec, eqMoonGeo.ra * 15, eqMoonGeo.dec);
