@@ -28,7 +28,7 @@ import { moonPhaseLongitudeApproxDeg } from '../ephemeris/moonPhaseApprox.js';
 import { deltaTSeconds } from '../time/deltaT.js';
 import { jdToDecimalYear } from '../time/timeScales.js';
 import { jdToCivilDate } from '../calendar/regions.js';
-import { evidenceResiduals } from '../geometry/observationModels.js';
+import { evidenceResidualValues, type ShadowEvidence } from '../geometry/observationModels.js';
 import {
   evidenceResidualVector, factResidual, FACT_TOLERANCE_DEG, splitChiSquare, termEvidence, wallAzimuthOf,
   type EvaluationContext, type EvidenceModel,
@@ -36,6 +36,7 @@ import {
 import { hasMoonEvidence, newDatedContext, refineOnDay, siteOf, zoneOffsetsAt } from './fitting.js';
 import { moonFactViolationDeg } from './moonEvidence.js';
 import { quickPhaseChiSquare } from './moonYears.js';
+import { moonNightBound } from './moonNightBound.js';
 import { exactPoint, type RawCandidate } from './stageB.js';
 import { isDayAllowed, type DayWindow } from './window.js';
 
@@ -75,16 +76,30 @@ interface DayBest {
   readonly objective: number;
 }
 
+/** What the screening takes of a model once for all its instants: the shadows cast by moonlight with their evidence at the priors. */
+interface ScreenTerms {
+  readonly moonShadows: readonly { readonly evidence: ShadowEvidence; readonly wallAzimuthDeg: number }[];
+  /** Room for the residuals of one shadow (evidenceResidualValues writes them here). */
+  readonly values: Float64Array;
+}
+
+function screenTermsOf(model: EvidenceModel, priors: readonly number[]): ScreenTerms {
+  const moonShadows = model.shadows.filter((t) => t.light === 'moon').map((t) => ({ evidence: termEvidence(model, t, priors), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, priors) }));
+  return { moonShadows, values: new Float64Array(64) };
+}
+
 /** The screening objective at one instant (see header, step 1). */
-function screenObjective(model: EvidenceModel, assumed: ClockKind | null, zoneOffset: (zone: string) => number, priors: readonly number[], jdUT: number, day: number, dt: number, mustBeUp: boolean, place: QuickMoonEquatorial, phaseLongitudeDeg: number, bound: number): number {
+function screenObjective(model: EvidenceModel, terms: ScreenTerms, assumed: ClockKind | null, zoneOffset: (zone: string) => number, priors: readonly number[], jdUT: number, day: number, dt: number, mustBeUp: boolean, place: QuickMoonEquatorial, phaseLongitudeDeg: number, bound: number): number {
   const s = model.scene.site;
   const moon: QuickMoon = quickMoonHorizontal(place, jdUT, s.latitudeDeg, s.longitudeDeg, model.scene.air);
   if (mustBeUp && moon.altitudeDeg < BELOW_DEG) return Infinity;
   // The moon's part first: when it alone passes `bound`, the instant is out of the running and the rest is not taken.
   let chi = 0;
-  for (const t of model.shadows) {
-    if (t.light !== 'moon') continue;
-    for (const r of evidenceResiduals(termEvidence(model, t, priors), moon, wallAzimuthOf(model, t.wallId, priors)).residuals) chi += r * r;
+  // The residuals' values alone, the same numbers as evidenceResiduals gives (src/geometry/observationModels.ts).
+  const v = terms.values;
+  for (const t of terms.moonShadows) {
+    const n = evidenceResidualValues(t.evidence, moon, t.wallAzimuthDeg, v, 0);
+    for (let k = 0; k < n; k += 1) chi += v[k] * v[k];
   }
   for (const f of model.moonFacts) chi += (moonFactViolationDeg(f.fact, moon) / FACT_TOLERANCE_DEG) ** 2;
   for (const t of model.moons) {
@@ -128,14 +143,23 @@ function parabola3(v: readonly number[], u: number): number {
   return v[1] + (u / 2) * (a + b + u * (b - a));
 }
 
-/** Every allowed day's best screened instant (local mean minutes). */
+/**
+ * Every allowed day's best screened instant (local mean minutes), of the days that can come within
+ * SCREEN_CUTOFF of the best: a day whose objective is already past the best so far by more is not kept (the
+ * best only falls), and a night whose bound (src/solver/moonNightBound.ts) passes that limit is not screened
+ * at all (every instant of it, and so its best, would screen above the limit): the days kept are the same,
+ * with the same numbers, as when every night is screened.
+ */
 function screenDays(model: EvidenceModel, assumed: ClockKind | null, win: DayWindow): { days: DayBest[]; instants: number } {
   const priors = model.nuisances.map((n) => n.priorDeg);
+  const terms = screenTermsOf(model, priors);
+  const nightBound = moonNightBound(model, model.scene.air);
   const lon = model.scene.site.longitudeDeg;
   const zoneOffset = zoneOffsetsAt(model, assumed, 0.5 * (win.firstDayJd0 + win.lastDayJd0));
   const mustBeUp = model.shadows.some((t) => t.light === 'moon') || model.moons.length > 0 || model.moonFacts.some((f) => f.fact === 'moon-up');
   const steps = Math.round(1440 / SCAN_STEP_MINUTES);
   const days: DayBest[] = [];
+  const values = new Float64Array(steps);
   let instants = 0;
   let dt = deltaTSeconds(jdToDecimalYear(win.firstDayJd0), model.scene.deltaT);
   let bestSoFar = Infinity; // the best screened objective so far: steps whose moon part alone exceeds it by SCREEN_CUTOFF are not finished
@@ -150,13 +174,15 @@ function screenDays(model: EvidenceModel, assumed: ClockKind | null, win: DayWin
     const dec = nodes.map((n) => n.declinationDeg);
     const par = nodes.map((n) => n.parallaxDeg);
     const phase = unwrapped([0, 0.5, 1].map((f) => moonPhaseLongitudeApproxDeg(j0 + f)));
+    const limit = bestSoFar + SCREEN_CUTOFF;
+    // A night that cannot screen within the limit is passed over (its bound is a lower bound of every instant's objective).
+    if (nightBound({ declinationDeg: dec, parallaxDeg: par, phaseLongitudeDeg: phase }) * (1 - 1e-9) > limit) continue;
     const at = (minutes: number): number => {
       const u = 2 * (minutes / 1440) - 1; // -1 at the day's start, +1 at its end
       const place: QuickMoonEquatorial = { rightAscensionDeg: parabola3(ra, u), declinationDeg: parabola3(dec, u), parallaxDeg: parabola3(par, u) };
-      return screenObjective(model, assumed, zoneOffset, priors, j0 + minutes / 1440, day, dt, mustBeUp, place, ((parabola3(phase, u) % 360) + 360) % 360, bestSoFar + SCREEN_CUTOFF);
+      return screenObjective(model, terms, assumed, zoneOffset, priors, j0 + minutes / 1440, day, dt, mustBeUp, place, ((parabola3(phase, u) % 360) + 360) % 360, limit);
     };
-    const values: number[] = [];
-    for (let k = 0; k < steps; k += 1) values.push(at(k * SCAN_STEP_MINUTES));
+    for (let k = 0; k < steps; k += 1) values[k] = at(k * SCAN_STEP_MINUTES);
     instants += steps;
     let best = -1;
     for (let k = 0; k < steps; k += 1) if (values[k] < (best < 0 ? Infinity : values[best])) best = k;
@@ -164,8 +190,8 @@ function screenDays(model: EvidenceModel, assumed: ClockKind | null, win: DayWin
     // The vertex of the parabola through the best step and its neighbours (within the day).
     let minutes = best * SCAN_STEP_MINUTES;
     let objective = values[best];
-    const a = values[best - 1];
-    const c = values[best + 1];
+    const a = best > 0 ? values[best - 1] : undefined;
+    const c = best < steps - 1 ? values[best + 1] : undefined;
     if (a !== undefined && c !== undefined && Number.isFinite(a) && Number.isFinite(c)) {
       const curvature = a - 2 * values[best] + c;
       if (curvature > 0) {
@@ -181,7 +207,8 @@ function screenDays(model: EvidenceModel, assumed: ClockKind | null, win: DayWin
         }
       }
     }
-    days.push({ day, meanMinutes: minutes, objective });
+    // Past the limit the day cannot come within SCREEN_CUTOFF of the best (which is at most bestSoFar): not kept.
+    if (objective <= limit) days.push({ day, meanMinutes: minutes, objective });
     bestSoFar = Math.min(bestSoFar, objective);
   }
   return { days, instants };
