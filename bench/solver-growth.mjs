@@ -2,14 +2,18 @@
 /**
  * How the date solver's work grows with the window, on every bundled example (issue: speed).
  * Run after `npx tsc -p tsconfig.json` and `node src/cli/build.mjs`:
- *   node bench/solver-growth.mjs [--before <checkout>] [--only-first] [--runs <n>]
+ *   node bench/solver-growth.mjs [--before <checkout>] [--only-first] [--runs <n>] [--only <text>] [--part <1,2,3,4>]
+ *   (--only: the examples whose path holds <text>, or any of several given with commas; --part: those parts alone)
  *
  * Each example is solved with its own evidence, restrictions and calendar, over a 500-year window
  * (1400-1899) and a 3000-year one (-1100 to 1899), and the bench prints, each beside its target:
  * 1. calls of the full ephemeris (sunPosition) made by the search over 500 years, against the
  *    floor: one per candidate year reported plus one per year refined in full. Target <= 1.5x.
  * 2. the warm solve time of the 3000-year window over the 500-year one (medians of 5 interleaved
- *    runs after a warm-up, consistency test on). Target <= 6.5x (linear growth would be 6x).
+ *    runs after a warm-up, consistency test on). Target <= 6.5x (linear growth would be 6x). Elapsed
+ *    time is judged; the CPU time of the process (garbage collection on helper threads included) is
+ *    printed beside it, less moved by other work on the machine. With --before <checkout>, that
+ *    checkout's solver (its dist) is timed in the same rounds, the two alternating, and both printed.
  * 3. the first solve in a fresh process against the warm solve of the same scene (the 500-year
  *    bench scene of bench/solver-window.mjs; medians of --runs fresh processes, 7 unless given). Target <= 3x.
  *    Beside elapsed time, CPU time of the process (every thread: V8's optimising compiler and the
@@ -60,20 +64,42 @@ function mainThreadMs() {
   }
 }
 
-/** Warm solve times of two scenes, interleaved so that other work on the machine hits both alike. */
-function timeSolvePair(a, b, runs) {
-  solveDates(a); // warm-up
-  solveDates(b);
-  const ta = [];
-  const tb = [];
+/** The value after a flag, or null. */
+const flagValue = (name) => {
+  const at = process.argv.indexOf(name);
+  return at > 0 ? process.argv[at + 1] : null;
+};
+const only = flagValue('--only');
+const parts = flagValue('--part') ? new Set(flagValue('--part').split(',').map(Number)) : new Set([1, 2, 3, 4]);
+
+/**
+ * Warm solve times (elapsed and CPU) of pairs of scenes, each pair [solve, scene at 500 years, scene at 3000
+ * years]: after a warm-up, `runs` rounds in which every scene is solved once, so that other work on the
+ * machine hits them all alike.
+ */
+function timeSolveRounds(pairs, runs) {
+  for (const [solve, a, b] of pairs) {
+    solve(a); // warm-up
+    solve(b);
+  }
+  const lists = pairs.map(() => ({ a: [], b: [], aCpu: [], bCpu: [] }));
   for (let i = 0; i < runs; i += 1) {
-    for (const [scene, list] of [[a, ta], [b, tb]]) {
-      const t0 = performance.now();
-      solveDates(scene);
-      list.push(performance.now() - t0);
+    // Alternate which checkout goes first from round to round.
+    const order = pairs.map((_, k) => k);
+    if (i % 2 === 1) order.reverse();
+    for (const k of order) {
+      const [solve, a, b] = pairs[k];
+      for (const [scene, wall, cpuList] of [[a, lists[k].a, lists[k].aCpu], [b, lists[k].b, lists[k].bCpu]]) {
+        const c0 = process.cpuUsage();
+        const t0 = performance.now();
+        solve(scene);
+        wall.push(performance.now() - t0);
+        const c = process.cpuUsage(c0);
+        cpuList.push((c.user + c.system) / 1000);
+      }
     }
   }
-  return { a: median(ta), b: median(tb), aMin: Math.min(...ta), bMin: Math.min(...tb) };
+  return lists.map((l) => ({ a: median(l.a), b: median(l.b), aMin: Math.min(...l.a), bMin: Math.min(...l.b), aCpu: median(l.aCpu), bCpu: median(l.bCpu) }));
 }
 
 if (args.has('--child-first')) {
@@ -117,35 +143,60 @@ if (args.has('--only-first')) {
   process.exit(0);
 }
 
-const files = exampleFiles();
-console.log('1. Sun evaluations of the search over a 500-year window (1400-1899), against the floor (one per candidate year reported + one per year refined in full); target <= 1.5x');
+const files = exampleFiles().filter((f) => !only || only.split(',').some((text) => f.includes(text)));
 let worstSun = 0;
-for (const file of files) {
-  const scene = withWindow(readSceneFile(file), 1400, 1899);
-  const s = solveModel(buildEvidenceModel(scene), dayWindowOf(scene), 50);
-  const floor = s.search.candidates.length + s.search.fullRefinements;
-  if (s.search.sunEvaluations === 0) {
-    // A view lit by the moon alone is searched night by night with the moon (src/solver/moonSearch.ts): no sun search to count.
-    console.log(`   ${file.slice(root.length + 9).padEnd(44)} lit by the moon alone: searched night by night with the moon, no search of the sun to count`);
-    continue;
+if (parts.has(1)) {
+  console.log('1. Sun evaluations of the search over a 500-year window (1400-1899), against the floor (one per candidate year reported + one per year refined in full); target <= 1.5x');
+  for (const file of files) {
+    const scene = withWindow(readSceneFile(file), 1400, 1899);
+    const s = solveModel(buildEvidenceModel(scene), dayWindowOf(scene), 50);
+    const floor = s.search.candidates.length + s.search.fullRefinements;
+    if (s.search.sunEvaluations === 0) {
+      // A view lit by the moon alone is searched night by night with the moon (src/solver/moonSearch.ts): no sun search to count.
+      console.log(`   ${file.slice(root.length + 9).padEnd(44)} lit by the moon alone: searched night by night with the moon, no search of the sun to count`);
+      continue;
+    }
+    const ratio = s.search.sunEvaluations / floor;
+    worstSun = Math.max(worstSun, ratio);
+    console.log(`   ${file.slice(root.length + 9).padEnd(44)} ${String(s.search.sunEvaluations).padStart(6)} calls, floor ${String(floor).padStart(5)} (${s.search.candidates.length} years + ${s.search.fullRefinements} refined): ${ratio.toFixed(2)}x   ${ratio <= 1.5 ? 'met' : 'NOT met'}`);
   }
-  const ratio = s.search.sunEvaluations / floor;
-  worstSun = Math.max(worstSun, ratio);
-  console.log(`   ${file.slice(root.length + 9).padEnd(44)} ${String(s.search.sunEvaluations).padStart(6)} calls, floor ${String(floor).padStart(5)} (${s.search.candidates.length} years + ${s.search.fullRefinements} refined): ${ratio.toFixed(2)}x   ${ratio <= 1.5 ? 'met' : 'NOT met'}`);
 }
 
-console.log('2. Warm solve, 3000-year window (-1100 to 1899) over 500-year window (1400-1899), medians of 5 interleaved runs, leave-one-out on; target <= 6.5x');
+const beforeAt = process.argv.indexOf('--before');
+const beforeRoot = beforeAt > 0 ? process.argv[beforeAt + 1].replace(/\/$/, '') : null;
 let worstGrowth = 0;
-for (const file of files) {
-  const base = readSceneFile(file);
-  const t = timeSolvePair(withWindow(base, 1400, 1899), withWindow(base, -1100, 1899), 5);
-  const [t500, t3000] = [t.a, t.b];
-  const ratio = t3000 / t500;
-  worstGrowth = Math.max(worstGrowth, ratio);
-  console.log(`   ${file.slice(root.length + 9).padEnd(44)} ${t500.toFixed(0).padStart(5)} ms -> ${t3000.toFixed(0).padStart(6)} ms: ${ratio.toFixed(2)}x   ${ratio <= 6.5 ? 'met' : 'NOT met'}   (fastest runs: ${(t.bMin / t.aMin).toFixed(2)}x)`);
+if (parts.has(2)) {
+  console.log(`2. Warm solve, 3000-year window (-1100 to 1899) over 500-year window (1400-1899), medians of 5 interleaved runs, leave-one-out on; target <= 6.5x${beforeRoot ? `; before: ${beforeRoot}'s solver in the same rounds` : ''}`);
+  // The before checkout's own modules (its dist), loaded beside these.
+  const before = beforeRoot
+    ? {
+        solveDates: (await import(`${beforeRoot}/dist/solver/solveDates.js`)).solveDates,
+        readSceneFile: (await import(`${beforeRoot}/dist/cli/sceneFile.js`)).readSceneFile,
+        withWindow: (await import(`${beforeRoot}/bench/solver-growth-lib.mjs`)).withWindow,
+      }
+    : null;
+  const growthWords = (t) => {
+    const ratio = t.b / t.a;
+    return { ratio, words: `${t.a.toFixed(0).padStart(5)} ms -> ${t.b.toFixed(0).padStart(6)} ms: ${ratio.toFixed(2)}x   ${ratio <= 6.5 ? 'met' : 'NOT met'}   (fastest runs: ${(t.bMin / t.aMin).toFixed(2)}x; CPU ${t.aCpu.toFixed(0)} -> ${t.bCpu.toFixed(0)} ms: ${(t.bCpu / t.aCpu).toFixed(2)}x)` };
+  };
+  for (const file of files) {
+    const base = readSceneFile(file);
+    const pairs = [[solveDates, withWindow(base, 1400, 1899), withWindow(base, -1100, 1899)]];
+    if (before) {
+      const old = before.readSceneFile(file);
+      pairs.push([before.solveDates, before.withWindow(old, 1400, 1899), before.withWindow(old, -1100, 1899)]);
+    }
+    const [t, tBefore] = timeSolveRounds(pairs, 5);
+    const now = growthWords(t);
+    worstGrowth = Math.max(worstGrowth, now.ratio);
+    console.log(`   ${file.slice(root.length + 9).padEnd(44)} ${now.words}`);
+    if (tBefore) console.log(`   ${'  before'.padEnd(44)} ${growthWords(tBefore).words}`);
+  }
 }
 
-const { first, warm } = firstSolvePart();
+let first = NaN;
+let warm = NaN;
+if (parts.has(3)) ({ first, warm } = firstSolvePart());
 
 /**
  * Part 3: the first solve of fresh processes against their warm solves, printed; returns the medians of this checkout's
@@ -202,9 +253,19 @@ function firstSolvePart() {
   return mine;
 }
 
-console.log('4. Peak memory (max resident set) of a 3000-year solve of marktgasse-print.yaml against Node with the same modules loaded; target <= 1.5x');
-const rss = (extra) => JSON.parse(spawnSync(process.execPath, [fileURLToPath(import.meta.url), '--child-memory', ...extra], { encoding: 'utf8' }).stdout).maxRssKb;
-const idle = rss(['--idle']);
-const busy = rss([]);
-console.log(`   solve ${(busy / 1024).toFixed(1)} MB, modules loaded ${(idle / 1024).toFixed(1)} MB: ${(busy / idle).toFixed(2)}x   target <= 1.5x   ${busy / idle <= 1.5 ? 'met' : 'NOT met'}`);
-console.log(`worst: sun evaluations ${worstSun.toFixed(2)}x (target 1.5), growth ${worstGrowth.toFixed(2)}x (target 6.5), first/warm ${(first / warm).toFixed(1)}x (target 3), memory ${(busy / idle).toFixed(2)}x (target 1.5)`);
+let busy = NaN;
+let idle = NaN;
+if (parts.has(4)) {
+  console.log('4. Peak memory (max resident set) of a 3000-year solve of marktgasse-print.yaml against Node with the same modules loaded; target <= 1.5x');
+  const rss = (extra) => JSON.parse(spawnSync(process.execPath, [fileURLToPath(import.meta.url), '--child-memory', ...extra], { encoding: 'utf8' }).stdout).maxRssKb;
+  idle = rss(['--idle']);
+  busy = rss([]);
+  console.log(`   solve ${(busy / 1024).toFixed(1)} MB, modules loaded ${(idle / 1024).toFixed(1)} MB: ${(busy / idle).toFixed(2)}x   target <= 1.5x   ${busy / idle <= 1.5 ? 'met' : 'NOT met'}`);
+}
+const worst = [
+  parts.has(1) ? `sun evaluations ${worstSun.toFixed(2)}x (target 1.5)` : '',
+  parts.has(2) ? `growth ${worstGrowth.toFixed(2)}x (target 6.5)` : '',
+  parts.has(3) ? `first/warm ${(first / warm).toFixed(1)}x (target 3)` : '',
+  parts.has(4) ? `memory ${(busy / idle).toFixed(2)}x (target 1.5)` : '',
+].filter(Boolean);
+console.log(`worst: ${worst.join(', ')}`);
