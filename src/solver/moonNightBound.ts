@@ -14,10 +14,10 @@
  *   PT >= |d - dT| (two points differ at least by their declinations); its apparent point A differs from P
  *   in altitude alone, by the parallax in altitude (at most the horizontal parallax) and the refraction (at
  *   most refractionDeg at NO_REFRACTION_BELOW_DEG: SPA eq. 42 falls as the altitude rises above -1.9 deg,
- *   Reda and Andreas 2008). So the arc AT >= D = min|d - dT| - E. The arc AT is at most |dAlt| + |dAz|
- *   (up the vertical circle, then along the parallel of altitude, whose arc |dAz| cos(alt) is at least
- *   the great circle's), and by the Cauchy-Schwarz inequality (dAz/sa)^2 + (dAlt/sh)^2 >=
- *   (|dAz| + |dAlt|)^2 / (sa^2 + sh^2) >= D^2 / (sa^2 + sh^2).
+ *   Reda and Andreas 2008). So the arc AT >= D = min|d - dT| - E. The arc AT is at most |dAlt| + c |dAz|
+ *   with c = cos(altitude of T) (up the vertical circle to T's altitude, then along T's parallel of
+ *   altitude, whose arc c |dAz| is at least the great circle's), and by the Cauchy-Schwarz inequality
+ *   (dAz/sa)^2 + (dAlt/sh)^2 >= (|dAlt| + c |dAz|)^2 / (sh^2 + c^2 sa^2) >= D^2 / (sh^2 + c^2 sa^2).
  * The bound is the sum of the terms' least values (the least of a sum is at least the sum of the least
  * values); the other rows (shadows on walls, facts, clocks, the sun) add nothing negative and are left at 0.
  */
@@ -32,10 +32,16 @@ import type { EvidenceModel } from './evidenceModel.js';
 /** Margin on every range and on the refraction and parallax allowance, degrees: far above rounding, far below any sigma. */
 const MARGIN_DEG = 0.01;
 
-/** A drawn point of the sky, as its declination, and the sum of the squared sigmas of its two rows. */
+/** A drawn point of the sky, as its declination, and sh^2 + c^2 sa^2 of its two rows (see the header). */
 interface SkyPoint {
   readonly declinationDeg: number;
   readonly sigmaSquaredSum: number;
+}
+
+/** sh^2 + c^2 sa^2 for a point at altitudeDeg with sigmas sa (azimuth) and sh (altitude); c = |cos(altitude)|, 1 past the zenith. */
+function sigmaSquaredSum(altitudeDeg: number, azimuthSigmaDeg: number, altitudeSigmaDeg: number): number {
+  const c = Math.abs(altitudeDeg) <= 90 ? Math.abs(cosDeg(altitudeDeg)) : 1;
+  return altitudeSigmaDeg ** 2 + (c * azimuthSigmaDeg) ** 2;
 }
 
 /** The night's quick place at its start, middle and end (u = -1, 0, 1), the angles unwrapped. */
@@ -126,7 +132,7 @@ function skyPoints(model: EvidenceModel): SkyPoint[] {
     // The sigmas as the screening widens them (moonSearch.ts screenObjective).
     out.push({
       declinationDeg: declinationOf(e.azimuthDeg, e.altitudeDeg, lat),
-      sigmaSquaredSum: Math.hypot(e.azimuthSigmaDeg, QUICK_MOON_ALLOWANCE_DEG) ** 2 + Math.hypot(e.altitudeSigmaDeg, QUICK_MOON_ALLOWANCE_DEG) ** 2,
+      sigmaSquaredSum: sigmaSquaredSum(e.altitudeDeg, Math.hypot(e.azimuthSigmaDeg, QUICK_MOON_ALLOWANCE_DEG), Math.hypot(e.altitudeSigmaDeg, QUICK_MOON_ALLOWANCE_DEG)),
     });
   }
   for (const t of model.shadows) {
@@ -134,10 +140,10 @@ function skyPoints(model: EvidenceModel): SkyPoint[] {
     if (t.light !== 'moon' || e.kind !== 'pole-shadow') continue;
     if (e.shadowAzimuthDeg === undefined || e.shadowAzimuthSigmaDeg === undefined || e.lengthRatio === undefined || e.lengthRatioSigma === undefined) continue;
     // The light stands opposite the shadow, at the altitude whose cotangent is the length ratio (src/geometry/groundShadows.ts).
-    const altitudeSigmaDeg = ratioSigmaToAngleSigmaDeg(e.lengthRatio, e.lengthRatioSigma);
+    const altitudeDeg = radToDeg(Math.atan2(1, e.lengthRatio));
     out.push({
-      declinationDeg: declinationOf(e.shadowAzimuthDeg + 180, radToDeg(Math.atan2(1, e.lengthRatio)), lat),
-      sigmaSquaredSum: e.shadowAzimuthSigmaDeg ** 2 + altitudeSigmaDeg ** 2,
+      declinationDeg: declinationOf(e.shadowAzimuthDeg + 180, altitudeDeg, lat),
+      sigmaSquaredSum: sigmaSquaredSum(altitudeDeg, e.shadowAzimuthSigmaDeg, ratioSigmaToAngleSigmaDeg(e.lengthRatio, e.lengthRatioSigma)),
     });
   }
   return out;
