@@ -113,7 +113,7 @@ describe('moonNightBound', () => {
 
   describe('edge cases', () => {
     it('is 0 for a model with nothing it can bound (a rod by moonlight alone)', () => {
-      const scene = baseScene([{ id: 'rod', kind: 'rod-shadow', light: 'moon', wall: 'w', slopeDeg: 30, side: 'left', sigmaDeg: 1 }], [{ id: 'w', azimuthDeg: 180, azimuthSigmaDeg: 1 }], 1800, 1801);
+      const scene = baseScene([{ id: 'rod', kind: 'rod-shadow', light: 'moon', wallId: 'w', slopeDeg: 30, side: 'left', sigmaDeg: 1 }], [{ id: 'w', azimuthDeg: 180, azimuthSigmaDeg: 1, azimuthSource: 'stated' }], 1800, 1801);
       const b = moonNightBound(buildEvidenceModel(scene), undefined);
       expect(b({ declinationDeg: [20, 21, 22], parallaxDeg: [0.95, 0.95, 0.95], phaseLongitudeDeg: [10, 16, 22] })).toBe(0);
     });
