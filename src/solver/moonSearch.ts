@@ -84,8 +84,10 @@ interface ScreenTerms {
 }
 
 function screenTermsOf(model: EvidenceModel, priors: readonly number[]): ScreenTerms {
-  const moonShadows = model.shadows.filter((t) => t.light === 'moon').map((t) => ({ evidence: termEvidence(model, t, priors), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, priors) }));
-  return { moonShadows, values: new Float64Array(64) };
+  const shadows = model.shadows.filter((t) => t.light === 'moon');
+  const moonShadows = shadows.map((t) => ({ evidence: termEvidence(model, t, priors), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, priors) }));
+  // Room for the most rows of one shadow (its count), so that none is cut off.
+  return { moonShadows, values: new Float64Array(Math.max(8, ...shadows.map((t) => 2 * t.count))) };
 }
 
 /** The screening objective at one instant (see header, step 1). */
