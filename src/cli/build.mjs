@@ -40,10 +40,10 @@ export const PROGRAM_FILE = 'program.js';
 /**
  * Node built-ins that the program loads at their first use instead of at the start: commander
  * requires node:child_process (for sub-commands kept in other files, which heliochron has none of)
- * and the output writer node:crypto (for temporary names); loading them takes some milliseconds
- * of every start.
+ * and the output writer node:crypto (for temporary names), src/cli/processOutput.ts node:tty (only
+ * when stderr is a character device); loading them takes some milliseconds of every start.
  */
-export const LAZY_BUILTINS = ['node:child_process', 'node:crypto'];
+export const LAZY_BUILTINS = ['node:child_process', 'node:crypto', 'node:tty'];
 
 /**
  * The runs whose compiled code is cached: NAME (the command, or `start` for every other run) and

@@ -12,6 +12,7 @@ import { HeliochronError, quoteValue } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
 import { isSystemError, PLAIN_SYSTEM_ERRORS, systemErrorWords } from './systemErrors.js';
 import { processIo, type CliIo } from './io.js';
+import { writeToProcess } from './processOutput.js';
 import { registerSun } from './sunSpec.js';
 import { registerMoon } from './moonSpec.js';
 import { registerCalendar } from './calendarSpec.js';
@@ -93,31 +94,17 @@ function isMain(): boolean {
 }
 
 /**
- * A reader that closes the pipe early (`heliochron date --json | head -5`) is not an error:
- * end quietly, with the exit code of a finished run. Other stream errors are reported in one line.
- */
-function endQuietlyOnClosedPipe(stream: NodeJS.WriteStream): void {
-  stream.on('error', (error: NodeJS.ErrnoException) => {
-    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-    process.stderr.write(`heliochron: cannot write the output: ${systemErrorWords(error)}\n`);
-    process.exit(EXIT_BAD_INPUT);
-  });
-}
-
-/**
  * Run the program as a user's command does: output to the process's streams, the exit code set on
  * the process when the run ends (70 for an internal error). The bundled program's start file
  * (src/cli/bin.ts) calls this; so does this file when it is itself the program (tsc's dist/cli/main.js).
  */
 export function runAsProgram(argv: readonly string[]): Promise<void> {
-  endQuietlyOnClosedPipe(process.stdout);
-  endQuietlyOnClosedPipe(process.stderr);
   return main(argv).then(
     (code) => {
       process.exitCode = code;
     },
     (error: unknown) => {
-      process.stderr.write(`heliochron: internal error (please report): ${escapeControls(error instanceof Error ? error.message : String(error))}\n`);
+      writeToProcess(2, `heliochron: internal error (please report): ${escapeControls(error instanceof Error ? error.message : String(error))}\n`);
       process.exitCode = 70;
     },
   );
