@@ -12,7 +12,7 @@ import { HeliochronError, quoteValue } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
 import { isSystemError, PLAIN_SYSTEM_ERRORS, systemErrorWords } from './systemErrors.js';
 import { processIo, type CliIo } from './io.js';
-import { writeToProcess } from './processOutput.js';
+import { endWhenWritten, writeToProcess } from './processOutput.js';
 import { registerSun } from './sunSpec.js';
 import { registerMoon } from './moonSpec.js';
 import { registerCalendar } from './calendarSpec.js';
@@ -110,4 +110,7 @@ export function runAsProgram(argv: readonly string[]): Promise<void> {
   );
 }
 
-if (isMain()) void runAsProgram(process.argv.slice(2));
+/** Called by src/cli/bin.ts when runAsProgram has ended: see src/cli/processOutput.ts. */
+export { endWhenWritten };
+
+if (isMain()) void runAsProgram(process.argv.slice(2)).then(endWhenWritten);

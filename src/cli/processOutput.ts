@@ -16,6 +16,8 @@
  * - Any other failure is reported in one line on stderr and ends the run with exit code 2.
  * - On Windows the stream is used from the start (it writes a console's text as the console
  *   expects).
+ * - When a run has ended and all its text went straight to the descriptors, the process may end at
+ *   once (endWhenWritten) instead of waiting for work the run left to V8's background threads.
  */
 import { fstatSync, writeSync } from 'node:fs';
 import { isatty } from 'node:tty';
@@ -90,4 +92,15 @@ export function stderrIsTerminal(): boolean {
   // A terminal or a device such as /dev/null: ask the terminal module (Node.js documentation, tty.isatty),
   // which the bundle loads only here (LAZY_BUILTINS of src/cli/build.mjs).
   return isatty(2);
+}
+
+/**
+ * End the process now, with the exit code the run set, when nothing it wrote waits in a stream
+ * (no descriptor was handed to its stream): called when a whole run has ended. Ending at once
+ * skips Node's wait for V8's background work of the run (optimising compiles, heap tasks), which
+ * no output depends on. With text waiting in a stream, the process ends as usual once the stream
+ * has written it.
+ */
+export function endWhenWritten(): void {
+  if (onStream.size === 0) process.exit();
 }
