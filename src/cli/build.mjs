@@ -153,7 +153,8 @@ export async function buildCli({ metafile = false, write = true, codeCache = wri
     outfile: `${outDir}/${PROGRAM_FILE}`,
     metafile,
     // The program is one function of (exports, require, module, programUrl): see src/cli/bin.ts.
-    define: { 'import.meta.url': 'programUrl' },
+    // The version is written in (src/cli/main.ts), so that a start reads no package.json.
+    define: { 'import.meta.url': 'programUrl', BUNDLED_VERSION: JSON.stringify(packageVersion()) },
     banner: { js: '(function (exports, require, module, programUrl) {' },
     footer: { js: '})' },
     plugins: [lazyModules],
@@ -172,6 +173,11 @@ export async function buildCli({ metafile = false, write = true, codeCache = wri
   chmodSync(join(folder, 'heliochron.cjs'), 0o755);
   if (codeCache) await buildCodeCaches(folder, WARM_UPS.filter((w) => warmUps.includes(w.name)));
   return result;
+}
+
+/** The version in package.json, written into the program. */
+function packageVersion() {
+  return JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')).version;
 }
 
 /**

@@ -79,10 +79,14 @@ export async function main(argv: readonly string[], io: CliIo = processIo()): Pr
   }
 }
 
-/** The package version, read once from package.json beside dist/. */
-export const VERSION: string = (
-  JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string }
-).version;
+/** Set by the bundler (src/cli/build.mjs) to package.json's version; absent in tsc's dist/cli/main.js. */
+declare const BUNDLED_VERSION: string | undefined;
+
+/** The package version: the bundle's (written in at build), else read once from package.json beside dist/. */
+export const VERSION: string =
+  typeof BUNDLED_VERSION === 'string'
+    ? BUNDLED_VERSION
+    : (JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string }).version;
 
 /** True when this file is the program being run (also through the npm bin link). */
 function isMain(): boolean {
