@@ -6,7 +6,8 @@
  *   one function that src/cli/bin.ts calls). What a command imports with `import()` (its work, in
  *   `*Command.ts`) is only initialised when the command runs, so `sun` or `calendar` never runs
  *   the solver's, the charts' or the YAML reader's module code; Node's built-ins that the start
- *   does not need (LAZY_BUILTINS) are loaded at their first use.
+ *   does not need (LAZY_BUILTINS), luxon (LAZY_PACKAGES) and the large data modules
+ *   (LAZY_DATA_MODULES) are loaded or initialised at their first use.
  * - heliochron.cjs, the file the package's `bin` names (src/cli/bin.ts): it compiles program.js
  *   with V8's code cache.
  * - program.NAME.cache: the code cache of each case of WARM_UPS, made after running that case
@@ -88,10 +89,15 @@ const lazyModules = {
   setup(b) {
     const escaped = [...LAZY_BUILTINS, ...LAZY_PACKAGES].map((name) => name.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&'));
     const filter = new RegExp(`^(${escaped.join('|')})$`);
-    b.onResolve({ filter }, (args) => {
+    const real = {}; // marks esbuild's own resolution of a package, asked for below
+    b.onResolve({ filter }, async (args) => {
+      if (args.pluginData === real) return undefined;
       if (args.namespace !== 'lazy') return { path: args.path, namespace: 'lazy' };
       if (LAZY_BUILTINS.includes(args.path)) return { path: args.path, external: true };
-      return { path: fileURLToPath(import.meta.resolve(args.path)) };
+      // The file an `import` of the package resolves to (its ES module build), not the one of `require`.
+      const resolved = await b.resolve(args.path, { kind: 'import-statement', resolveDir: root, pluginData: real });
+      if (resolved.errors.length > 0) return { errors: resolved.errors };
+      return { path: resolved.path };
     });
     // A data module, imported as './NAME.generated.js', is itself in the 'lazy' namespace (its text read here, once).
     // (named by its path in the repository, so that no folder of the build machine enters the program).

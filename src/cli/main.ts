@@ -117,4 +117,5 @@ export function runAsProgram(argv: readonly string[]): Promise<void> {
 /** Called by src/cli/bin.ts when runAsProgram has ended: see src/cli/processOutput.ts. */
 export { endWhenWritten };
 
-if (isMain()) void runAsProgram(process.argv.slice(2)).then(endWhenWritten);
+// The bundle's start file (src/cli/bin.ts) runs the program itself: only tsc's dist/cli/main.js asks.
+if (typeof BUNDLED_VERSION !== 'string' && isMain()) void runAsProgram(process.argv.slice(2)).then(endWhenWritten);
