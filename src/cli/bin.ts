@@ -33,6 +33,8 @@ export function cacheFileName(name: string): string {
 /** What the bundled program exports (src/cli/main.ts). */
 export interface BundledProgram {
   readonly runAsProgram: (argv: readonly string[]) => Promise<void>;
+  /** Ends the process at once when the run's output is all written (src/cli/processOutput.ts). */
+  readonly endWhenWritten: () => void;
 }
 
 export interface LoadedProgram {
@@ -73,5 +75,6 @@ export function cachedDataFor(folder: string, argv: readonly string[]): Buffer |
 
 if (require.main === module) {
   const argv = process.argv.slice(2);
-  void loadProgram(__dirname, cachedDataFor(__dirname, argv)).program.runAsProgram(argv);
+  const { program } = loadProgram(__dirname, cachedDataFor(__dirname, argv));
+  void program.runAsProgram(argv).then(program.endWhenWritten);
 }

@@ -6,7 +6,8 @@
  *   one function that src/cli/bin.ts calls). What a command imports with `import()` (its work, in
  *   `*Command.ts`) is only initialised when the command runs, so `sun` or `calendar` never runs
  *   the solver's, the charts' or the YAML reader's module code; Node's built-ins that the start
- *   does not need (LAZY_BUILTINS) are loaded at their first use.
+ *   does not need (LAZY_BUILTINS), luxon (LAZY_PACKAGES) and the large data modules
+ *   (LAZY_DATA_MODULES) are loaded or initialised at their first use.
  * - heliochron.cjs, the file the package's `bin` names (src/cli/bin.ts): it compiles program.js
  *   with V8's code cache.
  * - program.NAME.cache: the code cache of each case of WARM_UPS, made after running that case
@@ -24,9 +25,9 @@
 import { build } from 'esbuild';
 import { execFile } from 'node:child_process';
 import { createRequire } from 'node:module';
-import { chmodSync, mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { chmodSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { join } from 'node:path';
+import { basename, dirname, join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { promisify } from 'node:util';
 
@@ -40,10 +41,10 @@ export const PROGRAM_FILE = 'program.js';
 /**
  * Node built-ins that the program loads at their first use instead of at the start: commander
  * requires node:child_process (for sub-commands kept in other files, which heliochron has none of)
- * and the output writer node:crypto (for temporary names); loading them takes some milliseconds
- * of every start.
+ * and the output writer node:crypto (for temporary names), src/cli/processOutput.ts node:tty (only
+ * when stderr is a character device); loading them takes some milliseconds of every start.
  */
-export const LAZY_BUILTINS = ['node:child_process', 'node:crypto'];
+export const LAZY_BUILTINS = ['node:child_process', 'node:crypto', 'node:tty'];
 
 /**
  * The runs whose compiled code is cached: NAME (the command, or `start` for every other run) and
@@ -61,20 +62,67 @@ export const WARM_UPS = [
 ];
 
 /**
- * An esbuild plugin: each of LAZY_BUILTINS becomes a module whose properties load the built-in
- * when first read (the bundle reads an imported name at each use, `(0, import_x.name)(...)`).
+ * Packages that the program initialises at their first use instead of with the module that imports
+ * them: luxon (time zones) serves only a clock given as a zone (src/time/clock.ts), yet clock.ts
+ * is loaded by every command that reads a clock; its initialisation and its code in the code
+ * cache cost every such run some tenths of a millisecond.
  */
-const lazyBuiltins = {
-  name: 'lazy-builtins',
+export const LAZY_PACKAGES = ['luxon'];
+
+/**
+ * Data modules of the library (made by scripts/build-data-modules.mjs: one exported string, the
+ * text of a data/ file) that the program initialises at their first use: the table of time zones
+ * before 1970 (220 KB, read only for a clock given as a zone) and the calendar reforms (40 KB,
+ * read only for a region's calendar). Initialised with the modules that import them, their text
+ * would sit in the code cache of every command that loads those modules.
+ */
+export const LAZY_DATA_MODULES = ['src/time/tzHistoryJson.generated.ts', 'src/calendar/calendarReformsJson.generated.ts'];
+
+/**
+ * An esbuild plugin: each of LAZY_BUILTINS and LAZY_PACKAGES becomes a module whose properties
+ * load the real one when first read (the bundle reads an imported name at each use,
+ * `(0, import_x.name)(...)`). A built-in is then required from Node; a package is bundled as
+ * its ES module file (the one an `import` resolves to), initialised by that first read.
+ */
+const lazyModules = {
+  name: 'lazy-modules',
   setup(b) {
-    const filter = new RegExp(`^(${LAZY_BUILTINS.join('|')})$`);
-    b.onResolve({ filter }, (args) =>
-      args.namespace === 'lazy-builtin' ? { path: args.path, external: true } : { path: args.path, namespace: 'lazy-builtin' },
-    );
-    b.onLoad({ filter: /.*/, namespace: 'lazy-builtin' }, (args) => {
+    const escaped = [...LAZY_BUILTINS, ...LAZY_PACKAGES].map((name) => name.replace(/[.*+?^${}()|[\]\\/]/g, '\\$&'));
+    const filter = new RegExp(`^(${escaped.join('|')})$`);
+    const real = {}; // marks esbuild's own resolution of a package, asked for below
+    b.onResolve({ filter }, async (args) => {
+      if (args.pluginData === real) return undefined;
+      if (args.namespace !== 'lazy') return { path: args.path, namespace: 'lazy' };
+      if (LAZY_BUILTINS.includes(args.path)) return { path: args.path, external: true };
+      // The file an `import` of the package resolves to (its ES module build), not the one of `require`.
+      const resolved = await b.resolve(args.path, { kind: 'import-statement', resolveDir: root, pluginData: real });
+      if (resolved.errors.length > 0) return { errors: resolved.errors };
+      return { path: resolved.path };
+    });
+    // A data module, imported as './NAME.generated.js', is itself in the 'lazy' namespace (its text read here, once).
+    // (named by its path in the repository, so that no folder of the build machine enters the program).
+    b.onResolve({ filter: /\.generated\.js$/ }, (args) => {
+      const file = join(args.resolveDir, args.path.replace(/\.js$/, '.ts'));
+      const name = relative(root, file);
+      if (!LAZY_DATA_MODULES.includes(name)) return undefined;
+      return args.namespace === 'lazy' ? { path: file } : { path: name, namespace: 'lazy' };
+    });
+    b.onLoad({ filter: /.*/, namespace: 'lazy' }, (args) => {
+      if (LAZY_DATA_MODULES.includes(args.path)) {
+        const file = join(root, args.path);
+        const names = [...readFileSync(file, 'utf8').matchAll(/^export const (\w+)/gm)].map((m) => m[1]);
+        return {
+          loader: 'js',
+          resolveDir: dirname(file),
+          contents:
+            `let loaded; const load = () => (loaded ??= require(${JSON.stringify(`./${basename(args.path).replace(/\.ts$/, '.js')}`)}));\n` +
+            `for (const name of ${JSON.stringify(names)}) Object.defineProperty(module.exports, name, { enumerable: true, get: () => load()[name] });\n`,
+        };
+      }
       const names = Object.keys(createRequire(import.meta.url)(args.path));
       return {
         loader: 'js',
+        resolveDir: root,
         contents:
           `let loaded; const load = () => (loaded ??= require(${JSON.stringify(args.path)}));\n` +
           `for (const name of ${JSON.stringify(names)}) Object.defineProperty(module.exports, name, { enumerable: true, get: () => load()[name] });\n`,
@@ -111,10 +159,11 @@ export async function buildCli({ metafile = false, write = true, codeCache = wri
     outfile: `${outDir}/${PROGRAM_FILE}`,
     metafile,
     // The program is one function of (exports, require, module, programUrl): see src/cli/bin.ts.
-    define: { 'import.meta.url': 'programUrl' },
+    // The version is written in (src/cli/main.ts), so that a start reads no package.json.
+    define: { 'import.meta.url': 'programUrl', BUNDLED_VERSION: JSON.stringify(packageVersion()) },
     banner: { js: '(function (exports, require, module, programUrl) {' },
     footer: { js: '})' },
-    plugins: [lazyBuiltins],
+    plugins: [lazyModules],
   });
   if (!write) return result;
   const folder = join(root, outDir);
@@ -130,6 +179,11 @@ export async function buildCli({ metafile = false, write = true, codeCache = wri
   chmodSync(join(folder, 'heliochron.cjs'), 0o755);
   if (codeCache) await buildCodeCaches(folder, WARM_UPS.filter((w) => warmUps.includes(w.name)));
   return result;
+}
+
+/** The version in package.json, written into the program. */
+function packageVersion() {
+  return JSON.parse(readFileSync(join(root, 'package.json'), 'utf8')).version;
 }
 
 /**

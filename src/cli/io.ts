@@ -25,6 +25,7 @@ import {
 import { dirname, join, resolve } from 'node:path';
 import { OutputError, quoteValue } from '../errors.js';
 import { isSystemError, systemErrorWords } from './systemErrors.js';
+import { stderrIsTerminal, writeToProcess } from './processOutput.js';
 
 export interface CliIo {
   readonly out: (text: string) => void;
@@ -34,11 +35,15 @@ export interface CliIo {
   readonly cwd: string;
 }
 
+/** The process's own output (written as src/cli/processOutput.ts says); whether stderr is a terminal is asked on first use only. */
 export function processIo(): CliIo {
+  let errIsTerminal: boolean | undefined;
   return {
-    out: (t) => process.stdout.write(t),
-    err: (t) => process.stderr.write(t),
-    errIsTerminal: Boolean(process.stderr.isTTY),
+    out: (t) => writeToProcess(1, t),
+    err: (t) => writeToProcess(2, t),
+    get errIsTerminal() {
+      return (errIsTerminal ??= stderrIsTerminal());
+    },
     cwd: process.cwd(),
   };
 }

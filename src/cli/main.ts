@@ -12,6 +12,7 @@ import { HeliochronError, quoteValue } from '../errors.js';
 import { escapeControls } from '../textUnits.js';
 import { isSystemError, PLAIN_SYSTEM_ERRORS, systemErrorWords } from './systemErrors.js';
 import { processIo, type CliIo } from './io.js';
+import { endWhenWritten, writeToProcess } from './processOutput.js';
 import { registerSun } from './sunSpec.js';
 import { registerMoon } from './moonSpec.js';
 import { registerCalendar } from './calendarSpec.js';
@@ -78,10 +79,14 @@ export async function main(argv: readonly string[], io: CliIo = processIo()): Pr
   }
 }
 
-/** The package version, read once from package.json beside dist/. */
-export const VERSION: string = (
-  JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string }
-).version;
+/** Set by the bundler (src/cli/build.mjs) to package.json's version; absent in tsc's dist/cli/main.js. */
+declare const BUNDLED_VERSION: string | undefined;
+
+/** The package version: the bundle's (written in at build), else read once from package.json beside dist/. */
+export const VERSION: string =
+  typeof BUNDLED_VERSION === 'string'
+    ? BUNDLED_VERSION
+    : (JSON.parse(readFileSync(new URL('../../package.json', import.meta.url), 'utf8')) as { version: string }).version;
 
 /** True when this file is the program being run (also through the npm bin link). */
 function isMain(): boolean {
@@ -93,34 +98,24 @@ function isMain(): boolean {
 }
 
 /**
- * A reader that closes the pipe early (`heliochron date --json | head -5`) is not an error:
- * end quietly, with the exit code of a finished run. Other stream errors are reported in one line.
- */
-function endQuietlyOnClosedPipe(stream: NodeJS.WriteStream): void {
-  stream.on('error', (error: NodeJS.ErrnoException) => {
-    if (error.code === 'EPIPE') process.exit(process.exitCode ?? 0);
-    process.stderr.write(`heliochron: cannot write the output: ${systemErrorWords(error)}\n`);
-    process.exit(EXIT_BAD_INPUT);
-  });
-}
-
-/**
  * Run the program as a user's command does: output to the process's streams, the exit code set on
  * the process when the run ends (70 for an internal error). The bundled program's start file
  * (src/cli/bin.ts) calls this; so does this file when it is itself the program (tsc's dist/cli/main.js).
  */
 export function runAsProgram(argv: readonly string[]): Promise<void> {
-  endQuietlyOnClosedPipe(process.stdout);
-  endQuietlyOnClosedPipe(process.stderr);
   return main(argv).then(
     (code) => {
       process.exitCode = code;
     },
     (error: unknown) => {
-      process.stderr.write(`heliochron: internal error (please report): ${escapeControls(error instanceof Error ? error.message : String(error))}\n`);
+      writeToProcess(2, `heliochron: internal error (please report): ${escapeControls(error instanceof Error ? error.message : String(error))}\n`);
       process.exitCode = 70;
     },
   );
 }
 
-if (isMain()) void runAsProgram(process.argv.slice(2));
+/** Called by src/cli/bin.ts when runAsProgram has ended: see src/cli/processOutput.ts. */
+export { endWhenWritten };
+
+// The bundle's start file (src/cli/bin.ts) runs the program itself: only tsc's dist/cli/main.js asks.
+if (typeof BUNDLED_VERSION !== 'string' && isMain()) void runAsProgram(process.argv.slice(2)).then(endWhenWritten);

@@ -4,7 +4,8 @@
  * Loads the bundled program as the bin does (loadProgram of dist/bin/heliochron.cjs, here without
  * cached data), runs the command, then writes V8's code cache of the script, with every function
  * the run compiled, to <bin folder>/program.<name>.cache (Node.js documentation, vm module:
- * `script.createCachedData()`). The command's output is not shown; a failed run writes no cache.
+ * `script.createCachedData()`). The command's output goes to the build, which does not show it; a
+ * failed run writes no cache.
  */
 'use strict';
 const { writeFileSync } = require('node:fs');
@@ -13,7 +14,6 @@ const { join } = require('node:path');
 const [folder, name, ...args] = process.argv.slice(2);
 const { loadProgram, cacheFileName } = require(join(folder, 'heliochron.cjs'));
 const { program, script } = loadProgram(folder, undefined);
-process.stdout.write = () => true;
 program.runAsProgram(args).then(() => {
   if (process.exitCode !== undefined && process.exitCode !== 0) {
     process.stderr.write(`heliochron ${args.join(' ')} ended with exit code ${process.exitCode}\n`);
