@@ -70,7 +70,9 @@ export function quickMoonHorizontal(place: QuickMoonEquatorial, jdUT: number, la
   const d = jdUT - 2451545;
   const tu = d / 36525;
   const gmst = 280.46061837 + 360.98564736629 * d + 0.000387933 * tu * tu;
-  const h = gmst + longitudeDeg - place.rightAscensionDeg; // local hour angle
+  // Local hour angle, reduced to [0, 360) before the sines: far from 2000 the sidereal time is
+  // hundreds of millions of degrees, and a reduced argument is both quicker and more exact.
+  const h = normalizeDeg360(gmst + longitudeDeg - place.rightAscensionDeg);
   const dec = place.declinationDeg;
   // Meeus eqs. 13.5 (azimuth from the south, turned to from the north) and 13.6.
   const sinAlt = sinDeg(latitudeDeg) * sinDeg(dec) + cosDeg(latitudeDeg) * cosDeg(dec) * cosDeg(h);
