@@ -113,28 +113,25 @@ export function civilDayToJd(calendar: CalendarKind, year: number, month: number
  * B = A + 1524, C = INT((B - 122.1) / 365.25), D = INT(365.25 C), E = INT((B - D) / 30.6001).
  * @example jdToCalendarDate(2436116.31, 'gregorian') // 1957-10-04, dayFraction 0.81
  */
-/** The year (astronomical numbering) of the civil date containing jd: jdToCalendarDate's year without its objects (Meeus 1998, ch. 7, p. 63). */
-export function calendarYearOfJd(jd: number, calendar: CalendarKind): number {
-  const z0 = Math.floor(jd + 0.5);
-  const safeZ = 1000000; // as in jdToCalendarDate
-  const shiftCycles = z0 < safeZ ? Math.ceil((safeZ - z0) / cycleDays(calendar)) : 0;
-  const z = z0 + shiftCycles * cycleDays(calendar);
-  let a = z;
-  if (calendar === 'gregorian') {
-    const alpha = Math.floor((z - 1867216.25) / 36524.25);
-    a = z + 1 + alpha - Math.floor(alpha / 4);
-  }
-  const b = a + 1524;
-  const c = Math.floor((b - 122.1) / 365.25);
-  const d = Math.floor(365.25 * c);
-  const e = Math.floor((b - d) / 30.6001);
-  const month = e < 14 ? e - 1 : e - 13;
-  return (month > 2 ? c - 4716 : c - 4715) - 400 * shiftCycles;
-}
-
 export function jdToCalendarDate(jd: number, calendar: CalendarKind): { date: CalendarDate; dayFraction: number } {
   const z0 = Math.floor(jd + 0.5);
-  const dayFraction = jd + 0.5 - z0;
+  splitDayNumber(z0, calendar);
+  return { date: { calendar, year: splitYear, month: splitMonth, day: splitDay }, dayFraction: jd + 0.5 - z0 };
+}
+
+/** The year (astronomical numbering) of the civil date containing jd: jdToCalendarDate's year without its objects, for hot loops. */
+export function calendarYearOfJd(jd: number, calendar: CalendarKind): number {
+  splitDayNumber(Math.floor(jd + 0.5), calendar);
+  return splitYear;
+}
+
+// The civil date of day number Z, left here by splitDayNumber (no object made: it runs in the solver's loops).
+let splitYear = 0;
+let splitMonth = 0;
+let splitDay = 0;
+
+/** Meeus (1998) ch. 7, p. 63, for Z = INT(JD + 0.5): see jdToCalendarDate. Writes splitYear, splitMonth, splitDay. */
+function splitDayNumber(z0: number, calendar: CalendarKind): void {
   // Bring Z to a positive range by whole cycles, where the book's method holds.
   const safeZ = 1000000; // JD about -1975, well inside the valid range
   const shiftCycles = z0 < safeZ ? Math.ceil((safeZ - z0) / cycleDays(calendar)) : 0;
@@ -148,10 +145,9 @@ export function jdToCalendarDate(jd: number, calendar: CalendarKind): { date: Ca
   const c = Math.floor((b - 122.1) / 365.25);
   const d = Math.floor(365.25 * c);
   const e = Math.floor((b - d) / 30.6001);
-  const day = b - d - Math.floor(30.6001 * e);
-  const month = e < 14 ? e - 1 : e - 13;
-  const year = (month > 2 ? c - 4716 : c - 4715) - 400 * shiftCycles;
-  return { date: { calendar, year, month, day }, dayFraction };
+  splitDay = b - d - Math.floor(30.6001 * e);
+  splitMonth = e < 14 ? e - 1 : e - 13;
+  splitYear = (splitMonth > 2 ? c - 4716 : c - 4715) - 400 * shiftCycles;
 }
 
 /**
