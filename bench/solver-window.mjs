@@ -8,12 +8,14 @@
  * one pole shadow (three observations, four numbers), forward-computed with the full
  * ephemeris at 1650-09-12 09:00:22 local mean time (synthetic truth); window 1400-1899.
  * 1. solveDates over the 500-year window (consistency test off: the solver's search alone;
- *    and once with it on), median of several runs after a warm-up.
+ *    and once with it on), median of RUNS runs after a warm-up of at least WARM_UPS solves that goes on
+ *    until the times settle (the compiler and the garbage collector's sizing take some ten solves;
+ *    a shorter warm-up gives a median that is still partly cold).
  * 2. Brute force: every minute of one year (525,600 instants) with the same full ephemeris
  *    (sunPosition) and the same chi-square, timed, and scaled by 500 to the window.
  * Prints both times, their ratio, and whether the best candidates agree within a minute.
  * Targets (issue: speed): warm solve at most 20 ms; at least 10^4 times faster than the scaled scan;
- * the same best candidate within a minute. The minimum of the 7 solves is printed too: on a
+ * the same best candidate within a minute. The minimum of the runs is printed too: on a
  * machine shared with other work it is the figure least disturbed by them.
  * Usage: node bench/solver-window.mjs [--before <checkout>]
  *   --before: also time another checkout's build of the solver (<checkout>/dist, e.g. the main
@@ -35,6 +37,31 @@ function median(xs) {
   return s[Math.floor(s.length / 2)];
 }
 
+/** Warm-up solves at least, and timed runs after them. */
+const WARM_UPS = 10;
+const RUNS = 15;
+const MAX_WARM_UPS = 40;
+
+/**
+ * Warm `solve` up: at least WARM_UPS calls, then on until the median of the last 5 is within 10% of
+ * the median of the 5 before them (the times have settled), at most MAX_WARM_UPS calls in all.
+ * Returns the number of warm-up calls made.
+ */
+function warmUp(solve) {
+  const ts = [];
+  for (let i = 0; i < MAX_WARM_UPS; i += 1) {
+    const t0 = performance.now();
+    solve();
+    ts.push(performance.now() - t0);
+    if (ts.length >= WARM_UPS) {
+      const last = median(ts.slice(-5));
+      const before = median(ts.slice(-10, -5));
+      if (Math.abs(last - before) <= 0.1 * before) break;
+    }
+  }
+  return ts.length;
+}
+
 // 0. before and after, interleaved (with --before)
 const beforeAt = process.argv.indexOf('--before');
 if (beforeAt > 0) {
@@ -46,25 +73,29 @@ if (beforeAt > 0) {
     const c = process.cpuUsage(c0);
     return (c.user + c.system) / 1000;
   };
-  for (let i = 0; i < 3; i += 1) {
-    solveDates(scene, { consistency: false });
-    solveBefore(scene, { consistency: false });
-  }
+  const warmNow = warmUp(() => solveDates(scene, { consistency: false }));
+  const warmThen = warmUp(() => solveBefore(scene, { consistency: false }));
   const now = [];
   const then = [];
-  for (let i = 0; i < 9; i += 1) {
-    now.push(cpu(() => solveDates(scene, { consistency: false })));
-    then.push(cpu(() => solveBefore(scene, { consistency: false })));
+  for (let i = 0; i < 2 * RUNS; i += 1) {
+    // Interleaved, each going first in turn, so that other work on the machine hits both alike.
+    if (i % 2 === 0) {
+      now.push(cpu(() => solveDates(scene, { consistency: false })));
+      then.push(cpu(() => solveBefore(scene, { consistency: false })));
+    } else {
+      then.push(cpu(() => solveBefore(scene, { consistency: false })));
+      now.push(cpu(() => solveDates(scene, { consistency: false })));
+    }
   }
-  console.log(`before/after, CPU time of the warm solve (median of 9 interleaved): this build ${median(now).toFixed(1)} ms, ${dir} ${median(then).toFixed(1)} ms: before/after ${(median(then) / median(now)).toFixed(2)} (above 1: this build is faster)`);
+  console.log(`before/after, CPU time of the warm solve (median of ${now.length} interleaved, after ${warmNow} and ${warmThen} warm-up solves): this build ${median(now).toFixed(1)} ms (fastest ${Math.min(...now).toFixed(1)}), ${dir} ${median(then).toFixed(1)} ms (fastest ${Math.min(...then).toFixed(1)}): before/after ${(median(then) / median(now)).toFixed(2)}, fastest ${(Math.min(...then) / Math.min(...now)).toFixed(2)} (above 1: this build is faster)`);
 }
 
 // 1. the solver
-for (let i = 0; i < 3; i += 1) solveDates(scene, { consistency: false });
+const warmUps = warmUp(() => solveDates(scene, { consistency: false }));
 const times = [];
 const cpuTimes = [];
 let answer;
-for (let i = 0; i < 7; i += 1) {
+for (let i = 0; i < RUNS; i += 1) {
   const t0 = performance.now();
   const c0 = process.cpuUsage();
   answer = solveDates(scene, { consistency: false });
@@ -103,7 +134,7 @@ const scanWindowMs = scanYearMs * 500;
 const best1650 = answer.candidates.find((c) => c.civilDate.year === 1650) ?? answer.candidates[0];
 const agreeMinutes = Math.abs(best1650.jdUT - bestScan.jdUT) * 1440;
 console.log(`scene: 3 observations (4 numbers), window 1400-1899 (500 years), truth 1650-09-12 ${((truthJdUT - dayJd0) * 1440 + 4 * 9.35).toFixed(1)} min LMT`);
-console.log(`solver, 500-year window (median of 7, consistency off): ${solverMs.toFixed(1)} ms (fastest ${Math.min(...times).toFixed(1)} ms; CPU time of this process, median ${median(cpuTimes).toFixed(1)} ms, garbage collection included)   target <= 20 ms   measured/target ${(solverMs / 20).toFixed(2)}   ${solverMs <= 20 ? 'met' : 'NOT met'}; with leave-one-out: ${solverWithConsistencyMs.toFixed(1)} ms`);
+console.log(`solver, 500-year window (median of ${RUNS} after ${warmUps} warm-up solves, consistency off): ${solverMs.toFixed(1)} ms (fastest ${Math.min(...times).toFixed(1)} ms; CPU time of this process, median ${median(cpuTimes).toFixed(1)} ms, garbage collection included)   target <= 20 ms   measured/target ${(solverMs / 20).toFixed(2)}   ${solverMs <= 20 ? 'met' : 'NOT met'}; with leave-one-out: ${solverWithConsistencyMs.toFixed(1)} ms`);
 console.log(`  candidates kept: ${answer.candidates.length} shown, families: ${answer.families.length}, mapped years: ${answer.diagnostics.mappedYears}, full refinements: ${answer.diagnostics.fullRefinements}`);
 console.log(`brute force, one year at 1-minute steps: ${scanYearMs.toFixed(0)} ms (${minutes} instants); scaled to 500 years: ${(scanWindowMs / 1000).toFixed(0)} s`);
 const speedup = scanWindowMs / solverMs;

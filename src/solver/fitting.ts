@@ -30,7 +30,9 @@ import {
 } from './evidenceModel.js';
 import {
   instantOfApparentTime,
+  jdUTOfApparentTime,
   makeSunTrack,
+  solarStateOnTrack,
   sunFromDeclinationHourAngle,
   TRACK_REACH_DAYS,
   type SolarState,
@@ -218,9 +220,14 @@ export function ensureTrack(c: DatedContext, jdUT: number, reach = TRACK_REACH_D
 
 /** The instant, solar state and sun direction of the dated model at (d, m, nuisances) with the current track (no residuals). */
 export function datedSun(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[]): { jdUT: number; state: SolarState; sun: SolverSunDirection } {
-  const { jdUT, state } = instantOfApparentTime(c.track, dayJd0, apparentMinutes, longitudeOf(c.model, nuisances));
-  const sun = sunFromDeclinationHourAngle(state.declinationDeg, (apparentMinutes - 720) / 4, latitudeOf(c.model, nuisances), c.model.scene.air);
-  return { jdUT, state, sun };
+  const jdUT = jdUTOfApparentTime(c.track, dayJd0, apparentMinutes, longitudeOf(c.model, nuisances));
+  const state = solarStateOnTrack(c.track, jdUT);
+  return { jdUT, state, sun: datedSunDirection(c.model, state, apparentMinutes, nuisances) };
+}
+
+/** The sun's direction at a solar state and local apparent time m (hour angle (m - 720) / 4). */
+function datedSunDirection(model: EvidenceModel, state: SolarState, apparentMinutes: number, nuisances: readonly number[]): SolverSunDirection {
+  return sunFromDeclinationHourAngle(state.declinationDeg, (apparentMinutes - 720) / 4, latitudeOf(model, nuisances), model.scene.air);
 }
 
 /**
@@ -228,20 +235,41 @@ export function datedSun(c: DatedContext, dayJd0: number, apparentMinutes: numbe
  * context evaluates them and `withMoon` is not false (the continuous fit passes false).
  */
 export function datedPoint(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[], withMoon = true): DatedPoint {
-  const { jdUT, state, sun } = datedSun(c, dayJd0, apparentMinutes, nuisances);
-  let moon: MoonPosition | undefined;
-  if (withMoon && c.moonRows) moon = moonBetweenDays(c, dayJd0, apparentMinutes, nuisances, jdUT);
-  // One shape of context and point, with the moon or without (then `moon` is undefined): no spread in the inner loops.
-  const ctx: EvaluationContext = {
-    sun,
-    nuisances,
-    apparentMinutes,
-    equationOfTimeMinutes: state.equationOfTimeMinutes,
-    assumedClock: c.assumed,
-    zoneOffsetMinutes: c.zoneOffset,
-    moon,
-  };
-  return { dayJd0, apparentMinutes, nuisances, jdUT, state, sun, moon, residuals: evidenceResidualVector(c.model, ctx) };
+  const jdUT = jdUTOfApparentTime(c.track, dayJd0, apparentMinutes, longitudeOf(c.model, nuisances));
+  const moon = withMoon && c.moonRows ? moonBetweenDays(c, dayJd0, apparentMinutes, nuisances, jdUT) : undefined;
+  return datedPointAt(c.model, c.assumed, c.zoneOffset, dayJd0, apparentMinutes, nuisances, jdUT, solarStateOnTrack(c.track, jdUT), moon);
+}
+
+/**
+ * The residuals of datedPoint alone (the same numbers), for the least-squares fits, which ask for
+ * nothing else at their many trial points.
+ */
+export function datedResiduals(c: DatedContext, dayJd0: number, apparentMinutes: number, nuisances: readonly number[], withMoon = true): number[] {
+  const jdUT = jdUTOfApparentTime(c.track, dayJd0, apparentMinutes, longitudeOf(c.model, nuisances));
+  const moon = withMoon && c.moonRows ? moonBetweenDays(c, dayJd0, apparentMinutes, nuisances, jdUT) : undefined;
+  const state = solarStateOnTrack(c.track, jdUT);
+  return evidenceResidualVector(c.model, datedContextAt(c.model, c.assumed, c.zoneOffset, apparentMinutes, nuisances, state, datedSunDirection(c.model, state, apparentMinutes, nuisances), moon));
+}
+
+/** The evaluation context of a dated point. One shape, with the moon or without (then `moon` is undefined): no spread in the inner loops. */
+function datedContextAt(
+  model: EvidenceModel, assumed: ClockKind | null, zoneOffset: (zone: string) => number, apparentMinutes: number, nuisances: readonly number[],
+  state: SolarState, sun: SolverSunDirection, moon: MoonPosition | undefined,
+): EvaluationContext {
+  return { sun, nuisances, apparentMinutes, equationOfTimeMinutes: state.equationOfTimeMinutes, assumedClock: assumed, zoneOffsetMinutes: zoneOffset, moon };
+}
+
+/**
+ * The dated point at an instant whose solar state is known (from a track, or from one exact
+ * evaluation: stageB.ts exactPoint), the moon given or not.
+ */
+export function datedPointAt(
+  model: EvidenceModel, assumed: ClockKind | null, zoneOffset: (zone: string) => number,
+  dayJd0: number, apparentMinutes: number, nuisances: readonly number[], jdUT: number, state: SolarState, moon: MoonPosition | undefined,
+): DatedPoint {
+  const sun = datedSunDirection(model, state, apparentMinutes, nuisances);
+  const residuals = evidenceResidualVector(model, datedContextAt(model, assumed, zoneOffset, apparentMinutes, nuisances, state, sun, moon));
+  return { dayJd0, apparentMinutes, nuisances, jdUT, state, sun, moon, residuals };
 }
 
 export function datedSteps(model: EvidenceModel): number[] {
@@ -280,7 +308,7 @@ export function refineDated(c: DatedContext, x0: readonly number[], maxIteration
   let lm: LeastSquaresResult | null = null;
   for (let move = 0; move <= MAX_TRACK_MOVES; move += 1) {
     // The moon is left out of the search's continuous fit (stage B fits the sun's evidence alone).
-    const res = (p: readonly number[]): number[] => datedPoint(c, p[0], p[1], p.slice(2), false).residuals as number[];
+    const res = (p: readonly number[]): number[] => datedResiduals(c, p[0], p[1], p.slice(2), false);
     const lower = x.map(() => -Infinity);
     const upper = x.map(() => Infinity);
     lower[0] = x0[0] - MAX_DAY_MOVE;
@@ -307,7 +335,7 @@ export function refineDated(c: DatedContext, x0: readonly number[], maxIteration
 export function refineOnDay(c: DatedContext, dayJd0: number, x0: readonly number[], maxIterations = 40): DatedFit {
   const guess = datedPoint(c, dayJd0, x0[0], x0.slice(1));
   ensureTrack(c, guess.jdUT);
-  const res = (p: readonly number[]): number[] => datedPoint(c, dayJd0, p[0], p.slice(1)).residuals as number[];
+  const res = (p: readonly number[]): number[] => datedResiduals(c, dayJd0, p[0], p.slice(1));
   const lower = x0.map(() => -Infinity);
   const upper = x0.map(() => Infinity);
   lower[0] = x0[0] - 720; // the minute stays within half a day of its start

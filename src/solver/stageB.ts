@@ -24,6 +24,7 @@ import type { EvidenceModel } from './evidenceModel.js';
 import { splitChiSquare, longitudeOf } from './evidenceModel.js';
 import {
   datedPoint,
+  datedPointAt,
   hasMoonEvidence,
   newDatedContext,
   refineDated,
@@ -34,7 +35,7 @@ import {
   type DatedPoint,
 } from './fitting.js';
 import { instantOfSolarLongitude, longitudesOfDeclination, lowPrecisionSun, TROPICAL_YEAR_DAYS } from './seasons.js';
-import { parabola, solarStateOnTrack, type SunTrack } from './sunModel.js';
+import { flatParabola, parabola, solarStateOnTrack, type SunTrack } from './sunModel.js';
 import type { StageAMinimum } from './stageA.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
 import { jdToCivilDay } from '../calendar/regions.js';
@@ -62,6 +63,9 @@ export interface RepresentativeFit {
    */
   readonly moonInstant?: { readonly sigmaMinutes: number };
 }
+
+/** The fit of a mapped year (no iterations of its own), shared by all of them. */
+const MAPPED_FIT = Object.freeze({ converged: true, iterations: 0 });
 
 /** A candidate before it is dressed for the answer. */
 export interface RawCandidate {
@@ -121,19 +125,30 @@ export function exactPoint(
 ): { point: DatedPoint; sun: SunPosition } {
   const lon = longitudeOf(model, nuisances);
   const approxJdUT = dayJd0 + (minutes - equationOfTimeGuessMinutes) / 1440 - lon / 360;
-  const sun = sunPosition(approxJdUT, { latitudeDeg: site.latitudeDeg, longitudeDeg: lon, elevationM: site.elevationM }, model.scene.air, { deltaTModel: model.scene.deltaT });
+  const sunSite = lon === site.longitudeDeg ? site : { latitudeDeg: site.latitudeDeg, longitudeDeg: lon, elevationM: site.elevationM };
+  const sun = sunPosition(approxJdUT, sunSite, model.scene.air, { deltaTModel: model.scene.deltaT });
+  if (!(moonRows && hasMoonEvidence(model))) {
+    // The track of this one evaluation (declination and equation of time constant: pointSunTrack) read
+    // without making it: datedPoint's instant and solar state by the same operations, so the same numbers.
+    const guess = dayJd0 + minutes / 1440 - lon / 360;
+    const jdUT = guess - flatParabola(sun.equationOfTimeMinutes, guess - approxJdUT) / 1440;
+    const u = jdUT - approxJdUT;
+    const state = { declinationDeg: flatParabola(sun.declinationDeg, u), equationOfTimeMinutes: flatParabola(sun.equationOfTimeMinutes, u) };
+    return { point: datedPointAt(model, assumed, zoneOffsetsAt(model, assumed, approxJdUT), dayJd0, minutes, nuisances, jdUT, state, undefined), sun };
+  }
   const track: SunTrack = {
     anchorJdUT: approxJdUT,
     declinationDeg: [sun.declinationDeg, sun.declinationDeg, sun.declinationDeg],
     equationOfTimeMinutes: [sun.equationOfTimeMinutes, sun.equationOfTimeMinutes, sun.equationOfTimeMinutes],
   };
-  const ctx: DatedContext = { model, assumed, site, track, zoneOffset: zoneOffsetsAt(model, assumed, approxJdUT), ephemerisCalls: 1, moonRows: moonRows && hasMoonEvidence(model), moonCalls: 0 };
+  const ctx: DatedContext = { model, assumed, site, track, zoneOffset: zoneOffsetsAt(model, assumed, approxJdUT), ephemerisCalls: 1, moonRows: true, moonCalls: 0 };
   return { point: datedPoint(ctx, dayJd0, minutes, nuisances), sun };
 }
 
-function objectiveOf(model: EvidenceModel, r: readonly number[]): { chiSquare: number; penalty: number; objective: number } {
+/** Chi-square plus the soft penalty of a residual vector (splitChiSquare's two sums, added). */
+function objectiveOf(model: EvidenceModel, r: readonly number[]): number {
   const s = splitChiSquare(model, r);
-  return { chiSquare: s.chiSquare, penalty: s.penalty, objective: s.chiSquare + s.penalty };
+  return s.chiSquare + s.penalty;
 }
 
 /**
@@ -148,7 +163,9 @@ function chooseDay(win: DayWindow, dHat: number, cdd: number): { day: number; fa
   let best: number | null = null;
   let bestCost = Infinity;
   for (let k = 0; k <= Math.ceil(reach); k += 1) {
-    for (const day of k === 0 ? [centre] : [centre - k, centre + k]) {
+    // The centre, then the day k before it and the day k after it.
+    for (let side = k === 0 ? 1 : -1; side <= 1; side += 2) {
+      const day = centre + side * k;
       if (!isDayAllowed(win, day)) continue;
       const cost = cdd > 0 ? ((day - dHat) * (day - dHat)) / cdd : Math.abs(day - dHat);
       if (cost < bestCost) {
@@ -197,9 +214,13 @@ function conditionalRest(x: readonly number[], cov: number[][] | null, day: numb
   const rest = x.slice(1);
   if (!cov || !(cov[0][0] > 0)) return rest;
   const dd = day - x[0];
-  const moved = rest.map((v, i) => v + (cov[i + 1][0] / cov[0][0]) * dd);
-  // A near-singular fit can predict absurd shifts; then keep the optimum's values.
-  if (!moved.every(Number.isFinite) || Math.abs(moved[0] - rest[0]) > 240 || moved.slice(1).some((v, i) => Math.abs(v - rest[i + 1]) > 20)) return rest;
+  const moved = new Array<number>(rest.length);
+  for (let i = 0; i < rest.length; i += 1) {
+    const v = rest[i] + (cov[i + 1][0] / cov[0][0]) * dd;
+    // A near-singular fit can predict absurd shifts (the minute by more than 4 h, a nuisance by more than 20 deg); then keep the optimum's values.
+    if (!Number.isFinite(v) || Math.abs(v - rest[i]) > (i === 0 ? 240 : 20)) return rest;
+    moved[i] = v;
+  }
   return moved;
 }
 
@@ -376,7 +397,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           const ex = exactPoint(model, assumed, rep.context.site, day, m.rest[0], m.rest.slice(1), m.equationOfTimeMinutes, false);
           ephemerisCalls += 1;
           // Verified like the other mapped years: kept unless it fits worse than predicted by more than max(2, 20%).
-          if (objectiveOf(model, ex.point.residuals).objective <= m.objective + Math.max(2, 0.2 * m.objective)) {
+          if (objectiveOf(model, ex.point.residuals) <= m.objective + Math.max(2, 0.2 * m.objective)) {
             ({ point, sun } = ex);
             rest = m.rest;
             farMapped = true;
@@ -399,7 +420,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
             const alt = refineOnDay(rep.context, other, conditionalRest(c.x, rep.covariance, other));
             const ex = exactPoint(model, assumed, rep.context.site, other, alt.x[1], alt.x.slice(2), alt.point.state.equationOfTimeMinutes, false);
             ephemerisCalls += 1;
-            if (objectiveOf(model, ex.point.residuals).objective < objectiveOf(model, point.residuals).objective) {
+            if (objectiveOf(model, ex.point.residuals) < objectiveOf(model, point.residuals)) {
               day = other;
               rest = alt.x.slice(1);
               point = ex.point;
@@ -413,7 +434,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), rep.fit.point.state.equationOfTimeMinutes, false));
           ephemerisCalls += 1;
           const predicted = c.objective + (cdd > 0 ? ((day - c.x[0]) * (day - c.x[0])) / cdd : 0);
-          const got = objectiveOf(model, point.residuals).objective;
+          const got = objectiveOf(model, point.residuals);
           if (got > predicted + Math.max(2, 0.2 * predicted)) {
             // The mapping did not hold: refine this year in full.
             const own = fitCycle(k, c.x);
@@ -435,7 +456,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           }
         }
         if (!point || !sun) continue; // not reached: every branch above evaluates the candidate
-        const o = objectiveOf(model, point.residuals);
+        const o = splitChiSquare(model, point.residuals);
         out.push({
           assumptionIndex,
           trackKey: track.key,
@@ -443,16 +464,16 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           cycle: k,
           dayJd0: day,
           apparentMinutes: rest[0],
-          nuisances: rest.slice(1),
+          nuisances: point.nuisances, // the same numbers as rest.slice(1) in every branch above
           point,
           sun,
           chiSquare: o.chiSquare,
           penalty: o.penalty,
-          objective: o.objective,
+          objective: o.chiSquare + o.penalty,
           continuousDay: c.x[0],
           continuousMinutes: c.x[1],
           rep,
-          fit: { converged, iterations },
+          fit: converged && iterations === 0 ? MAPPED_FIT : { converged, iterations },
           mapped,
           atWindowEdge,
         });
@@ -471,13 +492,20 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
  */
 export function dedupeByDayAndHour(candidates: readonly RawCandidate[]): RawCandidate[] {
   const kept: RawCandidate[] = [];
-  const keptByDay = new Map<number, RawCandidate[]>();
+  // The first kept on a day alone, a list only when a second is kept there (most days keep one).
+  const keptByDay = new Map<number, RawCandidate | RawCandidate[]>();
+  const near = (k: RawCandidate, c: RawCandidate): boolean => Math.abs(k.apparentMinutes - c.apparentMinutes) < 5;
   for (const c of [...candidates].sort((a, b) => a.objective - b.objective)) {
     const sameDay = keptByDay.get(c.dayJd0);
-    if (sameDay?.some((k) => Math.abs(k.apparentMinutes - c.apparentMinutes) < 5)) continue;
+    if (sameDay === undefined) keptByDay.set(c.dayJd0, c);
+    else if (Array.isArray(sameDay)) {
+      if (sameDay.some((k) => near(k, c))) continue;
+      sameDay.push(c);
+    } else {
+      if (near(sameDay, c)) continue;
+      keptByDay.set(c.dayJd0, [sameDay, c]);
+    }
     kept.push(c);
-    if (sameDay) sameDay.push(c);
-    else keptByDay.set(c.dayJd0, [c]);
   }
   return kept;
 }

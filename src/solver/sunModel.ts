@@ -109,6 +109,16 @@ export function parabola(v: readonly [number, number, number], u: number): numbe
   return v[1] + (u / 2) * (a + b + u * (b - a));
 }
 
+/**
+ * parabola([v, v, v], u), the same operations on the same numbers (so the same result to the last bit),
+ * without the array: for a track made of one exact evaluation (pointSunTrack, stageB.ts exactPoint).
+ */
+export function flatParabola(v: number, u: number): number {
+  const a = v - v;
+  const b = v - v;
+  return v + (u / 2) * (a + b + u * (b - a));
+}
+
 /** Declination and equation of time at jdUT from a track. */
 export function solarStateOnTrack(track: SunTrack, jdUT: number): SolarState {
   const u = jdUT - track.anchorJdUT;
@@ -133,8 +143,13 @@ export function instantOfApparentTime(
   apparentMinutes: number,
   longitudeDeg: number,
 ): { jdUT: number; state: SolarState } {
-  const guess = dayJd0 + apparentMinutes / 1440 - longitudeDeg / 360;
-  const e0 = solarStateOnTrack(track, guess).equationOfTimeMinutes;
-  const jdUT = guess - e0 / 1440;
+  const jdUT = jdUTOfApparentTime(track, dayJd0, apparentMinutes, longitudeDeg);
   return { jdUT, state: solarStateOnTrack(track, jdUT) };
+}
+
+/** The instant of instantOfApparentTime alone (a number: no solar state made for the guess). */
+export function jdUTOfApparentTime(track: SunTrack, dayJd0: number, apparentMinutes: number, longitudeDeg: number): number {
+  const guess = dayJd0 + apparentMinutes / 1440 - longitudeDeg / 360;
+  const e0 = parabola(track.equationOfTimeMinutes, guess - track.anchorJdUT);
+  return guess - e0 / 1440;
 }
