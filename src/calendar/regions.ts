@@ -424,6 +424,21 @@ export function jdToCivilDate(rule: CalendarRule | ResolvedCalendar, jd: number)
 }
 
 /**
+ * The civil day of jdToCivilDate(rule, jd) and the calendar of its date, in one object: one conversion
+ * of the JD (jdToCivilDate converts twice outside the Swedish period), for loops over many days.
+ * @example jdToCivilDayAndCalendar({ kind: 'region', regionId: 'great-britain' }, 2361221.5) // 14 September 1752, 'gregorian'
+ */
+export function jdToCivilDayAndCalendar(rule: CalendarRule | ResolvedCalendar, jd: number): CivilDay & { readonly calendar: CalendarKind } {
+  const reckoning = reckoningInForce(rule, jd);
+  if (reckoning === 'swedish') {
+    const { day } = jdToReckoningDay(jd, reckoning);
+    return { year: day.year, month: day.month, day: day.day, calendar: 'julian' };
+  }
+  const { date } = jdToCalendarDate(jd, reckoning);
+  return { year: date.year, month: date.month, day: date.day, calendar: reckoning };
+}
+
+/**
  * The civil day (its name in the reckoning in force) of a JD: jdToCivilDate(rule, jd).civil alone,
  * without the calendar date beside it (for loops over many days, such as the solver's allowed months).
  * @example jdToCivilDay({ kind: 'region', regionId: 'great-britain' }, 2361221.5) // 14 September 1752

@@ -40,7 +40,7 @@ import { estimatedEntry, estimatedWithoutEach } from './largeScenes.js';
 import { CANNOT_TELL_WHICH, groupConsistency, type GroupTest } from './groupConsistency.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
-import { jdToCivilDate } from '../calendar/regions.js';
+import { calendarInForce, jdToCivilDate, jdToCivilDayAndCalendar } from '../calendar/regions.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 import { hasMoonEvidence } from './fitting.js';
 import { moonYearsAnswer } from './moonAnswer.js';
@@ -63,7 +63,9 @@ export interface Solved {
   readonly kept: readonly RawCandidate[];
   /** Candidates left out because they were pressed against the edge of the allowed days and fit poorly. */
   readonly edgeDropped: number;
-  readonly weights: ReadonlyMap<RawCandidate, number>;
+  /** The best objective and the sum of exp(-(objective - best) / 2) over the kept candidates: their weights (weightOf). */
+  readonly bestObjective: number;
+  readonly weightTotal: number;
   readonly dress: DressContext;
   readonly dressed: Map<RawCandidate, Candidate>;
 }
@@ -89,16 +91,20 @@ export function solveModel(model: EvidenceModel, win: DayWindow, cutoff: number,
   const edgeDropped = withinCutoff.length - kept.length;
   let total = 0;
   for (const c of kept) total += Math.exp(-(c.objective - best) / 2);
-  const weights = new Map(kept.map((c) => [c, Math.exp(-(c.objective - best) / 2) / total]));
   const cache: UncertaintyCache = new Map();
-  return { model, win, search, kept, edgeDropped, weights, dress: { model, win, assumptions: search.assumptions, cache, profileScans }, dressed: new Map() };
+  return { model, win, search, kept, edgeDropped, bestObjective: best, weightTotal: total, dress: { model, win, assumptions: search.assumptions, cache, profileScans }, dressed: new Map() };
+}
+
+/** The relative weight of a kept candidate, exp(-chi2/2) normalised over the kept ones (taken when asked for, not held for each). */
+function weightOf(s: Solved, raw: RawCandidate): number {
+  return Math.exp(-(raw.objective - s.bestObjective) / 2) / s.weightTotal;
 }
 
 export function dressed(s: Solved, raw: RawCandidate): Candidate {
   const hit = s.dressed.get(raw);
   if (hit) return hit;
   const rank = s.kept.indexOf(raw) + 1;
-  const c = dressCandidate(raw, `c${rank}`, rank, s.weights.get(raw) ?? 0, s.dress);
+  const c = dressCandidate(raw, `c${rank}`, rank, rank > 0 ? weightOf(s, raw) : 0, s.dress);
   s.dressed.set(raw, c);
   return c;
 }
@@ -189,7 +195,7 @@ class KeptMember implements FamilyMember {
     return this.raw.penalty;
   }
   get weight(): number {
-    return this.s.weights.get(this.raw) ?? 0;
+    return weightOf(this.s, this.raw); // a member is a kept candidate
   }
   get assumptionIndex(): number {
     return this.raw.assumptionIndex;
@@ -210,9 +216,9 @@ class KeptMember implements FamilyMember {
 function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
   const groups = new Map<string, FamilyMember[]>();
   for (const raw of s.kept) {
-    const answer = jdToCivilDate(s.win.calendar, raw.dayJd0 + 0.5);
-    const calendar = answer.date.calendar;
-    const member = new KeptMember(s, raw, answer.civil.year, answer.civil.month, answer.civil.day, calendar);
+    const civil = jdToCivilDayAndCalendar(s.win.calendar, raw.dayJd0 + 0.5);
+    const calendar = civil.calendar;
+    const member = new KeptMember(s, raw, civil.year, civil.month, civil.day, calendar);
     const key = `${raw.trackKey}|${calendar}`;
     const group = groups.get(key);
     if (group) group.push(member);
@@ -401,7 +407,7 @@ export function solveDates(scene: Scene, options: SolveOptions = {}): DateAnswer
       const famCount = allFamilies.length;
       const calendarsOfTrack = new Map<string, Set<string>>();
       for (const c of s.kept) {
-        const cal = jdToCivilDate(s.win.calendar, c.dayJd0 + 0.5).date.calendar;
+        const cal = calendarInForce(s.win.calendar, c.dayJd0 + 0.5); // jdToCivilDate(...).date.calendar, without the date
         calendarsOfTrack.set(c.trackKey, (calendarsOfTrack.get(c.trackKey) ?? new Set()).add(cal));
       }
       const renamed = [...calendarsOfTrack.values()].some((cals) => cals.size > 1) ? ' (some of them the same light as another, named in the other calendar)' : '';

@@ -67,7 +67,10 @@ export interface RepresentativeFit {
 /** The fit of a mapped year (no iterations of its own), shared by all of them. */
 const MAPPED_FIT = Object.freeze({ converged: true, iterations: 0 });
 
-/** A candidate before it is dressed for the answer. */
+/**
+ * A candidate before it is dressed for the answer. Stage B's own are StageBCandidate objects (below),
+ * whose numbers are read through getters: a copy by spread must state those anew.
+ */
 export interface RawCandidate {
   readonly assumptionIndex: number;
   /** Same key = same family track (assumption, stage-A minimum, branch). */
@@ -123,26 +126,134 @@ export function exactPoint(
   equationOfTimeGuessMinutes: number,
   moonRows = true,
 ): { point: DatedPoint; sun: SunPosition } {
-  const lon = longitudeOf(model, nuisances);
-  const approxJdUT = dayJd0 + (minutes - equationOfTimeGuessMinutes) / 1440 - lon / 360;
-  const sunSite = lon === site.longitudeDeg ? site : { latitudeDeg: site.latitudeDeg, longitudeDeg: lon, elevationM: site.elevationM };
-  const sun = sunPosition(approxJdUT, sunSite, model.scene.air, { deltaTModel: model.scene.deltaT });
-  if (!(moonRows && hasMoonEvidence(model))) {
-    // The track of this one evaluation (declination and equation of time constant: pointSunTrack) read
-    // without making it: datedPoint's instant and solar state by the same operations, so the same numbers.
-    const guess = dayJd0 + minutes / 1440 - lon / 360;
-    const jdUT = guess - flatParabola(sun.equationOfTimeMinutes, guess - approxJdUT) / 1440;
-    const u = jdUT - approxJdUT;
-    const state = { declinationDeg: flatParabola(sun.declinationDeg, u), equationOfTimeMinutes: flatParabola(sun.equationOfTimeMinutes, u) };
-    return { point: datedPointAt(model, assumed, zoneOffsetsAt(model, assumed, approxJdUT), dayJd0, minutes, nuisances, jdUT, state, undefined), sun };
-  }
+  const sun = exactSun(model, site, dayJd0, minutes, nuisances, equationOfTimeGuessMinutes);
+  if (!(moonRows && hasMoonEvidence(model))) return { point: pointOfExactSun(model, assumed, dayJd0, minutes, nuisances, sun), sun };
   const track: SunTrack = {
-    anchorJdUT: approxJdUT,
+    anchorJdUT: sun.jdUT,
     declinationDeg: [sun.declinationDeg, sun.declinationDeg, sun.declinationDeg],
     equationOfTimeMinutes: [sun.equationOfTimeMinutes, sun.equationOfTimeMinutes, sun.equationOfTimeMinutes],
   };
-  const ctx: DatedContext = { model, assumed, site, track, zoneOffset: zoneOffsetsAt(model, assumed, approxJdUT), ephemerisCalls: 1, moonRows: true, moonCalls: 0 };
+  const ctx: DatedContext = { model, assumed, site, track, zoneOffset: zoneOffsetsAt(model, assumed, sun.jdUT), ephemerisCalls: 1, moonRows: true, moonCalls: 0 };
   return { point: datedPoint(ctx, dayJd0, minutes, nuisances), sun };
+}
+
+/** The one sunPosition call of exactPoint, at the instant found with the guess of the equation of time. */
+function exactSun(model: EvidenceModel, site: SunSite, dayJd0: number, minutes: number, nuisances: readonly number[], equationOfTimeGuessMinutes: number): SunPosition {
+  const lon = longitudeOf(model, nuisances);
+  const approxJdUT = dayJd0 + (minutes - equationOfTimeGuessMinutes) / 1440 - lon / 360;
+  const sunSite = lon === site.longitudeDeg ? site : { latitudeDeg: site.latitudeDeg, longitudeDeg: lon, elevationM: site.elevationM };
+  return sunPosition(approxJdUT, sunSite, model.scene.air, { deltaTModel: model.scene.deltaT });
+}
+
+/**
+ * exactPoint's point without the moon, from its sun (computed at sun.jdUT): the track of that one
+ * evaluation (declination and equation of time constant: pointSunTrack) read without making it, by
+ * datedPoint's operations, so the same numbers; no ephemeris call (a candidate's point is made again from its sun).
+ */
+function pointOfExactSun(model: EvidenceModel, assumed: ClockKind | null, dayJd0: number, minutes: number, nuisances: readonly number[], sun: SunPosition): DatedPoint {
+  const approxJdUT = sun.jdUT;
+  const guess = dayJd0 + minutes / 1440 - longitudeOf(model, nuisances) / 360;
+  const jdUT = guess - flatParabola(sun.equationOfTimeMinutes, guess - approxJdUT) / 1440;
+  const u = jdUT - approxJdUT;
+  const state = { declinationDeg: flatParabola(sun.declinationDeg, u), equationOfTimeMinutes: flatParabola(sun.equationOfTimeMinutes, u) };
+  return datedPointAt(model, assumed, zoneOffsetsAt(model, assumed, approxJdUT), dayJd0, minutes, nuisances, jdUT, state, undefined);
+}
+
+/** A stage-B candidate's fields but its point. */
+type StageBFields = Omit<RawCandidate, 'point' | 'moonRefined'>;
+
+/** Where each number of a StageBCandidate is kept in its one array of numbers. */
+const enum At { DayJd0, ApparentMinutes, ChiSquare, Penalty, Objective, SunJdUT, SunJdTT, SunAzimuth, SunAltitude, SunGeometricAltitude, SunDeclination, SunRightAscension, SunHourAngle, SunEquationOfTime, Count }
+
+/**
+ * A candidate of stage B, made for every year of the window (thousands in a long one) and most never
+ * dressed; so it is kept small. Its numbers (its own and its sun's) are held in one array of numbers,
+ * stored unboxed, rather than in fields each holding a boxed number; its sun is read from them when
+ * asked for (the same numbers, a new object each time); and its exact point (residuals, solar state,
+ * sun direction) is made again from its sun when first asked for: the same numbers as when it was
+ * evaluated, without an ephemeris call. Numbers read through getters are not copied by a spread: a copy
+ * ({ ...c, ... }, as moonYears.ts makes) states dayJd0, apparentMinutes, chiSquare, penalty, objective, sun
+ * and point anew (continuousDay and continuousMinutes are plain fields, copied).
+ */
+class StageBCandidate implements RawCandidate {
+  readonly assumptionIndex: number;
+  readonly trackKey: string;
+  readonly branch: 'rising' | 'falling' | 'solstice';
+  readonly cycle: number;
+  readonly nuisances: readonly number[];
+  readonly rep: RepresentativeFit;
+  readonly fit: { readonly converged: boolean; readonly iterations: number };
+  readonly mapped: boolean;
+  readonly atWindowEdge: boolean;
+  readonly continuousDay: number;
+  readonly continuousMinutes: number;
+  private readonly numbers: number[];
+  private madePoint: DatedPoint | undefined;
+
+  constructor(f: StageBFields, private readonly model: EvidenceModel, private readonly assumed: ClockKind | null) {
+    this.assumptionIndex = f.assumptionIndex;
+    this.trackKey = f.trackKey;
+    this.branch = f.branch;
+    this.cycle = f.cycle;
+    this.nuisances = f.nuisances;
+    this.rep = f.rep;
+    this.fit = f.fit;
+    this.mapped = f.mapped;
+    this.atWindowEdge = f.atWindowEdge;
+    this.continuousDay = f.continuousDay;
+    this.continuousMinutes = f.continuousMinutes;
+    const sun = f.sun;
+    const n = new Array<number>(At.Count);
+    n[At.DayJd0] = f.dayJd0;
+    n[At.ApparentMinutes] = f.apparentMinutes;
+    n[At.ChiSquare] = f.chiSquare;
+    n[At.Penalty] = f.penalty;
+    n[At.Objective] = f.objective;
+    n[At.SunJdUT] = sun.jdUT;
+    n[At.SunJdTT] = sun.jdTT;
+    n[At.SunAzimuth] = sun.azimuthDeg;
+    n[At.SunAltitude] = sun.altitudeDeg;
+    n[At.SunGeometricAltitude] = sun.geometricAltitudeDeg;
+    n[At.SunDeclination] = sun.declinationDeg;
+    n[At.SunRightAscension] = sun.rightAscensionDeg;
+    n[At.SunHourAngle] = sun.hourAngleDeg;
+    n[At.SunEquationOfTime] = sun.equationOfTimeMinutes;
+    this.numbers = n;
+    this.madePoint = undefined;
+  }
+
+  get dayJd0(): number {
+    return this.numbers[At.DayJd0];
+  }
+  get apparentMinutes(): number {
+    return this.numbers[At.ApparentMinutes];
+  }
+  get chiSquare(): number {
+    return this.numbers[At.ChiSquare];
+  }
+  get penalty(): number {
+    return this.numbers[At.Penalty];
+  }
+  get objective(): number {
+    return this.numbers[At.Objective];
+  }
+  get sun(): SunPosition {
+    const n = this.numbers;
+    return {
+      jdUT: n[At.SunJdUT],
+      jdTT: n[At.SunJdTT],
+      azimuthDeg: n[At.SunAzimuth],
+      altitudeDeg: n[At.SunAltitude],
+      geometricAltitudeDeg: n[At.SunGeometricAltitude],
+      declinationDeg: n[At.SunDeclination],
+      rightAscensionDeg: n[At.SunRightAscension],
+      hourAngleDeg: n[At.SunHourAngle],
+      equationOfTimeMinutes: n[At.SunEquationOfTime],
+    };
+  }
+  get point(): DatedPoint {
+    return (this.madePoint ??= pointOfExactSun(this.model, this.assumed, this.dayJd0, this.apparentMinutes, this.nuisances, this.sun));
+  }
 }
 
 /** Chi-square plus the soft penalty of a residual vector (splitChiSquare's two sums, added). */
@@ -457,7 +568,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
         }
         if (!point || !sun) continue; // not reached: every branch above evaluates the candidate
         const o = splitChiSquare(model, point.residuals);
-        out.push({
+        out.push(new StageBCandidate({
           assumptionIndex,
           trackKey: track.key,
           branch: track.branch,
@@ -465,7 +576,6 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           dayJd0: day,
           apparentMinutes: rest[0],
           nuisances: point.nuisances, // the same numbers as rest.slice(1) in every branch above
-          point,
           sun,
           chiSquare: o.chiSquare,
           penalty: o.penalty,
@@ -476,7 +586,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           fit: converged && iterations === 0 ? MAPPED_FIT : { converged, iterations },
           mapped,
           atWindowEdge,
-        });
+        }, model, assumed));
       }
       for (const r of reps.values()) ephemerisCalls += r.context.ephemerisCalls;
     }
