@@ -40,7 +40,7 @@ import { estimatedEntry, estimatedWithoutEach } from './largeScenes.js';
 import { CANNOT_TELL_WHICH, groupConsistency, type GroupTest } from './groupConsistency.js';
 import type { RawCandidate } from './stageB.js';
 import { dayWindowOf, windowHasAllowedDay, type DayWindow } from './window.js';
-import { calendarInForce, jdToCivilDate, jdToCivilDayAndCalendar } from '../calendar/regions.js';
+import { calendarInForce, jdToCivilDayAndCalendar } from '../calendar/regions.js';
 import type { UncertaintyCache } from './candidateUncertainty.js';
 import { hasMoonEvidence } from './fitting.js';
 import { moonYearsAnswer } from './moonAnswer.js';
