@@ -11,7 +11,7 @@
  * outward normal; HSA = sun azimuth - W wrapped to (-180, 180]; in-plane axes as
  * seen from outside facing the wall: u to the viewer's right (azimuth W - 90), v up.
  */
-import { atan2Deg, cosDeg, normalizeDeg180, sinDeg } from '../math/angles.js';
+import { atan2Deg, cosDeg, hypot2, normalizeDeg180, sinDeg } from '../math/angles.js';
 import type { SunDirection } from './sunVector.js';
 
 /**
@@ -80,5 +80,5 @@ export function isWallSunlit(sun: SunDirection, wallAzimuthDeg: number): boolean
  */
 export function sunElevationAboveWallDeg(sun: SunDirection, wallAzimuthDeg: number): number {
   const { normal, u, up } = sunInWallFrame(sun, wallAzimuthDeg);
-  return atan2Deg(normal, Math.hypot(u, up));
+  return atan2Deg(normal, hypot2(u, up)); // Math.hypot's number, without its argument array
 }

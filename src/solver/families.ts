@@ -180,21 +180,54 @@ export function buildFamily(id: string, rank: number, members: readonly FamilyMe
   const yearsTold = yearsToldOf(byKeeping.get(best.assumptionIndex) ?? [best], ctx);
   const alikeOfBest = ctx.moonEvidence ? new Set(yearsTold.alikeYears) : null;
   const spanned = alikeOfBest ? sorted.filter((m) => alikeOfBest.has(m.year) && m.objective <= best.objective + YEARS_ALIKE_DELTA_CHI2) : sorted;
-  let ords = spanned.map((m) => ({ m, o: ordinal(m.month, m.day) }));
-  const lo0 = Math.min(...ords.map((x) => x.o));
-  const hi0 = Math.max(...ords.map((x) => x.o));
-  if (hi0 - lo0 > 183) ords = ords.map((x) => ({ m: x.m, o: x.o < 183 ? x.o + 365 : x.o }));
-  const first = ords.reduce((a, b) => (b.o < a.o ? b : a)).m;
-  const last = ords.reduce((a, b) => (b.o > a.o ? b : a)).m;
+  // Loops, not spreads or mapped copies: a family holds a member for every year of the window.
+  // The first and last day of the year: when the days spread over more than half a year, those before
+  // day 183 are counted in the next year (a span across the year end). The first member of lowest
+  // (highest) day is taken, as a reduce keeping the earlier on ties would.
+  let lo0 = Infinity;
+  let hi0 = -Infinity;
+  for (const m of spanned) {
+    const o = ordinal(m.month, m.day);
+    lo0 = Math.min(lo0, o);
+    hi0 = Math.max(hi0, o);
+  }
+  const acrossYearEnd = hi0 - lo0 > 183;
+  let first = spanned[0];
+  let last = spanned[0];
+  let firstO = Infinity;
+  let lastO = -Infinity;
+  for (const m of spanned) {
+    const plainO = ordinal(m.month, m.day);
+    const o = acrossYearEnd && plainO < 183 ? plainO + 365 : plainO;
+    if (o < firstO) {
+      first = m;
+      firstO = o;
+    }
+    if (o > lastO) {
+      last = m;
+      lastO = o;
+    }
+  }
   // A night's hours pass midnight (moonlit views): when the hours are spread over more than half a
   // day, those of the morning are read as after midnight if that makes the span shorter ("21:08-00:06").
-  const plain = spanned.map((m) => m.apparentMinutes);
-  const wrapped = plain.map((m) => (m < 720 ? m + 1440 : m));
-  const spread = (xs: readonly number[]): number => Math.max(...xs) - Math.min(...xs);
-  const minutes = spread(plain) > 720 && spread(wrapped) < spread(plain) ? wrapped : plain;
-  const fromMin = Math.min(...minutes);
-  const toMin = Math.max(...minutes);
-  const years = [...new Set(sorted.map((m) => m.year))];
+  let plainMin = Infinity;
+  let plainMax = -Infinity;
+  let wrappedMin = Infinity;
+  let wrappedMax = -Infinity;
+  for (const m of spanned) {
+    const v = m.apparentMinutes;
+    const w = v < 720 ? v + 1440 : v;
+    plainMin = Math.min(plainMin, v);
+    plainMax = Math.max(plainMax, v);
+    wrappedMin = Math.min(wrappedMin, w);
+    wrappedMax = Math.max(wrappedMax, w);
+  }
+  const useWrapped = plainMax - plainMin > 720 && wrappedMax - wrappedMin < plainMax - plainMin;
+  const fromMin = useWrapped ? wrappedMin : plainMin;
+  const toMin = useWrapped ? wrappedMax : plainMax;
+  const yearSet = new Set<number>();
+  for (const m of sorted) yearSet.add(m.year);
+  const years = [...yearSet];
   const fromYear = sorted[0].year;
   const toYear = sorted[sorted.length - 1].year;
 
