@@ -2,8 +2,9 @@
 /**
  * How the date solver's work grows with the window, on every bundled example (issue: speed).
  * Run after `npx tsc -p tsconfig.json` and `node src/cli/build.mjs`:
- *   node bench/solver-growth.mjs [--before <checkout>] [--only-first] [--runs <n>] [--only <text>] [--part <1,2,3,4>]
- *   (--only: the examples whose path holds <text>, or any of several given with commas; --part: those parts alone)
+ *   node bench/solver-growth.mjs [--before <checkout>] [--only-first] [--runs <n>] [--only <text>] [--part <1,2,3,4>] [--memory]
+ *   (--only: the examples whose path holds <text>, or any of several given with commas; --part: those parts alone;
+ *   --memory: part 4 alone, five times over, with the median ratio)
  *
  * Each example is solved with its own evidence, restrictions and calendar, over a 500-year window
  * (1400-1899) and a 3000-year one (-1100 to 1899), and the bench prints, each beside its target:
@@ -135,6 +136,21 @@ if (args.has('--child-memory')) {
   const scene = withWindow(readSceneFile(`${root}examples/marktgasse-print.yaml`), -1100, 1899);
   if (!args.has('--idle')) solveDates(scene);
   console.log(JSON.stringify({ maxRssKb: process.resourceUsage().maxRSS }));
+  process.exit(0);
+}
+
+if (args.has('--memory')) {
+  // Part 4 alone (peak memory), measured 5 times over: each a pair of fresh processes, solving and idle.
+  const rssOf = (extra) => JSON.parse(spawnSync(process.execPath, [fileURLToPath(import.meta.url), '--child-memory', ...extra], { encoding: 'utf8' }).stdout).maxRssKb;
+  const ratios = [];
+  for (let i = 0; i < 5; i += 1) {
+    const idle = rssOf(['--idle']);
+    const busy = rssOf([]);
+    ratios.push(busy / idle);
+    console.log(`4. solve ${(busy / 1024).toFixed(1)} MB, modules loaded ${(idle / 1024).toFixed(1)} MB: ${(busy / idle).toFixed(2)}x`);
+  }
+  const m = median(ratios);
+  console.log(`4. peak memory of a 3000-year solve of marktgasse-print.yaml over Node with the modules loaded, median of 5: ${m.toFixed(2)}x (worst ${Math.max(...ratios).toFixed(2)}x)   target <= 1.5x   ${m <= 1.5 ? 'met' : 'NOT met'}`);
   process.exit(0);
 }
 
