@@ -122,6 +122,19 @@ export interface EvidenceModel {
   readonly wallAzimuths: ReadonlyMap<string, number>;
   /** The camera-error nuisances: index of the first in `nuisances` and how many; null without camera evidence. */
   readonly cameraNuisance: { readonly start: number; readonly count: number } | null;
+  /**
+   * The wall of each shadow term and each fact, looked up once (wallAzimuthOf at every evaluation looks
+   * up two maps): the wall azimuth's index in `nuisances` (-1: fixed, or no wall) and its stated azimuth
+   * (0 without a wall), in the order of `shadows` and of `facts`.
+   */
+  readonly shadowWalls: WallLookup;
+  readonly factWalls: WallLookup;
+}
+
+/** Per term: the index of its wall's azimuth among the nuisances (-1: fixed or no wall) and the stated azimuth (0 without a wall). */
+export interface WallLookup {
+  readonly nuisance: Int32Array;
+  readonly statedDeg: Float64Array;
 }
 
 /** How a residual evaluation sees the instant and the clocks. */
@@ -347,7 +360,26 @@ export function buildEvidenceModel(scene: Scene, omit: ReadonlySet<string> = new
   const moon = moonTermsOf(scene, omit);
   const measuredCount = shadows.reduce((n, t) => n + t.count, 0) + clocks.length + moon.terms.reduce((n, t) => n + t.count, 0);
   const wallAzimuths = new Map(scene.walls.map((w) => [w.id, w.azimuthDeg]));
-  return { scene, nuisances, shadows, clocks, facts, moons: moon.terms, moonFacts: moon.facts, measuredCount, wallNuisance, latitudeNuisance, longitudeNuisance, wallAzimuths, cameraNuisance };
+  const lookup = (terms: readonly { readonly wallId?: string }[]): WallLookup => {
+    const nuisance = new Int32Array(terms.length).fill(-1);
+    const statedDeg = new Float64Array(terms.length);
+    terms.forEach((t, i) => {
+      if (t.wallId === undefined) return;
+      nuisance[i] = wallNuisance.get(t.wallId) ?? -1;
+      statedDeg[i] = wallAzimuths.get(t.wallId) ?? 0;
+    });
+    return { nuisance, statedDeg };
+  };
+  return {
+    scene, nuisances, shadows, clocks, facts, moons: moon.terms, moonFacts: moon.facts, measuredCount, wallNuisance, latitudeNuisance, longitudeNuisance, wallAzimuths, cameraNuisance,
+    shadowWalls: lookup(shadows), factWalls: lookup(facts),
+  };
+}
+
+/** wallAzimuthOf for the term at `index` of a wall lookup (the same number). */
+function lookedUpWallAzimuth(walls: WallLookup, index: number, nuisances: readonly number[]): number {
+  const k = walls.nuisance[index];
+  return k >= 0 ? nuisances[k] : walls.statedDeg[index];
 }
 
 /** Wall azimuth in use: the nuisance value when fitted, else the stated azimuth. */
@@ -454,14 +486,16 @@ let scratch = new Float64Array(64);
  */
 export function writeEvidenceResiduals(model: EvidenceModel, ctx: EvaluationContext, out: Float64Array, at: number): void {
   let i = at;
-  for (const t of model.shadows) {
+  const shadows = model.shadows;
+  for (let s = 0; s < shadows.length; s += 1) {
+    const t = shadows[s];
     const light = lightDirectionOf(t.light, ctx);
     if (light === null) {
       for (let k = 0; k < t.count; k += 1) out[i++] = 0;
       continue;
     }
     const evidence = t.evidence.kind === 'sun-circle' ? termEvidence(model, t, ctx.nuisances) : t.evidence;
-    i += evidenceResidualValues(evidence, light, wallAzimuthOf(model, t.wallId, ctx.nuisances), out, i);
+    i += evidenceResidualValues(evidence, light, lookedUpWallAzimuth(model.shadowWalls, s, ctx.nuisances), out, i);
   }
   for (const c of model.clocks) out[i++] = clockResidual(c, model, ctx);
   for (const t of model.moons) {
@@ -470,7 +504,8 @@ export function writeEvidenceResiduals(model: EvidenceModel, ctx: EvaluationCont
   }
   const nuisances = model.nuisances;
   for (let k = 0; k < nuisances.length; k += 1) out[i++] = (ctx.nuisances[k] - nuisances[k].priorDeg) / nuisances[k].sigmaDeg;
-  for (const f of model.facts) out[i++] = factResidual(model, f, ctx);
+  const facts = model.facts;
+  for (let k = 0; k < facts.length; k += 1) out[i++] = factResidualWithWall(model, facts[k], ctx, lookedUpWallAzimuth(model.factWalls, k, ctx.nuisances));
   for (const f of model.moonFacts) out[i++] = ctx.moon ? moonFactViolationDeg(f.fact, ctx.moon) / FACT_TOLERANCE_DEG : 0;
 }
 
@@ -484,6 +519,11 @@ export function lightDirectionOf(light: ShadowLight | undefined, ctx: { readonly
 
 /** Soft residual of one fact (0 when it holds; 0 for a fact of the moon's light where the context holds no moon). */
 export function factResidual(model: EvidenceModel, f: FactTerm, ctx: { readonly sun: SolverSunDirection; readonly moon?: SolverSunDirection; readonly nuisances: readonly number[] }): number {
+  return factResidualWithWall(model, f, ctx, wallAzimuthOf(model, f.wallId, ctx.nuisances));
+}
+
+/** factResidual with the fact's wall azimuth given (wallAzimuthOf(model, f.wallId, ctx.nuisances)). */
+function factResidualWithWall(model: EvidenceModel, f: FactTerm, ctx: { readonly sun: SolverSunDirection; readonly moon?: SolverSunDirection; readonly nuisances: readonly number[] }, wallAzimuthDeg: number): number {
   if (f.fact === 'sun-not-up') return Math.max(0, ctx.sun.altitudeDeg) / FACT_TOLERANCE_DEG; // the sun's centre above the horizon, as the moon's facts
   const light = lightDirectionOf(f.light, ctx);
   if (light === null) return 0;
@@ -491,7 +531,7 @@ export function factResidual(model: EvidenceModel, f: FactTerm, ctx: { readonly 
     // one-sided, in sigmas of the clicks (skyPlanes.ts sideViolation); the camera's part through its nuisances
     return sideViolation(f.planes ?? [], sunUnitVector(light.azimuthDeg, light.altitudeDeg), cameraErrorOf(model, ctx.nuisances)).sigmas;
   }
-  return lightFactViolationDeg(f.fact, light, wallAzimuthOf(model, f.wallId, ctx.nuisances)) / FACT_TOLERANCE_DEG; // = lightFactResidual(...).residuals[0]
+  return lightFactViolationDeg(f.fact, light, wallAzimuthDeg) / FACT_TOLERANCE_DEG; // = lightFactResidual(...).residuals[0]
 }
 
 /** Split of a residual vector into chi-square (measured + priors) and the soft penalty (facts). */
