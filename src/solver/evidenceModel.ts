@@ -535,7 +535,7 @@ function factResidualWithWall(model: EvidenceModel, f: FactTerm, ctx: { readonly
 }
 
 /** Split of a residual vector into chi-square (measured + priors) and the soft penalty (facts). */
-export function splitChiSquare(model: EvidenceModel, r: readonly number[]): { chiSquare: number; penalty: number; measured: number } {
+export function splitChiSquare(model: EvidenceModel, r: ArrayLike<number>): { chiSquare: number; penalty: number; measured: number } {
   const nMeasured = model.measuredCount;
   const nPrior = model.nuisances.length;
   let chiSquare = 0;

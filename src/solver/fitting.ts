@@ -259,6 +259,15 @@ function datedContextAt(
   return { sun, nuisances, apparentMinutes, equationOfTimeMinutes: state.equationOfTimeMinutes, assumedClock: assumed, zoneOffsetMinutes: zoneOffset, moon };
 }
 
+/** The residuals of datedPointAt written into `out` from index 0 (the same numbers), without making the point. */
+export function writeDatedResiduals(
+  model: EvidenceModel, assumed: ClockKind | null, zoneOffset: (zone: string) => number,
+  apparentMinutes: number, nuisances: readonly number[], state: SolarState, moon: MoonPosition | undefined, out: Float64Array,
+): void {
+  const sun = datedSunDirection(model, state, apparentMinutes, nuisances);
+  writeEvidenceResiduals(model, datedContextAt(model, assumed, zoneOffset, apparentMinutes, nuisances, state, sun, moon), out, 0);
+}
+
 /**
  * The dated point at an instant whose solar state is known (from a track, or from one exact
  * evaluation: stageB.ts exactPoint), the moon given or not.

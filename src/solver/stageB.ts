@@ -21,11 +21,12 @@ import type { ClockKind } from '../scene/types.js';
 import { covarianceFromJacobian } from '../math/leastSquares.js';
 import { sunPosition, type SunPosition, type SunSite } from '../ephemeris/sunPosition.js';
 import type { EvidenceModel } from './evidenceModel.js';
-import { splitChiSquare, longitudeOf } from './evidenceModel.js';
+import { splitChiSquare, longitudeOf, residualRowCount } from './evidenceModel.js';
 import {
   datedPoint,
   datedPointAt,
   hasMoonEvidence,
+  writeDatedResiduals,
   newDatedContext,
   refineDated,
   refineOnDay,
@@ -35,7 +36,7 @@ import {
   type DatedPoint,
 } from './fitting.js';
 import { instantOfSolarLongitude, longitudesOfDeclination, lowPrecisionSun, TROPICAL_YEAR_DAYS } from './seasons.js';
-import { flatParabola, parabola, solarStateOnTrack, type SunTrack } from './sunModel.js';
+import { flatParabola, parabola, solarStateOnTrack, type SolarState, type SunTrack } from './sunModel.js';
 import type { StageAMinimum } from './stageA.js';
 import { isDayAllowed, nearestDayJd0, type DayWindow } from './window.js';
 import { jdToCivilDay } from '../calendar/regions.js';
@@ -151,12 +152,38 @@ function exactSun(model: EvidenceModel, site: SunSite, dayJd0: number, minutes: 
  * datedPoint's operations, so the same numbers; no ephemeris call (a candidate's point is made again from its sun).
  */
 function pointOfExactSun(model: EvidenceModel, assumed: ClockKind | null, dayJd0: number, minutes: number, nuisances: readonly number[], sun: SunPosition): DatedPoint {
+  const { jdUT, state } = exactInstant(model, dayJd0, minutes, nuisances, sun);
+  return datedPointAt(model, assumed, zoneOffsetsAt(model, assumed, sun.jdUT), dayJd0, minutes, nuisances, jdUT, state, undefined);
+}
+
+/** The instant and solar state of pointOfExactSun's point. */
+function exactInstant(model: EvidenceModel, dayJd0: number, minutes: number, nuisances: readonly number[], sun: SunPosition): { jdUT: number; state: SolarState } {
   const approxJdUT = sun.jdUT;
   const guess = dayJd0 + minutes / 1440 - longitudeOf(model, nuisances) / 360;
   const jdUT = guess - flatParabola(sun.equationOfTimeMinutes, guess - approxJdUT) / 1440;
   const u = jdUT - approxJdUT;
-  const state = { declinationDeg: flatParabola(sun.declinationDeg, u), equationOfTimeMinutes: flatParabola(sun.equationOfTimeMinutes, u) };
-  return datedPointAt(model, assumed, zoneOffsetsAt(model, assumed, approxJdUT), dayJd0, minutes, nuisances, jdUT, state, undefined);
+  return { jdUT, state: { declinationDeg: flatParabola(sun.declinationDeg, u), equationOfTimeMinutes: flatParabola(sun.equationOfTimeMinutes, u) } };
+}
+
+/** An exact evaluation as stage B's yearly loop keeps it: the sun, the nuisances and the chi-square of pointOfExactSun's residuals. */
+interface ExactFit {
+  readonly sun: SunPosition;
+  readonly nuisances: readonly number[];
+  readonly chiSquare: number;
+  readonly penalty: number;
+  readonly objective: number;
+}
+
+/**
+ * exactPoint without the moon, reduced to an ExactFit: the residuals written into `rows` (a buffer of the
+ * model's row count) and summed by splitChiSquare, the same numbers as from the point, which is not made.
+ */
+function exactFit(model: EvidenceModel, assumed: ClockKind | null, site: SunSite, dayJd0: number, minutes: number, nuisances: readonly number[], equationOfTimeGuessMinutes: number, rows: Float64Array): ExactFit {
+  const sun = exactSun(model, site, dayJd0, minutes, nuisances, equationOfTimeGuessMinutes);
+  const { state } = exactInstant(model, dayJd0, minutes, nuisances, sun);
+  writeDatedResiduals(model, assumed, zoneOffsetsAt(model, assumed, sun.jdUT), minutes, nuisances, state, undefined, rows);
+  const s = splitChiSquare(model, rows);
+  return { sun, nuisances, chiSquare: s.chiSquare, penalty: s.penalty, objective: s.chiSquare + s.penalty };
 }
 
 /** A stage-B candidate's fields but its point. */
@@ -254,12 +281,6 @@ class StageBCandidate implements RawCandidate {
   get point(): DatedPoint {
     return (this.madePoint ??= pointOfExactSun(this.model, this.assumed, this.dayJd0, this.apparentMinutes, this.nuisances, this.sun));
   }
-}
-
-/** Chi-square plus the soft penalty of a residual vector (splitChiSquare's two sums, added). */
-function objectiveOf(model: EvidenceModel, r: readonly number[]): number {
-  const s = splitChiSquare(model, r);
-  return s.chiSquare + s.penalty;
 }
 
 /**
@@ -373,6 +394,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
   let ephemerisCalls = 0;
   const midJd = 0.5 * (win.firstDayJd0 + win.lastDayJd0);
   const obliquityDeg = lowPrecisionSun(midJd).obliquityDeg;
+  const rows = new Float64Array(residualRowCount(model)); // the residual rows of each exact evaluation (exactFit)
 
   minima.forEach((seed, seedIndex) => {
     const tracks: Track[] = longitudesOfDeclination(seed.declinationDeg, obliquityDeg).map((l) => ({
@@ -496,8 +518,7 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
         if (chosen === null) continue;
         let day = chosen.day;
         let rest = conditionalRest(c.x, rep.covariance, day);
-        let point: DatedPoint | undefined;
-        let sun: SunPosition | undefined;
+        let ex: ExactFit | undefined;
         let iterations = 0;
         let converged = true;
         let mapped = c.mapped;
@@ -505,11 +526,11 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
         let farMapped = false;
         if (c.mapped && chosen.far) {
           const m = mappedFarDay(c, day);
-          const ex = exactPoint(model, assumed, rep.context.site, day, m.rest[0], m.rest.slice(1), m.equationOfTimeMinutes, false);
+          const far = exactFit(model, assumed, rep.context.site, day, m.rest[0], m.rest.slice(1), m.equationOfTimeMinutes, rows);
           ephemerisCalls += 1;
           // Verified like the other mapped years: kept unless it fits worse than predicted by more than max(2, 20%).
-          if (objectiveOf(model, ex.point.residuals) <= m.objective + Math.max(2, 0.2 * m.objective)) {
-            ({ point, sun } = ex);
+          if (far.objective <= m.objective + Math.max(2, 0.2 * m.objective)) {
+            ex = far;
             rest = m.rest;
             farMapped = true;
             mappedYears += 1;
@@ -523,30 +544,28 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           iterations = rep.fit.iterations + onDay.iterations;
           converged = rep.fit.converged && onDay.converged;
           rest = onDay.x.slice(1);
-          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes, false));
+          ex = exactFit(model, assumed, rep.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes, rows);
           ephemerisCalls += 1;
           // Near a solstice the quadratic prediction can pick the wrong one of two neighbouring days: try the other.
           const other = day + (c.x[0] > day ? 1 : -1);
           if (!chosen.far && isDayAllowed(win, other)) {
             const alt = refineOnDay(rep.context, other, conditionalRest(c.x, rep.covariance, other));
-            const ex = exactPoint(model, assumed, rep.context.site, other, alt.x[1], alt.x.slice(2), alt.point.state.equationOfTimeMinutes, false);
+            const altEx = exactFit(model, assumed, rep.context.site, other, alt.x[1], alt.x.slice(2), alt.point.state.equationOfTimeMinutes, rows);
             ephemerisCalls += 1;
-            if (objectiveOf(model, ex.point.residuals) < objectiveOf(model, point.residuals)) {
+            if (altEx.objective < ex.objective) {
               day = other;
               rest = alt.x.slice(1);
-              point = ex.point;
-              sun = ex.sun;
+              ex = altEx;
               iterations += alt.iterations;
             }
           }
           if (c.mapped) mappedYears += 1;
         } else {
           mappedYears += 1;
-          ({ point, sun } = exactPoint(model, assumed, rep.context.site, day, rest[0], rest.slice(1), rep.fit.point.state.equationOfTimeMinutes, false));
+          ex = exactFit(model, assumed, rep.context.site, day, rest[0], rest.slice(1), rep.fit.point.state.equationOfTimeMinutes, rows);
           ephemerisCalls += 1;
           const predicted = c.objective + (cdd > 0 ? ((day - c.x[0]) * (day - c.x[0])) / cdd : 0);
-          const got = objectiveOf(model, point.residuals);
-          if (got > predicted + Math.max(2, 0.2 * predicted)) {
+          if (ex.objective > predicted + Math.max(2, 0.2 * predicted)) {
             // The mapping did not hold: refine this year in full.
             const own = fitCycle(k, c.x);
             reps.set(k, own);
@@ -562,12 +581,11 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
             rest = onDay.x.slice(1);
             iterations = own.fit.iterations + onDay.iterations;
             converged = own.fit.converged && onDay.converged;
-            ({ point, sun } = exactPoint(model, assumed, own.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes, false));
+            ex = exactFit(model, assumed, own.context.site, day, rest[0], rest.slice(1), onDay.point.state.equationOfTimeMinutes, rows);
             ephemerisCalls += 1;
           }
         }
-        if (!point || !sun) continue; // not reached: every branch above evaluates the candidate
-        const o = splitChiSquare(model, point.residuals);
+        if (!ex) continue; // not reached: every branch above evaluates the candidate
         out.push(new StageBCandidate({
           assumptionIndex,
           trackKey: track.key,
@@ -575,11 +593,11 @@ export function stageB(model: EvidenceModel, assumed: ClockKind | null, assumpti
           cycle: k,
           dayJd0: day,
           apparentMinutes: rest[0],
-          nuisances: point.nuisances, // the same numbers as rest.slice(1) in every branch above
-          sun,
-          chiSquare: o.chiSquare,
-          penalty: o.penalty,
-          objective: o.chiSquare + o.penalty,
+          nuisances: ex.nuisances, // the same numbers as rest.slice(1) in every branch above
+          sun: ex.sun,
+          chiSquare: ex.chiSquare,
+          penalty: ex.penalty,
+          objective: ex.objective,
           continuousDay: c.x[0],
           continuousMinutes: c.x[1],
           rep,
