@@ -6,6 +6,7 @@ import {
   civilDateToJd,
   findRegion,
   jdToCivilDate,
+  jdToCivilDayAndCalendar,
   loadReformTable,
   parseReformTable,
   parseCalendarRule,
@@ -179,5 +180,30 @@ describe('rules written by the user', () => {
     expect(yearStartInRegion(gb, 1700)).toBe('mar25-forward');
     expect(yearStartInRegion(gb, 1752)).toBe('jan1');
     expect(yearStartInRegion(findRegion('rome'), 1700)).toBeUndefined();
+  });
+});
+
+describe('jdToCivilDayAndCalendar', () => {
+  it("gives jdToCivilDate's civil day and date calendar on every day around the switches of Rome (1582), Sweden (1700-1712) and Great Britain (1752) (from the definition)", () => {
+    let unequal = 0;
+    let days = 0;
+    for (const [id, from, to] of [['rome', jul(1582, 9, 1), jul(1583, 1, 1)], ['sweden', jul(1699, 12, 1), jul(1713, 1, 1)], ['great-britain', jul(1752, 8, 1), jul(1753, 1, 1)]] as const) {
+      const rule = resolveCalendarRule(region(id));
+      for (let jd = from; jd < to; jd += 1) {
+        const answer = jdToCivilDate(rule, jd + 0.5);
+        const got = jdToCivilDayAndCalendar(rule, jd + 0.5);
+        days += 1;
+        if (got.year !== answer.civil.year || got.month !== answer.civil.month || got.day !== answer.civil.day || got.calendar !== answer.date.calendar) unequal += 1;
+      }
+    }
+    expect(days).toBeGreaterThan(5000);
+    expect(unequal).toBe(0);
+  });
+
+  describe('edge cases', () => {
+    it('names 30 February 1712 in Sweden, a Julian date (Brader 1996, IANA tz file `calendars`)', () => {
+      const jd = civilDateToJd(region('sweden'), { year: 1712, month: 2, day: 30 });
+      expect(jdToCivilDayAndCalendar(region('sweden'), jd + 0.5)).toEqual({ year: 1712, month: 2, day: 30, calendar: 'julian' });
+    });
   });
 });
