@@ -190,7 +190,7 @@ function exactFit(model: EvidenceModel, assumed: ClockKind | null, site: SunSite
 type StageBFields = Omit<RawCandidate, 'point' | 'moonRefined'>;
 
 /** Where each number of a StageBCandidate is kept in its one array of numbers. */
-const enum At { DayJd0, ApparentMinutes, ChiSquare, Penalty, Objective, SunJdUT, SunJdTT, SunAzimuth, SunAltitude, SunGeometricAltitude, SunDeclination, SunRightAscension, SunHourAngle, SunEquationOfTime, Count }
+const enum At { DayJd0, ApparentMinutes, ChiSquare, Penalty, Objective, SunJdUT, SunJdTT, SunAzimuth, SunAltitude, SunGeometricAltitude, SunDeclination, SunRightAscension, SunHourAngle, SunEquationOfTime }
 
 /**
  * A candidate of stage B, made for every year of the window (thousands in a long one) and most never
@@ -203,21 +203,27 @@ const enum At { DayJd0, ApparentMinutes, ChiSquare, Penalty, Objective, SunJdUT,
  * and point anew (continuousDay and continuousMinutes are plain fields, copied).
  */
 class StageBCandidate implements RawCandidate {
-  readonly assumptionIndex: number;
-  readonly trackKey: string;
-  readonly branch: 'rising' | 'falling' | 'solstice';
-  readonly cycle: number;
-  readonly nuisances: readonly number[];
-  readonly rep: RepresentativeFit;
-  readonly fit: { readonly converged: boolean; readonly iterations: number };
-  readonly mapped: boolean;
-  readonly atWindowEdge: boolean;
-  readonly continuousDay: number;
-  readonly continuousMinutes: number;
-  private readonly numbers: number[];
-  private madePoint: DatedPoint | undefined;
+  // Fields declared only (`declare`: nothing emitted) and set once in the constructor, as solveDates.ts
+  // KeptMember: emitted class fields would first hold undefined, and V8 would widen them.
+  declare readonly assumptionIndex: number;
+  declare readonly trackKey: string;
+  declare readonly branch: 'rising' | 'falling' | 'solstice';
+  declare readonly cycle: number;
+  declare readonly nuisances: readonly number[];
+  declare readonly rep: RepresentativeFit;
+  declare readonly fit: { readonly converged: boolean; readonly iterations: number };
+  declare readonly mapped: boolean;
+  declare readonly atWindowEdge: boolean;
+  declare readonly continuousDay: number;
+  declare readonly continuousMinutes: number;
+  private declare readonly model: EvidenceModel;
+  private declare readonly assumed: ClockKind | null;
+  private declare readonly numbers: number[];
+  private declare madePoint: DatedPoint | undefined;
 
-  constructor(f: StageBFields, private readonly model: EvidenceModel, private readonly assumed: ClockKind | null) {
+  constructor(f: StageBFields, model: EvidenceModel, assumed: ClockKind | null) {
+    this.model = model;
+    this.assumed = assumed;
     this.assumptionIndex = f.assumptionIndex;
     this.trackKey = f.trackKey;
     this.branch = f.branch;
@@ -230,22 +236,11 @@ class StageBCandidate implements RawCandidate {
     this.continuousDay = f.continuousDay;
     this.continuousMinutes = f.continuousMinutes;
     const sun = f.sun;
-    const n = new Array<number>(At.Count);
-    n[At.DayJd0] = f.dayJd0;
-    n[At.ApparentMinutes] = f.apparentMinutes;
-    n[At.ChiSquare] = f.chiSquare;
-    n[At.Penalty] = f.penalty;
-    n[At.Objective] = f.objective;
-    n[At.SunJdUT] = sun.jdUT;
-    n[At.SunJdTT] = sun.jdTT;
-    n[At.SunAzimuth] = sun.azimuthDeg;
-    n[At.SunAltitude] = sun.altitudeDeg;
-    n[At.SunGeometricAltitude] = sun.geometricAltitudeDeg;
-    n[At.SunDeclination] = sun.declinationDeg;
-    n[At.SunRightAscension] = sun.rightAscensionDeg;
-    n[At.SunHourAngle] = sun.hourAngleDeg;
-    n[At.SunEquationOfTime] = sun.equationOfTimeMinutes;
-    this.numbers = n;
+    // In the order of At (one literal: an array of unboxed numbers of its exact length).
+    this.numbers = [
+      f.dayJd0, f.apparentMinutes, f.chiSquare, f.penalty, f.objective,
+      sun.jdUT, sun.jdTT, sun.azimuthDeg, sun.altitudeDeg, sun.geometricAltitudeDeg, sun.declinationDeg, sun.rightAscensionDeg, sun.hourAngleDeg, sun.equationOfTimeMinutes,
+    ];
     this.madePoint = undefined;
   }
 
