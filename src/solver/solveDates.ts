@@ -214,15 +214,23 @@ class KeptMember implements FamilyMember {
 
 /** All families, best first (keepings of one light joined), before the maxFamilies cut. */
 function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
-  const groups = new Map<string, FamilyMember[]>();
+  // One group per track and calendar, in the order of their first members; found by track, then by
+  // calendar (no key string made for every kept candidate).
+  const groups: FamilyMember[][] = [];
+  const byTrack = new Map<string, Map<string, FamilyMember[]>>();
   for (const raw of s.kept) {
     const civil = jdToCivilDayAndCalendar(s.win.calendar, raw.dayJd0 + 0.5);
     const calendar = civil.calendar;
     const member = new KeptMember(s, raw, civil.year, civil.month, civil.day, calendar);
-    const key = `${raw.trackKey}|${calendar}`;
-    const group = groups.get(key);
+    let byCalendar = byTrack.get(raw.trackKey);
+    if (byCalendar === undefined) byTrack.set(raw.trackKey, (byCalendar = new Map()));
+    const group = byCalendar.get(calendar);
     if (group) group.push(member);
-    else groups.set(key, [member]);
+    else {
+      const started = [member];
+      byCalendar.set(calendar, started);
+      groups.push(started);
+    }
   }
   const ctx: FamilyContext = {
     fromYear: s.win.fromYear,
@@ -231,7 +239,7 @@ function familiesOf(s: Solved, perYear: boolean): CandidateFamily[] {
     judge: (chi, penalty) => judgeFit(s.model, chi, penalty),
     moonEvidence: hasMoonEvidence(s.model),
   };
-  return joinKeepings([...groups.values()]).map((list, i) => buildFamily(`f${i + 1}`, i + 1, list, ctx, perYear));
+  return joinKeepings(groups).map((list, i) => buildFamily(`f${i + 1}`, i + 1, list, ctx, perYear));
 }
 
 /** The solver's later stages in words, for progress shown to the user (the search's own: SEARCH_STAGE_WORDS). */
