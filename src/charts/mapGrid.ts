@@ -102,7 +102,10 @@ export interface ContourFinish {
 export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readonly ceiling: number }, contours?: ContourFinish): MapGrid {
   const cols = spec.dayJd0s.length;
   const rows = spec.minutes.length;
-  const values: number[][] = spec.minutes.map(() => spec.dayJd0s.map(() => NaN)); // packed arrays of doubles (quicker to read than holey ones)
+  // Every point starts unfinished (+Infinity) and is then finished or left so. Packed arrays of doubles (quicker to
+  // read than holey ones): one row made by map, the others copied from it (slice keeps the kind of elements).
+  const blank = spec.dayJd0s.map(() => Infinity);
+  const values: number[][] = spec.minutes.map(() => blank.slice());
   const tracks: SunTrack[] = [];
   let minimum = Infinity;
   let left = 0;
@@ -127,8 +130,8 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
   const lowerOut = new Float64Array(rowsOut.length);
   const refraction2 = 2 * largestRefractionDeg(model);
 
-  const leave = (j: number, i: number): void => {
-    values[j][i] = Infinity;
+  // Leaving a point unfinished writes nothing: it is +Infinity from the start.
+  const leave = (): void => {
     left += 1;
   };
   const factContext = (c: DatedContext, i: number, j: number) => {
@@ -162,7 +165,7 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
     if (v < minimum) minimum = v;
   };
   const point = (i: number, j: number): void => {
-    if (exceeds(i, j)) leave(j, i);
+    if (exceeds(i, j)) leave();
     else finish(i, j);
   };
 
@@ -227,7 +230,7 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
       if (rowLowerBounds(t.evidence, ctx.sun, t.wallAzimuthDeg, delta, rowsOut, lowerOut)) for (let k = 0; k < n; k += 1) bound += lowerOut[k] * lowerOut[k];
     }
     if (bound > ceiling) {
-      for (let i = i0; i < i1; i += 1) for (let j = j0; j < j1; j += 1) leave(j, i);
+      left += (i1 - i0) * (j1 - j0); // every point of the block stays +Infinity
       return;
     }
     // Where the bounded rows leave the centre itself under the ceiling, smaller blocks would seldom fare better.
