@@ -6,6 +6,22 @@
  * four corners. Cells with a non-finite corner are skipped.
  */
 
+/**
+ * The smallest value of a row, NaN when a value is NaN: Math.min(...row) for every comparison made
+ * with it here (it may differ in the sign of a zero only), without spreading the row into arguments,
+ * which boxes every double of it as a new heap number (garbage for the collector, a grid's worth per pass).
+ * @example rowMinimum([3, 1, Infinity]) // 1; rowMinimum([]) // Infinity; rowMinimum([1, NaN]) // NaN
+ */
+export function rowMinimum(row: readonly number[]): number {
+  let m = Infinity;
+  for (let i = 0; i < row.length; i += 1) {
+    const v = row[i];
+    if (v < m) m = v;
+    else if (v !== v) return NaN; // NaN: as Math.min
+  }
+  return m;
+}
+
 /** A field sampled at xs[i], ys[j]: values[j][i]. */
 export interface SampledField {
   readonly xs: readonly number[];
@@ -30,9 +46,7 @@ export function isolineSegments(field: SampledField, level: number): Segment[] {
   for (const row of values) {
     let a = -1;
     let b = -1;
-    // (Math.min is NaN when a value is: then the row is read.)
-    const none = Math.min(...row) > level;
-    for (let i = 0; !none && i < row.length; i += 1) {
+    for (let i = 0; i < row.length; i += 1) {
       if (row[i] > level) continue;
       if (a < 0) a = i;
       b = i;
@@ -130,7 +144,6 @@ export function runsAtOrBelow(values: readonly (readonly number[])[], level: num
   const out: { j: number; i0: number; i1: number }[] = [];
   for (let j = 0; j < values.length; j += 1) {
     const row = values[j];
-    if (Math.min(...row) > level) continue; // no cell of the row at or below the level (NaN: the row is read)
     let start = -1;
     for (let i = 0; i < row.length; i += 1) {
       if (row[i] <= level) {

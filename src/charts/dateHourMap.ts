@@ -9,7 +9,7 @@
  */
 import { formatMinutes } from '../time/clock.js';
 import { bottomAxis, clipPathFor, leftAxis, plotFrame, titleBlock, type PlotArea, type Tick } from './axes.js';
-import { cellRunsByClass, isolineSegments } from './contour.js';
+import { cellRunsByClass, isolineSegments, rowMinimum } from './contour.js';
 import type { DateHourMapData, MapMarker } from './dateHourMapData.js';
 import { CHART_STYLE, FIT_BANDS, INK, OKABE_ITO, OUTSIDE_BANDS_LABEL, fitBandIndex } from './palette.js';
 import { linearScale, niceTicks, type LinearScale } from './scale.js';
@@ -50,7 +50,7 @@ function bandCells(part: GridPart, x: LinearScale, y: LinearScale, prefix: strin
     part.minutes.length,
     part.dayOffsets.length,
     (j, i) => fitBandIndex(part.deltaChiSquare[j][i]),
-    (j) => Math.min(...part.deltaChiSquare[j]) > palest, // every cell of the row beyond the palest band
+    (j) => rowMinimum(part.deltaChiSquare[j]) > palest, // every cell of the row beyond the palest band
   );
   FIT_BANDS.forEach((band, b) => {
     const d = (runsByBand[b] ?? [])

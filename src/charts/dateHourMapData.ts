@@ -21,6 +21,7 @@ import { buildEvidenceModel, type EvidenceModel } from '../solver/evidenceModel.
 import { assumedClockOfCandidate, chiSquareOnDayMinuteGrid, nuisancesOfCandidate, type DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
 import { isLitByMoonAlone } from '../solver/moonSearch.js';
 import { mapGrid } from './mapGrid.js';
+import { rowMinimum } from './contour.js';
 import { FIT_BANDS } from './palette.js';
 import { ellipsePoints } from './ellipse.js';
 import { markedCandidates, type MarkedCandidate } from './markedCandidates.js';
@@ -254,8 +255,8 @@ function gridOf(model: EvidenceModel, spec: DayMinuteGridSpec, referenceBound: n
 }
 
 /** A row of values less the reference; a row wholly unfinished (+Infinity) stays so without a pass over it. */
-function deltaRow(row: readonly number[], reference: number): number[] {
-  if (Number.isFinite(reference) && Math.min(...row) === Infinity) return row.slice(); // (a packed array, as the other rows: quicker to read)
+function deltaRow(row: readonly number[], reference: number): readonly number[] {
+  if (Number.isFinite(reference) && rowMinimum(row) === Infinity) return row; // the grid's own row, read only (+Infinity less the reference is +Infinity)
   // A loop over a copy rather than map: no call per point (the same values, a packed array of doubles as the row is).
   const out = row.slice();
   for (let i = 0; i < out.length; i += 1) out[i] -= reference;

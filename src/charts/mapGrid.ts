@@ -38,6 +38,7 @@
 import { refractionDeg, NO_REFRACTION_BELOW_DEG } from '../ephemeris/refraction.js';
 import { evidenceResidualValues, type ShadowEvidence } from '../geometry/observationModels.js';
 import { isBoundedKind, rowLowerBounds } from './residualBounds.js';
+import { rowMinimum } from './contour.js';
 import { FACT_TOLERANCE_DEG, factResidual, longitudeOf, splitChiSquare, termEvidence, wallAzimuthOf, type EvidenceModel, type FactTerm } from '../solver/evidenceModel.js';
 import { datedPoint, datedSun, ensureTrack, newDatedContext, type DatedContext } from '../solver/fitting.js';
 import { instantOfApparentTime, solarStateOnTrack, type SunTrack } from '../solver/sunModel.js';
@@ -259,7 +260,7 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
     // The squares with a corner at or under the level (dateHourMapData.ts draws contours up to it); rows with none passed over.
     const reference = Math.min(minimum, contours.referenceBound);
     const low = (x: number): boolean => x - reference <= contours.level;
-    const rowLow = values.map((row) => low(Math.min(...row)));
+    const rowLow = values.map((row) => low(rowMinimum(row)));
     const cells: [number, number][] = [];
     for (let j = 0; j + 1 < rows; j += 1) {
       if (!rowLow[j] && !rowLow[j + 1]) continue;

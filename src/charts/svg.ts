@@ -26,10 +26,18 @@ export function num(x: number, digits = 1): string {
 }
 
 /**
+ * Text that escapeXml returns unchanged: tab, newline, carriage return and printable ASCII (U+0020 to U+007E, all
+ * allowed by XML 1.0 section 2.2) other than the five characters it escapes (& < > " ').
+ */
+const NOTHING_TO_ESCAPE = /^[\t\n\r\u0020\u0021\u0023-\u0025\u0028-\u003B\u003D\u003F-\u007E]*$/;
+
+/**
  * Text made safe inside XML or HTML content and attribute values.
  * @example escapeXml('Tanners\' Hall <north> & "south"') // "Tanners&#39; Hall &lt;north&gt; &amp; &quot;south&quot;"
  */
 export function escapeXml(text: string): string {
+  // Most text written (path data, numbers, class names) has nothing to drop or escape: returned as it is after one scan.
+  if (NOTHING_TO_ESCAPE.test(text)) return text;
   // XML 1.0 section 2.2: only tab, newline, carriage return and U+0020 and above (no lone surrogates, no U+FFFE/FFFF)
   const clean = text.replace(/[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu, '');
   return clean.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');

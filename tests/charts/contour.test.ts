@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { cellRuns, cellRunsByClass, isolineSegments, runsAtOrBelow } from '../../src/charts/contour.js';
+import { cellRuns, cellRunsByClass, isolineSegments, rowMinimum, runsAtOrBelow } from '../../src/charts/contour.js';
 import { ellipsePoints, semiAxisVectors } from '../../src/charts/ellipse.js';
 import { expectClose } from '../helpers/expectClose.js';
 
@@ -159,5 +159,24 @@ describe('runsAtOrBelow', () => {
       }),
       { numRuns: 3000 },
     );
+  });
+});
+
+describe('rowMinimum', () => {
+  // Source: ECMA-262, Math.min (NaN when any argument is NaN; +Infinity with none).
+  it('compares with any level as Math.min(...row) does, NaN and infinities included', () => {
+    const rows: number[][] = [[], [Infinity, Infinity], [3, 1, Infinity], [1, NaN, 0], [NaN], [-0, 0], [0, -0], [-Infinity, 5], [2.5, 2.5000000001], [Infinity, NaN]];
+    for (let k = 0; k < 200; k += 1) rows.push(Array.from({ length: 1 + (k % 37) }, (_, i) => ((k * 7919 + i * 104729) % 1000) / 37 - 5));
+    for (const row of rows) {
+      const m = Math.min(...row);
+      const r = rowMinimum(row);
+      expect(Number.isNaN(r)).toBe(Number.isNaN(m));
+      if (!Number.isNaN(m)) expect(r === m).toBe(true); // the same value (a zero's sign aside)
+      for (const level of [-Infinity, -1, 0, 1, 2.5, 11.829, Infinity]) {
+        expect(r > level).toBe(m > level);
+        expect(r <= level).toBe(m <= level);
+        expect(r === level).toBe(m === level);
+      }
+    }
   });
 });

@@ -40,6 +40,22 @@ describe('escapeXml', () => {
     expect(escapeXml('a\u0000b\u0007c\td\ne')).toBe('abc\td\ne');
     expect(escapeXml('Z\u00fcrich \u{1F31E}')).toBe('Z\u00fcrich \u{1F31E}');
   });
+  it('gives every character from U+0000 to U+00FF, alone and in text, as the full replacements do (XML 1.0, sections 2.2 and 2.4)', () => {
+    // The replacements escapeXml made before it returned text with nothing to escape unchanged (common practice: a fast path checked against the slow one).
+    const slow = (t: string): string =>
+      t
+        .replace(/[^\t\n\r\u0020-\uD7FF\uE000-\uFFFD\u{10000}-\u{10FFFF}]/gu, '')
+        .replace(/&/g, '&amp;')
+        .replace(/</g, '&lt;')
+        .replace(/>/g, '&gt;')
+        .replace(/"/g, '&quot;')
+        .replace(/'/g, '&#39;');
+    for (let c = 0; c <= 0xff; c += 1) {
+      const ch = String.fromCharCode(c);
+      for (const t of [ch, `M1.5 2L3 4${ch}`, `${ch}hc-band hc-band-0`]) expect(escapeXml(t)).toBe(slow(t));
+    }
+    for (const t of ['', 'M62 400H602V60Z', 'url(#hc-map-clip)', 'a\uFFFEb', '\uD800x', '\u{1F31E}', 'x y;z:1%']) expect(escapeXml(t)).toBe(slow(t));
+  });
 });
 
 describe('elements', () => {
