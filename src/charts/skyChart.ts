@@ -120,13 +120,26 @@ function bandMarks(band: SkyBand, index: number, x: LinearScale, y: LinearScale)
   // style, larger than the mark, shows where it lies.
   let ring = '';
   if (runs.length > 0) {
-    const xs = runs.flatMap((r) => [x(band.azimuths[r.i0] - da / 2), x(band.azimuths[r.i1 - 1] + da / 2)]);
-    const ys = runs.flatMap((r) => [y(band.altitudes[r.j] + dh / 2), y(band.altitudes[r.j] - dh / 2)]);
-    const w = Math.max(...xs) - Math.min(...xs);
-    const h = Math.max(...ys) - Math.min(...ys);
+    // The runs' extent on the page, in loops (a spread of thousands of numbers makes as many heap numbers).
+    let xLo = Infinity;
+    let xHi = -Infinity;
+    let yLo = Infinity;
+    let yHi = -Infinity;
+    for (const r of runs) {
+      for (const v of [x(band.azimuths[r.i0] - da / 2), x(band.azimuths[r.i1 - 1] + da / 2)]) {
+        xLo = Math.min(xLo, v);
+        xHi = Math.max(xHi, v);
+      }
+      for (const v of [y(band.altitudes[r.j] + dh / 2), y(band.altitudes[r.j] - dh / 2)]) {
+        yLo = Math.min(yLo, v);
+        yHi = Math.max(yHi, v);
+      }
+    }
+    const w = xHi - xLo;
+    const h = yHi - yLo;
     if (w < SPOT_SIZE && h < SPOT_SIZE) {
-      const cx = (Math.max(...xs) + Math.min(...xs)) / 2;
-      const cy = (Math.max(...ys) + Math.min(...ys)) / 2;
+      const cx = (xHi + xLo) / 2;
+      const cy = (yHi + yLo) / 2;
       ring = el('circle', { cx, cy, r: Math.max(10, Math.hypot(w, h) / 2 + 6), fill: 'none', stroke: style.color, 'stroke-width': 1.8, 'stroke-dasharray': style.dash, class: 'hc-sky-band-spot', 'data-observation': band.observationId });
     }
   }
