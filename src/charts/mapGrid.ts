@@ -36,13 +36,13 @@
  * example and on random scenes.
  */
 import { refractionDeg, NO_REFRACTION_BELOW_DEG } from '../ephemeris/refraction.js';
-import { evidenceResidualValues, type ShadowEvidence } from '../geometry/observationModels.js';
+import { evidenceResidualValues } from '../geometry/observationModels.js';
 import { isBoundedKind, rowLowerBounds } from './residualBounds.js';
 import { rowMinimum } from './contour.js';
-import { FACT_TOLERANCE_DEG, factResidual, longitudeOf, splitChiSquare, termEvidence, wallAzimuthOf, type EvidenceModel, type FactTerm } from '../solver/evidenceModel.js';
+import { FACT_TOLERANCE_DEG, factResidual, longitudeOf, splitChiSquare, type EvidenceModel, type FactTerm } from '../solver/evidenceModel.js';
 import { datedPoint, datedSun, ensureTrack, newDatedContext, type DatedContext } from '../solver/fitting.js';
 import { instantOfApparentTime, solarStateOnTrack, type SunTrack } from '../solver/sunModel.js';
-import type { DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
+import { exceedsAtContext, rowsBufferFor, shadowTermsAt, type DayMinuteGridSpec } from '../solver/chiSquareGrid.js';
 
 /** Blocks of at most this many points are tested point by point. */
 const SMALL_BLOCK = 6;
@@ -63,12 +63,6 @@ function isAngleFact(f: FactTerm): boolean {
 function largestRefractionDeg(model: EvidenceModel): number {
   const air = model.scene.air;
   return Math.max(Math.abs(refractionDeg(NO_REFRACTION_BELOW_DEG, air)), Math.abs(refractionDeg(90, air)));
-}
-
-/** A shadow term's evidence and wall azimuth at fixed nuisances (the sun's shadows only). */
-interface ShadowAt {
-  readonly evidence: ShadowEvidence;
-  readonly wallAzimuthDeg: number;
 }
 
 /** The grid of the map: values[j][i] at minutes[j] of day column i, +Infinity where left unfinished. */
@@ -123,11 +117,9 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
     contexts.push(last !== undefined && last.track === walker.track ? last : newDatedContext(model, spec.assumedClock, walker.track.anchorJdUT, true, walker.track));
   }
   const angleFacts = model.facts.filter(isAngleFact);
-  const shadows: ShadowAt[] = model.shadows
-    .filter((t) => t.light !== 'moon') // a shadow of the moon is left out: the partial sum stays a lower bound
-    .map((t) => ({ evidence: termEvidence(model, t, nuisances), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, nuisances) }));
+  const shadows = shadowTermsAt(model, nuisances); // the sun's shadows: the partial sums stay lower bounds
   const boundable = angleFacts.length > 0 || shadows.some((t) => isBoundedKind(t.evidence.kind));
-  const rowsOut = new Float64Array(Math.max(8, model.measuredCount));
+  const rowsOut = rowsBufferFor(model);
   const lowerOut = new Float64Array(rowsOut.length);
   const refraction2 = 2 * largestRefractionDeg(model);
 
@@ -137,26 +129,11 @@ export function mapGrid(model: EvidenceModel, spec: DayMinuteGridSpec & { readon
   };
   const factContext = (c: DatedContext, i: number, j: number) => {
     const { state, sun } = datedSun(c, dayJd0s[i], minutes[j], nuisances);
-    return { sun, nuisances, apparentMinutes: minutes[j], equationOfTimeMinutes: state.equationOfTimeMinutes, assumedClock: c.assumed, zoneOffsetMinutes: c.zoneOffset };
+    return { sun, nuisances, apparentMinutes: minutes[j], equationOfTimeMinutes: state.equationOfTimeMinutes, assumedClock: c.assumed, zoneOffsetMinutes: c.zoneOffset, moon: undefined };
   };
 
   /** The solver grid's test of one point: true when its value certainly exceeds the ceiling (partial sums). */
-  const exceeds = (i: number, j: number): boolean => {
-    const ctx = factContext(contexts[i], i, j);
-    let penalty = 0;
-    for (const f of model.facts) {
-      const r = factResidual(model, f, ctx);
-      penalty += r * r;
-      if (penalty > ceiling) return true;
-    }
-    let sum = 0;
-    for (const s of shadows) {
-      const n = evidenceResidualValues(s.evidence, ctx.sun, s.wallAzimuthDeg, rowsOut, 0);
-      for (let k = 0; k < n; k += 1) sum += rowsOut[k] * rowsOut[k];
-      if (sum > ceiling) return true;
-    }
-    return false;
-  };
+  const exceeds = (i: number, j: number): boolean => exceedsAtContext(model, factContext(contexts[i], i, j), shadows, ceiling, rowsOut);
 
   /** chi-square + penalty of the dated model, as the solver's grid values a point (chiSquareGrid.ts valueAt). */
   const finish = (i: number, j: number): void => {

@@ -13,7 +13,7 @@
  */
 import type { ClockKind } from '../scene/types.js';
 import type { Candidate } from './types.js';
-import { evidenceResiduals, type ShadowEvidence } from '../geometry/observationModels.js';
+import { evidenceResidualValues, type ShadowEvidence } from '../geometry/observationModels.js';
 import { factResidual, longitudeOf, splitChiSquare, termEvidence, wallAzimuthOf, type EvaluationContext, type EvidenceModel } from './evidenceModel.js';
 import { datedPoint, datedSun, ensureTrack, newDatedContext, type DatedContext } from './fitting.js';
 import type { SunTrack } from './sunModel.js';
@@ -66,6 +66,7 @@ export function chiSquareOnDayMinuteGrid(model: EvidenceModel, spec: DayMinuteGr
   const context = newDatedContext(model, spec.assumedClock, spec.dayJd0s[0] + 0.5 - lon / 360);
   const ceiling = spec.ceiling;
   const shadows = shadowTermsAt(model, spec.nuisances);
+  const rowsOut = rowsBufferFor(model);
   spec.dayJd0s.forEach((dayJd0, i) => {
     ensureTrack(context, dayJd0 + 0.5 - lon / 360);
     tracks.push(context.track);
@@ -73,7 +74,7 @@ export function chiSquareOnDayMinuteGrid(model: EvidenceModel, spec: DayMinuteGr
     spec.minutes.forEach((m, j) => {
       evaluations += 1;
       // Next to a point under the ceiling the test would most likely fail and its work be done twice: skipped there.
-      if (ceiling !== undefined && !belowBefore && exceedsCeiling(context, shadows, dayJd0, m, spec.nuisances, ceiling)) {
+      if (ceiling !== undefined && !belowBefore && exceedsCeiling(context, shadows, dayJd0, m, spec.nuisances, ceiling, rowsOut)) {
         values[j][i] = Infinity;
         unfinished.push([j, i]);
         return;
@@ -95,13 +96,9 @@ function valueAt(context: DatedContext, dayJd0: number, minutes: number, nuisanc
 }
 
 /**
- * True when the point's chi-square + penalty is certainly above the ceiling, judged from a part
- * of its residual rows summed in the order splitChiSquare sums them: first the soft penalties of
- * the facts (cheap; large wherever the sun is down or a wall whose shadow is measured is in
- * shade), then the shadows' rows, which open the measured chi-square.
+ * True when the point's chi-square + penalty is certainly above the ceiling (exceedsAtContext).
  */
-function exceedsCeiling(context: DatedContext, shadows: readonly ShadowTermAt[], dayJd0: number, minutes: number, nuisances: readonly number[], ceiling: number): boolean {
-  const model = context.model;
+function exceedsCeiling(context: DatedContext, shadows: readonly ShadowTermAt[], dayJd0: number, minutes: number, nuisances: readonly number[], ceiling: number, rowsOut: Float64Array): boolean {
   const { state, sun } = datedSun(context, dayJd0, minutes, nuisances);
   const ctx: EvaluationContext = {
     sun,
@@ -112,6 +109,17 @@ function exceedsCeiling(context: DatedContext, shadows: readonly ShadowTermAt[],
     zoneOffsetMinutes: context.zoneOffset,
     moon: undefined, // the shape of datedPoint's context (src/solver/fitting.ts)
   };
+  return exceedsAtContext(context.model, ctx, shadows, ceiling, rowsOut);
+}
+
+/**
+ * True when a point's chi-square + penalty is certainly above the ceiling, judged from a part of
+ * its residual rows summed in the order splitChiSquare sums them: first the soft penalties of the
+ * facts (cheap; large wherever the sun is down or a wall whose shadow is measured is in shade), then
+ * the shadows' rows, which open the measured chi-square. `rowsOut` holds one shadow's rows
+ * (rowsBufferFor); the solver's grid and the report's map (src/charts/mapGrid.ts) both test with it.
+ */
+export function exceedsAtContext(model: EvidenceModel, ctx: EvaluationContext, shadows: readonly ShadowTermAt[], ceiling: number, rowsOut: Float64Array): boolean {
   let penalty = 0;
   for (const f of model.facts) {
     const r = factResidual(model, f, ctx);
@@ -120,20 +128,26 @@ function exceedsCeiling(context: DatedContext, shadows: readonly ShadowTermAt[],
   }
   let sum = 0;
   for (const t of shadows) {
-    const r = evidenceResiduals(t.evidence, sun, t.wallAzimuthDeg).residuals;
-    for (const v of r) sum += v * v;
+    const n = evidenceResidualValues(t.evidence, ctx.sun, t.wallAzimuthDeg, rowsOut, 0);
+    for (let k = 0; k < n; k += 1) sum += rowsOut[k] * rowsOut[k];
     if (sum > ceiling) return true;
   }
   return false;
 }
 
+/** Room for the rows of any one shadow of the model (none has more rows than the model's measured values). */
+export function rowsBufferFor(model: EvidenceModel): Float64Array {
+  return new Float64Array(Math.max(8, model.measuredCount));
+}
+
 /** A shadow term's evidence and wall azimuth at fixed nuisances, as evidenceResidualVector takes them. */
-interface ShadowTermAt {
+export interface ShadowTermAt {
   readonly evidence: ShadowEvidence;
   readonly wallAzimuthDeg: number;
 }
 
-function shadowTermsAt(model: EvidenceModel, nuisances: readonly number[]): ShadowTermAt[] {
+/** The sun's shadows of the model at fixed nuisances. */
+export function shadowTermsAt(model: EvidenceModel, nuisances: readonly number[]): ShadowTermAt[] {
   // The sun's shadows only: a shadow cast by moonlight is taken against the moon (evidenceModel.ts lightDirectionOf),
   // which this quick test does not evaluate; leaving its rows out keeps the partial sum a lower bound.
   return model.shadows.filter((t) => t.light !== 'moon').map((t) => ({ evidence: termEvidence(model, t, nuisances), wallAzimuthDeg: wallAzimuthOf(model, t.wallId, nuisances) }));
