@@ -115,16 +115,25 @@ export function sunPosition(jdUT: number, site: SunSite, air?: Air | 'none', opt
   if (!(Number.isFinite(geometricAltitudeDeg) && Number.isFinite(sun.azimuthDeg) && Number.isFinite(sun.raHours) && Number.isFinite(sun.geocentricRaHours))) {
     return sunPositionByEngine(jdUT, site, air, options);
   }
+  return sunPositionOf(jdUT, sun.jdTT, sun.azimuthDeg, geometricAltitudeDeg, sun.decDeg, sun.raHours, sun.gastHours, sun.geocentricRaHours, longitudeDeg, air);
+}
+
+/**
+ * The SunPosition of the sun's topocentric place (RA in hours, dec and horizon in degrees), the
+ * apparent sidereal time and the geocentric RA: refraction added, the local hour angle
+ * H = GAST + longitude - RA (Meeus 1998, eq. 13.1 with east longitude positive), and the equation of time.
+ */
+function sunPositionOf(jdUT: number, jdTT: number, azimuthDeg: number, geometricAltitudeDeg: number, decDeg: number, raHours: number, gastHours: number, geocentricRaHours: number, longitudeDeg: number, air: Air | 'none' | undefined): SunPosition {
   return {
     jdUT,
-    jdTT: sun.jdTT,
-    azimuthDeg: sun.azimuthDeg,
+    jdTT,
+    azimuthDeg,
     altitudeDeg: geometricAltitudeDeg + refractionDeg(geometricAltitudeDeg, air),
     geometricAltitudeDeg,
-    declinationDeg: sun.decDeg,
-    rightAscensionDeg: sun.raHours * 15,
-    hourAngleDeg: normalizeDeg180(15 * sun.gastHours + longitudeDeg - 15 * sun.raHours),
-    equationOfTimeMinutes: equationOfTimeFromRaMinutes(jdUT, sun.gastHours, sun.geocentricRaHours),
+    declinationDeg: decDeg,
+    rightAscensionDeg: raHours * 15,
+    hourAngleDeg: normalizeDeg180(15 * gastHours + longitudeDeg - 15 * raHours),
+    equationOfTimeMinutes: equationOfTimeFromRaMinutes(jdUT, gastHours, geocentricRaHours),
   };
 }
 
@@ -145,19 +154,6 @@ function sunPositionInForce(jdUT: number, site: SunSite, air: Air | 'none' | und
   const seen = options?.topocentric !== false ? topocentricOfDate(geo, time, observer) : geo;
   const eq = EquatorFromVector(seen);
   const hor = Horizon(time, observer, eq.ra, eq.dec, undefined);
-  const gastHours = SiderealTime(time);
-  const geometricAltitudeDeg = hor.altitude;
-  const altitudeDeg = geometricAltitudeDeg + refractionDeg(geometricAltitudeDeg, air);
   const geoRaHours = seen === geo ? eq.ra : EquatorFromVector(geo).ra;
-  return {
-    jdUT,
-    jdTT: time.tt + 2451545.0,
-    azimuthDeg: hor.azimuth,
-    altitudeDeg,
-    geometricAltitudeDeg,
-    declinationDeg: eq.dec,
-    rightAscensionDeg: eq.ra * 15,
-    hourAngleDeg: normalizeDeg180(15 * gastHours + site.longitudeDeg - 15 * eq.ra),
-    equationOfTimeMinutes: equationOfTimeFromRaMinutes(jdUT, gastHours, geoRaHours),
-  };
+  return sunPositionOf(jdUT, time.tt + 2451545.0, hor.azimuth, hor.altitude, eq.dec, eq.ra, SiderealTime(time), geoRaHours, site.longitudeDeg, air);
 }
