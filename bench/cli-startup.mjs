@@ -19,7 +19,6 @@
 import { spawnSync } from 'node:child_process';
 import { existsSync, mkdtempSync, readFileSync, rmSync } from 'node:fs';
 import { tmpdir, loadavg, cpus } from 'node:os';
-import { createRequire } from 'node:module';
 import { dirname, join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { performance } from 'node:perf_hooks';
@@ -47,11 +46,13 @@ const beforeBin = beforeRoot === null ? null : `${beforeRoot}${JSON.parse(readFi
 const hasBeforeBin = beforeBin !== null && existsSync(beforeBin);
 // Whether V8 takes the code cache that the bin gives each command (src/cli/bin.ts; made by npm run build, not by the tests' set-up).
 const binFolder = dirname(bin);
+// Each in a fresh process: loading the program sets V8 flags for the command (src/cli/bin.ts, tierUpFlags).
 const cacheWords = (args) => {
-  const { cachedDataFor, loadProgram } = createRequire(import.meta.url)(bin);
-  const data = cachedDataFor(binFolder, args);
-  if (data === undefined) return 'none (run npm run build to make the code caches)';
-  return loadProgram(binFolder, data).script.cachedDataRejected ? 'rejected by this Node' : 'taken';
+  const script =
+    `const b = require(${JSON.stringify(bin)}); const d = b.cachedDataFor(${JSON.stringify(binFolder)}, ${JSON.stringify(args)});` +
+    `console.log(d === undefined ? 'none' : b.loadProgram(${JSON.stringify(binFolder)}, d, ${JSON.stringify(args[0])}).script.cachedDataRejected ? 'rejected' : 'taken');`;
+  const answer = spawnSync(process.execPath, ['-e', script], { encoding: 'utf8' }).stdout.trim();
+  return { none: 'none (run npm run build to make the code caches)', rejected: 'rejected by this Node', taken: 'taken' }[answer] ?? `not known (${answer})`;
 };
 const out = mkdtempSync(join(tmpdir(), 'heliochron-startup-'));
 const example = `${root}examples/marktgasse-print.yaml`;

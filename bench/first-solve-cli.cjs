@@ -1,13 +1,13 @@
 #!/usr/bin/env node
 /**
- * The first `heliochron date` of a fresh process against the warm one, as the command-line user meets
+ * The first `heliochron date` of a fresh process against the warm and the settled ones, as the command-line user meets
  * it (issue: speed; part 3 of bench/solver-growth.mjs runs this child): the bundled program
  * (dist/bin/program.js) is loaded the way the bin loads it (src/cli/bin.ts: loadProgram with the code
  * cache of `date`), then `date examples/marktgasse-print.yaml --json` runs in this process once (the
- * first run: what a user's command does after the load), five times more to warm up, and seven times
- * measured (the warm runs, medians). Output is kept in memory, not printed.
+ * first run: what a user's command does after the load), then 40 times more: the warm runs are the 6th
+ * to 12th, the settled runs the last 10 (medians). Output is kept in memory, not printed.
  *   node bench/first-solve-cli.cjs [<checkout>]      (default: this checkout; needs `node src/cli/build.mjs`)
- * Prints one JSON line: load (ms), whether V8 rejected the code cache, and for the first and the warm
+ * Prints one JSON line: load (ms), whether V8 rejected the code cache, and for the first, the warm and the settled
  * runs: elapsed ms, CPU ms of the process (every thread: the optimising compiler and the garbage
  * collector's helpers run beside the main thread) and CPU ms of the main thread alone (Linux only,
  * from /proc/self/task/<pid>/schedstat; null elsewhere).
@@ -41,7 +41,7 @@ async function measure() {
   now();
   const { loadProgram, cachedDataFor } = require(join(folder, 'heliochron.cjs'));
   const t0 = now();
-  const { program, script } = loadProgram(folder, cachedDataFor(folder, ARGS));
+  const { program, script } = loadProgram(folder, cachedDataFor(folder, ARGS), ARGS[0]);
   const load = now() - t0;
   let errors = '';
   const io = { out: () => undefined, err: (t) => { errors += t; }, errIsTerminal: false, cwd: checkout };
@@ -53,16 +53,16 @@ async function measure() {
     return result;
   };
   const first = await run();
-  for (let i = 0; i < 5; i += 1) await run();
-  const warm = [];
-  for (let i = 0; i < 7; i += 1) warm.push(await run());
-  const med = (k) => median(warm.map((r) => r[k]));
+  // 40 more: `warm` is the median of the 6th to 12th runs, `settled` of the last 10 (the code once V8 has optimised it).
+  const more = [];
+  for (let i = 0; i < 40; i += 1) more.push(await run());
+  const med = (k, from, to) => median(more.slice(from, to).map((r) => r[k]));
   console.log(JSON.stringify({
     load,
     cacheRejected: script.cachedDataRejected === true,
-    first: first.wall, warm: med('wall'),
-    firstCpu: first.cpu, warmCpu: med('cpu'),
-    firstMain: orNull(first.main), warmMain: orNull(med('main')),
+    first: first.wall, warm: med('wall', 5, 12), settled: med('wall', 30),
+    firstCpu: first.cpu, warmCpu: med('cpu', 5, 12), settledCpu: med('cpu', 30),
+    firstMain: orNull(first.main), warmMain: orNull(med('main', 5, 12)), settledMain: orNull(med('main', 30)),
   }));
 }
 

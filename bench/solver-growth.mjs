@@ -15,8 +15,11 @@
  *    time is judged; the CPU time of the process (garbage collection on helper threads included) is
  *    printed beside it, less moved by other work on the machine. With --before <checkout>, that
  *    checkout's solver (its dist) is timed in the same rounds, the two alternating, and both printed.
- * 3. the first solve in a fresh process against the warm solve of the same scene (the 500-year
- *    bench scene of bench/solver-window.mjs; medians of --runs fresh processes, 7 unless given). Target <= 3x.
+ * 3. the first solve in a fresh process against the settled solve of the same scene in that process
+ *    (the 500-year bench scene of bench/solver-window.mjs; each process solves it 41 times: the first,
+ *    then `warm`, the median of the 6th to 12th, and `settled`, the median of the last 10, once V8 has
+ *    optimised the hot code; medians of --runs fresh processes, 7 unless given). Target <= 3x, judged
+ *    against the settled solve; the warm ratio is printed beside it.
  *    Beside elapsed time, CPU time of the process (every thread: V8's optimising compiler and the
  *    garbage collector's helpers run beside the main thread) and of the main thread alone (Linux).
  *    Then the same as the command-line user meets it (bench/first-solve-cli.cjs): the bundled program
@@ -114,11 +117,12 @@ if (args.has('--child-first')) {
   const firstMain = mainThreadMs() - m0;
   const firstCpu = cpuMs(process.cpuUsage(c0));
   const first = performance.now() - t0;
-  for (let i = 0; i < 5; i += 1) solveDates(benchScene, { consistency: false });
+  // Then 40 more: `warm` is the median of the 6th to 12th (as a few runs in one process meet it),
+  // `settled` of the last 10 (the code as V8 leaves it once every hot function is optimised).
   const ts = [];
   const cs = [];
   const ms = [];
-  for (let i = 0; i < 7; i += 1) {
+  for (let i = 0; i < 40; i += 1) {
     const t = performance.now();
     const c = process.cpuUsage();
     const m = mainThreadMs();
@@ -128,7 +132,13 @@ if (args.has('--child-first')) {
     ts.push(performance.now() - t);
   }
   const orNull = (x) => (Number.isFinite(x) ? x : null);
-  console.log(JSON.stringify({ first, warm: median(ts), firstCpu, warmCpu: median(cs), firstMain: orNull(firstMain), warmMain: orNull(median(ms)) }));
+  const warmOf = (xs) => median(xs.slice(5, 12));
+  const settledOf = (xs) => median(xs.slice(30));
+  console.log(JSON.stringify({
+    first, warm: warmOf(ts), settled: settledOf(ts),
+    firstCpu, warmCpu: warmOf(cs), settledCpu: settledOf(cs),
+    firstMain: orNull(firstMain), warmMain: orNull(warmOf(ms)), settledMain: orNull(settledOf(ms)),
+  }));
   process.exit(0);
 }
 if (args.has('--child-memory')) {
@@ -220,7 +230,7 @@ if (parts.has(3)) ({ first, warm } = firstSolvePart());
  * child, and bench/first-solve-cli.cjs its bundle, each alternating with this checkout's.
  */
 function firstSolvePart() {
-  console.log(`3. First solve in a fresh process against the warm solve (bench/solver-window.mjs scene, 500 years, leave-one-out off); target <= 3x`);
+  console.log(`3. First solve in a fresh process against the settled solve (bench/solver-window.mjs scene, 500 years, leave-one-out off); target <= 3x`);
   const beforeAt = process.argv.indexOf('--before');
   const beforeRoot = beforeAt > 0 ? process.argv[beforeAt + 1].replace(/\/$/, '') : null;
   const beforeScript = beforeRoot ? `${beforeRoot}/bench/solver-growth.mjs` : null;
@@ -244,20 +254,25 @@ function firstSolvePart() {
     cli.push(child([cliChild, root]));
     if (beforeRoot && existsSync(`${beforeRoot}/dist/bin/program.js`)) cliBefore.push(child([cliChild, beforeRoot]));
   }
-  const ratioWords = (a, b) => `first ${a.toFixed(0)} ms, warm ${b.toFixed(1)} ms: ${(a / b).toFixed(1)}x`;
+  const ratioWords = (a, b, name = 'warm') => `first ${a.toFixed(0)} ms, ${name} ${b.toFixed(1)} ms: ${(a / b).toFixed(1)}x`;
+  // The target is judged against the settled solve (the code once V8 has optimised it); an older child
+  // (--before) without one is judged against its warm solve.
   const firstLine = (list) => {
     const m = (k) => median(list.map((f) => f[k]));
+    const has = (k) => list.every((f) => typeof f[k] === 'number');
     const first = m('first');
-    const warm = m('warm');
-    const main = list.every((f) => typeof f.firstMain === 'number' && typeof f.warmMain === 'number')
-      ? `; main thread's CPU ${ratioWords(m('firstMain'), m('warmMain'))}`
+    const warm = has('settled') ? m('settled') : m('warm');
+    const name = has('settled') ? 'settled' : 'warm';
+    const main = has('firstMain') && has(name === 'settled' ? 'settledMain' : 'warmMain')
+      ? `; main thread's CPU ${ratioWords(m('firstMain'), m(`${name}Main`), name)}`
       : '';
     return {
       first,
       warm,
       words:
-        `elapsed ${ratioWords(first, warm)}   target <= 3x   ${first / warm <= 3 ? 'met' : 'NOT met'} (medians of ${list.length} fresh processes)\n` +
-        `      CPU of every thread (compiler and garbage collector included) ${ratioWords(m('firstCpu'), m('warmCpu'))}${main}`,
+        `elapsed ${ratioWords(first, warm, name)}   target <= 3x   ${first / warm <= 3 ? 'met' : 'NOT met'} (medians of ${list.length} fresh processes)\n` +
+        (name === 'settled' ? `      against the 6th to 12th solves of the process (warm ${m('warm').toFixed(1)} ms): ${(first / m('warm')).toFixed(1)}x\n` : '') +
+        `      CPU of every thread (compiler and garbage collector included) ${ratioWords(m('firstCpu'), m(`${name}Cpu`), name)}${main}`,
     };
   };
   const mine = firstLine(lib);

@@ -48,8 +48,11 @@ export interface LoadedProgram {
  * (exports, require, module, programUrl); programUrl stands for the program's own `import.meta.url`
  * (the bundle is built with `import.meta.url` defined as that name), so that the files it reads
  * relative to itself (../../package.json, ../../dist/desk-page/) are found as from dist/cli/main.js.
+ * `command` is the run's command (its first argument): it sets V8's tier-up budget (tierUpFlags).
  */
-export function loadProgram(folder: string, cachedData: Buffer | undefined): LoadedProgram {
+export function loadProgram(folder: string, cachedData: Buffer | undefined, command: string | undefined): LoadedProgram {
+  const flags = tierUpFlags(process.versions.v8, command);
+  if (flags !== null) (require('node:v8') as typeof import('node:v8')).setFlagsFromString(flags);
   const file = join(folder, PROGRAM_FILE);
   // ASCII text (src/cli/build.mjs checks it), so Latin-1 reads the same string, and faster than UTF-8.
   const script = new Script(readFileSync(file, 'latin1'), { filename: file, cachedData });
@@ -57,6 +60,36 @@ export function loadProgram(folder: string, cachedData: Buffer | undefined): Loa
   const programModule = { exports: {} };
   wrapper(programModule.exports, require, programModule, pathToFileURL(file).href);
   return { program: programModule.exports as BundledProgram, script };
+}
+
+/**
+ * V8's tier-up budget for the commands that solve. V8 sends a function to its optimising compiler
+ * (TurboFan) once the function has run some amount of bytecode, its interrupt budget (`--interrupt-budget`,
+ * 67,584 in V8 11.3, Node 20's). A command line process lives a fraction of a second: with that default,
+ * `date` on the Marktgasse example sends over a hundred functions to the optimising compiler, whose work
+ * on V8's helper threads (measured with Linux perf on a 2-core machine: about 100 ms of CPU for `date`,
+ * 500 ms for `report`, more than the main thread's own) takes the machine's cores from the main thread,
+ * mostly for code that the run then hardly uses. With the budget about 4.4 times larger, only what runs
+ * long is optimised (the helper threads' CPU: about 10 ms for `date`, 100 ms for `report`): `date` and
+ * `report` end about a third sooner on a 2-core machine, and long solves no later
+ * (bench/cli-startup.mjs, bench/solver-growth.mjs; docs/architecture.md). Every number is the same: V8
+ * computes the same floating-point results in every tier (ECMAScript fixes each operation's result).
+ */
+export const TIER_UP_BUDGET = 300_000;
+
+/** The commands that read a scene and fit it (the solver's work): they run with TIER_UP_BUDGET. */
+export const SCENE_COMMANDS: readonly string[] = ['date', 'check', 'measure', 'chart', 'report'];
+
+/**
+ * The V8 flags the program sets for itself before compiling (`v8.setFlagsFromString`) for a run of
+ * `command`, or null for V8's defaults: only for SCENE_COMMANDS (the others run too briefly to gain,
+ * and loading node:v8 costs a start about 2 ms) and only under V8 11 (Node 20), where the budget was
+ * measured; another V8 may weigh its budget otherwise. The code cache of a command is made by the build
+ * with the same flags (V8 refuses a cache made under other flags).
+ */
+export function tierUpFlags(v8Version: string, command: string | undefined): string | null {
+  if (command === undefined || !SCENE_COMMANDS.includes(command)) return null;
+  return /^11\./.test(v8Version) ? `--interrupt-budget=${TIER_UP_BUDGET}` : null;
 }
 
 /** The cached data for a run with these arguments, or undefined when there is none. */
@@ -75,6 +108,6 @@ export function cachedDataFor(folder: string, argv: readonly string[]): Buffer |
 
 if (require.main === module) {
   const argv = process.argv.slice(2);
-  const { program } = loadProgram(__dirname, cachedDataFor(__dirname, argv));
+  const { program } = loadProgram(__dirname, cachedDataFor(__dirname, argv), argv[0]);
   void program.runAsProgram(argv).then(program.endWhenWritten);
 }

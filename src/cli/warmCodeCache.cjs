@@ -13,7 +13,7 @@ const { join } = require('node:path');
 
 const [folder, name, ...args] = process.argv.slice(2);
 const { loadProgram, cacheFileName } = require(join(folder, 'heliochron.cjs'));
-const { program, script } = loadProgram(folder, undefined);
+const { program, script } = loadProgram(folder, undefined, args[0]);
 program.runAsProgram(args).then(() => {
   if (process.exitCode !== undefined && process.exitCode !== 0) {
     process.stderr.write(`heliochron ${args.join(' ')} ended with exit code ${process.exitCode}\n`);

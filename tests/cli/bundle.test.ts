@@ -83,7 +83,7 @@ describe('the code cache of the bundled command line', () => {
   const cacheTaken = (args: readonly string[]): string => {
     const script =
       `const b = require(${JSON.stringify(bin)}); const d = b.cachedDataFor(${JSON.stringify(folder)}, ${JSON.stringify(args)});` +
-      `console.log(d === undefined ? 'none' : String(!b.loadProgram(${JSON.stringify(folder)}, d).script.cachedDataRejected));`;
+      `console.log(d === undefined ? 'none' : String(!b.loadProgram(${JSON.stringify(folder)}, d, ${JSON.stringify(args[0])}).script.cachedDataRejected));`;
     const r = spawnSync(process.execPath, ['-e', script], { encoding: 'utf8', cwd: ROOT });
     expect(r.stderr).toBe('');
     return r.stdout.trim();
@@ -120,5 +120,39 @@ describe('the code cache of the bundled command line', () => {
     expect(r.status).toBe(0);
     expect(r.stderr).toBe('');
     expect(r.stdout).toBe(run(BIN, SUN).stdout);
+  });
+});
+
+describe("V8's tier-up budget of the commands that solve (src/cli/bin.ts, tierUpFlags)", () => {
+  // The bin's own export, as built (dist/bin, by the tests' global set-up).
+  const flagsFor = (v8Version: string, command: string | null): string => {
+    const script = `console.log(String(require(${JSON.stringify(BIN)}).tierUpFlags(${JSON.stringify(v8Version)}, ${command === null ? 'undefined' : JSON.stringify(command)})))`;
+    const r = spawnSync(process.execPath, ['-e', script], { encoding: 'utf8', cwd: ROOT });
+    expect(r.stderr).toBe('');
+    return r.stdout.trim();
+  };
+
+  it('is raised for the commands that read a scene, under the V8 of Node 20 only', () => {
+    // Node 20.20's V8 is 11.3.244 (process.versions.v8); the default budget there is 67,584 (`node --v8-options`).
+    for (const command of ['date', 'check', 'measure', 'chart', 'report']) expect(flagsFor('11.3.244.8-node.33', command)).toBe('--interrupt-budget=300000');
+    for (const command of ['sun', 'moon', 'calendar', 'desk', '--help', 'dates']) expect(flagsFor('11.3.244.8-node.33', command)).toBe('null');
+    expect(flagsFor('11.3.244.8-node.33', null)).toBe('null');
+    // Another V8 keeps its defaults (its budget may be weighed otherwise).
+    expect(flagsFor('12.4.254.21-node.33', 'date')).toBe('null');
+    expect(flagsFor('10.2.154.26-node.36', 'report')).toBe('null');
+  });
+
+  it('is taken by this Node: the bin prints nothing more, and its answer is the one of the same program run here with V8 defaults', async () => {
+    const args = ['date', 'examples/marktgasse-print.yaml', '--json'];
+    expect(process.versions.v8.startsWith('11.')).toBe(true); // the Node of this project (README: Node 20): the budget applies
+    const r = spawnSync(process.execPath, [BIN, ...args], { encoding: 'utf8', cwd: ROOT });
+    expect(r.status).toBe(0);
+    expect(r.stderr).toBe('');
+    const { main } = await import('../../src/cli/main.js');
+    let out = '';
+    const code = await main(args, { out: (t: string) => { out += t; }, err: () => undefined, errIsTerminal: false, cwd: ROOT });
+    expect(code).toBe(0);
+    expect(JSON.parse(r.stdout).candidates.length).toBeGreaterThan(0);
+    expect(r.stdout).toBe(out);
   });
 });
